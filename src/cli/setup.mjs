@@ -1,0 +1,117 @@
+// Shared steps of `npm start` and `npm test`. Node built-ins only at the top
+// level: this runs before dependencies are installed.
+import { spawn, spawnSync, execFileSync } from 'node:child_process';
+import { existsSync, statSync, readdirSync, readFileSync, writeFileSync, mkdirSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { join } from 'node:path';
+import { projectRoot } from './postgres.mjs';
+
+export function say(msg) {
+  process.stdout.write(`\x1b[1m[loopfold]\x1b[0m ${msg}\n`);
+}
+
+/** Installs dependencies when node_modules is missing or older than the lock file. */
+export function ensureDependencies() {
+  const lock = join(projectRoot, 'package-lock.json');
+  const marker = join(projectRoot, 'node_modules', '.package-lock.json');
+  const stale = !existsSync(marker) || (existsSync(lock) && statSync(lock).mtimeMs > statSync(marker).mtimeMs + 1000);
+  if (!stale) return;
+  say('installing dependencies (npm ci) …');
+  const r = spawnSync('npm', ['ci', '--no-audit', '--no-fund'], { cwd: projectRoot, stdio: 'inherit' });
+  if (r.status !== 0) throw new Error('npm ci failed');
+}
+
+/** Installs Debian packages that are missing (needs root; otherwise says what to install). */
+export function ensureDebianPackages(pkgs) {
+  const missing = pkgs.filter(({ binary }) => !existsSync(binary));
+  if (!missing.length) return;
+  const names = missing.map((p) => p.name);
+  if (process.getuid?.() !== 0) throw new Error(`missing system packages: ${names.join(', ')} (install them with apt-get as root)`);
+  say(`installing Debian packages: ${names.join(', ')} …`);
+  const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  execFileSync('apt-get', ['update', '-qq'], { stdio: 'inherit', env });
+  execFileSync('apt-get', ['install', '-y', '-qq', '--no-install-recommends', ...names], { stdio: 'inherit', env });
+}
+
+/** A development AUTH_SECRET kept in .loopfold/ so sessions survive restarts. */
+export function authSecret() {
+  if (process.env.AUTH_SECRET) return process.env.AUTH_SECRET;
+  const dir = join(projectRoot, '.loopfold');
+  mkdirSync(dir, { recursive: true });
+  const file = join(dir, 'auth-secret');
+  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('base64url'), { mode: 0o600 });
+  return readFileSync(file, 'utf8').trim();
+}
+
+export function bin(name) {
+  return join(projectRoot, 'node_modules', '.bin', name);
+}
+
+/** Runs a command to completion with inherited output; throws on failure. */
+export function run(cmd, args, env = {}) {
+  const r = spawnSync(cmd, args, { cwd: projectRoot, stdio: 'inherit', env: { ...process.env, ...env } });
+  if (r.status !== 0) throw new Error(`${cmd} ${args.join(' ')} failed (exit ${r.status})`);
+}
+
+export function migrate(databaseUrl) {
+  run(bin('sequelize-cli'), ['db:migrate'], { DATABASE_URL: databaseUrl });
+}
+
+export function seed(databaseUrl) {
+  run(bin('sequelize-cli'), ['db:seed:all'], { DATABASE_URL: databaseUrl });
+}
+
+function newestMtime(path) {
+  if (!existsSync(path)) return 0;
+  const st = statSync(path);
+  if (!st.isDirectory()) return st.mtimeMs;
+  let newest = st.mtimeMs;
+  for (const entry of readdirSync(path)) newest = Math.max(newest, newestMtime(join(path, entry)));
+  return newest;
+}
+
+/** Builds the server when any source is newer than the last build. */
+export function buildIfStale({ force = false } = {}) {
+  const entry = join(projectRoot, 'dist', 'server', 'entry.mjs');
+  const sources = ['src', 'public', 'astro.config.mjs', 'tailwind.config.mjs', 'auth.config.ts', 'package-lock.json'];
+  const newest = Math.max(...sources.map((s) => newestMtime(join(projectRoot, s))));
+  if (!force && existsSync(entry) && statSync(entry).mtimeMs > newest) return;
+  say('building the app (astro build) …');
+  run(bin('astro'), ['build'], { ASTRO_TELEMETRY_DISABLED: '1' });
+}
+
+/** Starts a long-running child that dies with this process. */
+export function startChild(name, cmd, args, env) {
+  const child = spawn(cmd, args, { cwd: projectRoot, stdio: ['ignore', 'inherit', 'inherit'], env: { ...process.env, ...env } });
+  child.on('exit', (code, signal) => {
+    if (!shuttingDown) {
+      say(`${name} stopped (${signal ?? code}); shutting down`);
+      shutdown(code ?? 1);
+    }
+  });
+  children.push(child);
+  return child;
+}
+
+const children = [];
+let shuttingDown = false;
+export function shutdown(code = 0) {
+  shuttingDown = true;
+  for (const c of children) c.kill('SIGTERM');
+  setTimeout(() => process.exit(code), 500);
+}
+for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => shutdown(0));
+
+export async function waitForHttp(url, timeoutMs = 30_000) {
+  const t0 = Date.now();
+  while (Date.now() - t0 < timeoutMs) {
+    try {
+      const res = await fetch(url);
+      if (res.ok) return;
+    } catch {
+      /* not up yet */
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);
+}

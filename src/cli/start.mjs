@@ -1,0 +1,52 @@
+// `npm start`: from a fresh clone to a seeded, running Loopfold.
+// Installs what is missing, starts PostgreSQL (unless DATABASE_URL points
+// elsewhere) and the local mail server (unless SMTP_HOST does), migrates,
+// seeds the demo scenario when the database is empty, builds and serves.
+import { say, ensureDependencies, authSecret, migrate, seed, buildIfStale, startChild, waitForHttp, shutdown } from './setup.mjs';
+import { startPostgres, ensureDatabase, databaseUrl } from './postgres.mjs';
+
+try {
+  ensureDependencies();
+
+  const env = { AUTH_SECRET: authSecret(), ASTRO_TELEMETRY_DISABLED: '1' };
+  if (process.env.DATABASE_URL) {
+    say('using the PostgreSQL server in DATABASE_URL');
+    env.DATABASE_URL = process.env.DATABASE_URL;
+  } else {
+    const pgBin = startPostgres();
+    ensureDatabase(pgBin, 'loopfold');
+    env.DATABASE_URL = databaseUrl('loopfold');
+  }
+  Object.assign(process.env, env);
+
+  if (!process.env.SMTP_HOST) {
+    const smtpPort = process.env.LOOPFOLD_SMTP_PORT ?? '2525';
+    env.SMTP_HOST = '127.0.0.1';
+    env.SMTP_PORT = smtpPort;
+    env.MAIL_DEV_INBOX = '1';
+    startChild('mail server', process.execPath, ['src/cli/mail-fake.mjs'], { LOOPFOLD_SMTP_PORT: smtpPort });
+  }
+
+  say('migrating the database …');
+  migrate(env.DATABASE_URL);
+  say('seeding the demo scenario (skipped when data exists) …');
+  seed(env.DATABASE_URL);
+  buildIfStale();
+
+  const host = process.env.HOST ?? 'localhost';
+  const port = process.env.PORT ?? '4321';
+  const appUrl = process.env.APP_URL ?? `http://${host === '0.0.0.0' ? 'localhost' : host}:${port}`;
+  env.APP_URL = appUrl;
+  startChild('app server', process.execPath, ['dist/server/entry.mjs'], { ...env, HOST: host, PORT: port });
+  await waitForHttp(`http://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitForHttp(`${appUrl}/api/health`, 5_000));
+
+  const { DEMO_LOGINS, DEMO_PASSWORD } = await import('../db/seed/demo-logins.mjs');
+  say(`Loopfold is running at ${appUrl}`);
+  say(`Sign in with one of these demo accounts (password "${DEMO_PASSWORD}"):`);
+  for (const l of DEMO_LOGINS) say(`  ${l.role.padEnd(9)} ${l.email}`);
+  if (env.MAIL_DEV_INBOX) say('Mail goes to the local mailbox: sign in as admin and open "Sent mail".');
+  say('Stop with Ctrl-C; stop PostgreSQL too with `npm run db:stop`.');
+} catch (err) {
+  console.error(`\n[loopfold] start failed: ${err.message}`);
+  shutdown(1);
+}

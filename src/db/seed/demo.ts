@@ -1,0 +1,73 @@
+import bcrypt from 'bcryptjs';
+import { sequelize, Organisation, Site, User, Setting } from '../../models';
+import { DEMO_LOGINS, DEMO_PASSWORD } from './demo-logins.mjs';
+import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF } from './scenario';
+
+/** Seeds the invented demo scenario into an empty database. */
+export async function seedDemo() {
+  const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
+  return sequelize.transaction(async (transaction) => {
+    const opts = { transaction };
+    await Setting.create(
+      {
+        operatorName: OPERATOR.name,
+        gs1CompanyPrefix: OPERATOR.gs1CompanyPrefix,
+        gs1PrefixLength: OPERATOR.gs1PrefixLength,
+        digitalLinkBase: process.env.APP_URL ?? 'http://localhost:4321',
+        timeZone: OPERATOR.timeZone,
+        currency: OPERATOR.currency,
+        taxRate: OPERATOR.taxRate,
+        mailSender: OPERATOR.mailSender,
+        returnInstructions: OPERATOR.returnInstructions,
+      },
+      opts,
+    );
+    const operator = await Organisation.create({ name: OPERATOR.name, kind: 'operator', contactEmail: OPERATOR.contactEmail }, opts);
+
+    const sitesByCode = new Map<string, Site>();
+    for (const d of [...DEPOTS.map((d) => ({ ...d, kind: 'depot' as const })), { ...REPAIR_SHOP, kind: 'repair' as const }]) {
+      const site = await Site.create(
+        { organisationId: operator.id, code: d.code, name: d.name, kind: d.kind, address: d.address, latitude: String(d.lat), longitude: String(d.lon) },
+        opts,
+      );
+      sitesByCode.set(d.code, site);
+    }
+
+    const customers = new Map<string, Organisation>();
+    for (const c of CUSTOMERS) {
+      const org = await Organisation.create(
+        { name: c.name, kind: 'customer', contactEmail: c.email, freeDays: c.freeDays, dailyRate: c.dailyRate, tripFee: c.tripFee, lostBinFee: c.lostBinFee, currency: OPERATOR.currency },
+        opts,
+      );
+      customers.set(c.name, org);
+      for (const s of c.sites) {
+        const site = await Site.create(
+          { organisationId: org.id, code: s.code, name: s.name, kind: 'customer', address: s.address, latitude: String(s.lat), longitude: String(s.lon) },
+          opts,
+        );
+        sitesByCode.set(s.code, site);
+      }
+    }
+
+    const firstCustomer = customers.get(CUSTOMERS[0]!.name)!;
+    for (const l of DEMO_LOGINS) {
+      await User.create(
+        {
+          email: l.email, name: l.name, passwordHash, role: l.role as 'admin',
+          organisationId: l.role === 'customer' ? firstCustomer.id : operator.id,
+          homeSiteId: l.role === 'yard' ? sitesByCode.get('DEP-RTM')!.id : null,
+          qualifiedInspector: l.role === 'yard',
+          lastSignInAt: null,
+        },
+        opts,
+      );
+    }
+    for (const s of EXTRA_STAFF) {
+      await User.create(
+        { email: s.email, name: s.name, passwordHash, role: s.role, organisationId: operator.id, homeSiteId: sitesByCode.get(s.homeDepot)!.id, qualifiedInspector: s.qualifiedInspector, lastSignInAt: null },
+        opts,
+      );
+    }
+    return { customers: customers.size, sites: sitesByCode.size, users: DEMO_LOGINS.length + EXTRA_STAFF.length };
+  });
+}

@@ -1,0 +1,85 @@
+// The invented demo scenario: a pool operator with three depots and six
+// customers in the Rhine–Scheldt area. Names are invented; coordinates are
+// plausible places so distances and the site picture make sense.
+
+export const OPERATOR = {
+  name: 'Northmere Bin Pool',
+  contactEmail: 'pool@northmere.example',
+  gs1CompanyPrefix: '9521234', // GS1 prefix range 952 is reserved for demonstrations
+  gs1PrefixLength: 7,
+  timeZone: 'Europe/Amsterdam',
+  currency: 'EUR',
+  taxRate: '0.2100',
+  mailSender: 'Northmere Bin Pool <pool@northmere.example>',
+  returnInstructions:
+    'Fold the empty bin flat, keep its lid and valve cap with it, and report it below as ready for collection. ' +
+    'Our haulier collects within three working days. Questions: +31 10 000 0000 (pool desk).',
+};
+
+export const DEPOTS = [
+  { code: 'DEP-RTM', name: 'Rotterdam Botlek depot', address: 'Welplaatweg 12, Rotterdam', lat: 51.8853, lon: 4.3047 },
+  { code: 'DEP-DUI', name: 'Duisburg Rheinhafen depot', address: 'Hafenstraße 40, Duisburg', lat: 51.453, lon: 6.74 },
+  { code: 'DEP-ANR', name: 'Antwerp Kallo depot', address: 'Sint-Jansweg 3, Kallo', lat: 51.26, lon: 4.289 },
+] as const;
+
+export const REPAIR_SHOP = { code: 'REP-VNO', name: 'Venlo bin repair shop', address: 'Industrieweg 9, Venlo', lat: 51.3704, lon: 6.1724 };
+
+export interface DemoCustomer {
+  name: string;
+  email: string;
+  freeDays: number;
+  dailyRate: string;
+  tripFee: string;
+  lostBinFee: string;
+  homeDepot: string;
+  sites: Array<{ code: string; name: string; address: string; lat: number; lon: number; role: 'filling' | 'receiving' }>;
+}
+
+export const CUSTOMERS: DemoCustomer[] = [
+  {
+    name: 'Halden Oils', email: 'orders@haldenoils.example', freeDays: 21, dailyRate: '1.60', tripFee: '24.00', lostBinFee: '780.00', homeDepot: 'DEP-RTM',
+    sites: [
+      { code: 'HAL-ZWD', name: 'Halden Oils — Zwijndrecht filling', address: 'Oostkade 5, Zwijndrecht', lat: 51.8176, lon: 4.6389, role: 'filling' },
+      { code: 'HAL-MDK', name: 'Halden Oils — Moerdijk blending', address: 'Middenweg 22, Moerdijk', lat: 51.6986, lon: 4.6236, role: 'receiving' },
+    ],
+  },
+  {
+    name: 'Brightwater Syrups', email: 'logistics@brightwater.example', freeDays: 14, dailyRate: '1.90', tripFee: '28.00', lostBinFee: '820.00', homeDepot: 'DEP-ANR',
+    sites: [
+      { code: 'BWS-GNT', name: 'Brightwater Syrups — Ghent plant', address: 'Kennedylaan 80, Ghent', lat: 51.0868, lon: 3.7337, role: 'filling' },
+      { code: 'BWS-EHV', name: 'Brightwater Syrups — Eindhoven bottling', address: 'Hurksestraat 14, Eindhoven', lat: 51.4466, lon: 5.4136, role: 'receiving' },
+    ],
+  },
+  {
+    name: 'Kestrel Coatings', email: 'supply@kestrelcoatings.example', freeDays: 30, dailyRate: '1.20', tripFee: '20.00', lostBinFee: '700.00', homeDepot: 'DEP-DUI',
+    sites: [
+      { code: 'KES-CGN', name: 'Kestrel Coatings — Cologne works', address: 'Niehler Damm 3, Cologne', lat: 50.9838, lon: 6.9662, role: 'filling' },
+      { code: 'KES-DTM', name: 'Kestrel Coatings — Dortmund mixing', address: 'Hafenweg 17, Dortmund', lat: 51.5312, lon: 7.4387, role: 'receiving' },
+    ],
+  },
+  {
+    name: 'Marlow Dairy Ingredients', email: 'planning@marlowdairy.example', freeDays: 14, dailyRate: '2.10', tripFee: '30.00', lostBinFee: '850.00', homeDepot: 'DEP-RTM',
+    sites: [
+      { code: 'MDI-LWD', name: 'Marlow Dairy — Leeuwarden creamery', address: 'Zuiderweg 51, Leeuwarden', lat: 53.1904, lon: 5.8148, role: 'filling' },
+    ],
+  },
+  {
+    name: 'Verdane Chemicals', email: 'ibc@verdane.example', freeDays: 21, dailyRate: '1.50', tripFee: '26.00', lostBinFee: '900.00', homeDepot: 'DEP-DUI',
+    sites: [
+      { code: 'VRD-LUH', name: 'Verdane Chemicals — Ludwigshafen site', address: 'Industriestraße 120, Ludwigshafen', lat: 49.5183, lon: 8.4092, role: 'filling' },
+      { code: 'VRD-GLN', name: 'Verdane Chemicals — Geleen unit', address: 'Koolweg 6, Geleen', lat: 50.9799, lon: 5.7917, role: 'receiving' },
+    ],
+  },
+  {
+    name: 'Ostby Fruit Concentrates', email: 'ops@ostbyfruit.example', freeDays: 21, dailyRate: '1.75', tripFee: '25.00', lostBinFee: '760.00', homeDepot: 'DEP-ANR',
+    sites: [
+      { code: 'OFC-RMD', name: 'Ostby Fruit — Roermond press house', address: 'Mijnheerkensweg 30, Roermond', lat: 51.1855, lon: 5.9818, role: 'filling' },
+    ],
+  },
+];
+
+/** Extra staff beside the four demo logins. */
+export const EXTRA_STAFF = [
+  { role: 'yard', email: 'yard.duisburg@northmere.example', name: 'Lena Vogt', homeDepot: 'DEP-DUI', qualifiedInspector: true },
+  { role: 'yard', email: 'yard.antwerp@northmere.example', name: 'Jef Claes', homeDepot: 'DEP-ANR', qualifiedInspector: false },
+] as const;

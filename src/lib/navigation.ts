@@ -1,0 +1,18 @@
+import { can, type Capability, type Role } from './permissions';
+import type { IconName } from './icons';
+
+export interface NavItem { href: string; label: string; icon: IconName; capability: Capability }
+
+/** Side navigation of the desktop shell, filtered by the viewer's role. */
+const NAV: NavItem[] = [
+  { href: '/yard', label: 'Yard', icon: 'scan', capability: 'home.yard' },
+  { href: '/portal', label: 'My bins', icon: 'home', capability: 'home.portal' },
+  { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
+  { href: '/admin/users', label: 'People', icon: 'users', capability: 'users.manage' },
+  { href: '/admin/settings', label: 'Settings', icon: 'settings', capability: 'settings.manage' },
+  { href: '/admin/mail', label: 'Sent mail', icon: 'mail', capability: 'mail.read' },
+];
+
+export function navFor(role: Role): NavItem[] {
+  return NAV.filter((n) => can(role, n.capability));
+}

@@ -1,0 +1,99 @@
+// Who may do what: the one role × capability table that every page and every
+// API route is checked against (middleware for paths, `endpoint()` for APIs).
+// Customer scoping (only their own organisation's rows) is applied in the data
+// layer on top of this; a capability here never widens what a customer sees.
+
+export const ROLES = ['admin', 'planner', 'yard', 'customer'] as const;
+export type Role = (typeof ROLES)[number];
+
+export const CAPABILITIES = {
+  'home.yard': ['yard'],
+  'home.portal': ['customer'],
+  'fleet.view': ['planner', 'admin'],
+  'bins.view': ['yard', 'planner', 'admin', 'customer'],
+  'bins.edit': ['planner', 'admin'],
+  'bins.import': ['planner', 'admin'],
+  'labels.print': ['planner', 'admin'],
+  'scan.record': ['yard', 'planner', 'admin', 'customer'],
+  'scan.correct': ['planner', 'admin'],
+  'trips.view': ['planner', 'admin'],
+  'loads.manage': ['yard', 'planner', 'admin'],
+  'requests.view': ['planner', 'admin'],
+  'liners.view': ['yard', 'planner', 'admin'],
+  'portal.view': ['customer'],
+  'users.manage': ['admin'],
+  'settings.manage': ['admin'],
+  'sites.manage': ['admin'],
+  'mail.read': ['admin'],
+  'audit.read': ['admin'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Capability = keyof typeof CAPABILITIES;
+
+export function isRole(value: unknown): value is Role {
+  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
+}
+
+export function can(role: Role | null | undefined, capability: Capability): boolean {
+  if (!role) return false;
+  return (CAPABILITIES[capability] as readonly Role[]).includes(role);
+}
+
+/** 'public' = anyone; 'signed-in' = any active user; otherwise a capability. */
+export type Access = 'public' | 'signed-in' | Capability;
+
+/**
+ * Path rules, most specific first; the first prefix that matches decides.
+ * A path no rule names needs a signed-in user (deny by default).
+ */
+export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]> = [
+  ['/login', 'public'],
+  ['/account/invite', 'public'],
+  ['/account/reset', 'public'],
+  ['/api/auth/', 'public'],
+  ['/api/health', 'public'],
+  ['/api/account/', 'public'],
+  ['/api/public/', 'public'],
+  ['/8003/', 'public'], // Digital Link resolver: the page itself decides what a visitor sees
+  ['/_astro/', 'public'],
+  ['/fonts/', 'public'],
+  ['/favicon', 'public'],
+  ['/robots.txt', 'public'],
+  ['/yard', 'home.yard'],
+  ['/portal', 'home.portal'],
+  ['/api/portal/', 'portal.view'],
+  ['/fleet', 'fleet.view'],
+  ['/api/fleet/', 'fleet.view'],
+  ['/trips', 'trips.view'],
+  ['/api/trips/', 'trips.view'],
+  ['/labels', 'labels.print'],
+  ['/api/labels/', 'labels.print'],
+  ['/requests', 'requests.view'],
+  ['/api/requests/', 'requests.view'],
+  ['/admin/mail', 'mail.read'],
+  ['/admin/users', 'users.manage'],
+  ['/api/admin/users', 'users.manage'],
+  ['/admin/settings', 'settings.manage'],
+  ['/api/admin/settings', 'settings.manage'],
+  ['/admin/sites', 'sites.manage'],
+  ['/api/admin/', 'settings.manage'],
+  ['/admin', 'users.manage'],
+  ['/bins', 'bins.view'],
+  ['/api/bins', 'bins.view'],
+  ['/api/scan-events', 'scan.record'],
+];
+
+export function accessFor(pathname: string): Access {
+  for (const [prefix, access] of PATH_RULES) {
+    if (pathname === prefix || pathname.startsWith(prefix)) return access;
+    if (prefix.endsWith('/') && pathname === prefix.slice(0, -1)) return access;
+  }
+  return 'signed-in';
+}
+
+export const HOME_BY_ROLE: Record<Role, string> = {
+  yard: '/yard',
+  planner: '/fleet',
+  admin: '/fleet',
+  customer: '/portal',
+};

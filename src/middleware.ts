@@ -1,0 +1,65 @@
+import { defineMiddleware } from 'astro:middleware';
+import { getSession } from 'auth-astro/server';
+import { accessFor, can } from './lib/permissions';
+import { loadSessionUser } from './lib/server/session-user';
+import { CLIENT_IP_HEADER, clientAddress } from './lib/server/client-ip';
+import { errorResponse } from './lib/server/respond';
+
+const STATIC_PREFIXES = ['/_astro/', '/fonts/', '/favicon', '/icons/', '/robots.txt', '/sw.js', '/manifest.webmanifest'];
+
+const SECURITY_HEADERS: Record<string, string> = {
+  'X-Content-Type-Options': 'nosniff',
+  'Referrer-Policy': 'same-origin',
+  'X-Frame-Options': 'DENY',
+  'Permissions-Policy': 'camera=(self), geolocation=(), microphone=()',
+};
+
+/**
+ * Every request passes here: the caller's address is pinned, the session is
+ * re-checked against the user row, and the path is guarded by the role ×
+ * capability table (src/lib/permissions.ts). Endpoints check again, finer.
+ */
+export const onRequest = defineMiddleware(async (ctx, next) => {
+  const path = ctx.url.pathname;
+  if (STATIC_PREFIXES.some((p) => path.startsWith(p))) return next();
+
+  let address = 'unknown';
+  try {
+    address = clientAddress(ctx.request, ctx.clientAddress);
+  } catch {
+    /* prerendered or no socket */
+  }
+  ctx.locals.clientAddress = address;
+  try {
+    ctx.request.headers.set(CLIENT_IP_HEADER, address);
+  } catch {
+    /* immutable headers: the sign-in limit falls back to 'unknown' */
+  }
+
+  ctx.locals.user = null;
+  if (!path.startsWith('/api/auth/')) {
+    const session = (await getSession(ctx.request)) as { uid?: unknown; role?: unknown } | null;
+    if (session) ctx.locals.user = await loadSessionUser(session.uid, session.role);
+  }
+
+  const access = accessFor(path);
+  const isApi = path.startsWith('/api/');
+  const user = ctx.locals.user;
+  if (access !== 'public') {
+    if (!user) {
+      if (isApi) return errorResponse('unauthenticated', 'Sign in first.');
+      const nextUrl = encodeURIComponent(path + ctx.url.search);
+      return ctx.redirect(`/login?next=${nextUrl}`, 303);
+    }
+    if (access !== 'signed-in' && !can(user.role, access)) {
+      if (isApi) return errorResponse('forbidden', 'Your role may not use this.');
+      return ctx.rewrite('/forbidden');
+    }
+  }
+
+  const response = await next();
+  for (const [k, v] of Object.entries(SECURITY_HEADERS)) {
+    if (!response.headers.has(k)) response.headers.set(k, v);
+  }
+  return response;
+});

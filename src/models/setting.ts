@@ -1,0 +1,36 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
+import { sequelize } from '../lib/server/db';
+
+/** Operator-wide settings (one row): GS1 identity, time zone for all day counts, money, mail sender. */
+export class Setting extends Model<InferAttributes<Setting>, InferCreationAttributes<Setting>> {
+  declare id: CreationOptional<number>;
+  declare operatorName: string;
+  declare gs1CompanyPrefix: string;
+  declare gs1PrefixLength: number;
+  declare digitalLinkBase: string;
+  declare timeZone: string;
+  declare currency: string;
+  declare taxRate: string;
+  declare mailSender: string;
+  declare returnInstructions: CreationOptional<string>;
+  declare version: CreationOptional<number>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+Setting.init(
+  {
+    id: { type: DataTypes.INTEGER, primaryKey: true, defaultValue: 1 },
+    operatorName: { type: DataTypes.STRING(160), allowNull: false },
+    gs1CompanyPrefix: { type: DataTypes.STRING(12), allowNull: false },
+    gs1PrefixLength: { type: DataTypes.INTEGER, allowNull: false },
+    digitalLinkBase: { type: DataTypes.STRING(200), allowNull: false },
+    timeZone: { type: DataTypes.STRING(64), allowNull: false },
+    currency: { type: DataTypes.CHAR(3), allowNull: false },
+    taxRate: { type: DataTypes.DECIMAL(5, 4), allowNull: false },
+    mailSender: { type: DataTypes.STRING(254), allowNull: false },
+    returnInstructions: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: 'settings', createdAt: false, version: true },
+);

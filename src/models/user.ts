@@ -1,0 +1,39 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
+import { sequelize } from '../lib/server/db';
+import type { Role } from '../lib/permissions';
+
+/** Someone who signs in. Invited users have no password until they follow their link. */
+export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {
+  declare id: CreationOptional<number>;
+  declare email: string;
+  declare name: string;
+  declare passwordHash: string | null;
+  declare role: Role;
+  declare organisationId: number;
+  declare homeSiteId: number | null;
+  declare qualifiedInspector: CreationOptional<boolean>;
+  declare active: CreationOptional<boolean>;
+  declare lastSignInAt: Date | null;
+  declare version: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+User.init(
+  {
+    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    email: { type: DataTypes.STRING(254), allowNull: false, unique: true },
+    name: { type: DataTypes.STRING(160), allowNull: false },
+    passwordHash: { type: DataTypes.STRING(100), allowNull: true },
+    role: { type: DataTypes.STRING(16), allowNull: false },
+    organisationId: { type: DataTypes.INTEGER, allowNull: false },
+    homeSiteId: { type: DataTypes.INTEGER, allowNull: true },
+    qualifiedInspector: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+    lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: 'users', version: true },
+);

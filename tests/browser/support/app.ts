@@ -1,0 +1,100 @@
+// Starts the built server (never `astro dev`: the origin check only runs in
+// the built server) on a free port against the e2e database, and drives
+// Debian's chromium through playwright-core.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { createServer } from 'node:net';
+import { mkdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+
+export const ROOT = new URL('../../../', import.meta.url).pathname;
+export const ARTIFACTS = join(ROOT, '.loopfold', 'artifacts');
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as { port: number };
+      srv.close(() => resolve(port));
+    });
+    srv.on('error', reject);
+  });
+}
+
+export interface RunningApp {
+  url: string;
+  port: number;
+  stop(): Promise<void>;
+  start(): Promise<void>;
+}
+
+async function waitHealthy(url: string, timeoutMs = 30_000) {
+  const t0 = Date.now();
+  while (Date.now() - t0 < timeoutMs) {
+    try {
+      const r = await fetch(`${url}/api/health`);
+      if (r.ok) return;
+    } catch {
+      /* starting */
+    }
+    await new Promise((r) => setTimeout(r, 150));
+  }
+  throw new Error(`app at ${url} did not become healthy`);
+}
+
+export async function startApp(extraEnv: Record<string, string> = {}): Promise<RunningApp> {
+  const port = await freePort();
+  const url = `http://localhost:${port}`;
+  let child: ChildProcess | null = null;
+  const app: RunningApp = {
+    url,
+    port,
+    async start() {
+      child = spawn(process.execPath, ['dist/server/entry.mjs'], {
+        cwd: ROOT,
+        env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), APP_URL: url, ...extraEnv },
+        stdio: ['ignore', 'ignore', 'inherit'],
+      });
+      await waitHealthy(url);
+    },
+    async stop() {
+      const c = child;
+      if (!c || c.exitCode !== null) return;
+      await new Promise<void>((resolve) => {
+        c.once('exit', () => resolve());
+        c.kill('SIGTERM');
+      });
+      child = null;
+    },
+  };
+  await app.start();
+  return app;
+}
+
+export async function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: '/usr/bin/chromium',
+    headless: true,
+    args: ['--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+  });
+}
+
+export const PHONE = { viewport: { width: 390, height: 844 }, deviceScaleFactor: 2, isMobile: true, hasTouch: true };
+export const DESKTOP = { viewport: { width: 1280, height: 860 } };
+
+export async function newContext(browser: Browser, app: RunningApp, kind: 'phone' | 'desktop' = 'desktop'): Promise<BrowserContext> {
+  return browser.newContext({ baseURL: app.url, ...(kind === 'phone' ? PHONE : DESKTOP) });
+}
+
+export async function signIn(page: Page, email: string, password: string) {
+  await page.goto('/login');
+  await page.fill('#email', email);
+  await page.fill('#password', password);
+  await page.click('#login-submit');
+}
+
+export async function screenshot(page: Page, name: string) {
+  const dir = join(ARTIFACTS, 'screenshots');
+  mkdirSync(dir, { recursive: true });
+  await page.screenshot({ path: join(dir, `${name}.png`), fullPage: true });
+}

@@ -1,0 +1,62 @@
+import { describe, test, expect } from 'vitest';
+import { accessFor, can, HOME_BY_ROLE, ROLES, CAPABILITIES } from '../../src/lib/permissions';
+import { safeNextPath } from '../../src/lib/safe-redirect';
+
+describe('role × capability table', () => {
+  test('customers reach their portal and bins, never the planner desk or admin', () => {
+    expect(can('customer', 'home.portal')).toBe(true);
+    expect(can('customer', 'bins.view')).toBe(true);
+    expect(can('customer', 'fleet.view')).toBe(false);
+    expect(can('customer', 'users.manage')).toBe(false);
+    expect(can('customer', 'scan.correct')).toBe(false);
+  });
+  test('only admins manage people and settings', () => {
+    for (const role of ROLES) {
+      expect(can(role, 'users.manage')).toBe(role === 'admin');
+      expect(can(role, 'settings.manage')).toBe(role === 'admin');
+    }
+  });
+  test('no role and an unknown role can do nothing', () => {
+    for (const cap of Object.keys(CAPABILITIES) as Array<keyof typeof CAPABILITIES>) {
+      expect(can(null, cap)).toBe(false);
+    }
+  });
+  test('every home is open to its own role', () => {
+    for (const role of ROLES) {
+      const access = accessFor(HOME_BY_ROLE[role]);
+      expect(access === 'signed-in' || can(role, access as keyof typeof CAPABILITIES)).toBe(true);
+    }
+  });
+});
+
+describe('path rules', () => {
+  test.each([
+    ['/login', 'public'],
+    ['/api/health', 'public'],
+    ['/8003/095212340000160001', 'public'],
+    ['/fleet', 'fleet.view'],
+    ['/fleet/grid', 'fleet.view'],
+    ['/yard', 'home.yard'],
+    ['/portal', 'home.portal'],
+    ['/admin/users', 'users.manage'],
+    ['/admin/mail', 'mail.read'],
+    ['/something-new', 'signed-in'],
+    ['/api/something-new', 'signed-in'],
+  ])('%s → %s', (path, access) => {
+    expect(accessFor(path)).toBe(access);
+  });
+  test('a path that only starts like a public one is not public', () => {
+    expect(accessFor('/loginx')).toBe('public'); // documented: prefix match; /login* pages are all sign-in pages
+    expect(accessFor('/fleetadmin')).toBe('fleet.view');
+  });
+});
+
+describe('post-sign-in destination', () => {
+  test.each([
+    ['/fleet', '/fleet'],
+    ['//evil.example/x', '/'],
+    ['https://evil.example', '/'],
+    ['/\\evil', '/'],
+    [null, '/'],
+  ])('%s → %s', (input, out) => expect(safeNextPath(input)).toBe(out));
+});
