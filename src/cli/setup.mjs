@@ -2,7 +2,7 @@
 // level: this runs before dependencies are installed.
 import { spawn, spawnSync, execFileSync } from 'node:child_process';
 import { existsSync, statSync, readdirSync, readFileSync, writeFileSync, mkdirSync } from 'node:fs';
-import { randomBytes } from 'node:crypto';
+import { randomBytes, createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { projectRoot } from './postgres.mjs';
 
@@ -10,15 +10,21 @@ export function say(msg) {
   process.stdout.write(`\x1b[1m[loopfold]\x1b[0m ${msg}\n`);
 }
 
-/** Installs dependencies when node_modules is missing or older than the lock file. */
+/**
+ * Installs dependencies when node_modules is missing or was installed from a
+ * different lock file (compared by content, so a fresh checkout's new file
+ * times do not trigger a reinstall).
+ */
 export function ensureDependencies() {
   const lock = join(projectRoot, 'package-lock.json');
-  const marker = join(projectRoot, 'node_modules', '.package-lock.json');
-  const stale = !existsSync(marker) || (existsSync(lock) && statSync(lock).mtimeMs > statSync(marker).mtimeMs + 1000);
-  if (!stale) return;
+  const stamp = join(projectRoot, 'node_modules', '.loopfold-lock-sha1');
+  const want = createHash('sha1').update(readFileSync(lock)).digest('hex');
+  const have = existsSync(stamp) ? readFileSync(stamp, 'utf8').trim() : '';
+  if (have === want && existsSync(join(projectRoot, 'node_modules', '.bin', 'astro'))) return;
   say('installing dependencies (npm ci) …');
   const r = spawnSync('npm', ['ci', '--no-audit', '--no-fund'], { cwd: projectRoot, stdio: 'inherit' });
   if (r.status !== 0) throw new Error('npm ci failed');
+  writeFileSync(stamp, want);
 }
 
 /** Installs Debian packages that are missing (needs root; otherwise says what to install). */
