@@ -60,6 +60,9 @@ try {
     if (suites.includes('integration')) migrate(testDb);
     if (suites.includes('browser')) {
       migrate(e2eDb);
+      // A smaller pool than `npm start` seeds (600 bins): the same generator and
+      // rules, fewer bins, so the browser suite's set-up stays quick.
+      process.env.DEMO_BINS ??= '200';
       seed(e2eDb);
     }
   });

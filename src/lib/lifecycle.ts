@@ -5,11 +5,11 @@
 
 export const STATUSES = ['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair', 'missing', 'retired'] as const;
 export const ACTIONS = ['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found'] as const;
-export const ROLES = ['admin', 'planner', 'yard', 'customer'] as const;
+import { ROLES, type Role } from './permissions';
+export { ROLES, type Role };
 
 export type Status = (typeof STATUSES)[number];
 export type Action = (typeof ACTIONS)[number];
-export type Role = (typeof ROLES)[number];
 export type Leg = 'outbound' | 'return' | 'transfer';
 export type SiteKind = 'depot' | 'customer' | 'repair' | 'recycling';
 
@@ -89,6 +89,29 @@ export const ACTION_LABELS: Record<Action, string> = {
   retire: 'Retire',
   mark_missing: 'Mark missing',
   mark_found: 'Mark found',
+};
+
+/**
+ * The status a skipped step would have left the bin in, recorded on inferred
+ * log entries so the timeline reads in order.
+ */
+export const INFERRED_STATUS: Record<Action, Status> = {
+  register: 'available',
+  receive: 'available',
+  prep_check: 'available',
+  fit_liner: 'prepared',
+  dispatch: 'in_transit',
+  deliver: 'on_hire',
+  fill_seal: 'on_hire',
+  discharge: 'on_hire',
+  fold: 'awaiting_collection',
+  collect: 'in_transit',
+  quarantine: 'quarantine',
+  send_to_repair: 'in_repair',
+  release: 'available',
+  retire: 'retired',
+  mark_missing: 'missing',
+  mark_found: 'available',
 };
 
 const SITE_KIND_WORDS: Record<SiteKind, string> = {

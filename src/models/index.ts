@@ -8,6 +8,17 @@ import { UserToken } from './user-token';
 import { Setting } from './setting';
 import { AuditEntry } from './audit-entry';
 import { MailMessage } from './mail-message';
+import { Attachment } from './attachment';
+import { BinType } from './bin-type';
+import { LinerLot } from './liner-lot';
+import { HireOrder } from './hire-order';
+import { Asset } from './asset';
+import { Trip } from './trip';
+import { ScanEvent } from './scan-event';
+import { ScanEventKey } from './scan-event-key';
+import { Inspection } from './inspection';
+import { CollectionRequest } from './collection-request';
+import { DamageReport } from './damage-report';
 
 Organisation.hasMany(Site, { foreignKey: 'organisationId', as: 'sites' });
 Site.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });
@@ -17,4 +28,41 @@ User.belongsTo(Site, { foreignKey: 'homeSiteId', as: 'homeSite' });
 UserToken.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 AuditEntry.belongsTo(User, { foreignKey: 'userId', as: 'user' });
 
-export { sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage };
+Asset.belongsTo(BinType, { foreignKey: 'binTypeId', as: 'binType' });
+Asset.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
+Asset.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
+Asset.belongsTo(Trip, { foreignKey: 'currentTripId', as: 'currentTrip', constraints: false });
+Asset.belongsTo(LinerLot, { foreignKey: 'linerLotId', as: 'linerLot' });
+Asset.hasMany(Trip, { foreignKey: 'assetId', as: 'trips' });
+Asset.hasMany(ScanEvent, { foreignKey: 'assetId', as: 'events' });
+Asset.hasMany(Inspection, { foreignKey: 'assetId', as: 'inspections' });
+
+Trip.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+Trip.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
+Trip.belongsTo(HireOrder, { foreignKey: 'hireOrderId', as: 'hireOrder' });
+Trip.belongsTo(Site, { foreignKey: 'depotSiteId', as: 'depotSite' });
+Trip.belongsTo(Site, { foreignKey: 'customerSiteId', as: 'customerSite' });
+Trip.belongsTo(Site, { foreignKey: 'closingSiteId', as: 'closingSite' });
+Trip.belongsTo(LinerLot, { foreignKey: 'linerLotId', as: 'linerLot' });
+
+ScanEvent.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+ScanEvent.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
+ScanEvent.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+ScanEvent.belongsTo(Trip, { foreignKey: 'tripId', as: 'trip' });
+
+Inspection.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+Inspection.belongsTo(User, { foreignKey: 'inspectorId', as: 'inspector' });
+LinerLot.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
+HireOrder.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
+HireOrder.belongsTo(Site, { foreignKey: 'deliverySiteId', as: 'deliverySite' });
+HireOrder.belongsTo(Site, { foreignKey: 'depotSiteId', as: 'depotSite' });
+HireOrder.belongsTo(BinType, { foreignKey: 'binTypeId', as: 'binType' });
+CollectionRequest.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
+CollectionRequest.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+CollectionRequest.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
+DamageReport.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+
+export {
+  sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage, Attachment, BinType, LinerLot,
+  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport,
+};

@@ -1,10 +1,18 @@
 import bcrypt from 'bcryptjs';
-import { sequelize, Organisation, Site, User, Setting } from '../../models';
+import { sequelize, Organisation, Site, User, Setting, BinType } from '../../models';
+import { generateHistory } from './history';
 import { DEMO_LOGINS, DEMO_PASSWORD } from './demo-logins.mjs';
-import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF } from './scenario';
+import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES } from './scenario';
 
-/** Seeds the invented demo scenario into an empty database. */
-export async function seedDemo() {
+/** Seeds the invented demo scenario into an empty database: who is who, then the pool's history. */
+export async function seedDemo(opts: { bins?: number; months?: number; now?: Date } = {}) {
+  const people = await seedPeopleAndPlaces();
+  for (const t of BIN_TYPES) await BinType.create(t);
+  const history = await generateHistory({ bins: opts.bins ?? Number(process.env.DEMO_BINS ?? 600), months: opts.months ?? 18, now: opts.now });
+  return { ...people, ...history };
+}
+
+async function seedPeopleAndPlaces() {
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
   return sequelize.transaction(async (transaction) => {
     const opts = { transaction };

@@ -83,3 +83,31 @@ export const EXTRA_STAFF = [
   { role: 'yard', email: 'yard.duisburg@northmere.example', name: 'Lena Vogt', homeDepot: 'DEP-DUI', qualifiedInspector: true },
   { role: 'yard', email: 'yard.antwerp@northmere.example', name: 'Jef Claes', homeDepot: 'DEP-ANR', qualifiedInspector: false },
 ] as const;
+
+/** What each customer fills (drives the fill records of the demo trips). */
+export const PRODUCTS: Record<string, string> = {
+  'Halden Oils': 'Rapeseed oil, refined',
+  'Brightwater Syrups': 'Glucose syrup 80 %',
+  'Kestrel Coatings': 'Water-based acrylic binder',
+  'Marlow Dairy Ingredients': 'Liquid milk permeate',
+  'Verdane Chemicals': 'Sodium hydroxide solution 25 %',
+  'Ostby Fruit Concentrates': 'Apple juice concentrate',
+};
+
+/** The two bin models of the demo pool (invented model names). */
+export const BIN_TYPES = [
+  {
+    code: 'FX1000', name: 'Foldaway 1000 — steel-framed, UN 31HA2', graiAssetType: '10010', nominalCapacityL: 1000, tareKg: '86.0', maxGrossKg: '1285.0',
+    footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1160, heightFoldedMm: 380, unCode: '31HA2', policyKind: 'un' as const, intermediateMonths: 30, fullMonths: 60,
+  },
+  {
+    code: 'FX1250', name: 'Foldaway 1250 — food-grade plastic walls', graiAssetType: '12510', nominalCapacityL: 1250, tareKg: '98.0', maxGrossKg: '1500.0',
+    footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1330, heightFoldedMm: 420, unCode: null, policyKind: 'own' as const, intermediateMonths: 24, fullMonths: 48,
+  },
+];
+
+/** Invented liner suppliers. */
+export const LINER_SUPPLIERS = [
+  { name: 'Polyvale Liners', prefix: 'PV', spec: 'PE/PA 1,000–1,250 L bag with 2" bottom valve, food grade' },
+  { name: 'Carrow Films', prefix: 'CF', spec: 'Multilayer PE 1,000 L bag, EVOH barrier, 2" valve' },
+];

@@ -29,3 +29,33 @@ export async function makeUser(role: Role, organisationId: number, extra: Partia
     lastSignInAt: null,
   });
 }
+
+import { BinType, LinerLot, HireOrder } from '../../../src/models';
+import { registerBin } from '../../../src/lib/server/bin-register';
+import { makeGrai } from '../../../src/lib/gs1';
+import { forgetSettings } from '../../../src/lib/server/settings';
+import type { Actor } from '../../../src/lib/server/scan-service';
+
+/** baseWorld plus a bin type, a liner lot, an open hire order and one user per role. */
+export async function poolWorld() {
+  forgetSettings();
+  const w = await baseWorld();
+  const binType = await BinType.create({
+    code: 'T1000', name: 'Test bin 1000 L', graiAssetType: '10010', nominalCapacityL: 1000, tareKg: '86', maxGrossKg: '1285',
+    footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1160, heightFoldedMm: 380, unCode: '31HA2',
+  });
+  const lot = await LinerLot.create({ supplier: 'Test Liners', lotNumber: 'TL-001', spec: 'PE bag', quantityReceived: 100, receivedOn: '2026-01-01', expiryDate: '2028-01-01', siteId: w.depot.id, certificateId: null, statusReason: null });
+  const order = await HireOrder.create({ reference: 'HO-TEST-1', customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, binTypeId: binType.id, quantity: 24, neededBy: '2026-12-10', product: 'Test oil', notes: null });
+  const planner = await makeUser('planner', w.operator.id);
+  const yard = await makeUser('yard', w.operator.id, { homeSiteId: w.depot.id });
+  const customerUser = await makeUser('customer', w.customer.id);
+  const actor = (u: typeof planner): Actor => ({ id: u.id, role: u.role, organisationId: u.organisationId, homeSiteId: u.homeSiteId });
+  return { ...w, binType, lot, order, planner: actor(planner), yard: actor(yard), customerUser: actor(customerUser) };
+}
+
+let serialCounter = 0;
+export async function newBin(w: Awaited<ReturnType<typeof poolWorld>>, extra: { manufactureMonth?: string; lastIntermediateTestMonth?: string } = {}) {
+  serialCounter += 1;
+  const grai = makeGrai('9529999', '10010', `T${String(serialCounter).padStart(5, '0')}`);
+  return registerBin(w.planner, { grai, binTypeId: w.binType.id, siteId: w.depot.id, manufactureMonth: extra.manufactureMonth ?? '2026-01', lastIntermediateTestMonth: extra.lastIntermediateTestMonth ?? null }, { now: new Date('2026-11-01T08:00:00Z') });
+}

@@ -1,0 +1,46 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
+import { sequelize } from '../lib/server/db';
+
+/** "Empties ready for collection" — from the public bin page, the customer portal or a planner. */
+export class CollectionRequest extends Model<InferAttributes<CollectionRequest>, InferCreationAttributes<CollectionRequest>> {
+  declare id: CreationOptional<number>;
+  declare source: 'public' | 'portal' | 'planner';
+  declare assetId: number | null;
+  declare siteId: number | null;
+  declare customerId: number | null;
+  declare quantity: number;
+  declare locationNote: string | null;
+  declare contactName: string | null;
+  declare contactPhone: string | null;
+  declare contactEmail: string | null;
+  declare note: string | null;
+  declare status: CreationOptional<'open' | 'scheduled' | 'done' | 'cancelled'>;
+  declare requestedBy: number | null;
+  declare requesterIp: string | null;
+  declare version: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+CollectionRequest.init(
+  {
+    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    source: { type: DataTypes.STRING(10), allowNull: false },
+    assetId: { type: DataTypes.INTEGER, allowNull: true },
+    siteId: { type: DataTypes.INTEGER, allowNull: true },
+    customerId: { type: DataTypes.INTEGER, allowNull: true },
+    quantity: { type: DataTypes.INTEGER, allowNull: false },
+    locationNote: { type: DataTypes.STRING(300), allowNull: true },
+    contactName: { type: DataTypes.STRING(120), allowNull: true },
+    contactPhone: { type: DataTypes.STRING(40), allowNull: true },
+    contactEmail: { type: DataTypes.STRING(254), allowNull: true },
+    note: { type: DataTypes.TEXT, allowNull: true },
+    status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'open' },
+    requestedBy: { type: DataTypes.INTEGER, allowNull: true },
+    requesterIp: { type: DataTypes.STRING(64), allowNull: true },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: 'collection_requests', version: true },
+);

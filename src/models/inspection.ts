@@ -1,0 +1,48 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
+import { sequelize } from '../lib/server/db';
+
+export type InspectionKind = 'prep_check' | 'intermediate' | 'full' | 'after_repair';
+
+/** A recorded check or periodic test of a bin and the due dates it sets. Evidence, not certification. */
+export class Inspection extends Model<InferAttributes<Inspection>, InferCreationAttributes<Inspection>> {
+  declare id: CreationOptional<number>;
+  declare assetId: number;
+  declare kind: InspectionKind;
+  declare performedOn: string;
+  declare inspectorId: number | null;
+  declare siteId: number | null;
+  declare checklist: CreationOptional<Record<string, unknown>>;
+  declare leakTestPressureKpa: string | null;
+  declare leakTestMinutes: string | null;
+  declare leakTestPassed: boolean | null;
+  declare outcome: 'pass' | 'repair' | 'fail';
+  declare nextIntermediateDue: string | null;
+  declare nextFullDue: string | null;
+  declare photoIds: CreationOptional<number[]>;
+  declare notes: string | null;
+  declare scanEventId: number | null;
+  declare createdAt: CreationOptional<Date>;
+}
+
+Inspection.init(
+  {
+    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    assetId: { type: DataTypes.INTEGER, allowNull: false },
+    kind: { type: DataTypes.STRING(16), allowNull: false },
+    performedOn: { type: DataTypes.DATEONLY, allowNull: false },
+    inspectorId: { type: DataTypes.INTEGER, allowNull: true },
+    siteId: { type: DataTypes.INTEGER, allowNull: true },
+    checklist: { type: DataTypes.JSONB, allowNull: false, defaultValue: {} },
+    leakTestPressureKpa: { type: DataTypes.DECIMAL(6, 1), allowNull: true },
+    leakTestMinutes: { type: DataTypes.DECIMAL(6, 1), allowNull: true },
+    leakTestPassed: { type: DataTypes.BOOLEAN, allowNull: true },
+    outcome: { type: DataTypes.STRING(8), allowNull: false },
+    nextIntermediateDue: { type: DataTypes.DATEONLY, allowNull: true },
+    nextFullDue: { type: DataTypes.DATEONLY, allowNull: true },
+    photoIds: { type: DataTypes.ARRAY(DataTypes.INTEGER), allowNull: false, defaultValue: [] },
+    notes: { type: DataTypes.TEXT, allowNull: true },
+    scanEventId: { type: DataTypes.BIGINT, allowNull: true },
+    createdAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: 'inspections', updatedAt: false },
+);

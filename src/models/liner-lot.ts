@@ -1,0 +1,40 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
+import { sequelize } from '../lib/server/db';
+
+/** A supplier's lot of single-use liners received at a depot. Stock on hand is derived, never stored. */
+export class LinerLot extends Model<InferAttributes<LinerLot>, InferCreationAttributes<LinerLot>> {
+  declare id: CreationOptional<number>;
+  declare supplier: string;
+  declare lotNumber: string;
+  declare spec: string;
+  declare quantityReceived: number;
+  declare receivedOn: string;
+  declare expiryDate: string;
+  declare status: CreationOptional<'released' | 'on_hold' | 'recalled'>;
+  declare siteId: number;
+  declare certificateId: number | null;
+  declare statusReason: string | null;
+  declare version: CreationOptional<number>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+}
+
+LinerLot.init(
+  {
+    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    supplier: { type: DataTypes.STRING(120), allowNull: false },
+    lotNumber: { type: DataTypes.STRING(40), allowNull: false },
+    spec: { type: DataTypes.STRING(160), allowNull: false },
+    quantityReceived: { type: DataTypes.INTEGER, allowNull: false },
+    receivedOn: { type: DataTypes.DATEONLY, allowNull: false },
+    expiryDate: { type: DataTypes.DATEONLY, allowNull: false },
+    status: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'released' },
+    siteId: { type: DataTypes.INTEGER, allowNull: false },
+    certificateId: { type: DataTypes.INTEGER, allowNull: true },
+    statusReason: { type: DataTypes.TEXT, allowNull: true },
+    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    createdAt: DataTypes.DATE,
+    updatedAt: DataTypes.DATE,
+  },
+  { sequelize, tableName: 'liner_lots', version: true },
+);

@@ -1,0 +1,27 @@
+import { endpoint, toErrorResponse } from '../../../lib/server/endpoint';
+import { scanRequestSchema } from '../../../lib/scan-schema';
+import { recordScanFromClient } from '../../../lib/server/scan-intake';
+import { dataResponse } from '../../../lib/server/respond';
+
+/**
+ * Record one scan, or a batch (offline sync). Each event carries a client id:
+ * a replay answers with the original result and records nothing twice.
+ * A batch answers per event, so one refusal does not hold back the rest.
+ */
+export const POST = endpoint({ capability: 'scan.record', body: scanRequestSchema }, async ({ user, body }) => {
+  if ('events' in body) {
+    const results = [];
+    for (const e of body.events) {
+      try {
+        results.push({ clientEventId: e.clientEventId, ok: true, outcome: await recordScanFromClient(user, e) });
+      } catch (err) {
+        const res = toErrorResponse(err);
+        const { error } = (await res.json()) as { error: unknown };
+        results.push({ clientEventId: e.clientEventId, ok: false, status: res.status, error });
+      }
+    }
+    return dataResponse({ results });
+  }
+  const outcome = await recordScanFromClient(user, body);
+  return dataResponse(outcome, outcome.replayed ? 200 : 201);
+});
