@@ -18,7 +18,7 @@ afterAll(async () => {
 const HOMES: Record<string, { path: string; heading: RegExp }> = {
   admin: { path: '/fleet', heading: /Pool overview/ },
   planner: { path: '/fleet', heading: /Pool overview/ },
-  yard: { path: '/yard', heading: /Yard/ },
+  yard: { path: '/yard', heading: /Scan a bin/ },
   customer: { path: '/portal', heading: /Bins on hire/ },
 };
 

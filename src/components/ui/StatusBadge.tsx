@@ -1,0 +1,16 @@
+import { Icon } from './Icon';
+import { STATUS_DISPLAY, TONE_CLASSES } from '../../lib/status-display';
+import type { Status } from '../../lib/lifecycle';
+
+export function StatusBadge({ status, size = 'sm' }: { status: Status; size?: 'sm' | 'lg' }) {
+  const d = STATUS_DISPLAY[status];
+  return (
+    <span
+      className={`inline-flex items-center gap-1.5 rounded-full border font-medium whitespace-nowrap ${TONE_CLASSES[d.tone]} ${size === 'lg' ? 'px-3 py-1 text-base' : 'px-2 py-0.5 text-sm'}`}
+      data-status={status}
+    >
+      <Icon name={d.icon} size={size === 'lg' ? 20 : 16} />
+      {d.label}
+    </span>
+  );
+}
