@@ -72,6 +72,10 @@ describe('invitation → set password → sign in', () => {
     expect(stored).toHaveLength(1);
     expect(stored[0]!.tokenHash).toBe(createHash('sha256').update(token).digest('hex'));
     expect(JSON.stringify(await sequelize.query('SELECT * FROM user_tokens'))).not.toContain(token);
+    // …nor in the app's copy of the mail
+    const outbox = await MailMessage.findByPk(mail.id);
+    expect(outbox!.textBody).not.toContain(token);
+    expect(outbox!.textBody).toContain('/account/invite?token=•••');
     // valid for 7 days
     const days = (stored[0]!.expiresAt.getTime() - Date.now()) / 86_400_000;
     expect(days).toBeGreaterThan(6.99);

@@ -42,6 +42,15 @@ describe('sending mail', () => {
     expect(row!.sentAt).toBeInstanceOf(Date);
   });
 
+  test('secrets reach the recipient but the outbox keeps them masked', async () => {
+    const token = 'abcdefghijklmnopqrstuvwxyz0123456789-_ABCDE';
+    const text = `Your link:\nhttp://x.example/account/invite?token=${token}\n`;
+    const outcome = await sendMail({ to: 'secret@test.example', subject: 'Link', text, kind: 'invite', secrets: [token] });
+    expect(smtp.lastTo('secret@test.example')!.parsed.text).toContain(token);
+    const row = await MailMessage.findByPk(outcome.id);
+    expect(row!.textBody).toBe('Your link:\nhttp://x.example/account/invite?token=•••\n');
+  });
+
   test('a server that does not answer: no exception, the row says failed with the reason', async () => {
     const port = await closedPort();
     const saved = process.env.SMTP_PORT;

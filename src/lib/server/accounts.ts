@@ -40,7 +40,7 @@ async function mailInvitation(user: User, token: string, expiresAt: Date, invite
     organisationName: org?.name ?? operatorName, operatorName, inviterName,
     link: accountLinkUrl(appUrl(), 'invite', token), expiresAt, timeZone,
   });
-  return sendMail({ to: user.email, ...content, kind: 'invite' });
+  return sendMail({ to: user.email, ...content, kind: 'invite', secrets: [token] });
 }
 
 /**
@@ -148,7 +148,7 @@ export async function requestPasswordReset(email: string, address: string): Prom
       recipientName: user.name, recipientEmail: user.email, operatorName,
       link: accountLinkUrl(appUrl(), 'reset', token), validForMinutes: RESET_LINK_MINUTES,
     });
-    const outcome = await sendMail({ to: user.email, ...content, kind: 'password_reset' });
+    const outcome = await sendMail({ to: user.email, ...content, kind: 'password_reset', secrets: [token] });
     return outcome.status === 'sent' ? 'sent' : 'mail_failed';
   })().catch((err: unknown): ResetDelivery => {
     console.error('[accounts] password reset request failed', err);

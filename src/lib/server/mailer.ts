@@ -7,6 +7,9 @@ import type { MailKind } from '../mail-templates';
 // (queued), handed to the SMTP server, then marked sent (with its Message-ID)
 // or failed (with the error). A dead mail server never breaks the request that
 // wanted to send: the caller gets the outcome and decides what to tell people.
+// Secrets in a message (one-time link tokens) go to the recipient only: the
+// outbox keeps the text with them masked, so reading the table (or the "Sent
+// mail" page) hands out no sign-ins.
 
 export interface OutgoingMail {
   to: string;
@@ -14,6 +17,15 @@ export interface OutgoingMail {
   text: string;
   html?: string;
   kind: MailKind;
+  /** Strings to mask in the recorded copy (they are sent as they are). */
+  secrets?: string[];
+}
+
+/** What a masked secret looks like in the outbox. */
+export const MASKED_SECRET = '•••';
+
+export function maskSecrets(text: string, secrets: readonly string[] = []): string {
+  return secrets.filter((s) => s.length >= 8).reduce((t, s) => t.split(s).join(MASKED_SECRET), text);
 }
 
 export interface MailOutcome {
@@ -49,7 +61,8 @@ function describe(err: unknown): string {
 
 export async function sendMail(mail: OutgoingMail): Promise<MailOutcome> {
   const row = await MailMessage.create({
-    toAddress: mail.to, subject: mail.subject.slice(0, 300), textBody: mail.text, kind: mail.kind, messageId: null, error: null, sentAt: null,
+    toAddress: mail.to, subject: mail.subject.slice(0, 300), textBody: maskSecrets(mail.text, mail.secrets), kind: mail.kind,
+    messageId: null, error: null, sentAt: null,
   });
   const fail = async (error: string): Promise<MailOutcome> => {
     await row.update({ status: 'failed', error });
