@@ -1,8 +1,8 @@
 // People who sign in, as the admin "People" page and its API see them: the row
 // shape, what their status is, and which combinations of role, organisation,
-// home depot and inspector flag make sense. Pure; shared by server and island.
-import { z } from 'zod';
-import { ROLES, type Role } from './permissions';
+// home depot and inspector flag make sense. Pure and free of zod, so the
+// island that shows people stays small; input schemas are in people-schemas.ts.
+import type { Role } from './permissions';
 
 export const ROLE_LABELS: Record<Role, string> = {
   admin: 'Administrator',
@@ -83,35 +83,6 @@ export function assignmentProblems(a: Assignment): FieldProblem[] {
   if (a.qualifiedInspector && !staff) out.push({ path: 'qualifiedInspector', message: 'Only operator staff can be qualified inspectors.' });
   return out;
 }
-
-const roleSchema = z.enum(ROLES);
-const idSchema = z.number().int().positive();
-
-export const inviteSchema = z.object({
-  name: z.string().trim().min(1, 'Enter the person’s name.').max(160),
-  email: z.string().trim().toLowerCase().email('Enter an e-mail address, like name@company.example.').max(254),
-  role: roleSchema,
-  organisationId: idSchema,
-  homeSiteId: idSchema.nullable().default(null),
-  qualifiedInspector: z.boolean().default(false),
-});
-export type InviteInput = z.infer<typeof inviteSchema>;
-
-export const personPatchSchema = z
-  .object({
-    version: z.number().int().min(0),
-    role: roleSchema.optional(),
-    homeSiteId: idSchema.nullable().optional(),
-    qualifiedInspector: z.boolean().optional(),
-    active: z.boolean().optional(),
-  })
-  .refine((p) => p.role !== undefined || p.homeSiteId !== undefined || p.qualifiedInspector !== undefined || p.active !== undefined, {
-    message: 'Nothing to change.',
-  });
-export type PersonPatch = z.infer<typeof personPatchSchema>;
-
-/** `[id]` in a route path. */
-export const idParamSchema = z.coerce.number().int().positive().max(2_147_483_647);
 
 /** The choices the invite and edit forms offer. */
 export interface PeopleChoices {

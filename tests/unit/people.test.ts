@@ -1,5 +1,6 @@
 import { describe, test, expect } from 'vitest';
-import { assignmentProblems, personStatus, inviteSchema, personPatchSchema, idParamSchema } from '../../src/lib/people';
+import { assignmentProblems, personStatus } from '../../src/lib/people';
+import { inviteSchema, personPatchSchema, idParamSchema } from '../../src/lib/people-schemas';
 
 const depot = { kind: 'depot', operatorOwned: true };
 

@@ -6,7 +6,8 @@ import {
   accountLinkUrl, linkProblemMessage, passwordProblem, RESET_LINK_MINUTES, type LinkPurpose,
 } from '../account-rules';
 import { inviteMail, passwordResetMail } from '../mail-templates';
-import { ROLE_LABELS, type InviteInput, type PersonRow } from '../people';
+import { ROLE_LABELS, type PersonRow } from '../people';
+import type { InviteInput } from '../people-schemas';
 import { recordAudit, type AuditActor } from './audit';
 import { sendMail, type MailOutcome } from './mailer';
 import { checkAssignment, personById, userSnapshot } from './people';

@@ -1,5 +1,5 @@
 import { endpoint } from '../../../../lib/server/endpoint';
-import { idParamSchema, personPatchSchema } from '../../../../lib/people';
+import { idParamSchema, personPatchSchema } from '../../../../lib/people-schemas';
 import { updatePerson } from '../../../../lib/server/people';
 import { actorFrom } from '../../../../lib/server/audit';
 

@@ -1,5 +1,5 @@
 import { endpoint } from '../../../../lib/server/endpoint';
-import { inviteSchema } from '../../../../lib/people';
+import { inviteSchema } from '../../../../lib/people-schemas';
 import { listPeople } from '../../../../lib/server/people';
 import { invitePerson } from '../../../../lib/server/accounts';
 import { actorFrom } from '../../../../lib/server/audit';

@@ -1,5 +1,5 @@
 import { endpoint } from '../../../../../lib/server/endpoint';
-import { idParamSchema } from '../../../../../lib/people';
+import { idParamSchema } from '../../../../../lib/people-schemas';
 import { resendInvitation } from '../../../../../lib/server/accounts';
 import { actorFrom } from '../../../../../lib/server/audit';
 
