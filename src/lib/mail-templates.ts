@@ -73,3 +73,9 @@ export function passwordResetMail(i: ResetMailInput): MailContent {
     ...signature(i.operatorName),
   ]);
 }
+
+/** How each kind is named on the "Sent mail" page. */
+export const MAIL_KIND_LABELS: Record<MailKind, string> = {
+  invite: 'Invitation',
+  password_reset: 'Password reset',
+};
