@@ -32,6 +32,16 @@ export const signInLimits = {
 /** Public forms on the Digital Link page: 5 reports per address per hour. */
 export const publicFormLimit = () => get('public-form', () => limiter('public_form', 5, 60 * 60));
 
+/**
+ * "Forgotten password" requests: 10 per address in 15 minutes (answered with a
+ * 429), and at most 3 links per e-mail address an hour (further requests get
+ * the usual answer but no mail, so nobody can flood someone's inbox).
+ */
+export const passwordResetLimits = {
+  address: () => get('reset-address', () => limiter('reset_ip', 10, 15 * 60)),
+  account: () => get('reset-account', () => limiter('reset_acct', 3, 60 * 60)),
+};
+
 /** Seconds until the key may try again, or 0 when it is not blocked. */
 export async function secondsBlocked(l: RateLimiterPostgres, key: string): Promise<number> {
   const res = await l.get(key);

@@ -1,0 +1,87 @@
+// What an admin may set in the operator-wide settings, validated in one place
+// (the API route parses with it; the database's checks are the last line).
+import { z } from 'zod';
+import { IANAZone } from 'luxon';
+
+/** "Name <address>" or a bare address; null when it is neither. */
+export function parseMailbox(value: string): { name: string | null; address: string } | null {
+  const v = value.trim();
+  const named = /^"?([^"<>]*?)"?\s*<([^<>\s]+)>$/.exec(v);
+  const name = named ? named[1]!.trim() || null : null;
+  const address = named ? named[2]! : v;
+  if (!z.string().email().safeParse(address).success) return null;
+  if (name && /[\r\n]/.test(name)) return null;
+  return { name, address };
+}
+
+/** An IANA zone name in its canonical spelling ("europe/amsterdam" → "Europe/Amsterdam"), or null. */
+export function canonicalTimeZone(value: string): string | null {
+  const v = value.trim();
+  if (!IANAZone.isValidZone(v)) return null;
+  const resolved = new Intl.DateTimeFormat('en', { timeZone: v }).resolvedOptions().timeZone;
+  // Keep what was typed when the runtime maps it to another zone ("EST" → an American city):
+  // only the spelling is corrected.
+  return resolved.toLowerCase() === v.toLowerCase() ? resolved : v;
+}
+
+const CURRENCIES = new Set(Intl.supportedValuesOf('currency'));
+
+export const settingsSchema = z
+  .object({
+    version: z.number().int().min(0),
+    operatorName: z.string().trim().min(1, 'Enter the operator’s name.').max(160),
+    gs1CompanyPrefix: z.string().trim().regex(/^\d{4,12}$/, 'A GS1 company prefix is 4 to 12 digits.'),
+    gs1PrefixLength: z.number().int().min(4, 'Between 4 and 12.').max(12, 'Between 4 and 12.'),
+    digitalLinkBase: z
+      .string()
+      .trim()
+      .max(200)
+      .refine((v) => {
+        try {
+          const u = new URL(v);
+          return (u.protocol === 'https:' || u.protocol === 'http:') && !u.search && !u.hash && !u.username;
+        } catch {
+          return false;
+        }
+      }, 'Enter a web address starting with https:// (no ?query or #part), e.g. https://id.pool.example')
+      .transform((v) => v.replace(/\/+$/, '')),
+    timeZone: z
+      .string()
+      .transform((v, ctx) => {
+        const zone = canonicalTimeZone(v);
+        if (!zone) {
+          ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'Not a time zone name. Use an IANA name such as Europe/Amsterdam.' });
+          return z.NEVER;
+        }
+        return zone;
+      }),
+    currency: z
+      .string()
+      .trim()
+      .toUpperCase()
+      .refine((v) => /^[A-Z]{3}$/.test(v) && CURRENCIES.has(v), 'Use a three-letter ISO 4217 currency code, e.g. EUR.'),
+    taxRate: z.string().trim().regex(/^0(\.\d{1,4})?$/, 'A fraction from 0 to 0.9999, e.g. 0.21 for 21 %.'),
+    mailSender: z
+      .string()
+      .trim()
+      .max(254)
+      .refine((v) => parseMailbox(v) !== null, 'An e-mail address, optionally with a name: Pool desk <pool@company.example>'),
+    returnInstructions: z.string().trim().max(2000, 'Keep it under 2,000 characters.'),
+  })
+  .superRefine((v, ctx) => {
+    if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {
+      ctx.addIssue({
+        code: z.ZodIssueCode.custom,
+        path: ['gs1PrefixLength'],
+        message: `The prefix has ${v.gs1CompanyPrefix.length} digits; its length must say the same.`,
+      });
+    }
+  });
+
+export type SettingsInput = z.infer<typeof settingsSchema>;
+
+/** The settings as the page and API show them. */
+export interface SettingsView extends Omit<SettingsInput, 'version'> {
+  version: number;
+  updatedAt: string;
+}

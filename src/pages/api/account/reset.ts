@@ -1,0 +1,11 @@
+import type { z } from 'zod';
+import { endpoint } from '../../../lib/server/endpoint';
+import { RESET_REQUEST_ANSWER, resetRequestSchema } from '../../../lib/account-rules';
+import { requestPasswordReset } from '../../../lib/server/accounts';
+
+/** "Forgotten password": the same answer whether or not the account exists; the mail goes out after the answer. */
+// Public routes name all three type arguments: `Pub = true` admits capability 'public'.
+export const POST = endpoint<typeof resetRequestSchema, z.ZodUndefined, true>({ capability: 'public', body: resetRequestSchema, status: 202 }, async ({ ctx, body }) => {
+  await requestPasswordReset(body.email, ctx.locals.clientAddress);
+  return { message: RESET_REQUEST_ANSWER };
+});

@@ -1,0 +1,11 @@
+import { endpoint } from '../../../lib/server/endpoint';
+import { settingsSchema } from '../../../lib/settings-schema';
+import { readSettings, updateSettings } from '../../../lib/server/settings';
+import { actorFrom } from '../../../lib/server/audit';
+
+export const GET = endpoint({ capability: 'settings.manage' }, async () => ({ settings: await readSettings() }));
+
+/** Save the whole form; `version` must be the one the form was loaded with (else 409 changed_meanwhile). */
+export const PUT = endpoint({ capability: 'settings.manage', body: settingsSchema }, async ({ ctx, body }) => ({
+  settings: await updateSettings(body, actorFrom(ctx.locals)),
+}));
