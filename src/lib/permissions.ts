@@ -59,6 +59,9 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/fonts/', 'public'],
   ['/favicon', 'public'],
   ['/robots.txt', 'public'],
+  ['/loads/confirm/', 'public'], // the receiving end confirms delivery through the link on the dispatch note
+  ['/loads', 'loads.manage'],
+  ['/api/loads', 'loads.manage'],
   ['/yard', 'home.yard'],
   ['/portal', 'home.portal'],
   ['/api/portal/', 'portal.view'],

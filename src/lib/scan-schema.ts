@@ -22,7 +22,7 @@ export const scanEventSchema = z
     linerLotId: z.number().int().positive().optional(),
     purpose: z.enum(['hire', 'transfer']).optional(),
     hireOrderId: z.number().int().positive().optional(),
-    loadId: z.string().trim().max(64).optional(),
+    loadId: z.number().int().positive().optional(),
     fill: z
       .object({
         product: z.string().trim().min(1).max(120),

@@ -19,6 +19,7 @@ import { ScanEventKey } from './scan-event-key';
 import { Inspection } from './inspection';
 import { CollectionRequest } from './collection-request';
 import { DamageReport } from './damage-report';
+import { Load } from './load';
 
 Organisation.hasMany(Site, { foreignKey: 'organisationId', as: 'sites' });
 Site.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });
@@ -61,8 +62,12 @@ CollectionRequest.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
 CollectionRequest.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
 CollectionRequest.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
 DamageReport.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+Load.belongsTo(HireOrder, { foreignKey: 'hireOrderId', as: 'hireOrder' });
+Load.belongsTo(Site, { foreignKey: 'depotSiteId', as: 'depotSite' });
+Load.belongsTo(Site, { foreignKey: 'destinationSiteId', as: 'destinationSite' });
+Trip.belongsTo(Load, { foreignKey: 'loadId', as: 'load' });
 
 export {
   sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage, Attachment, BinType, LinerLot,
-  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport,
+  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport, Load,
 };

@@ -6,6 +6,7 @@ export class Trip extends Model<InferAttributes<Trip>, InferCreationAttributes<T
   declare id: CreationOptional<number>;
   declare assetId: number;
   declare hireOrderId: number | null;
+  declare loadId: CreationOptional<number | null>;
   declare customerId: number;
   declare depotSiteId: number;
   declare customerSiteId: number | null;
@@ -36,6 +37,7 @@ Trip.init(
     id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
     assetId: { type: DataTypes.INTEGER, allowNull: false },
     hireOrderId: { type: DataTypes.INTEGER, allowNull: true },
+    loadId: { type: DataTypes.INTEGER, allowNull: true },
     customerId: { type: DataTypes.INTEGER, allowNull: false },
     depotSiteId: { type: DataTypes.INTEGER, allowNull: false },
     customerSiteId: { type: DataTypes.INTEGER, allowNull: true },

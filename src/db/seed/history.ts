@@ -69,7 +69,7 @@ export async function generateHistory(opts: { bins: number; months: number; now?
 
   // Each bin lives its own cycles; a few at a time so the two cores stay busy.
   const queue = [...plans];
-  const workers = Array.from({ length: 10 }, async () => {
+  const workers = Array.from({ length: 4 }, async () => {
     for (let p = queue.shift(); p; p = queue.shift()) await liveBin(world, p.asset, p.depot, p.joined);
   });
   await Promise.all(workers);
@@ -236,7 +236,7 @@ async function liveBin(world: World, bin: Asset, homeDepot: Site, joined: Date) 
     const customer = rnd.chance(0.75) ? rnd.pick(world.customers.filter((c) => c.homeDepot.id === depot.id).concat(world.customers)) : rnd.pick(world.customers);
     later(0, 4);
     const order = await orderFor(world, customer, depot, binType, new Date(t));
-    if (!(await scan(yard, { action: 'dispatch', siteId: depot.id, purpose: 'hire', hireOrderId: order.id, loadId: `LOAD-${order.reference}` }, t))) return;
+    if (!(await scan(yard, { action: 'dispatch', siteId: depot.id, purpose: 'hire', hireOrderId: order.id }, t))) return;
 
     const driver = world.yardByDepot.get(customer.homeDepot.id)!;
     const customerActor = world.customerActor.get(customer.org.id) ?? world.planner;

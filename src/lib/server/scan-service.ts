@@ -39,7 +39,8 @@ export interface ScanInput {
   linerLotId?: number;
   purpose?: 'hire' | 'transfer';
   hireOrderId?: number;
-  loadId?: string;
+  /** The load (truck) a dispatched bin goes out on. */
+  loadId?: number;
   fill?: FillRecord;
   sealsVerified?: string[];
   note?: string;
@@ -61,7 +62,10 @@ export interface ScanOutcome {
 }
 
 /** Who is scanning (a SessionUser, or the demo generator acting as one). */
-export type Actor = Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId'>;
+export type Actor = Omit<Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId'>, 'id'> & {
+  /** null when nobody signed in: the receiving end confirming a delivery through its link. */
+  id: number | null;
+};
 
 interface Options {
   now?: Date;
@@ -153,7 +157,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     purpose: input.purpose,
   });
   if (!decision.ok) throw refusal(decision);
-  const order = await checkActionInputs(asset, input, today, t);
+  const { order, lotNumber } = await checkActionInputs(asset, input, today, t);
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
   const flags = [...decision.flags];
@@ -163,7 +167,8 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     step, new Date(occurredAt.getTime() - decision.inferred.length + i), null, null, INFERRED_STATUS[step], true, true,
     JSON.stringify({ inferredBy: input.clientEventId }),
   ]);
-  rows.push([input.action, occurredAt, input.clientEventId, asset.status, decision.to, false, flags.length > 0, JSON.stringify(eventPayload(input, decision, flags))]);
+  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}) };
+  rows.push([input.action, occurredAt, input.clientEventId, asset.status, decision.to, false, flags.length > 0, JSON.stringify({ ...eventPayload(input, decision, flags), ...named })]);
   const bind: unknown[] = [asset.id, site?.id ?? null, actor.id, eventTripId];
   const values = rows.map((r) => {
     const base = bind.length;
@@ -218,13 +223,15 @@ async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise
 interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number }
 
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
-async function checkActionInputs(asset: AssetRow, input: ScanInput, today: string, t: Transaction): Promise<OrderRow | null> {
+async function checkActionInputs(asset: AssetRow, input: ScanInput, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+  let lotNumber: string | null = null;
   if (input.action === 'fit_liner') {
     const lot = await one<{ status: 'released' | 'on_hold' | 'recalled'; expiry_date: string; lot_number: string }>(
       'SELECT status, expiry_date, lot_number FROM liner_lots WHERE id = $1', [input.linerLotId], t);
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
     const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiry_date, lotNumber: lot.lot_number }, today);
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
+    lotNumber = lot.lot_number;
   }
   if (input.action === 'fill_seal' && !input.fill) {
     throw new AppError('validation_failed', 'Record the product, the quantity and the seal numbers.');
@@ -233,7 +240,7 @@ async function checkActionInputs(asset: AssetRow, input: ScanInput, today: strin
     if (input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire') {
       throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: 'dispatch' });
     }
-    return null;
+    return { order: null, lotNumber };
   }
   const order = await one<OrderRow>(
     'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id FROM hire_orders WHERE id = $1', [input.hireOrderId], t);
@@ -244,7 +251,7 @@ async function checkActionInputs(asset: AssetRow, input: ScanInput, today: strin
     const type = await one<{ name: string }>('SELECT name FROM bin_types WHERE id = $1', [order.bin_type_id], t);
     throw new AppError('transition_refused', `Hire order ${order.reference} asks for ${type?.name ?? 'another bin type'}; this bin is a different type.`, { reason: 'wrong_bin_type', action: input.action });
   }
-  return order;
+  return { order, lotNumber };
 }
 
 /** Opens, updates or closes the bin's trip; returns the id of the trip the event belongs to. */
@@ -254,11 +261,12 @@ async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, in
     const customerId = order?.customer_id ?? (site?.kind === 'customer' ? site.organisation_id : null);
     if (!customerId) throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: input.action });
     const created = await one<{ id: number }>(
-      `INSERT INTO trips (asset_id, hire_order_id, customer_id, depot_site_id, customer_site_id, liner_lot_id, dispatched_at, delivered_at)
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8) RETURNING id`,
+      `INSERT INTO trips (asset_id, hire_order_id, customer_id, depot_site_id, customer_site_id, liner_lot_id, dispatched_at, delivered_at, load_id)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id`,
       [
         asset.id, order?.id ?? null, customerId, asset.site_id ?? order?.depot_site_id ?? site!.id,
         site?.kind === 'customer' ? site.id : (order?.delivery_site_id ?? null), asset.liner_lot_id, at, input.action === 'deliver' ? at : null,
+        input.loadId ?? null,
       ],
       t,
     );

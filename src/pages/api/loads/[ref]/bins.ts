@@ -1,0 +1,29 @@
+import { z } from 'zod';
+import { endpoint } from '../../../../lib/server/endpoint';
+import { addBinToLoad } from '../../../../lib/server/load-service';
+import { findBin } from '../../../../lib/server/bin-lookup';
+import { Load } from '../../../../models';
+import { AppError } from '../../../../lib/api-errors';
+
+const body = z
+  .object({
+    clientEventId: z.string().uuid(),
+    grai: z.string().trim().min(1).max(300).optional(),
+    assetId: z.number().int().positive().optional(),
+    occurredAt: z.string().datetime({ offset: true }).optional(),
+  })
+  .strict()
+  .refine((b) => b.grai !== undefined || b.assetId !== undefined, { message: 'Say which bin: grai or assetId' });
+
+/** One bin onto the truck (a dispatch scan on the load's order). */
+export const POST = endpoint({ capability: 'loads.manage', body, status: 201 }, async ({ ctx, user, body }) => {
+  const load = await Load.findOne({ where: { reference: ctx.params.ref ?? '' }, attributes: ['id'] });
+  if (!load) throw new AppError('not_found', 'No such load.');
+  let assetId = body.assetId;
+  if (assetId === undefined) {
+    const found = await findBin(body.grai!, user);
+    if (found.kind !== 'found') throw new AppError('not_found', found.kind === 'none' ? found.message : 'Several bins have that serial; scan the label or type the GRAI.');
+    assetId = found.assetId;
+  }
+  return addBinToLoad(user, load.id, { clientEventId: body.clientEventId, assetId, occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined });
+});

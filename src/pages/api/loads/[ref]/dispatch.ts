@@ -1,0 +1,22 @@
+import { z } from 'zod';
+import { endpoint } from '../../../../lib/server/endpoint';
+import { dispatchLoad } from '../../../../lib/server/load-service';
+import { Load } from '../../../../models';
+import { AppError } from '../../../../lib/api-errors';
+
+const body = z
+  .object({
+    carrier: z.string().trim().min(2, 'Name the carrier.').max(120),
+    vehicleRegistration: z.string().trim().min(2, 'Give the vehicle registration.').max(20).regex(/^[A-Za-z0-9 \-]+$/, 'Registrations use letters, digits, spaces and hyphens.'),
+    driverName: z.string().trim().max(120).optional(),
+    trailerSeals: z.array(z.string().trim().min(1).max(32)).max(6).default([]),
+  })
+  .strict();
+
+/** The truck leaves: record the carrier's details; the dispatch note can be printed. */
+export const POST = endpoint({ capability: 'loads.manage', body }, async ({ ctx, body }) => {
+  const load = await Load.findOne({ where: { reference: ctx.params.ref ?? '' }, attributes: ['id'] });
+  if (!load) throw new AppError('not_found', 'No such load.');
+  const done = await dispatchLoad(load.id, body);
+  return { reference: done.reference, status: done.status };
+});

@@ -1,0 +1,36 @@
+import type { APIRoute } from 'astro';
+import { z } from 'zod';
+import { confirmDelivery, loadFromToken } from '../../../../lib/server/load-service';
+import { formFile, readForm, storeAttachment } from '../../../../lib/server/attachments';
+import { publicFormLimit, hit } from '../../../../lib/server/rate-limits';
+import { dataResponse, errorResponse } from '../../../../lib/server/respond';
+import { toErrorResponse } from '../../../../lib/server/endpoint';
+import { HireOrder } from '../../../../models';
+
+const fields = z.object({
+  token: z.string().min(10).max(120),
+  receivedByName: z.string().trim().min(2, 'Give your name.').max(120),
+});
+
+/**
+ * The receiving end confirms a load through the link on its dispatch note
+ * (no account needed): name, and optionally a photo of the delivered load.
+ */
+export const POST: APIRoute = async ({ request, locals }) => {
+  try {
+    const wait = await hit(publicFormLimit(), `confirm:${locals.clientAddress}`);
+    if (wait) return errorResponse('rate_limited', 'Too many submissions from here; try again later.', undefined, { 'Retry-After': String(wait) });
+    const form = await readForm(request);
+    const photo = await formFile(form, 'photo');
+    const parsed = fields.safeParse({ token: form.get('token'), receivedByName: form.get('receivedByName') });
+    if (!parsed.success) return errorResponse('validation_failed', parsed.error.issues[0]!.message, parsed.error.issues);
+    const load = await loadFromToken(parsed.data.token);
+    if (!load) return errorResponse('not_found', 'This delivery link is not valid. Check it against the dispatch note.');
+    const order = load.hireOrderId ? await HireOrder.findByPk(load.hireOrderId) : null;
+    const stored = photo ? await storeAttachment({ ...photo, purpose: 'photo', organisationId: order?.customerId ?? null, uploadedBy: locals.user?.id ?? null }) : null;
+    const result = await confirmDelivery(load, { receivedByName: parsed.data.receivedByName, photoId: stored?.id ?? null, userId: locals.user?.id ?? null });
+    return dataResponse({ reference: load.reference, ...result });
+  } catch (err) {
+    return toErrorResponse(err);
+  }
+};
