@@ -37,6 +37,7 @@ try {
   const port = process.env.PORT ?? '4321';
   const appUrl = process.env.APP_URL ?? `http://${host === '0.0.0.0' ? 'localhost' : host}:${port}`;
   env.APP_URL = appUrl;
+  startChild('job worker', process.execPath, ['--import', 'tsx', 'src/cli/worker.ts'], env);
   startChild('app server', process.execPath, ['dist/server/entry.mjs'], { ...env, HOST: host, PORT: port });
   await waitForHttp(`http://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitForHttp(`${appUrl}/api/health`, 5_000));
 

@@ -11,7 +11,7 @@ export interface MailContent {
 }
 
 /** What the mailer records as the message's kind (mail_outbox.kind). */
-export type MailKind = 'invite' | 'password_reset';
+export type MailKind = 'invite' | 'password_reset' | 'planner_digest';
 
 function compose(subject: string, lines: string[]): MailContent {
   const text = lines.join('\n').replace(/\n{3,}/g, '\n\n').trim() + '\n';
@@ -78,4 +78,40 @@ export function passwordResetMail(i: ResetMailInput): MailContent {
 export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   invite: 'Invitation',
   password_reset: 'Password reset',
+  planner_digest: 'Morning digest',
 };
+
+export interface DigestInput {
+  recipientName: string;
+  operatorName: string;
+  day: string; // '1 Dec 2026'
+  appUrl: string;
+  overdueByCustomer: Array<{ customer: string; bins: number; oldestDays: number }>;
+  flaggedScans: number;
+  sealMismatches: number;
+  openCollectionRequests: number;
+  testsDueSoon: number;
+  testsLapsed: number;
+  markedMissing: number;
+}
+
+/** The planners' morning digest: what needs a decision today, with links. */
+export function plannerDigestMail(d: DigestInput): MailContent {
+  const overdueTotal = d.overdueByCustomer.reduce((s, c) => s + c.bins, 0);
+  const lines = [
+    `Hello ${d.recipientName},`,
+    '',
+    `The pool on ${d.day}:`,
+    '',
+    `• ${overdueTotal} bin${overdueTotal === 1 ? '' : 's'} overdue back from customers (past their free days)`,
+    ...d.overdueByCustomer.map((c) => `    ${c.customer}: ${c.bins} (oldest ${c.oldestDays} days on hire)`),
+    `• ${d.openCollectionRequests} open collection request${d.openCollectionRequests === 1 ? '' : 's'}`,
+    `• ${d.flaggedScans} scan${d.flaggedScans === 1 ? '' : 's'} flagged in the last 24 hours (missed steps inferred)${d.sealMismatches ? `, ${d.sealMismatches} with seal numbers that did not match` : ''}`,
+    `• ${d.testsDueSoon} bin${d.testsDueSoon === 1 ? '' : 's'} due for a periodic test within 30 days; ${d.testsLapsed} already lapsed`,
+    ...(d.markedMissing ? [`• ${d.markedMissing} bin${d.markedMissing === 1 ? '' : 's'} marked missing overnight by the missing-bin rule`] : []),
+    '',
+    `Open the pool overview: ${d.appUrl.replace(/\/$/, '')}/fleet`,
+    ...signature(d.operatorName),
+  ];
+  return compose(`Pool digest ${d.day}: ${overdueTotal} overdue, ${d.testsLapsed} tests lapsed`, lines);
+}

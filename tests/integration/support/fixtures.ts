@@ -54,8 +54,8 @@ export async function poolWorld() {
 }
 
 let serialCounter = 0;
-export async function newBin(w: Awaited<ReturnType<typeof poolWorld>>, extra: { manufactureMonth?: string; lastIntermediateTestMonth?: string } = {}) {
+export async function newBin(w: Awaited<ReturnType<typeof poolWorld>>, extra: { manufactureMonth?: string; lastIntermediateTestMonth?: string; registeredAt?: string } = {}) {
   serialCounter += 1;
   const grai = makeGrai('9529999', '10010', `T${String(serialCounter).padStart(5, '0')}`);
-  return registerBin(w.planner, { grai, binTypeId: w.binType.id, siteId: w.depot.id, manufactureMonth: extra.manufactureMonth ?? '2026-01', lastIntermediateTestMonth: extra.lastIntermediateTestMonth ?? null }, { now: new Date('2026-11-01T08:00:00Z') });
+  return registerBin(w.planner, { grai, binTypeId: w.binType.id, siteId: w.depot.id, manufactureMonth: extra.manufactureMonth ?? '2026-01', lastIntermediateTestMonth: extra.lastIntermediateTestMonth ?? null }, { now: new Date(extra.registeredAt ?? '2026-11-01T08:00:00Z') });
 }

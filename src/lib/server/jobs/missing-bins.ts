@@ -1,0 +1,32 @@
+import { createHash } from 'node:crypto';
+import { QueryTypes } from 'sequelize';
+import { sequelize } from '../../../models';
+import { MISSING_AFTER_DAYS, SILENT_BINS_SQL } from '../../missing-rule';
+import { recordScan, type Actor } from '../scan-service';
+import { localDate } from '../../calendar';
+import { getSettings } from '../settings';
+import type { JobContext } from './registry';
+
+/** A stable event id per bin and day: running the job twice on one day records once. */
+function eventId(assetId: number, day: string): string {
+  const h = createHash('sha256').update(`missing-rule:${assetId}:${day}`).digest('hex');
+  return `${h.slice(0, 8)}-${h.slice(8, 12)}-4${h.slice(13, 16)}-8${h.slice(17, 20)}-${h.slice(20, 32)}`;
+}
+
+/** Marks missing every bin out of the depots that nobody scanned for MISSING_AFTER_DAYS. */
+export async function runMissingBinRule({ now }: JobContext) {
+  const settings = await getSettings();
+  const day = localDate(now, settings.timeZone);
+  const bins = await sequelize.query<{ id: number }>(`SELECT id FROM assets WHERE ${SILENT_BINS_SQL} ORDER BY id LIMIT 5000`, {
+    bind: [now, MISSING_AFTER_DAYS],
+    type: QueryTypes.SELECT,
+  });
+  const [operator] = await sequelize.query<{ id: number }>(`SELECT id FROM organisations WHERE kind = 'operator'`, { type: QueryTypes.SELECT });
+  const actor: Actor = { id: null, role: 'planner', organisationId: operator?.id ?? 0, homeSiteId: null };
+  let marked = 0;
+  for (const b of bins) {
+    const out = await recordScan(actor, { clientEventId: eventId(b.id, day), assetId: b.id, action: 'mark_missing', siteId: null, occurredAt: now, note: `No scan for ${MISSING_AFTER_DAYS} days (missing-bin rule)` }, { now });
+    if (!out.replayed) marked += 1;
+  }
+  return { checked: bins.length, marked };
+}
