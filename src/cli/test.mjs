@@ -25,7 +25,10 @@ function timed(name, fn) {
 }
 
 function vitest(folder, env) {
-  const r = spawnSync(bin('vitest'), ['run', `tests/${folder}`, ...vitestExtra], {
+  // Words after `--` narrow the run to matching files of the folder; flags pass through.
+  const filters = vitestExtra.filter((a) => !a.startsWith('-')).map((a) => `tests/${folder}/${a}`);
+  const flags = vitestExtra.filter((a) => a.startsWith('-'));
+  const r = spawnSync(bin('vitest'), ['run', ...(filters.length ? filters : [`tests/${folder}`]), ...flags], {
     stdio: 'inherit',
     env: { ...process.env, ...env },
   });
