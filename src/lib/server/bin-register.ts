@@ -4,91 +4,90 @@
 import type { Transaction } from 'sequelize';
 import { sequelize, Asset, BinType, Site, ScanEvent } from '../../models';
 import { AppError } from '../api-errors';
-import { parseSerialisedGrai } from '../gs1';
-import { parseUnMarking } from '../un-marking';
 import { nextDue } from '../inspection-due';
+import { checkRegistration, testColumns, type RegisterBinInput } from '../registration-check';
 import { policyForBinType } from '../bin-policy';
 import { getSettings } from './settings';
 import type { Actor } from './scan-service';
 
-export interface RegisterBinInput {
-  grai: string;
-  binTypeId: number;
-  siteId: number;
-  /** 'YYYY-MM'; may be left out when a UN mark gives it. */
-  manufactureMonth?: string | null;
-  unMarking?: string | null;
-  lastIntermediateTestMonth?: string | null;
-  lastFullInspectionMonth?: string | null;
+// The checks themselves are pure (shared with the CSV import and the forms).
+export { checkRegistration, type RegisterBinInput, type RegisterIssue } from '../registration-check';
+
+/** The new bin's row: status available at the depot, due dates from its bin type's policy. */
+function newAssetRow(checked: { grai: string; serial: string; manufactureMonth: string }, input: RegisterBinInput, type: BinType, siteId: number, now: Date) {
+  const due = nextDue(
+    { manufactureMonth: checked.manufactureMonth, lastIntermediateTestMonth: input.lastIntermediateTestMonth, lastFullInspectionMonth: input.lastFullInspectionMonth },
+    policyForBinType(type),
+  );
+  return {
+    grai: checked.grai, serial: checked.serial, binTypeId: type.id, manufactureMonth: `${checked.manufactureMonth}-01`,
+    unMarking: input.unMarking?.trim() || null, status: 'available' as const, siteId, siteSince: now, customerId: null,
+    currentTripId: null, leg: null, linerLotId: null, lastScanAt: now,
+    ...testColumns(input.lastIntermediateTestMonth, input.lastFullInspectionMonth),
+    nextIntermediateDue: due.intermediateDue, nextFullDue: due.fullDue, nextDue: due.nextDue, labelPrintedAt: null,
+  };
 }
 
-export interface RegisterIssue { field: string; message: string }
+/** The bin's first entry in the scan log. */
+function registerEventRow(assetId: number, siteId: number, actor: Actor, now: Date) {
+  return {
+    assetId, action: 'register' as const, occurredAt: now, siteId, userId: actor.id, clientEventId: null,
+    statusFrom: null, statusTo: 'available' as const, tripId: null, voidedAt: null, voidedBy: null, voidReason: null,
+    payload: { patch: { status: 'available', siteId: String(siteId), siteKind: 'depot' }, trip: 'none' },
+  };
+}
 
-/** Checks one registration without writing; returns the problems found (empty = fine). */
-export function checkRegistration(input: RegisterBinInput, prefixLength: number): { issues: RegisterIssue[]; grai?: string; serial?: string; manufactureMonth?: string } {
-  const issues: RegisterIssue[] = [];
-  const parsed = parseSerialisedGrai(input.grai, { companyPrefixLength: prefixLength });
-  if (!parsed.ok) issues.push({ field: 'grai', message: parsed.error.message });
-  let manufactureMonth = input.manufactureMonth ?? undefined;
-  if (input.unMarking) {
-    const mark = parseUnMarking(input.unMarking);
-    if (!mark.ok) issues.push({ field: 'unMarking', message: mark.error.message });
-    else {
-      const fromMark = `${mark.marking.manufacture.year}-${String(mark.marking.manufacture.month).padStart(2, '0')}`;
-      if (manufactureMonth && manufactureMonth !== fromMark) {
-        issues.push({ field: 'manufactureMonth', message: `The UN mark says manufactured ${fromMark}, not ${manufactureMonth}.` });
-      }
-      manufactureMonth ??= fromMark;
-    }
-  }
-  if (!manufactureMonth) issues.push({ field: 'manufactureMonth', message: 'Give the month of manufacture (YYYY-MM) or a UN mark that carries it.' });
-  else if (!/^\d{4}-(0[1-9]|1[0-2])$/.test(manufactureMonth)) issues.push({ field: 'manufactureMonth', message: 'Month of manufacture must look like 2024-03.' });
-  for (const key of ['lastIntermediateTestMonth', 'lastFullInspectionMonth'] as const) {
-    const v = input[key];
-    if (v && (!/^\d{4}-(0[1-9]|1[0-2])$/.test(v) || (manufactureMonth && v < manufactureMonth))) {
-      issues.push({ field: key, message: 'A test month looks like 2025-06 and is not before manufacture.' });
-    }
-  }
-  return parsed.ok ? { issues, grai: parsed.grai.value, serial: parsed.grai.serial, manufactureMonth } : { issues, manufactureMonth };
+function checkedOrThrow(input: RegisterBinInput, prefixLength: number) {
+  const checked = checkRegistration(input, prefixLength);
+  if (checked.issues.length) throw new AppError('validation_failed', checked.issues[0]!.message, checked.issues);
+  return checked as { grai: string; serial: string; manufactureMonth: string };
 }
 
 export async function registerBin(actor: Actor, input: RegisterBinInput, opts: { now?: Date; transaction?: Transaction } = {}): Promise<Asset> {
   const settings = await getSettings();
-  const checked = checkRegistration(input, settings.gs1PrefixLength);
-  if (checked.issues.length) throw new AppError('validation_failed', checked.issues[0]!.message, checked.issues);
+  const checked = checkedOrThrow(input, settings.gs1PrefixLength);
   const now = opts.now ?? new Date();
 
   const work = async (t: Transaction) => {
     const [type, site] = await Promise.all([BinType.findByPk(input.binTypeId, { transaction: t }), Site.findByPk(input.siteId, { transaction: t })]);
     if (!type) throw new AppError('unprocessable', 'That bin type does not exist.', [{ field: 'binTypeId', message: 'Unknown bin type.' }]);
     if (!site || site.kind !== 'depot') throw new AppError('unprocessable', 'Bins are registered at a depot.', [{ field: 'siteId', message: 'Choose a depot.' }]);
-    if (await Asset.findOne({ where: { grai: checked.grai! }, transaction: t, attributes: ['id'] })) {
+    if (await Asset.findOne({ where: { grai: checked.grai }, transaction: t, attributes: ['id'] })) {
       throw new AppError('duplicate', `A bin with GRAI ${checked.grai} is already registered.`, [{ field: 'grai', message: 'Already registered.' }]);
     }
-    const due = nextDue(
-      { manufactureMonth: checked.manufactureMonth!, lastIntermediateTestMonth: input.lastIntermediateTestMonth, lastFullInspectionMonth: input.lastFullInspectionMonth },
-      policyForBinType(type),
-    );
-    const lastTest = [input.lastIntermediateTestMonth, input.lastFullInspectionMonth].filter(Boolean).sort().pop();
-    const asset = await Asset.create(
-      {
-        grai: checked.grai!, serial: checked.serial!, binTypeId: type.id, manufactureMonth: `${checked.manufactureMonth}-01`,
-        unMarking: input.unMarking?.trim() || null, status: 'available', siteId: site.id, siteSince: now, customerId: null,
-        currentTripId: null, leg: null, linerLotId: null, lastScanAt: now,
-        lastInspectionOn: lastTest ? `${lastTest}-01` : null, lastFullInspectionOn: input.lastFullInspectionMonth ? `${input.lastFullInspectionMonth}-01` : null,
-        nextIntermediateDue: due.intermediateDue, nextFullDue: due.fullDue, nextDue: due.nextDue, labelPrintedAt: null,
-      },
-      { transaction: t },
-    );
-    await ScanEvent.create(
-      {
-        assetId: asset.id, action: 'register', occurredAt: now, siteId: site.id, userId: actor.id, clientEventId: null,
-        statusFrom: null, statusTo: 'available', tripId: null, voidedAt: null, voidedBy: null, voidReason: null,
-        payload: { patch: { status: 'available', siteId: String(site.id), siteKind: 'depot' }, trip: 'none' },
-      },
-      { transaction: t },
-    );
+    const asset = await Asset.create(newAssetRow(checked, input, type, site.id, now), { transaction: t });
+    await ScanEvent.create(registerEventRow(asset.id, site.id, actor, now), { transaction: t });
     return asset;
   };
   return opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, work) : sequelize.transaction(work);
+}
+
+const BULK_CHUNK = 1000;
+
+/**
+ * Registers many bins inside the caller's transaction, in chunks of multi-row
+ * inserts (a CSV import of tens of thousands of bins must not take one round
+ * trip per bin). The caller has checked every line; this refuses again on the
+ * first problem, and the transaction makes it all or nothing.
+ */
+export async function registerBins(actor: Actor, inputs: RegisterBinInput[], opts: { now?: Date; transaction: Transaction }): Promise<number> {
+  const t = opts.transaction;
+  const settings = await getSettings();
+  const now = opts.now ?? new Date();
+  const checked = inputs.map((input) => checkedOrThrow(input, settings.gs1PrefixLength));
+  const types = new Map((await BinType.findAll({ transaction: t })).map((b) => [b.id, b]));
+  const depots = new Set((await Site.findAll({ where: { kind: 'depot' }, attributes: ['id'], transaction: t })).map((s) => s.id));
+  for (let start = 0; start < inputs.length; start += BULK_CHUNK) {
+    const slice = inputs.slice(start, start + BULK_CHUNK);
+    const rows = slice.map((input, i) => {
+      const type = types.get(input.binTypeId);
+      if (!type) throw new AppError('unprocessable', 'That bin type does not exist.');
+      if (!depots.has(input.siteId)) throw new AppError('unprocessable', 'Bins are registered at a depot.');
+      return newAssetRow(checked[start + i]!, input, type, input.siteId, now);
+    });
+    // A GRAI registered meanwhile fails the unique key here and rolls the whole import back.
+    const assets = await Asset.bulkCreate(rows, { transaction: t, returning: ['id'] });
+    await ScanEvent.bulkCreate(assets.map((a, i) => registerEventRow(a.id, slice[i]!.siteId, actor, now)), { transaction: t });
+  }
+  return inputs.length;
 }
