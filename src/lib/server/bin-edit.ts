@@ -11,7 +11,7 @@ import { policyForBinType } from '../bin-policy';
 import { groupGrai, parseGrai } from '../gs1';
 import { checkBinType, checkMarkAgainstType, checkRegistration, testColumns, testMonthsOf, type RegisterIssue } from '../registration-check';
 import type { Status } from '../lifecycle';
-import { markField, monthField } from './bin-forms';
+import { choiceField, markField, monthField } from './bin-forms';
 import { recordAudit } from './audit';
 import { getSettings } from './settings';
 import type { Actor } from './scan-service';
@@ -26,7 +26,7 @@ const refuseKey = (message: string) => z.unknown().refine((v) => v === undefined
 
 export const editBody = z.object({
   version: z.number({ required_error: 'The form lacks the version it was opened at; reload it.' }).int().nonnegative(),
-  binTypeId: z.coerce.number({ invalid_type_error: 'Choose a bin type.' }).int().positive('Choose a bin type.'),
+  binTypeId: choiceField,
   manufactureMonth: monthField,
   unMarking: markField,
   lastIntermediateTestMonth: monthField,
@@ -135,10 +135,9 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
         currentVersion: asset.version,
       });
     }
-    const [oldType, newType] = await Promise.all([
-      BinType.findByPk(asset.binTypeId, { transaction: t }),
-      BinType.findByPk(body.binTypeId, { transaction: t }),
-    ]);
+    // One query at a time: a transaction has one connection.
+    const oldType = await BinType.findByPk(asset.binTypeId, { transaction: t });
+    const newType = body.binTypeId ? await BinType.findByPk(body.binTypeId, { transaction: t }) : null;
     const issues: RegisterIssue[] = [];
     const checked = checkRegistration(
       {
@@ -149,7 +148,8 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
     );
     issues.push(...checked.issues.filter((i) => i.field !== 'grai'));
     // A bin may keep a bin type that went out of use; it may not be moved to one.
-    const typeIssue = newType && newType.id === asset.binTypeId ? null : checkBinType(newType ?? undefined, '');
+    const typeIssue = !body.binTypeId ? { field: 'binTypeId', message: 'Choose a bin type.' }
+      : newType && newType.id === asset.binTypeId ? null : checkBinType(newType ?? undefined, '');
     if (typeIssue) issues.push(typeIssue);
     const markIssue = newType ? checkMarkAgainstType(body.unMarking, newType) : null;
     if (markIssue) issues.push(markIssue);

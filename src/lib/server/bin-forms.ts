@@ -53,6 +53,8 @@ export async function formOptions(): Promise<FormOptions> {
 
 /** An empty month field is "not given". The format is checked with the rest, so its message names the field. */
 const monthField = z.string().trim().max(10).nullish().transform((v) => (v ? v : null));
+/** A choice from a list by id; 0 (or empty) = nothing chosen. */
+const choiceField = z.preprocess((v) => (v === '' || v == null ? 0 : v), z.coerce.number().int().nonnegative());
 const markField = z.string().trim().max(120, 'A UN mark has at most 120 characters.').nullish().transform((v) => (v ? v : null));
 
 export const registerBody = z.object({
@@ -60,8 +62,9 @@ export const registerBody = z.object({
   graiMode: z.enum(['grai', 'serial']).default('grai'),
   grai: z.string().max(300).default(''),
   serial: z.string().max(40).default(''),
-  binTypeId: z.coerce.number({ invalid_type_error: 'Choose a bin type.' }).int().positive('Choose a bin type.'),
-  siteId: z.coerce.number({ invalid_type_error: 'Choose a depot.' }).int().positive('Choose a depot.'),
+  // 0 = not chosen yet: reported with the other fields' problems, not alone.
+  binTypeId: choiceField,
+  siteId: choiceField,
   manufactureMonth: monthField,
   unMarking: markField,
   lastIntermediateTestMonth: monthField,
@@ -69,7 +72,7 @@ export const registerBody = z.object({
 });
 export type RegisterBody = z.infer<typeof registerBody>;
 
-export { monthField, markField };
+export { monthField, markField, choiceField };
 
 function refuse(issues: RegisterIssue[]): never {
   const details = issues.map((i) => ({ path: i.field, message: i.message }));
@@ -79,7 +82,8 @@ function refuse(issues: RegisterIssue[]): never {
 /** Registers one bin from the form, with an audit entry; every problem is reported at once. */
 export async function registerFromForm(actor: Actor, body: RegisterBody, ip: string | null) {
   const settings = await getSettings();
-  const [type, site] = await Promise.all([BinType.findByPk(body.binTypeId), Site.findByPk(body.siteId)]);
+  const type = body.binTypeId ? await BinType.findByPk(body.binTypeId) : null;
+  const site = body.siteId ? await Site.findByPk(body.siteId) : null;
   const issues: RegisterIssue[] = [];
   const graiField = body.graiMode === 'serial' ? 'serial' : 'grai';
 
@@ -97,7 +101,9 @@ export async function registerFromForm(actor: Actor, body: RegisterBody, ip: str
   // In serial mode without a built GRAI the serial (or the bin type) has already said why.
   const graiReadable = body.graiMode === 'grai' || grai !== '';
   issues.push(...checked.issues.filter((i) => i.field !== 'grai' || graiReadable));
-  for (const issue of [checkBinType(type ?? undefined, ''), checkDepot(site ?? undefined, '')]) if (issue) issues.push(issue);
+  const typeIssue = body.binTypeId ? checkBinType(type ?? undefined, '') : { field: 'binTypeId', message: 'Choose a bin type.' };
+  const depotIssue = body.siteId ? checkDepot(site ?? undefined, '') : { field: 'siteId', message: 'Choose a depot.' };
+  for (const issue of [typeIssue, depotIssue]) if (issue) issues.push(issue);
   const markIssue = type ? checkMarkAgainstType(body.unMarking, type) : null;
   if (markIssue) issues.push(markIssue);
   if (checked.grai && (await Asset.findOne({ where: { grai: checked.grai }, attributes: ['id'] }))) {

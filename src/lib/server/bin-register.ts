@@ -49,7 +49,9 @@ export async function registerBin(actor: Actor, input: RegisterBinInput, opts: {
   const now = opts.now ?? new Date();
 
   const work = async (t: Transaction) => {
-    const [type, site] = await Promise.all([BinType.findByPk(input.binTypeId, { transaction: t }), Site.findByPk(input.siteId, { transaction: t })]);
+    // One query at a time: a transaction has one connection (pg warns about overlapping queries).
+    const type = await BinType.findByPk(input.binTypeId, { transaction: t });
+    const site = await Site.findByPk(input.siteId, { transaction: t });
     if (!type) throw new AppError('unprocessable', 'That bin type does not exist.', [{ field: 'binTypeId', message: 'Unknown bin type.' }]);
     if (!site || site.kind !== 'depot') throw new AppError('unprocessable', 'Bins are registered at a depot.', [{ field: 'siteId', message: 'Choose a depot.' }]);
     if (await Asset.findOne({ where: { grai: checked.grai }, transaction: t, attributes: ['id'] })) {

@@ -84,13 +84,12 @@ function linesOf(bytes: Uint8Array): CsvLine[] {
 
 async function lookups(lines: CsvLine[], prefixLength: number, transaction?: Transaction): Promise<RegisterLookups> {
   const grais = graisInLines(lines, prefixLength);
-  const [types, sites, taken] = await Promise.all([
-    BinType.findAll({ transaction }),
-    Site.findAll({ transaction }),
-    grais.length
-      ? sequelize.query<{ grai: string }>('SELECT grai FROM assets WHERE grai = ANY($1::text[])', { bind: [grais], type: QueryTypes.SELECT, transaction })
-      : Promise.resolve([]),
-  ]);
+  // One query at a time: inside the commit's transaction they share one connection.
+  const types = await BinType.findAll({ transaction });
+  const sites = await Site.findAll({ transaction });
+  const taken = grais.length
+    ? await sequelize.query<{ grai: string }>('SELECT grai FROM assets WHERE grai = ANY($1::text[])', { bind: [grais], type: QueryTypes.SELECT, transaction })
+    : [];
   return {
     prefixLength,
     binTypes: new Map(types.map((t) => [t.code.toUpperCase(), { id: t.id, code: t.code, unCode: t.unCode, active: t.active }])),
@@ -111,15 +110,16 @@ export interface ImportPreview {
   sha256: string;
   byteSize: number;
   counts: { total: number; ready: number; withProblems: number };
-  /** Problem lines first (in file order), then ready lines; at most PREVIEW_LINES. */
+  /** In file order; beyond PREVIEW_LINES lines, problem lines first, then ready ones, cut at PREVIEW_LINES. */
   lines: PreviewLine[];
   linesNotShown: number;
 }
 
 function previewOf(lines: ImportLine[], prefixLength: number, bytes: Uint8Array): ImportPreview {
-  const problems = lines.filter((l) => l.issues.length > 0);
-  const ready = lines.filter((l) => l.issues.length === 0);
-  const shown = [...problems, ...ready].slice(0, PREVIEW_LINES);
+  // Every line in file order when they fit; otherwise the problems first, so none is cut off.
+  const shown = lines.length <= PREVIEW_LINES
+    ? lines
+    : [...lines.filter((l) => l.issues.length > 0), ...lines.filter((l) => l.issues.length === 0)].slice(0, PREVIEW_LINES);
   return {
     sha256: sha256(bytes),
     byteSize: bytes.byteLength,
