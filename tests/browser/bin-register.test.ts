@@ -35,6 +35,13 @@ async function desk(email = 'planner@northmere.example', kind: 'desktop' | 'phon
   return page;
 }
 
+/** Opens a page and waits until its islands have hydrated (their forms are disabled until then). */
+async function open(page: Page, path: string) {
+  const res = await page.goto(path);
+  await page.waitForFunction(() => !document.querySelector('astro-island[ssr]'));
+  return res;
+}
+
 async function exportedCsv(page: Page): Promise<string> {
   const res = await page.request.get('/bins/export.csv');
   expect(res.status()).toBe(200);
@@ -46,7 +53,7 @@ describe('registering one bin', () => {
     for (const kind of ['desktop', 'phone'] as const) {
       const page = await desk(undefined, kind);
       const serial = `BR${RUN}${kind === 'phone' ? 'P' : 'D'}`;
-      await page.goto('/bins/new');
+      await open(page, '/bins/new');
       await page.getByRole('heading', { name: 'Register a bin' }).waitFor();
       await page.locator('#f-binTypeId').selectOption({ index: 1 });
       await page.locator('#f-siteId').selectOption({ label: 'Rotterdam Botlek depot (DEP-RTM)' });
@@ -71,7 +78,7 @@ describe('registering one bin', () => {
       expect(await page.inputValue('#f-manufactureMonth')).toBe('2024-05');
       await page.locator('#month-from-mark').waitFor();
       // 30 months from May 2024, end of month (ADR 6.5.4.4.1; conventions in inspection-due.ts)
-      await expect(page.locator('#due-preview').textContent()).resolves.toContain('30 Nov 2026');
+      await expect.poll(() => page.locator('#due-preview').textContent()).toContain('30 Nov 2026');
       await screenshot(page, `bins-new-mark-${kind}`);
 
       await page.click('#bin-form-submit');
@@ -85,7 +92,7 @@ describe('registering one bin', () => {
 
   test('problems come back per field: a wrong check digit and a GRAI already registered', async () => {
     const page = await desk();
-    await page.goto('/bins/new');
+    await open(page, '/bins/new');
     const value = grai(`BR${RUN}X`);
     const wrong = value.slice(0, 13) + String((Number(value.charAt(13)) + 1) % 10) + value.slice(14);
     await page.fill('#f-grai', wrong);
@@ -114,7 +121,7 @@ describe('correcting a bin', () => {
     const first = await desk();
     const second = await first.context().newPage();
     for (const p of [first, second]) {
-      await p.goto(`/bins/${grai(serial)}/edit`);
+      await open(p, `/bins/${grai(serial)}/edit`);
       await p.locator('#bin-form').waitFor();
     }
     await expect(first.locator('#fixed-grai').textContent()).resolves.toBe(grouped(grai(serial)));
@@ -134,7 +141,7 @@ describe('correcting a bin', () => {
     expect(await exportedCsv(first)).toContain(`${grai(serial)},${serial},FX1000,available,DEP-RTM,,2024-05,${MARK},0,2026-01-01,,2028-07-31,2029-05-31,2028-07-31`);
 
     const phone = await desk(undefined, 'phone');
-    await phone.goto(`/bins/${grai(serial)}/edit`);
+    await open(phone, `/bins/${grai(serial)}/edit`);
     await phone.locator('#bin-form').waitFor();
     await screenshot(phone, 'bins-edit-phone');
     await phone.context().close();
@@ -151,7 +158,7 @@ describe('importing from CSV', () => {
       const prefix = kind === 'phone' ? 'IP' : 'ID';
       const good = lines(4, prefix);
       const bad = `${grai(`${prefix}${RUN}9`)},FX1000,DEP-NOWHERE,2024-05,,,`;
-      await page.goto('/bins/import');
+      await open(page, '/bins/import');
       await page.getByRole('heading', { name: 'Import bins from a CSV file' }).waitFor();
 
       await page.setInputFiles('#import-file', { name: 'bins-with-error.csv', mimeType: 'text/csv', buffer: Buffer.from([HEADER, good[0], good[1], bad, good[2], good[3]].join('\r\n')) });
@@ -186,16 +193,16 @@ describe('importing from CSV', () => {
 
   test('a file without the required columns is refused with the list of missing columns', async () => {
     const page = await desk();
-    await page.goto('/bins/import');
+    await open(page, '/bins/import');
     await page.setInputFiles('#import-file', { name: 'short.csv', mimeType: 'text/csv', buffer: Buffer.from(`grai,bin_type\n${grai('X1')},FX1000\n`) });
     await page.locator('#import-problem').waitFor();
     await expect(page.locator('#missing-columns').textContent()).resolves.toBe('Missing: depotmanufacture_month');
     await page.context().close();
   });
 
-  test('a 20 MB upload is refused with the limit, in the page and by the server, and nothing changes', async () => {
+  test('a 20 MB upload is refused with the limit, in the page and by the server, and nothing changes', { timeout: 90_000 }, async () => {
     const page = await desk();
-    await page.goto('/bins/import');
+    await open(page, '/bins/import');
     const big = Buffer.alloc(20 * 1024 * 1024, 'a');
     await page.setInputFiles('#import-file', { name: 'huge.csv', mimeType: 'text/csv', buffer: big });
     await expect(page.locator('#import-problem').textContent()).resolves.toContain('The file is 20 MB; the limit is 5 MB for one register import.');
@@ -212,7 +219,7 @@ describe('importing from CSV', () => {
 
   test('the format is documented on the page with a template to download', async () => {
     const page = await desk();
-    await page.goto('/bins/import');
+    await open(page, '/bins/import');
     for (const c of IMPORT_COLUMNS) await expect(page.locator(`#format-heading ~ dl code:text-is("${c.name}")`).count()).resolves.toBe(1);
     const template = await page.request.get('/bins/import/template.csv');
     expect((await template.text()).replace(/^\uFEFF/, '').split('\r\n')[0]).toBe(HEADER);

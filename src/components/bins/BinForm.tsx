@@ -87,6 +87,9 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
   const [registered, setRegistered] = useState<Registered | null>(null);
   const [markFilledMonth, setMarkFilledMonth] = useState(false);
   const [busy, setBusy] = useState(false);
+  // Rendered disabled on the server: typing before the page's script runs would be lost.
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
 
   const type = options.binTypes.find((t) => String(t.id) === fields.binTypeId);
   const mark = useMemo(() => (fields.unMarking.trim() ? decodeUnMark(fields.unMarking) : null), [fields.unMarking]);
@@ -193,7 +196,7 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
         </div>
       )}
 
-      <fieldset className="card space-y-4 p-5">
+      <fieldset className="card space-y-4 p-5" disabled={!ready}>
         <legend className="px-1 text-lg font-semibold">Identity</legend>
         {bin ? (
           <div className="space-y-3">
@@ -256,7 +259,7 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
         </div>
       </fieldset>
 
-      <fieldset className="card space-y-4 p-5">
+      <fieldset className="card space-y-4 p-5" disabled={!ready}>
         <legend className="px-1 text-lg font-semibold">Marking and tests</legend>
         <FormField id="f-unMarking" label="UN mark (optional)" problem={problems.unMarking}
           hint="As stamped on the bin's plate, fields separated by /, e.g. 31HA2/Y/05 24/NL/maker/2313/1285. Leave empty for a bin without a UN mark.">
@@ -284,7 +287,7 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
 
       <div className="flex flex-wrap items-center justify-end gap-3">
         {bin && <a className="btn-quiet" href={`/bins/${encodeURIComponent(bin.grai)}`}>Back to the bin</a>}
-        <button type="submit" className="btn-primary" disabled={busy} id="bin-form-submit">
+        <button type="submit" className="btn-primary" disabled={busy || !ready} id="bin-form-submit">
           {busy ? 'Saving…' : editing ? 'Save changes' : 'Register bin'}
         </button>
       </div>

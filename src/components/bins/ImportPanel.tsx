@@ -1,4 +1,4 @@
-import { useRef, useState, type ChangeEvent } from 'react';
+import { useEffect, useRef, useState, type ChangeEvent } from 'react';
 import { ApiError } from '../../lib/client/api';
 import type { ErrorCode } from '../../lib/api-errors';
 import type { ImportPreview, PreviewLine } from '../../lib/server/register-import';
@@ -75,6 +75,9 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
   const [registered, setRegistered] = useState(0);
   const [onlyProblems, setOnlyProblems] = useState(false);
   const input = useRef<HTMLInputElement>(null);
+  // Rendered disabled on the server: a file chosen before the page's script runs would go unchecked.
+  const [ready, setReady] = useState(false);
+  useEffect(() => setReady(true), []);
 
   function fail(err: unknown) {
     if (err instanceof ApiError) {
@@ -152,7 +155,7 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
     <div className="space-y-4">
       <div className="card p-5">
         <label className="label" htmlFor="import-file">CSV file (up to {megabytes(maxBytes)} MB)</label>
-        <input ref={input} id="import-file" type="file" accept=".csv,text/csv" onChange={check} disabled={phase === 'checking' || phase === 'registering'}
+        <input ref={input} id="import-file" type="file" accept=".csv,text/csv" onChange={check} disabled={!ready || phase === 'checking' || phase === 'registering'}
           className="block w-full text-sm file:mr-4 file:min-h-touch file:rounded-md file:border-0 file:bg-kelp file:px-4 file:font-medium file:text-white hover:file:bg-kelp-hover" />
         {phase === 'checking' && <p className="mt-3 text-ink-soft" role="status">Checking every line…</p>}
       </div>
