@@ -69,7 +69,7 @@ export async function generateHistory(opts: { bins: number; months: number; now?
 
   // Each bin lives its own cycles; a few at a time so the two cores stay busy.
   const queue = [...plans];
-  const workers = Array.from({ length: 10 }, async () => {
+  const workers = Array.from({ length: 4 }, async () => {
     for (let p = queue.shift(); p; p = queue.shift()) await liveBin(world, p.asset, p.depot, p.joined);
   });
   await Promise.all(workers);
