@@ -29,6 +29,7 @@ export const ICONS = {
   camera: 'M4 8h4l2-3h4l2 3h4v11H4zM12 10.5a3 3 0 1 0 0 6a3 3 0 0 0 0-6',
   keyboard: 'M3 7h18v10H3zM7 14h10M7 10h.5M10.5 10h.5M14 10h.5M17 10h.5',
   menu: 'M4 7h16M4 12h16M4 17h16',
+  plusBox: 'M4 4h16v16H4zM12 8v8M8 12h8',
 } as const;
 
 export type IconName = keyof typeof ICONS;

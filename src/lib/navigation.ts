@@ -9,6 +9,7 @@ const NAV: NavItem[] = [
   { href: '/portal', label: 'My bins', icon: 'home', capability: 'home.portal' },
   { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
   { href: '/labels', label: 'Label sheets', icon: 'label', capability: 'labels.print' },
+  { href: '/bins/new', label: 'Register bins', icon: 'plusBox', capability: 'bins.edit' },
   { href: '/admin/users', label: 'People', icon: 'users', capability: 'users.manage' },
   { href: '/admin/settings', label: 'Settings', icon: 'settings', capability: 'settings.manage' },
   { href: '/admin/mail', label: 'Sent mail', icon: 'mail', capability: 'mail.read' },

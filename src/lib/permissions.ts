@@ -81,6 +81,13 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/admin/sites', 'sites.manage'],
   ['/api/admin/', 'settings.manage'],
   ['/admin', 'users.manage'],
+  // The register (before the general /bins rule). /bins/<grai>/edit is under
+  // the /bins prefix: its page and endpoint check bins.edit themselves.
+  ['/bins/new', 'bins.edit'],
+  ['/bins/import', 'bins.import'],
+  ['/bins/export', 'bins.import'],
+  ['/api/bins/register', 'bins.edit'],
+  ['/api/bins/import/', 'bins.import'],
   ['/bins', 'bins.view'],
   ['/api/bins', 'bins.view'],
   ['/api/scan-events', 'scan.record'],

@@ -1,0 +1,7 @@
+import { endpoint } from '../../../lib/server/endpoint';
+import { registerBody, registerFromForm } from '../../../lib/server/bin-forms';
+
+/** Register one bin (the /bins/new form). Every problem comes back at once, per field. */
+export const POST = endpoint({ capability: 'bins.edit', body: registerBody, status: 201 }, async ({ ctx, user, body }) =>
+  registerFromForm(user, body, ctx.locals.clientAddress ?? null),
+);
