@@ -3,7 +3,7 @@
 //   npm test                       all suites (unit, integration, browser)
 //   npm test -- unit integration   only the named suites
 //   npm test -- browser -- login   extra arguments after a second -- go to vitest (e.g. a file filter)
-import { say, ensureDependencies, ensureDebianPackages, authSecret, migrate, seed, buildIfStale, bin, startChild, shutdown } from './setup.mjs';
+import { say, ensureDependencies, ensureDebianPackages, authSecret, migrate, seed, buildIfStale, bin, run, startChild, shutdown } from './setup.mjs';
 import { startPostgres, ensureDatabase, databaseUrl } from './postgres.mjs';
 import { spawnSync } from 'node:child_process';
 
@@ -60,7 +60,12 @@ try {
       testDb = databaseUrl('loopfold_test');
       e2eDb = databaseUrl('loopfold_e2e');
     }
-    if (suites.includes('integration')) migrate(testDb);
+    if (suites.includes('integration')) {
+      // Migrations must run forward and back cleanly: up, all the way down, up again.
+      migrate(testDb);
+      run(bin('sequelize-cli'), ['db:migrate:undo:all'], { DATABASE_URL: testDb });
+      migrate(testDb);
+    }
     if (suites.includes('browser')) {
       migrate(e2eDb);
       // A smaller pool than `npm start` seeds (600 bins): the same generator and
