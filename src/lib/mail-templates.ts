@@ -11,7 +11,7 @@ export interface MailContent {
 }
 
 /** What the mailer records as the message's kind (mail_outbox.kind). */
-export type MailKind = 'invite' | 'password_reset' | 'planner_digest';
+export type MailKind = 'invite' | 'password_reset' | 'planner_digest' | 'collection_request' | 'damage_report' | 'seal_mismatch';
 
 function compose(subject: string, lines: string[]): MailContent {
   const text = lines.join('\n').replace(/\n{3,}/g, '\n\n').trim() + '\n';
@@ -74,11 +74,120 @@ export function passwordResetMail(i: ResetMailInput): MailContent {
   ]);
 }
 
+// Mail to planners about requests from outside (the public bin page, later the
+// portal). Unlike the public page, these may name the site and the customer:
+// they go to the operator's own staff only.
+
+export type RequestSource = 'public' | 'portal' | 'planner' | 'yard';
+
+const SOURCE_WORDS: Record<RequestSource, string> = {
+  public: 'the public bin page (someone who scanned a label)',
+  portal: 'the customer portal',
+  planner: 'a planner',
+  yard: 'a yard',
+};
+
+export interface RequestMailBin {
+  serial: string;
+  /** The GRAI grouped for reading (groupGrai). */
+  grai: string;
+}
+
+interface RequestMailCommon {
+  operatorName: string;
+  source: RequestSource;
+  bin: RequestMailBin | null;
+  siteName: string | null;
+  customerName: string | null;
+  receivedAt: Date;
+  timeZone: string;
+  /** The planners' requests page (APP_URL + /requests). */
+  link: string;
+}
+
+export interface CollectionRequestMailInput extends RequestMailCommon {
+  quantity: number;
+  locationNote: string | null;
+  contactName: string | null;
+  contactPhone: string | null;
+  contactEmail: string | null;
+  note: string | null;
+}
+
+export interface DamageReportMailInput extends RequestMailCommon {
+  description: string;
+  hasPhoto: boolean;
+  contactName: string | null;
+  contactEmail: string | null;
+}
+
+const bins = (n: number) => `${n} folded bin${n === 1 ? '' : 's'}`;
+
+function whereLine(i: RequestMailCommon): string {
+  if (!i.siteName) return 'Where: not known from the bin (it is not recorded at a site); see the spot below.';
+  return `Where: ${i.siteName}${i.customerName ? ` (${i.customerName})` : ''}`;
+}
+
+function binLine(bin: RequestMailBin | null): string {
+  return bin ? `Bin scanned: serial ${bin.serial}, GRAI ${bin.grai}` : 'Bin scanned: none (sent without a bin label)';
+}
+
+function contactLine(name: string | null, phone: string | null, email: string | null): string {
+  const parts = [name, phone, email].filter((p): p is string => !!p);
+  return `Contact: ${parts.length ? parts.join(' · ') : 'none given'}`;
+}
+
+function receivedLine(i: RequestMailCommon): string {
+  return `Received ${formatMomentAbsolute(i.receivedAt, i.timeZone)} (${i.timeZone} time) through ${SOURCE_WORDS[i.source]}.`;
+}
+
+export function collectionRequestMail(i: CollectionRequestMailInput): MailContent {
+  const at = i.siteName ?? (i.bin ? `bin ${i.bin.serial}` : 'an unknown site');
+  return compose(`Collection request: ${bins(i.quantity)} at ${at}`, [
+    `${bins(i.quantity)} ${i.quantity === 1 ? 'is' : 'are'} empty and ready for collection.`,
+    '',
+    whereLine(i),
+    ...(i.locationNote ? [`Exact spot: ${i.locationNote}`] : []),
+    binLine(i.bin),
+    contactLine(i.contactName, i.contactPhone, i.contactEmail),
+    ...(i.note ? ['', 'Note from the sender:', i.note] : []),
+    '',
+    receivedLine(i),
+    '',
+    'Schedule the collection on the requests page:',
+    i.link,
+    ...signature(i.operatorName),
+  ]);
+}
+
+export function damageReportMail(i: DamageReportMailInput): MailContent {
+  const what = i.bin ? `bin ${i.bin.serial}` : 'a bin';
+  return compose(`Damage reported on ${what}${i.siteName ? ` at ${i.siteName}` : ''}`, [
+    `Someone reported damage on ${what}:`,
+    '',
+    i.description,
+    '',
+    whereLine(i),
+    binLine(i.bin),
+    contactLine(i.contactName, null, i.contactEmail),
+    i.hasPhoto ? 'A photo came with the report; see it on the requests page.' : 'No photo came with the report.',
+    '',
+    receivedLine(i),
+    '',
+    'Triage it on the requests page; the bin stays in service until someone quarantines it:',
+    i.link,
+    ...signature(i.operatorName),
+  ]);
+}
+
 /** How each kind is named on the "Sent mail" page. */
 export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   invite: 'Invitation',
   password_reset: 'Password reset',
   planner_digest: 'Morning digest',
+  collection_request: 'Collection request',
+  damage_report: 'Damage report',
+  seal_mismatch: 'Seal mismatch alert',
 };
 
 export interface DigestInput {

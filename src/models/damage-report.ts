@@ -7,6 +7,8 @@ export class DamageReport extends Model<InferAttributes<DamageReport>, InferCrea
   declare source: 'public' | 'portal' | 'yard';
   declare assetId: number | null;
   declare siteId: number | null;
+  /** The customer whose hire the bin was on when reported (null when it was not on hire). */
+  declare customerId: number | null;
   declare description: string;
   declare photoId: number | null;
   declare contactName: string | null;
@@ -25,6 +27,7 @@ DamageReport.init(
     source: { type: DataTypes.STRING(10), allowNull: false },
     assetId: { type: DataTypes.INTEGER, allowNull: true },
     siteId: { type: DataTypes.INTEGER, allowNull: true },
+    customerId: { type: DataTypes.INTEGER, allowNull: true },
     description: { type: DataTypes.TEXT, allowNull: false },
     photoId: { type: DataTypes.INTEGER, allowNull: true },
     contactName: { type: DataTypes.STRING(120), allowNull: true },

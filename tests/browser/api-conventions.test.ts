@@ -31,7 +31,7 @@ afterAll(async () => {
 
 async function expectError(res: Awaited<ReturnType<APIRequestContext['post']>>, status: number, code: string) {
   expect(res.status()).toBe(status);
-  const body = await res.json();
+  const body = (await res.json()) as { error: { code: string; message: string; details?: any } };
   expect(Object.keys(body)).toEqual(['error']);
   expect(body.error.code).toBe(code);
   expect(typeof body.error.message).toBe('string');

@@ -13,6 +13,7 @@ import { sendMail, type MailOutcome } from './mailer';
 import { checkAssignment, personById, userSnapshot } from './people';
 import { claimToken, dropUnusedTokens, inspectToken, issueToken } from './user-tokens';
 import { hit, passwordResetLimits } from './rate-limits';
+import { appUrl } from './app-url';
 
 // Invitations, set-password links and password resets. Admin actions carry an
 // actor (who, from where) for the audit trail; the public steps (using a link,
@@ -23,10 +24,6 @@ const BCRYPT_COST = 10;
 
 export interface Inviter extends AuditActor {
   name: string;
-}
-
-function appUrl(): string {
-  return process.env.APP_URL ?? `http://localhost:${process.env.PORT ?? 4321}`;
 }
 
 async function operatorSettings() {

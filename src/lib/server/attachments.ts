@@ -23,23 +23,32 @@ export interface StoreInput {
   uploadedBy: number | null;
 }
 
-export async function storeAttachment(input: StoreInput, transaction?: Transaction): Promise<{ id: number; contentType: string; byteSize: number }> {
-  if (input.bytes.byteLength === 0) throw new AppError('validation_failed', 'The file is empty.');
-  if (input.bytes.byteLength > MAX_UPLOAD_BYTES) throw new AppError('payload_too_large', `Files may be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
-  const sniffed = await fileTypeFromBuffer(input.bytes);
-  const allowed = ALLOWED[input.purpose];
-  if (!sniffed || !allowed.includes(sniffed.mime)) {
-    throw new AppError('unsupported_media_type', input.purpose === 'photo' ? 'That file is not a photo (JPEG, PNG, WebP or HEIC).' : 'That file type is not accepted here.');
+/**
+ * Checks an upload's size and sniffs its type from the bytes; returns the
+ * content type or throws the AppError to show. Callers that must refuse a bad
+ * file before doing anything else (counting a rate limit, say) call it first.
+ */
+export async function checkUpload(bytes: Uint8Array, purpose: StoreInput['purpose']): Promise<string> {
+  if (bytes.byteLength === 0) throw new AppError('validation_failed', 'The file is empty.');
+  if (bytes.byteLength > MAX_UPLOAD_BYTES) throw new AppError('payload_too_large', `Files may be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
+  const sniffed = await fileTypeFromBuffer(bytes);
+  if (!sniffed || !ALLOWED[purpose].includes(sniffed.mime)) {
+    throw new AppError('unsupported_media_type', purpose === 'photo' ? 'That file is not a photo (JPEG, PNG, WebP or HEIC).' : 'That file type is not accepted here.');
   }
+  return sniffed.mime;
+}
+
+export async function storeAttachment(input: StoreInput, transaction?: Transaction): Promise<{ id: number; contentType: string; byteSize: number }> {
+  const contentType = await checkUpload(input.bytes, input.purpose);
   const row = await Attachment.create(
     {
-      content: Buffer.from(input.bytes), contentType: sniffed.mime, byteSize: input.bytes.byteLength,
+      content: Buffer.from(input.bytes), contentType, byteSize: input.bytes.byteLength,
       sha256: createHash('sha256').update(input.bytes).digest('hex'), filename: input.filename?.slice(0, 200) ?? null,
       purpose: input.purpose, organisationId: input.organisationId, uploadedBy: input.uploadedBy,
     },
     { transaction },
   );
-  return { id: row.id, contentType: sniffed.mime, byteSize: row.byteSize };
+  return { id: row.id, contentType, byteSize: row.byteSize };
 }
 
 /** Reads a multipart form, refusing oversize bodies before reading them. */

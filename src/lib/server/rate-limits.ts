@@ -33,6 +33,13 @@ export const signInLimits = {
 export const publicFormLimit = () => get('public-form', () => limiter('public_form', 5, 60 * 60));
 
 /**
+ * Public reports about one bin: 10 a day from all addresses together. A bin
+ * gets a report or two a day in real use; this stops one label (photographed
+ * and passed round) from flooding the planners' inbox from many addresses.
+ */
+export const publicBinFormLimit = () => get('public-bin-form', () => limiter('public_bin', 10, 24 * 60 * 60));
+
+/**
  * "Forgotten password" requests: 10 per address in 15 minutes (answered with a
  * 429), and at most 3 links per e-mail address an hour (further requests get
  * the usual answer but no mail, so nobody can flood someone's inbox).

@@ -1,0 +1,31 @@
+import { z } from 'zod';
+import { endpoint } from '../../../../lib/server/endpoint';
+import { AppError } from '../../../../lib/api-errors';
+import { actorFrom } from '../../../../lib/server/audit';
+import { changeRequestStatus } from '../../../../lib/server/requests';
+import { isStatusOf, type RequestKind } from '../../../../lib/request-status';
+
+const body = z.object({
+  status: z.string().min(1).max(20),
+  version: z.number().int().min(0),
+});
+
+/**
+ * A planner moves a collection request or damage report on:
+ *   PATCH /api/requests/collection/<id>  { status, version }
+ *   PATCH /api/requests/damage/<id>      { status, version }
+ * A stale version gets 409 changed_meanwhile; a step the status table does not
+ * allow gets 422 transition_refused with the reason.
+ */
+export const PATCH = endpoint({ capability: 'requests.view', body }, async ({ ctx, body: change }) => {
+  const kind = ctx.params.kind;
+  if (kind !== 'collection' && kind !== 'damage') throw new AppError('not_found', 'Requests are either "collection" or "damage".');
+  const id = Number(ctx.params.id);
+  if (!Number.isInteger(id) || id <= 0) throw new AppError('bad_request', 'Request ids are positive whole numbers.');
+  if (!isStatusOf(kind as RequestKind, change.status)) {
+    throw new AppError('validation_failed', `"${change.status}" is not a status of a ${kind === 'collection' ? 'collection request' : 'damage report'}.`, [
+      { path: 'status', message: 'Unknown status.' },
+    ]);
+  }
+  return changeRequestStatus(kind, id, { status: change.status, version: change.version }, actorFrom(ctx.locals));
+});
