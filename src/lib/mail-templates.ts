@@ -224,3 +224,35 @@ export function plannerDigestMail(d: DigestInput): MailContent {
   ];
   return compose(`Pool digest ${d.day}: ${overdueTotal} overdue, ${d.testsLapsed} tests lapsed`, lines);
 }
+
+export interface SealMismatchInput {
+  operatorName: string;
+  serial: string;
+  grai: string;
+  siteName: string | null;
+  customerName: string | null;
+  applied: string[];
+  found: string[];
+  at: Date;
+  timeZone: string;
+  link: string;
+}
+
+/** Sent to planners at once when the seals found at discharge differ from those fitted at filling. */
+export function sealMismatchMail(m: SealMismatchInput): MailContent {
+  const missing = m.applied.filter((s) => !m.found.includes(s));
+  const extra = m.found.filter((s) => !m.applied.includes(s));
+  return compose(`Seal mismatch on bin ${m.serial}${m.customerName ? ` at ${m.customerName}` : ''}`, [
+    `At ${formatMomentAbsolute(m.at, m.timeZone)} the seals checked on bin ${m.serial} (${m.grai})${m.siteName ? ` at ${m.siteName}` : ''} did not match those fitted when it was filled.`,
+    '',
+    `Fitted at filling: ${m.applied.length ? m.applied.join(', ') : 'none recorded'}`,
+    `Found at discharge: ${m.found.length ? m.found.join(', ') : 'none'}`,
+    ...(missing.length ? [`Not found: ${missing.join(', ')}`] : []),
+    ...(extra.length ? [`Unexpected: ${extra.join(', ')}`] : []),
+    '',
+    'The load may have been opened on the way. Check with the customer before the product is used, and follow your procedure for suspected tampering.',
+    '',
+    `The bin's page: ${m.link}`,
+    ...signature(m.operatorName),
+  ]);
+}

@@ -3,6 +3,7 @@ import type { ScanEventBody } from '../scan-schema';
 import { findBin } from './bin-lookup';
 import { recordScan, type ScanOutcome } from './scan-service';
 import type { SessionUser } from './session-user';
+import { alertAfterScan } from './scan-alerts';
 
 /** A scan as a client sent it: resolve the bin, then record it. */
 export async function recordScanFromClient(user: SessionUser, e: ScanEventBody): Promise<ScanOutcome> {
@@ -12,10 +13,12 @@ export async function recordScanFromClient(user: SessionUser, e: ScanEventBody):
     if (found.kind !== 'found') throw new AppError('not_found', found.kind === 'none' ? found.message : 'Several bins match; scan or type the full GRAI.');
     assetId = found.assetId;
   }
-  return recordScan(user, {
+  const outcome = await recordScan(user, {
     ...e,
     assetId,
     occurredAt: e.occurredAt ? new Date(e.occurredAt) : undefined,
     fill: e.fill ? { ...e.fill, seals: e.fill.seals } : undefined,
   });
+  await alertAfterScan(outcome);
+  return outcome;
 }
