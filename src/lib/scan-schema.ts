@@ -40,4 +40,18 @@ export const scanEventSchema = z
 
 export type ScanEventBody = z.infer<typeof scanEventSchema>;
 
-export const scanRequestSchema = z.union([scanEventSchema, z.object({ events: z.array(scanEventSchema).min(1).max(200) }).strict()]);
+const batchSchema = z.object({ events: z.array(scanEventSchema).min(1).max(200) }).strict();
+
+/**
+ * One scan, or `{ events: [...] }` from an offline queue. Chosen by shape first
+ * so a bad field is reported by its name, not as "no union member matched".
+ */
+export const scanRequestSchema = z.unknown().transform((value, ctx): ScanEventBody | z.infer<typeof batchSchema> => {
+  const schema = value !== null && typeof value === 'object' && 'events' in value ? batchSchema : scanEventSchema;
+  const result = schema.safeParse(value);
+  if (!result.success) {
+    for (const issue of result.error.issues) ctx.addIssue({ ...issue, code: z.ZodIssueCode.custom, message: issue.message });
+    return z.NEVER;
+  }
+  return result.data;
+});

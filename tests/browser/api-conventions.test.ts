@@ -66,7 +66,7 @@ describe('API conventions', () => {
     // a GRAI with a wrong check digit: the message says which digit was expected
     const err = await expectError(await as('yard').post('/api/scan-events', { data: { clientEventId: randomUUID(), grai: '(8003)09521234100109100028', action: 'receive' } }), 404, 'not_found');
     expect(err.message).toMatch(/check digit/i);
-    const types = await as('yard').fetch('/api/scan-events', { method: 'POST', headers: { 'Content-Type': 'text/plain' }, data: Buffer.from('hello') });
+    const types = await as('yard').fetch('/api/scan-events', { method: 'POST', headers: { 'Content-Type': 'text/plain', Origin: app.url }, data: Buffer.from('hello') });
     await expectError(types, 415, 'unsupported_media_type');
   });
 
