@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 import type { Status, Leg } from '../lib/lifecycle';
 
 /**
@@ -38,7 +39,7 @@ export class Asset extends Model<InferAttributes<Asset>, InferCreationAttributes
 
 Asset.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     grai: { type: DataTypes.STRING(30), allowNull: false, unique: true },
     serial: { type: DataTypes.STRING(16), allowNull: false },
     binTypeId: { type: DataTypes.INTEGER, allowNull: false },
@@ -61,9 +62,8 @@ Asset.init(
     nextFullDue: { type: DataTypes.DATEONLY, allowNull: true },
     nextDue: { type: DataTypes.DATEONLY, allowNull: true },
     labelPrintedAt: { type: DataTypes.DATE, allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'assets', version: true },
 );

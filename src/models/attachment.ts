@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn } from './columns';
 
 /** An uploaded file stored in PostgreSQL; served only through an authorised endpoint. */
 export class Attachment extends Model<InferAttributes<Attachment>, InferCreationAttributes<Attachment>> {
@@ -17,7 +18,7 @@ export class Attachment extends Model<InferAttributes<Attachment>, InferCreation
 
 Attachment.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     content: { type: DataTypes.BLOB, allowNull: false },
     contentType: { type: DataTypes.STRING(100), allowNull: false },
     byteSize: { type: DataTypes.INTEGER, allowNull: false },

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** A model of bin: capacity, masses, dimensions erected and folded, UN code and inspection policy. */
 export class BinType extends Model<InferAttributes<BinType>, InferCreationAttributes<BinType>> {
@@ -26,7 +27,7 @@ export class BinType extends Model<InferAttributes<BinType>, InferCreationAttrib
 
 BinType.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     code: { type: DataTypes.STRING(24), allowNull: false, unique: true },
     name: { type: DataTypes.STRING(120), allowNull: false },
     graiAssetType: { type: DataTypes.STRING(6), allowNull: false },
@@ -42,9 +43,8 @@ BinType.init(
     intermediateMonths: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30 },
     fullMonths: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 60 },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'bin_types', version: true },
 );

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** "Empties ready for collection" — from the public bin page, the customer portal or a planner. */
 export class CollectionRequest extends Model<InferAttributes<CollectionRequest>, InferCreationAttributes<CollectionRequest>> {
@@ -24,7 +25,7 @@ export class CollectionRequest extends Model<InferAttributes<CollectionRequest>,
 
 CollectionRequest.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     source: { type: DataTypes.STRING(10), allowNull: false },
     assetId: { type: DataTypes.INTEGER, allowNull: true },
     siteId: { type: DataTypes.INTEGER, allowNull: true },
@@ -38,9 +39,8 @@ CollectionRequest.init(
     status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'open' },
     requestedBy: { type: DataTypes.INTEGER, allowNull: true },
     requesterIp: { type: DataTypes.STRING(64), allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'collection_requests', version: true },
 );

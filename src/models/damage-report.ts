@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** A reported fault on a bin — from the public page, a customer or a yard. */
 export class DamageReport extends Model<InferAttributes<DamageReport>, InferCreationAttributes<DamageReport>> {
@@ -23,7 +24,7 @@ export class DamageReport extends Model<InferAttributes<DamageReport>, InferCrea
 
 DamageReport.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     source: { type: DataTypes.STRING(10), allowNull: false },
     assetId: { type: DataTypes.INTEGER, allowNull: true },
     siteId: { type: DataTypes.INTEGER, allowNull: true },
@@ -35,9 +36,8 @@ DamageReport.init(
     status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'open' },
     reportedBy: { type: DataTypes.INTEGER, allowNull: true },
     requesterIp: { type: DataTypes.STRING(64), allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'damage_reports', version: true },
 );

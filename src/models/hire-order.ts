@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 export type HireOrderStatus = 'open' | 'loading' | 'dispatched' | 'closed' | 'cancelled';
 
@@ -23,7 +24,7 @@ export class HireOrder extends Model<InferAttributes<HireOrder>, InferCreationAt
 
 HireOrder.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     reference: { type: DataTypes.STRING(32), allowNull: false, unique: true },
     customerId: { type: DataTypes.INTEGER, allowNull: false },
     deliverySiteId: { type: DataTypes.INTEGER, allowNull: false },
@@ -34,9 +35,8 @@ HireOrder.init(
     status: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'open' },
     product: { type: DataTypes.STRING(120), allowNull: true },
     notes: { type: DataTypes.TEXT, allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'hire_orders', version: true },
 );

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn } from './columns';
 
 export type InspectionKind = 'prep_check' | 'intermediate' | 'full' | 'after_repair';
 
@@ -26,7 +27,7 @@ export class Inspection extends Model<InferAttributes<Inspection>, InferCreation
 
 Inspection.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     assetId: { type: DataTypes.INTEGER, allowNull: false },
     kind: { type: DataTypes.STRING(16), allowNull: false },
     performedOn: { type: DataTypes.DATEONLY, allowNull: false },

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** A supplier's lot of single-use liners received at a depot. Stock on hand is derived, never stored. */
 export class LinerLot extends Model<InferAttributes<LinerLot>, InferCreationAttributes<LinerLot>> {
@@ -21,7 +22,7 @@ export class LinerLot extends Model<InferAttributes<LinerLot>, InferCreationAttr
 
 LinerLot.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     supplier: { type: DataTypes.STRING(120), allowNull: false },
     lotNumber: { type: DataTypes.STRING(40), allowNull: false },
     spec: { type: DataTypes.STRING(160), allowNull: false },
@@ -32,9 +33,8 @@ LinerLot.init(
     siteId: { type: DataTypes.INTEGER, allowNull: false },
     certificateId: { type: DataTypes.INTEGER, allowNull: true },
     statusReason: { type: DataTypes.TEXT, allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'liner_lots', version: true },
 );

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** Many bins going out on one truck against one hire order (or a transfer of empties). */
 export class Load extends Model<InferAttributes<Load>, InferCreationAttributes<Load>> {
@@ -27,7 +28,7 @@ export class Load extends Model<InferAttributes<Load>, InferCreationAttributes<L
 
 Load.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     reference: { type: DataTypes.STRING(32), allowNull: false, unique: true },
     hireOrderId: { type: DataTypes.INTEGER, allowNull: true },
     depotSiteId: { type: DataTypes.INTEGER, allowNull: false },
@@ -44,9 +45,8 @@ Load.init(
     receivedByName: { type: DataTypes.STRING(120), allowNull: true },
     deliveryPhotoId: { type: DataTypes.INTEGER, allowNull: true },
     createdBy: { type: DataTypes.INTEGER, allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'loads', version: true },
 );

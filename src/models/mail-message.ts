@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn } from './columns';
 
 /** A message the app handed to its SMTP server, with the server's answer. */
 export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreationAttributes<MailMessage>> {
@@ -17,7 +18,7 @@ export class MailMessage extends Model<InferAttributes<MailMessage>, InferCreati
 
 MailMessage.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     toAddress: { type: DataTypes.STRING(254), allowNull: false },
     subject: { type: DataTypes.STRING(300), allowNull: false },
     textBody: { type: DataTypes.TEXT, allowNull: false },

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** The operator itself and each customer, with the customer's hire terms. */
 export class Organisation extends Model<InferAttributes<Organisation>, InferCreationAttributes<Organisation>> {
@@ -20,7 +21,7 @@ export class Organisation extends Model<InferAttributes<Organisation>, InferCrea
 
 Organisation.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     name: { type: DataTypes.STRING(160), allowNull: false },
     kind: { type: DataTypes.STRING(16), allowNull: false },
     contactEmail: { type: DataTypes.STRING(254), allowNull: true },
@@ -30,9 +31,8 @@ Organisation.init(
     lostBinFee: { type: DataTypes.DECIMAL(10, 2), allowNull: false, defaultValue: '0' },
     currency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: 'EUR' },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'organisations', version: true },
 );

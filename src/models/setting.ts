@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { versionColumn } from './columns';
 
 /** Operator-wide settings (one row): GS1 identity, time zone for all day counts, money, mail sender. */
 export class Setting extends Model<InferAttributes<Setting>, InferCreationAttributes<Setting>> {
@@ -29,7 +30,7 @@ Setting.init(
     taxRate: { type: DataTypes.DECIMAL(5, 4), allowNull: false },
     mailSender: { type: DataTypes.STRING(254), allowNull: false },
     returnInstructions: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+    version: versionColumn,
     updatedAt: DataTypes.DATE,
   },
   { sequelize, tableName: 'settings', createdAt: false, version: true },

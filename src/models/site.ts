@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 export type SiteKind = 'depot' | 'customer' | 'repair' | 'recycling';
 
@@ -21,7 +22,7 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
 
 Site.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     organisationId: { type: DataTypes.INTEGER, allowNull: false },
     code: { type: DataTypes.STRING(24), allowNull: false, unique: true },
     name: { type: DataTypes.STRING(160), allowNull: false },
@@ -30,9 +31,8 @@ Site.init(
     latitude: { type: DataTypes.DECIMAL(9, 6), allowNull: true },
     longitude: { type: DataTypes.DECIMAL(9, 6), allowNull: true },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'sites', version: true },
 );

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** One rotation of one bin: opened at dispatch, closed when it is received back at a depot. */
 export class Trip extends Model<InferAttributes<Trip>, InferCreationAttributes<Trip>> {
@@ -34,7 +35,7 @@ export class Trip extends Model<InferAttributes<Trip>, InferCreationAttributes<T
 
 Trip.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     assetId: { type: DataTypes.INTEGER, allowNull: false },
     hireOrderId: { type: DataTypes.INTEGER, allowNull: true },
     loadId: { type: DataTypes.INTEGER, allowNull: true },
@@ -58,9 +59,8 @@ Trip.init(
     sealsVerified: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
     sealMismatch: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     status: { type: DataTypes.STRING(8), allowNull: false, defaultValue: 'open' },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'trips', version: true },
 );

@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn } from './columns';
 
 /** A one-time invitation or password-reset link; only its SHA-256 is stored. */
 export class UserToken extends Model<InferAttributes<UserToken>, InferCreationAttributes<UserToken>> {
@@ -14,7 +15,7 @@ export class UserToken extends Model<InferAttributes<UserToken>, InferCreationAt
 
 UserToken.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     userId: { type: DataTypes.INTEGER, allowNull: false },
     purpose: { type: DataTypes.STRING(16), allowNull: false },
     tokenHash: { type: DataTypes.CHAR(64), allowNull: false, unique: true },

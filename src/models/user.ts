@@ -1,5 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
 import { sequelize } from '../lib/server/db';
+import { idColumn, versionColumn, timestampColumns } from './columns';
 import type { Role } from '../lib/permissions';
 
 /** Someone who signs in. Invited users have no password until they follow their link. */
@@ -21,7 +22,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
 
 User.init(
   {
-    id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+    id: idColumn,
     email: { type: DataTypes.STRING(254), allowNull: false, unique: true },
     name: { type: DataTypes.STRING(160), allowNull: false },
     passwordHash: { type: DataTypes.STRING(100), allowNull: true },
@@ -31,9 +32,8 @@ User.init(
     qualifiedInspector: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     lastSignInAt: { type: DataTypes.DATE, allowNull: true },
-    version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
-    createdAt: DataTypes.DATE,
-    updatedAt: DataTypes.DATE,
+    version: versionColumn,
+    ...timestampColumns,
   },
   { sequelize, tableName: 'users', version: true },
 );

@@ -1,26 +1,16 @@
 // Each home shows live counts from the database: the test reads the same
 // rows with SQL and compares.
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { describe, test, expect, afterAll } from 'vitest';
+import { useApp, newContext, signIn, screenshot } from './support/app';
 import { rows, one, closeDb } from './support/db';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-  await closeDb();
-});
+const t = useApp();
+afterAll(closeDb);
 
 describe('homes show live counts', () => {
   test('yard: the depot’s bins by status and the bins to prepare', async () => {
-    const ctx = await newContext(browser, app, 'phone');
+    const ctx = await newContext(t.browser, t.app, 'phone');
     const page = await ctx.newPage();
     await signIn(page, 'yard@northmere.example', DEMO_PASSWORD);
     await page.waitForURL('**/yard');
@@ -42,7 +32,7 @@ describe('homes show live counts', () => {
 
   test('customer: bins on hire and waiting for collection, only their own', async () => {
     for (const kind of ['desktop', 'phone'] as const) {
-      const ctx = await newContext(browser, app, kind);
+      const ctx = await newContext(t.browser, t.app, kind);
       const page = await ctx.newPage();
       await signIn(page, 'buyer@haldenoils.example', DEMO_PASSWORD);
       await page.waitForURL('**/portal');

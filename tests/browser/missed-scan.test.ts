@@ -2,28 +2,18 @@
 // receives it anyway; the missed steps are inferred and flagged; the planner
 // finds it under "Scans to review", opens the bin and voids the receive
 // (the history keeps it, struck through) — or confirms it.
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { describe, test, expect, afterAll } from 'vitest';
+import { useApp, newContext, signIn, screenshot } from './support/app';
 import { one, closeDb } from './support/db';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-  await closeDb();
-});
+const t = useApp();
+afterAll(closeDb);
 
 describe('a missed scan', () => {
   test('receive infers fold and collect; the planner sees the flag and voids the scan', async () => {
     const bin = await one<{ grai: string; serial: string }>(`SELECT grai, serial FROM assets WHERE status = 'on_hire' AND NOT filled ORDER BY id LIMIT 1`);
-    const yardCtx = await newContext(browser, app, 'phone');
+    const yardCtx = await newContext(t.browser, t.app, 'phone');
     const yard = await yardCtx.newPage();
     await signIn(yard, 'yard@northmere.example', DEMO_PASSWORD);
     await yard.waitForURL('**/yard');
@@ -35,7 +25,7 @@ describe('a missed scan', () => {
     await expect(notice.textContent()).resolves.toMatch(/inferred and flagged for a planner: Fold, Collect/);
     await yardCtx.close();
 
-    const ctx = await newContext(browser, app, 'desktop');
+    const ctx = await newContext(t.browser, t.app, 'desktop');
     const page = await ctx.newPage();
     await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);
     await page.waitForURL('**/fleet');

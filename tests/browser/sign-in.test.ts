@@ -1,19 +1,8 @@
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
-import type { Browser } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { describe, test, expect } from 'vitest';
+import { useApp, newContext, signIn, screenshot } from './support/app';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
-
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+const t = useApp();
 
 const HOMES: Record<string, { path: string; heading: RegExp }> = {
   admin: { path: '/fleet', heading: /Pool overview/ },
@@ -25,7 +14,7 @@ const HOMES: Record<string, { path: string; heading: RegExp }> = {
 describe('signing in', () => {
   test('the sign-in page renders at desktop and phone width', async () => {
     for (const kind of ['desktop', 'phone'] as const) {
-      const ctx = await newContext(browser, app, kind);
+      const ctx = await newContext(t.browser, t.app, kind);
       const page = await ctx.newPage();
       await page.goto('/login');
       await expect(page.getByRole('heading', { name: 'Sign in' }).isVisible()).resolves.toBe(true);
@@ -37,7 +26,7 @@ describe('signing in', () => {
   for (const login of DEMO_LOGINS) {
     test(`${login.role} signs in and lands on their home`, async () => {
       for (const kind of ['desktop', 'phone'] as const) {
-        const ctx = await newContext(browser, app, kind);
+        const ctx = await newContext(t.browser, t.app, kind);
         const page = await ctx.newPage();
         await signIn(page, login.email, DEMO_PASSWORD);
         await page.waitForURL((u) => u.pathname === HOMES[login.role]!.path);
@@ -49,7 +38,7 @@ describe('signing in', () => {
   }
 
   test('a wrong password shows the error and does not sign in', async () => {
-    const ctx = await newContext(browser, app);
+    const ctx = await newContext(t.browser, t.app);
     const page = await ctx.newPage();
     await signIn(page, 'planner@northmere.example', 'not-the-password');
     const alert = page.locator('#login-error');
@@ -61,7 +50,7 @@ describe('signing in', () => {
   });
 
   test('a customer opening a planner page is refused', async () => {
-    const ctx = await newContext(browser, app);
+    const ctx = await newContext(t.browser, t.app);
     const page = await ctx.newPage();
     const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
     await signIn(page, customer.email, DEMO_PASSWORD);

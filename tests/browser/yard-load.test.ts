@@ -3,24 +3,15 @@
 // continuous scan mode (a bin that is not ready is refused with the reason),
 // sends the truck and prints the note; the receiving end confirms delivery
 // through the note's link with a name and a photo.
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, test, expect, afterAll } from 'vitest';
+import type { Page } from 'playwright-core';
 import QRCode from 'qrcode';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { useApp, newContext, signIn, screenshot } from './support/app';
 import { one, rows, closeDb } from './support/db';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-  await closeDb();
-});
+const t = useApp();
+afterAll(closeDb);
 
 async function record(page: Page, action: string, fill?: (p: Page) => Promise<void>) {
   await page.click(`button[data-action="${action}"]`);
@@ -48,7 +39,7 @@ describe('preparing and loading bins on a phone', () => {
     );
     expect(order).toBeTruthy();
 
-    const ctx = await newContext(browser, app, 'phone');
+    const ctx = await newContext(t.browser, t.app, 'phone');
     const page = await ctx.newPage();
     await signIn(page, 'yard@northmere.example', DEMO_PASSWORD);
     await page.waitForURL('**/yard');
@@ -93,7 +84,7 @@ describe('preparing and loading bins on a phone', () => {
     await ctx.close();
 
     // the receiving end, not signed in
-    const anon = await newContext(browser, app, 'phone');
+    const anon = await newContext(t.browser, t.app, 'phone');
     const p2 = await anon.newPage();
     await p2.goto(new URL(link!).pathname);
     await p2.fill('#name', 'Mila de Boer');

@@ -5,6 +5,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
+import { beforeAll, afterAll } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 
 export const ROOT = new URL('../../../', import.meta.url).pathname;
@@ -97,4 +98,28 @@ export async function screenshot(page: Page, name: string) {
   const dir = join(ARTIFACTS, 'screenshots');
   mkdirSync(dir, { recursive: true });
   await page.screenshot({ path: join(dir, `${name}.png`), fullPage: true });
+}
+
+/**
+ * For a test file: starts the built server and a browser before its tests and
+ * stops both after them. Use `t.app` and `t.browser` inside tests.
+ */
+export function useApp(): { readonly app: RunningApp; readonly browser: Browser } {
+  const held: { app?: RunningApp; browser?: Browser } = {};
+  beforeAll(async () => {
+    held.app = await startApp();
+    held.browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await held.browser?.close();
+    await held.app?.stop();
+  });
+  return {
+    get app() {
+      return held.app!;
+    },
+    get browser() {
+      return held.browser!;
+    },
+  };
 }
