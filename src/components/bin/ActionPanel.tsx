@@ -44,7 +44,7 @@ export default function ActionPanel({ actions, siteName, record, ...options }: P
       )}
       {outcome?.kind === 'queued' && (
         <p className="notice-info" role="status" data-queued>
-          No connection: saved on this phone. It is sent by itself when the signal is back ({outcome.waiting} waiting).
+          Saved on this phone: Loopfold cannot be reached right now. It is sent by itself as soon as it can ({outcome.waiting} waiting).
         </p>
       )}
       {outcome?.kind === 'refused' && (

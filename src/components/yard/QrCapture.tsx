@@ -22,7 +22,10 @@ function cameraError(err: unknown): string {
   return 'The camera could not be started. Take a photo of the label, or type the GRAI.';
 }
 
-export default function QrCapture({ onDecoded, disabled = false }: { onDecoded: (text: string) => void; disabled?: boolean }) {
+/** The same code seen again within this time is the same label still in view, not a second scan. */
+const REPEAT_MS = 2_500;
+
+export default function QrCapture({ onDecoded, disabled = false, keepOpen = false }: { onDecoded: (text: string) => void; disabled?: boolean; keepOpen?: boolean }) {
   const base = useId().replace(/[^A-Za-z0-9]/g, '');
   const liveId = `qr-live-${base}`;
   const photoId = `qr-photo-${base}`;
@@ -31,6 +34,10 @@ export default function QrCapture({ onDecoded, disabled = false }: { onDecoded: 
   const [notice, setNotice] = useState<string | null>(null);
   const reader = useRef<QrReader | null>(null);
   const handled = useRef(false);
+  const last = useRef<{ text: string; at: number } | null>(null);
+  // The camera callback outlives renders: always hand codes to the latest handler.
+  const report = useRef(onDecoded);
+  report.current = onDecoded;
 
   useEffect(() => {
     setSecure(window.isSecureContext && typeof navigator.mediaDevices?.getUserMedia === 'function');
@@ -63,10 +70,18 @@ export default function QrCapture({ onDecoded, disabled = false }: { onDecoded: 
       const m = await loadReader();
       const r = m.createReader(liveId);
       reader.current = r;
+      last.current = null;
       await m.startCamera(r, (text) => {
+        if (keepOpen) {
+          const now = Date.now();
+          if (last.current?.text === text && now - last.current.at < REPEAT_MS) return;
+          last.current = { text, at: now };
+          report.current(text);
+          return;
+        }
         if (handled.current) return;
         handled.current = true;
-        void closeCamera().then(() => onDecoded(text));
+        void closeCamera().then(() => report.current(text));
       });
       setMode('live');
     } catch (err) {

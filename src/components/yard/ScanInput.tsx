@@ -17,13 +17,15 @@ interface Props {
   onIdentified?: (id: Identified) => void | Promise<void>;
   label?: string;
   busy?: boolean;
+  /** Continuous scanning (a load): the camera stays open and reports each new code. */
+  keepCameraOpen?: boolean;
 }
 
 export function binHref(id: Identified): string {
   return id.grai ? `/bins/${id.grai}` : `/bins/find?q=${encodeURIComponent(id.serial!)}`;
 }
 
-export default function ScanInput({ prefixLength, onIdentified, label = 'Or type the GRAI or serial', busy = false }: Props) {
+export default function ScanInput({ prefixLength, onIdentified, label = 'Type the GRAI or serial', busy = false, keepCameraOpen = false }: Props) {
   const [text, setText] = useState('');
   const [error, setError] = useState<string | null>(null);
 
@@ -48,7 +50,7 @@ export default function ScanInput({ prefixLength, onIdentified, label = 'Or type
 
   return (
     <div className="space-y-3" data-scan-input>
-      <QrCapture disabled={busy} onDecoded={(decoded) => void proceed(identifyDecoded(decoded, prefixLength), () => undefined)} />
+      <QrCapture disabled={busy} keepOpen={keepCameraOpen} onDecoded={(decoded) => void proceed(identifyDecoded(decoded, prefixLength), () => undefined)} />
       <form onSubmit={submit} className="space-y-2" noValidate>
         <label htmlFor="scan-text" className="label">
           {label}
