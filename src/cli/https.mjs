@@ -106,6 +106,12 @@ export async function ensureLocalCertificate(dir, names, now = new Date()) {
   return { keyPath: paths.key, certPath: paths.cert, caPath: paths.caCert, made };
 }
 
+/** The host part of a Host header, only if it looks like a name or an IPv4 address (it is echoed into HTML). */
+function hostOnly(header) {
+  const host = String(header ?? '').split(':')[0];
+  return /^[A-Za-z0-9.-]{1,253}$/.test(host) ? host : 'this-computer';
+}
+
 /** Serves the CA certificate over plain HTTP so a phone can install it (it cannot trust the HTTPS site yet). */
 function serveCaCertificate(caPath, port, httpsPort) {
   const server = createServer((req, res) => {
@@ -120,7 +126,7 @@ function serveCaCertificate(caPath, port, httpsPort) {
 <h1>Trust Loopfold on this phone</h1><p><a href="/${CA_FILE}" style="font-size:1.3em">Download the Loopfold local CA certificate</a></p>
 <p>Then install it as a CA certificate (Android: Settings → Security → Encryption &amp; credentials → Install a certificate → CA certificate;
 iPhone: Settings → Profile Downloaded → Install, then Settings → General → About → Certificate Trust Settings → turn on “Loopfold local CA”).</p>
-<p>Afterwards open Loopfold at <b>https://${req.headers.host?.split(':')[0] ?? 'this-address'}:${httpsPort}</b>.</p></body>`);
+<p>Afterwards open Loopfold at <b>https://${hostOnly(req.headers.host)}:${httpsPort}</b>.</p></body>`);
   });
   server.on('error', () => undefined); // port taken: the README's copy-the-file route still works
   server.listen(port, '0.0.0.0');
