@@ -74,7 +74,7 @@ describe('yard work without signal', () => {
       20_000,
       'the depot snapshot',
     );
-    await waitFor(async () => (await page.evaluate(() => caches.has('loopfold-yard-pages'))) === true, 15_000, 'the yard page to be kept');
+    await waitFor(() => page.evaluate(async () => (await (await caches.open('loopfold-yard-pages')).match('/yard')) !== undefined), 15_000, 'the yard page to be kept');
 
     // Someone else quarantines a bin after the phone took its snapshot: the phone does not know.
     const other = await page.request.post('/api/scan-events', { data: { clientEventId: randomUUID(), assetId: staleBin!.id, action: 'quarantine', note: 'held by the office' } });
@@ -171,6 +171,7 @@ describe('yard work without signal', () => {
     await page.waitForURL((u) => u.pathname === '/yard');
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
     await waitFor(() => page.evaluate(() => navigator.serviceWorker.controller !== null), 15_000, 'the service worker');
+    await waitFor(() => page.evaluate(async () => (await (await caches.open('loopfold-yard-pages')).match('/yard')) !== undefined), 15_000, 'the yard page to be kept');
     await page.goto(`/bins/${bin!.grai}`); // opened once with signal: kept
     await page.locator('button[data-action="prep_check"]').waitFor();
 
