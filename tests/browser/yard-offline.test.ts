@@ -9,7 +9,7 @@ import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { randomUUID } from 'node:crypto';
 import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
-import { availableBinsAtHome, query, type PickedBin } from './support/yard';
+import { availableBinsAtHome, hydrated, query, type PickedBin } from './support/yard';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
 const YARD = 'yard@northmere.example';
@@ -51,6 +51,7 @@ describe('yard work without signal', () => {
     const page = await ctx.newPage();
     await signIn(page, YARD, DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/yard');
+    await hydrated(page);
 
     // The service worker takes over and the phone stores its depot snapshot.
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
@@ -114,6 +115,7 @@ describe('yard work without signal', () => {
     // Reload with the server still down: the service worker serves the page, the queue is still there.
     await page.reload();
     await page.getByRole('heading', { name: 'Scan a bin' }).waitFor();
+    await hydrated(page);
     await waitFor(async () => (await attr(page, 'data-pending-count')) === '3', 10_000, 'the queue after reload');
     await page.locator('[data-sync-status] > button').click();
     const ids = await page.locator('[data-waiting-item]').evaluateAll((els) => els.map((e) => e.getAttribute('data-waiting-item')!));
@@ -147,6 +149,7 @@ describe('yard work without signal', () => {
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(page, 'yard-offline-refused-phone');
     await page.reload();
+    await hydrated(page);
     await waitFor(async () => (await attr(page, 'data-refused-count')) === '1', 10_000, 'the refusal after reload');
     await page.locator('[data-sync-status] > button').click();
     await page.locator('[data-refused-item] button', { hasText: 'Dismiss' }).click();
@@ -169,6 +172,7 @@ describe('yard work without signal', () => {
     const page = await ctx.newPage();
     await signIn(page, YARD, DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/yard');
+    await hydrated(page);
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => undefined));
     await waitFor(() => page.evaluate(() => navigator.serviceWorker.controller !== null), 15_000, 'the service worker');
     await waitFor(() => page.evaluate(async () => (await (await caches.open('loopfold-yard-pages')).match('/yard')) !== undefined), 15_000, 'the yard page to be kept');
@@ -177,6 +181,7 @@ describe('yard work without signal', () => {
 
     await app.stop();
     await page.reload();
+    await hydrated(page);
     await page.locator('button[data-action="prep_check"]').click();
     await page.locator('[data-form="prep_check"] button[type=submit]').click();
     await page.locator('[data-queued]').waitFor();
@@ -185,6 +190,7 @@ describe('yard work without signal', () => {
     // A bin page never opened falls back to the yard page, which shows that bin from the snapshot.
     const [unseen] = await availableBinsAtHome(YARD, 1, [bin!.id]);
     await page.goto(`/bins/${unseen!.grai}`);
+    await hydrated(page);
     await page.locator(`[data-offline-card][data-grai="${unseen!.grai}"]`).waitFor();
 
     await app.start();

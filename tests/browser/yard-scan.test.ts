@@ -8,7 +8,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { startApp, launchBrowser, newContext, signIn, screenshot, PHONE, ARTIFACTS, type RunningApp } from './support/app';
-import { availableBinsAtHome, gzipSizeOf, labelPng, qrClip, type PickedBin } from './support/yard';
+import { availableBinsAtHome, gzipSizeOf, hydrated, labelPng, qrClip, type PickedBin } from './support/yard';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 import { groupGrai } from '../../src/lib/gs1';
 
@@ -35,6 +35,7 @@ async function yardPage(b: Browser, baseURL = app.url): Promise<Page> {
   const page = await ctx.newPage();
   await signIn(page, YARD, DEMO_PASSWORD);
   await page.waitForURL((u) => u.pathname === '/yard');
+  await hydrated(page);
   return page;
 }
 
@@ -87,6 +88,7 @@ describe('identifying a bin on the yard', () => {
     await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/fleet');
     await page.goto(`/bins/${bins[0]!.grai}`);
+    await hydrated(page);
     await page.locator('button[data-action="quarantine"]').click();
     await page.locator('[data-form="quarantine"]').waitFor();
     await screenshot(page, 'bin-actions-planner-desktop');
@@ -100,6 +102,7 @@ describe('identifying a bin on the yard', () => {
     await page.click('[data-scan-input] button[type=submit]');
     await page.waitForURL((u) => u.pathname === `/bins/${bin.grai}`);
     await expect(page.locator('h1').first().getAttribute('aria-label')).resolves.toBe(`GRAI ${bin.grai}`);
+    await hydrated(page);
     await page.locator('button[data-action="prep_check"]').click();
     await screenshot(page, 'bin-actions-yard-phone');
     await page.context().close();

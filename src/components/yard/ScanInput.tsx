@@ -51,13 +51,15 @@ export default function ScanInput({ prefixLength, onIdentified, label = 'Type th
   return (
     <div className="space-y-3" data-scan-input>
       <QrCapture disabled={busy} keepOpen={keepCameraOpen} onDecoded={(decoded) => void proceed(identifyDecoded(decoded, prefixLength), () => undefined)} />
-      <form onSubmit={submit} className="space-y-2" noValidate>
+      {/* Before the script runs (slow signal), the form still works: the server's find-a-bin answers it. */}
+      <form onSubmit={submit} action="/bins/find" method="get" className="space-y-2" noValidate>
         <label htmlFor="scan-text" className="label">
           {label}
         </label>
         <div className="flex gap-2">
           <input
             id="scan-text"
+            name="q"
             className="field ident text-lg min-h-[56px]"
             inputMode="text"
             autoComplete="off"

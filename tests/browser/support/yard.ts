@@ -6,7 +6,13 @@ import QRCode from 'qrcode';
 import { writeFileSync, readFileSync, existsSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
 import { join } from 'node:path';
+import type { Page } from 'playwright-core';
 import { ROOT } from './app';
+
+/** Waits until every island on the page has hydrated (Astro drops the `ssr` attribute then). */
+export async function hydrated(page: Page): Promise<void> {
+  await page.waitForFunction(() => document.querySelectorAll('astro-island[ssr]').length === 0);
+}
 
 export async function query<T extends Record<string, unknown>>(sql: string, params: unknown[] = []): Promise<T[]> {
   const client = new pg.Client({ connectionString: process.env.DATABASE_URL });
