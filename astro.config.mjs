@@ -4,6 +4,7 @@ import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwind from '@astrojs/tailwind';
 import auth from 'auth-astro';
+import yardServiceWorker from './src/integrations/yard-service-worker.mjs';
 
 // Astro >= 5.17 ignores the Host header (and fails the origin check of every
 // form POST) unless the host is allowed. Loopfold is reached by name, by
@@ -15,7 +16,7 @@ const allowedDomains = [{}];
 export default defineConfig({
   output: 'server',
   adapter: node({ mode: 'standalone' }),
-  integrations: [react(), tailwind({ applyBaseStyles: false }), auth({ configFile: './auth.config.ts' })],
+  integrations: [react(), tailwind({ applyBaseStyles: false }), auth({ configFile: './auth.config.ts' }), yardServiceWorker()],
   security: { checkOrigin: true, allowedDomains },
   server: { host: process.env.HOST ?? 'localhost', port: Number(process.env.PORT ?? 4321) },
   vite: {

@@ -3,7 +3,8 @@
 // elsewhere) and the local mail server (unless SMTP_HOST does), migrates,
 // seeds the demo scenario when the database is empty, builds and serves.
 import { say, ensureDependencies, authSecret, migrate, seed, buildIfStale, startChild, waitForHttp, shutdown } from './setup.mjs';
-import { startPostgres, ensureDatabase, databaseUrl } from './postgres.mjs';
+import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
+import { prepareHttps, waitForHttps } from './https.mjs';
 
 try {
   ensureDependencies();
@@ -33,16 +34,24 @@ try {
   seed(env.DATABASE_URL);
   buildIfStale();
 
-  const host = process.env.HOST ?? 'localhost';
   const port = process.env.PORT ?? '4321';
-  const appUrl = process.env.APP_URL ?? `http://${host === '0.0.0.0' ? 'localhost' : host}:${port}`;
+  // HTTPS=1: phones on the yard LAN get a secure context (camera, offline); see src/cli/https.mjs.
+  const tls = process.env.HTTPS === '1' ? await prepareHttps({ projectRoot, port }) : null;
+  const host = process.env.HOST ?? (tls ? '0.0.0.0' : 'localhost');
+  const scheme = tls ? 'https' : 'http';
+  const appUrl = process.env.APP_URL ?? `${scheme}://${host === '0.0.0.0' ? 'localhost' : host}:${port}`;
   env.APP_URL = appUrl;
   startChild('job worker', process.execPath, ['--import', 'tsx', 'src/cli/worker.ts'], env);
-  startChild('app server', process.execPath, ['dist/server/entry.mjs'], { ...env, HOST: host, PORT: port });
-  await waitForHttp(`http://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitForHttp(`${appUrl}/api/health`, 5_000));
+  startChild('app server', process.execPath, ['dist/server/entry.mjs'], { ...env, ...tls?.env, HOST: host, PORT: port });
+  const waitUp = tls ? waitForHttps : waitForHttp;
+  await waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000));
 
   const { DEMO_LOGINS, DEMO_PASSWORD } = await import('../db/seed/demo-logins.mjs');
   say(`Loopfold is running at ${appUrl}`);
+  if (tls) {
+    say(`Phones on this network: ${tls.urls.slice(1).join('  ') || '(no LAN address found)'}`);
+    if (tls.caUrls.length) say(`Trust the local certificate on each phone once: open ${tls.caUrls.join('  ')} (README: "Phones on the yard: HTTPS")`);
+  }
   say(`Sign in with one of these demo accounts (password "${DEMO_PASSWORD}"):`);
   for (const l of DEMO_LOGINS) say(`  ${l.role.padEnd(9)} ${l.email}`);
   if (env.MAIL_DEV_INBOX) say('Mail goes to the local mailbox: sign in as admin and open "Sent mail".');

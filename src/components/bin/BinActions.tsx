@@ -1,16 +1,18 @@
-// The actions a user may take on a bin from its page: a big button per action,
-// each opening a short form (checklist, lot, order, fill record…) with the
-// cautions for that step. Records through POST /api/scan-events with the bin's
-// version, so two people acting at once cannot overwrite each other.
-import { useState, type FormEvent } from 'react';
+// The bin page's actions island. Records through POST /api/scan-events with
+// the bin's version, so two people acting at once cannot overwrite each other.
+// Yard users record through the phone's scan queue: without signal the scan is
+// saved on the phone and sent later (src/lib/client/scan-queue.ts).
 import { api, ApiError } from '../../lib/client/api';
 import { newClientEventId } from '../../lib/client/ids';
-import { ACTION_LABELS, STATUS_LABELS, type Action, type Status } from '../../lib/lifecycle';
-import { Icon } from '../ui/Icon';
+import { submitScan } from '../../lib/client/scan-queue';
+import type { Action, Status } from '../../lib/lifecycle';
 import type { LotOption, OrderOption, SiteOption } from '../../lib/server/action-options';
+import ActionPanel, { type PanelOutcome } from './ActionPanel';
 
 export interface BinActionsProps {
   assetId: number;
+  grai: string;
+  serial: string;
   version: number;
   actions: Action[];
   actingSite: SiteOption | null;
@@ -19,263 +21,33 @@ export interface BinActionsProps {
   cautions: Partial<Record<Action, string[]>>;
   defer: string;
   status: Status;
+  /** Record through the phone's offline queue (yard users). */
+  queue?: boolean;
 }
 
-const CHECKS: Array<[key: string, label: string]> = [
-  ['panelsAndLocks', 'Panels and locks'],
-  ['floorAndWalls', 'Floor and inner walls free of damage or sharp edges'],
-  ['dischargePort', 'Discharge port and valve seat'],
-  ['lidAndSealHoles', 'Lid and seal holes'],
-  ['labelLegible', 'Label legible'],
-];
+type Outcome = { statusTo: Status; inferred: Action[] };
 
-const DESTRUCTIVE: Action[] = ['retire', 'mark_missing', 'quarantine'];
+const reloadSoon = () => setTimeout(() => window.location.reload(), 900);
 
-type Outcome = { statusTo: Status; inferred: Action[]; flags: string[] };
-
-export default function BinActions(props: BinActionsProps) {
-  const [open, setOpen] = useState<Action | null>(null);
-  const [busy, setBusy] = useState(false);
-  const [error, setError] = useState<string | null>(null);
-  const [done, setDone] = useState<Outcome | null>(null);
-
-  if (props.actions.length === 0) {
-    return <p className="text-ink-soft">Nothing can be recorded on this bin from {props.actingSite ? props.actingSite.name : 'here'} right now.</p>;
-  }
-
-  async function submit(action: Action, extra: Record<string, unknown>) {
-    setBusy(true);
-    setError(null);
+export default function BinActions({ assetId, grai, serial, version, actions, actingSite, queue = false, ...options }: BinActionsProps) {
+  async function record(action: Action, extra: Record<string, unknown>): Promise<PanelOutcome> {
+    const body = { clientEventId: newClientEventId(), assetId, action, siteId: actingSite?.id ?? null, expectedVersion: version, ...extra };
+    if (queue) {
+      const r = await submitScan(body as Parameters<typeof submitScan>[0], { grai, serial, action });
+      if (r.kind === 'recorded') {
+        reloadSoon();
+        return { kind: 'recorded', statusTo: r.outcome.statusTo as Status, inferred: r.outcome.inferred };
+      }
+      return r.kind === 'queued' ? r : { kind: 'refused', message: r.message };
+    }
     try {
-      const out = await api.post<Outcome>('/api/scan-events', {
-        clientEventId: newClientEventId(),
-        assetId: props.assetId,
-        action,
-        siteId: props.actingSite?.id ?? null,
-        expectedVersion: props.version,
-        ...extra,
-      });
-      setDone(out);
-      setOpen(null);
-      setTimeout(() => window.location.reload(), 900);
+      const out = await api.post<Outcome>('/api/scan-events', body);
+      reloadSoon();
+      return { kind: 'recorded', ...out };
     } catch (e) {
-      const err = e as ApiError;
-      setError(err.code === 'changed_meanwhile' ? `${err.message}` : err.message);
-    } finally {
-      setBusy(false);
+      return { kind: 'refused', message: (e as ApiError).message };
     }
   }
 
-  return (
-    <div className="space-y-3">
-      {done && (
-        <p className="notice-good" role="status">
-          Recorded. The bin is now <strong>{STATUS_LABELS[done.statusTo].toLowerCase()}</strong>.
-          {done.inferred.length > 0 && <> Missed steps were inferred and flagged for a planner: {done.inferred.map((a) => ACTION_LABELS[a]).join(', ')}.</>}
-        </p>
-      )}
-      {error && (
-        <p className="notice-fault" role="alert">
-          {error}
-        </p>
-      )}
-      {props.actingSite && <p className="text-sm text-ink-soft">Recording at {props.actingSite.name}.</p>}
-      <div className="grid grid-cols-1 gap-2 sm:grid-cols-2">
-        {props.actions.map((a) => (
-          <button
-            key={a}
-            type="button"
-            className={open === a ? 'btn-primary justify-start' : 'btn-quiet justify-start'}
-            aria-expanded={open === a}
-            data-action={a}
-            onClick={() => {
-              setOpen(open === a ? null : a);
-              setError(null);
-            }}
-          >
-            {ACTION_LABELS[a]}
-          </button>
-        ))}
-      </div>
-      {open && (
-        <ActionForm
-          key={open}
-          action={open}
-          props={props}
-          busy={busy}
-          onCancel={() => setOpen(null)}
-          onSubmit={(extra) => void submit(open, extra)}
-        />
-      )}
-    </div>
-  );
-}
-
-function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
-  if (!lines.length) return null;
-  return (
-    <div className="notice-attention" role="note">
-      <div className="flex items-center gap-2 font-medium">
-        <Icon name="alert" /> Take care
-      </div>
-      <ul className="mt-1 list-disc pl-5">
-        {lines.map((l) => (
-          <li key={l}>{l}</li>
-        ))}
-      </ul>
-      <p className="mt-1 text-xs">{defer}</p>
-    </div>
-  );
-}
-
-function ActionForm({ action, props, busy, onCancel, onSubmit }: { action: Action; props: BinActionsProps; busy: boolean; onCancel: () => void; onSubmit: (extra: Record<string, unknown>) => void }) {
-  const [checks, setChecks] = useState<Record<string, boolean>>(Object.fromEntries(CHECKS.map(([k]) => [k, true])));
-  const [faults, setFaults] = useState('');
-  const [lotId, setLotId] = useState<number | null>(props.lots[0]?.id ?? null);
-  const [orderId, setOrderId] = useState<number | null>(props.orders[0]?.id ?? null);
-  const [purpose, setPurpose] = useState<'hire' | 'transfer'>(props.status === 'available' ? 'transfer' : 'hire');
-  const [note, setNote] = useState('');
-  const [confirmed, setConfirmed] = useState(!DESTRUCTIVE.includes(action));
-  const [fill, setFill] = useState({ product: '', volumeL: '', massKg: '', temperatureC: '', seals: '' });
-  const [sealsVerified, setSealsVerified] = useState('');
-  const failed = CHECKS.filter(([k]) => !checks[k]);
-  const num = (s: string) => (s.trim() === '' ? null : Number(s));
-  const seals = (s: string) => s.split(/[\s,;]+/).map((x) => x.trim()).filter(Boolean);
-
-  function handle(e: FormEvent) {
-    e.preventDefault();
-    switch (action) {
-      case 'prep_check':
-        return onSubmit({ prepResult: failed.length ? 'fail' : 'pass', checklist: checks, faults: faults || undefined });
-      case 'fit_liner':
-        return onSubmit({ linerLotId: lotId ?? undefined });
-      case 'dispatch':
-        return onSubmit(purpose === 'hire' ? { purpose, hireOrderId: orderId ?? undefined } : { purpose });
-      case 'fill_seal':
-        return onSubmit({ fill: { product: fill.product, volumeL: num(fill.volumeL), massKg: num(fill.massKg), temperatureC: num(fill.temperatureC), seals: seals(fill.seals) } });
-      case 'discharge':
-        return onSubmit({ sealsVerified: seals(sealsVerified) });
-      default:
-        return onSubmit(note ? { note } : {});
-    }
-  }
-
-  return (
-    <form onSubmit={handle} className="card space-y-4 p-4" data-form={action}>
-      <h3 className="font-semibold">{ACTION_LABELS[action]}</h3>
-      <Cautions lines={props.cautions[action] ?? []} defer={props.defer} />
-
-      {action === 'prep_check' && (
-        <fieldset className="space-y-2">
-          <legend className="label">Check each point; mark a fault where you find one</legend>
-          {CHECKS.map(([k, label]) => (
-            <div key={k} className="flex items-center justify-between gap-3 rounded-md border border-paper-line px-3 py-2">
-              <span>{label}</span>
-              <div className="flex gap-1" role="group" aria-label={label}>
-                <button type="button" className={checks[k] ? 'btn-primary min-h-[44px] px-3' : 'btn-quiet min-h-[44px] px-3'} aria-pressed={checks[k]} onClick={() => setChecks({ ...checks, [k]: true })}>
-                  OK
-                </button>
-                <button type="button" data-fault={k} className={!checks[k] ? 'btn-danger min-h-[44px] px-3' : 'btn-quiet min-h-[44px] px-3'} aria-pressed={!checks[k]} onClick={() => setChecks({ ...checks, [k]: false })}>
-                  Fault
-                </button>
-              </div>
-            </div>
-          ))}
-          {failed.length > 0 && (
-            <>
-              <label className="label" htmlFor="faults">What is wrong (the bin goes to quarantine)</label>
-              <textarea id="faults" className="field min-h-[80px] py-2" required minLength={3} maxLength={500} value={faults} onChange={(e) => setFaults(e.target.value)} />
-            </>
-          )}
-        </fieldset>
-      )}
-
-      {action === 'fit_liner' && (
-        <fieldset className="space-y-2">
-          <legend className="label">Liner lot (use the first: it expires soonest)</legend>
-          {props.lots.length === 0 && <p className="notice-fault">No usable liner lot at this depot. Receive a lot or ask the planner.</p>}
-          {props.lots.map((l, i) => (
-            <label key={l.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
-              <input type="radio" name="lot" checked={lotId === l.id} onChange={() => setLotId(l.id)} />
-              <span className="ident">{l.lotNumber}</span>
-              <span className="text-sm text-ink-soft">{l.supplier} · expires {l.expiryDate}</span>
-              {i === 0 && <span className="ml-auto text-xs font-medium text-kelp">Use first</span>}
-            </label>
-          ))}
-        </fieldset>
-      )}
-
-      {action === 'dispatch' && (
-        <fieldset className="space-y-2">
-          <legend className="label">Goes out on</legend>
-          {props.status === 'prepared' &&
-            props.orders.map((o) => (
-              <label key={o.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
-                <input type="radio" name="order" checked={purpose === 'hire' && orderId === o.id} onChange={() => { setPurpose('hire'); setOrderId(o.id); }} />
-                <span className="ident">{o.reference}</span>
-                <span className="text-sm">{o.customer}</span>
-                <span className="ml-auto text-sm text-ink-soft num">{o.loaded}/{o.quantity} · by {o.neededBy}</span>
-              </label>
-            ))}
-          {props.status === 'prepared' && props.orders.length === 0 && <p className="notice-attention">No open hire order at this depot for this bin type.</p>}
-          {props.status === 'available' && <p>Transfer of folded empties to another depot (no hire).</p>}
-        </fieldset>
-      )}
-
-      {action === 'fill_seal' && (
-        <div className="grid gap-3 sm:grid-cols-2">
-          <div className="sm:col-span-2">
-            <label className="label" htmlFor="product">Product</label>
-            <input id="product" className="field" required maxLength={120} value={fill.product} onChange={(e) => setFill({ ...fill, product: e.target.value })} />
-          </div>
-          <div>
-            <label className="label" htmlFor="volume">Volume (L)</label>
-            <input id="volume" className="field num" inputMode="decimal" value={fill.volumeL} onChange={(e) => setFill({ ...fill, volumeL: e.target.value })} />
-          </div>
-          <div>
-            <label className="label" htmlFor="mass">Mass (kg)</label>
-            <input id="mass" className="field num" inputMode="decimal" value={fill.massKg} onChange={(e) => setFill({ ...fill, massKg: e.target.value })} />
-          </div>
-          <div>
-            <label className="label" htmlFor="temp">Temperature (°C)</label>
-            <input id="temp" className="field num" inputMode="decimal" value={fill.temperatureC} onChange={(e) => setFill({ ...fill, temperatureC: e.target.value })} />
-          </div>
-          <div>
-            <label className="label" htmlFor="seals">Seal numbers</label>
-            <input id="seals" className="field ident" placeholder="TE1234567, TE1234568" value={fill.seals} onChange={(e) => setFill({ ...fill, seals: e.target.value })} />
-          </div>
-        </div>
-      )}
-
-      {action === 'discharge' && (
-        <div>
-          <label className="label" htmlFor="sealsVerified">Seal numbers found on the bin</label>
-          <input id="sealsVerified" className="field ident" value={sealsVerified} onChange={(e) => setSealsVerified(e.target.value)} placeholder="as printed on each seal" />
-        </div>
-      )}
-
-      {!['prep_check', 'fit_liner', 'dispatch', 'fill_seal', 'discharge'].includes(action) && (
-        <div>
-          <label className="label" htmlFor="note">Note (optional)</label>
-          <input id="note" className="field" maxLength={500} value={note} onChange={(e) => setNote(e.target.value)} />
-        </div>
-      )}
-
-      {DESTRUCTIVE.includes(action) && (
-        <label className="flex items-center gap-3">
-          <input type="checkbox" checked={confirmed} onChange={(e) => setConfirmed(e.target.checked)} className="h-6 w-6" />
-          <span>Yes, {ACTION_LABELS[action].toLowerCase()} this bin</span>
-        </label>
-      )}
-
-      <div className="flex gap-2">
-        <button className="btn-primary" type="submit" disabled={busy || !confirmed || (action === 'fit_liner' && !lotId)}>
-          {busy ? 'Recording…' : action === 'prep_check' && failed.length ? 'Record fault and quarantine' : `Record ${ACTION_LABELS[action].toLowerCase()}`}
-        </button>
-        <button className="btn-quiet" type="button" onClick={onCancel}>
-          Cancel
-        </button>
-      </div>
-    </form>
-  );
+  return <ActionPanel actions={actions} siteName={actingSite?.name ?? null} record={record} {...options} />;
 }

@@ -1,15 +1,15 @@
-// Identify a bin: type the GRAI (checked as you type, so a misread digit is
-// caught at once) or the serial printed under the code, or paste a label link.
-// Camera and photo decoding plug in beside the typed entry.
+// Identify a bin three ways: scan its QR label with the live camera, take a
+// photo of the label, or type the GRAI (checked as you type, so a misread
+// digit is caught at once) or the serial printed under the code. The QR
+// carries a GS1 Digital Link URI (…/8003/<GRAI>); whichever way the identity
+// came in, the same thing happens next.
 import { useState, type FormEvent } from 'react';
-import { parseGrai } from '../../lib/gs1';
+import { identify, identifyDecoded, isIdentified, type Identified, type IdentifyResult } from '../../lib/bin-identify';
 import { Icon } from '../ui/Icon';
+import QrCapture from './QrCapture';
 
-export interface Identified {
-  /** Canonical GRAI when the text was one; otherwise the serial as typed. */
-  grai: string | null;
-  serial: string | null;
-}
+export type { Identified };
+export { identify };
 
 interface Props {
   prefixLength: number;
@@ -17,70 +17,70 @@ interface Props {
   onIdentified?: (id: Identified) => void | Promise<void>;
   label?: string;
   busy?: boolean;
+  /** Continuous scanning (a load): the camera stays open and reports each new code. */
+  keepCameraOpen?: boolean;
 }
 
-export function identify(text: string, prefixLength: number): Identified | { error: string } {
-  const t = text.trim();
-  if (!t) return { error: 'Type the GRAI from the label, or the serial under the code.' };
-  const parsed = parseGrai(t, { companyPrefixLength: prefixLength });
-  if (parsed.ok) {
-    if (!parsed.grai.serial) return { error: 'This GRAI has no serial part; a bin’s label always carries one.' };
-    return { grai: parsed.grai.value, serial: null };
-  }
-  const digits = t.replace(/[\s.·()-]/g, '');
-  if (/^\d{13,}$/.test(digits) || t.includes('8003') || t.startsWith('urn:')) return { error: parsed.error.message };
-  if (/^[!-~]{1,16}$/.test(t)) return { grai: null, serial: t };
-  return { error: 'That is neither a GRAI nor a serial.' };
+export function binHref(id: Identified): string {
+  return id.grai ? `/bins/${id.grai}` : `/bins/find?q=${encodeURIComponent(id.serial!)}`;
 }
 
-export default function ScanInput({ prefixLength, onIdentified, label = 'Type the GRAI or serial', busy = false }: Props) {
+export default function ScanInput({ prefixLength, onIdentified, label = 'Type the GRAI or serial', busy = false, keepCameraOpen = false }: Props) {
   const [text, setText] = useState('');
   const [error, setError] = useState<string | null>(null);
 
-  async function submit(e: FormEvent) {
-    e.preventDefault();
-    const id = identify(text, prefixLength);
-    if ('error' in id) {
+  async function proceed(id: IdentifyResult, clear: () => void) {
+    if (!isIdentified(id)) {
       setError(id.error);
       return;
     }
     setError(null);
     if (onIdentified) {
       await onIdentified(id);
-      setText('');
+      clear();
     } else {
-      window.location.assign(id.grai ? `/bins/${id.grai}` : `/bins/find?q=${encodeURIComponent(id.serial!)}`);
+      window.location.assign(binHref(id));
     }
   }
 
+  function submit(e: FormEvent) {
+    e.preventDefault();
+    void proceed(identify(text, prefixLength), () => setText(''));
+  }
+
   return (
-    <form onSubmit={submit} className="space-y-2" data-scan-input noValidate>
-      <label htmlFor="scan-text" className="label">
-        {label}
-      </label>
-      <div className="flex gap-2">
-        <input
-          id="scan-text"
-          className="field ident text-lg min-h-[56px]"
-          inputMode="text"
-          autoComplete="off"
-          autoCapitalize="characters"
-          spellCheck={false}
-          value={text}
-          onChange={(e) => setText(e.target.value)}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={error ? 'scan-error' : undefined}
-          placeholder="0 9521234 10010 2 · 100528"
-        />
-        <button className="btn-primary min-h-[56px] px-5" type="submit" disabled={busy}>
-          <Icon name="keyboard" /> <span className="sr-only sm:not-sr-only">Go</span>
-        </button>
-      </div>
+    <div className="space-y-3" data-scan-input>
+      <QrCapture disabled={busy} keepOpen={keepCameraOpen} onDecoded={(decoded) => void proceed(identifyDecoded(decoded, prefixLength), () => undefined)} />
+      {/* Before the script runs (slow signal), the form still works: the server's find-a-bin answers it. */}
+      <form onSubmit={submit} action="/bins/find" method="get" className="space-y-2" noValidate>
+        <label htmlFor="scan-text" className="label">
+          {label}
+        </label>
+        <div className="flex gap-2">
+          <input
+            id="scan-text"
+            name="q"
+            className="field ident text-lg min-h-[56px]"
+            inputMode="text"
+            autoComplete="off"
+            autoCapitalize="characters"
+            spellCheck={false}
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            aria-invalid={error ? true : undefined}
+            aria-describedby={error ? 'scan-error' : undefined}
+            placeholder="0 9521234 10010 2 · 100528"
+          />
+          <button className="btn-primary min-h-[56px] px-5" type="submit" disabled={busy}>
+            <Icon name="keyboard" /> <span className="sr-only sm:not-sr-only">Go</span>
+          </button>
+        </div>
+      </form>
       {error && (
         <p id="scan-error" className="notice-fault" role="alert">
           {error}
         </p>
       )}
-    </form>
+    </div>
   );
 }
