@@ -87,7 +87,7 @@ export default function LoadScanner(props: Props) {
 
       {!full && (
         <div className="card p-4">
-          <ScanInput prefixLength={props.prefixLength} onIdentified={add} busy={busy} label="Scan or type each bin as it goes on" />
+          <ScanInput prefixLength={props.prefixLength} onIdentified={add} busy={busy} keepCameraOpen label="Scan or type each bin as it goes on" />
           <div className="notice-attention mt-3 text-sm">
             {props.cautions.map((c) => <p key={c}>{c}</p>)}
             <p className="mt-1 text-xs">{props.defer}</p>
