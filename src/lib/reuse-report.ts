@@ -3,6 +3,7 @@
  * operator's record for packaging rules on reusable transport packaging.
  *
  *   inPoolDuring(bin, from, to)            → the bin was in service on at least one day of the range
+ *   daysInPool(bin, from, to)              → how many days of the range it was in service
  *   serviceYears(bin, today)               → years from commissioning to leaving the pool (or today)
  *   reuseSummary(bins, period, scope)      → the headline figures for a period
  *   reuseByYear(bins, today, scope)        → the same figures per calendar year (this year up to today)
@@ -14,8 +15,10 @@
  * - The pool during a period: bins commissioned (registered) on or before its last day and not gone from the
  *   pool (retired or declared missing) before its first day.
  * - A bin is reused in a period when it completed at least one rotation in it.
- * - Rotations per bin per year = rotations in the period / bins in the pool during it × 365 / days in the
- *   period. Average rotations per bin since commissioning = all rotations / all bins ever commissioned.
+ * - Rotations per bin per year = rotations in the period / bin-years in service in it, where a bin-year is
+ *   365 of its days in the pool inside the period (a bin that joined half-way counts half). For a period in
+ *   which every bin served throughout, that is rotations / bins × 365 / days in the period.
+ * - Average rotations per bin since commissioning = all rotations / all bins ever commissioned.
  * - With a customer chosen, only that customer's rotations count, and the bins are those that made at least
  *   one rotation for the customer in the period: "share of the pool" has no meaning there and is left out.
  */
@@ -47,6 +50,8 @@ export type ReuseScope = { kind: 'pool' } | { kind: 'customer'; name: string };
 
 export interface ReuseFigures {
   days: number;
+  /** Days the counted bins were in the pool inside the period, added up. */
+  binDays: number;
   /** Pool scope: bins in service during the period. Customer scope: bins that made a rotation for the customer. */
   bins: number;
   binsReused: number;
@@ -77,6 +82,13 @@ export function inPoolDuring(bin: Pick<ReuseBin, 'commissionedOn' | 'leftOn'>, f
   return bin.commissionedOn <= to && (bin.leftOn === null || bin.leftOn >= from);
 }
 
+/** The bin's days in the pool inside from–to, both ends included (0 when it was not in the pool then). */
+export function daysInPool(bin: Pick<ReuseBin, 'commissionedOn' | 'leftOn'>, from: LocalDate, to: LocalDate): number {
+  const start = bin.commissionedOn > from ? bin.commissionedOn : from;
+  const end = bin.leftOn !== null && bin.leftOn < to ? bin.leftOn : to;
+  return Math.max(0, daysBetween(start, end) + 1);
+}
+
 export function serviceYears(bin: Pick<ReuseBin, 'commissionedOn' | 'leftOn'>, today: LocalDate): number {
   const end = bin.leftOn !== null && bin.leftOn < today ? bin.leftOn : today;
   return Math.max(0, daysBetween(bin.commissionedOn, end)) / DAYS_PER_YEAR;
@@ -89,13 +101,15 @@ function figures(bins: readonly ReuseBin[], from: LocalDate, to: LocalDate, rota
   const rotations = counted.reduce((sum, b) => sum + rotationsOf(b), 0);
   const binsReused = counted.filter((b) => rotationsOf(b) > 0).length;
   const n = counted.length;
+  const binDays = counted.reduce((sum, b) => sum + daysInPool(b, from, to), 0);
   return {
     days,
+    binDays,
     bins: n,
     binsReused,
     shareReused: scope.kind === 'pool' && n > 0 ? binsReused / n : null,
     rotations,
-    rotationsPerBinPerYear: n > 0 ? (rotations / n) * (DAYS_PER_YEAR / days) : null,
+    rotationsPerBinPerYear: binDays > 0 ? rotations / (binDays / DAYS_PER_YEAR) : null,
   };
 }
 

@@ -78,7 +78,7 @@ export function circleRadius(count: number, maxCount: number, maxRadius: number)
   return maxRadius * Math.sqrt(Math.min(count, maxCount) / maxCount);
 }
 
-export type LabelSide = 'right' | 'left' | 'above' | 'below';
+export type LabelSide = 'right' | 'left' | 'above' | 'below' | 'above-right' | 'below-right' | 'above-left' | 'below-left';
 
 export interface LabelMark extends XY {
   radius: number;
@@ -101,7 +101,7 @@ interface Box {
   bottom: number;
 }
 
-const SIDES: readonly LabelSide[] = ['right', 'left', 'above', 'below'];
+const SIDES: readonly LabelSide[] = ['right', 'left', 'above', 'below', 'above-right', 'below-right', 'above-left', 'below-left'];
 
 function boxFor(mark: LabelMark, side: LabelSide, charWidth: number, lineHeight: number, gap: number): PlacedLabel {
   const w = mark.text.length * charWidth;
@@ -116,6 +116,15 @@ function boxFor(mark: LabelMark, side: LabelSide, charWidth: number, lineHeight:
       return { x: mark.x, y: mark.y - r - lineHeight * 0.25, anchor: 'middle', side, box: { left: mark.x - w / 2, right: mark.x + w / 2, top: mark.y - r - lineHeight, bottom: mark.y - r } };
     case 'below':
       return { x: mark.x, y: mark.y + r + lineHeight * 0.8, anchor: 'middle', side, box: { left: mark.x - w / 2, right: mark.x + w / 2, top: mark.y + r, bottom: mark.y + r + lineHeight } };
+    default: {
+      // Diagonals: the label's near corner touches the circle at 45°.
+      const d = r * Math.SQRT1_2;
+      const east = side.endsWith('right');
+      const north = side.startsWith('above');
+      const left = east ? mark.x + d : mark.x - d - w;
+      const top = north ? mark.y - d - lineHeight : mark.y + d;
+      return { x: east ? left : left + w, y: top + lineHeight * 0.8, anchor: east ? 'start' : 'end', side, box: { left, right: left + w, top, bottom: top + lineHeight } };
+    }
   }
 }
 
@@ -134,7 +143,8 @@ function outside(box: Box, frame: Frame): number {
 }
 
 /**
- * Greedy placement, biggest circles first: each label takes the first side (right, left, above, below) that
+ * Greedy placement, biggest circles first: each label takes the first side (right, left, above, below, then
+ * the diagonals) that
  * stays inside the frame and clear of labels placed before it and of every circle; when none is clear it takes
  * the side with the least overlap. Returned in the order of `marks`.
  */

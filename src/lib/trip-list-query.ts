@@ -57,23 +57,23 @@ export type TripListParse = { ok: true; query: TripListQuery } | { ok: false; is
 
 export const DEFAULT_TRIP_LIST: TripListQuery = { sort: 'dispatched', dir: 'desc', page: 1, size: DEFAULT_PAGE_SIZE, filters: {} };
 
-const id = z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').positive('must be positive').max(2_147_483_647);
+const id = z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').positive('must be positive').max(2_147_483_647, 'is too large');
 const localDate = z.string().refine(isLocalDate, 'must be a date like 2026-03-14');
 
 const schema = z
   .object({
-    sort: z.enum(TRIP_SORT_KEYS, { errorMap: () => ({ message: `sorts by one of: ${TRIP_SORT_KEYS.join(', ')}` }) }).default('dispatched'),
-    dir: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'is asc or desc' }) }).default('desc'),
-    page: z.coerce.number().int('must be a whole number').min(1, 'starts at 1').max(1_000_000).default(1),
-    size: z.coerce.number().int('must be a whole number').min(1, 'is at least 1').max(MAX_PAGE_SIZE, `is at most ${MAX_PAGE_SIZE}`).default(DEFAULT_PAGE_SIZE),
-    status: z.enum(['open', 'closed'], { errorMap: () => ({ message: 'is open or closed' }) }).optional(),
+    sort: z.enum(TRIP_SORT_KEYS, { errorMap: () => ({ message: `must be one of: ${TRIP_SORT_KEYS.join(', ')}` }) }).default('dispatched'),
+    dir: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'must be asc or desc' }) }).default('desc'),
+    page: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(1_000_000, 'is too large').default(1),
+    size: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(MAX_PAGE_SIZE, `must be at most ${MAX_PAGE_SIZE}`).default(DEFAULT_PAGE_SIZE),
+    status: z.enum(['open', 'closed'], { errorMap: () => ({ message: 'must be open or closed' }) }).optional(),
     customer: id.optional(),
     depot: id.optional(),
-    bin: z.string().trim().min(1).max(80, 'is at most 80 characters').optional(),
-    lot: z.string().trim().min(1).max(40, 'is at most 40 characters').optional(),
+    bin: z.string().trim().min(1).max(80, 'must be at most 80 characters').optional(),
+    lot: z.string().trim().min(1).max(40, 'must be at most 40 characters').optional(),
     from: localDate.optional(),
     to: localDate.optional(),
-    mismatch: z.enum(['1', 'true'], { errorMap: () => ({ message: 'is 1 to show only seal mismatches' }) }).optional(),
+    mismatch: z.enum(['1', 'true'], { errorMap: () => ({ message: 'must be 1 (only seal mismatches)' }) }).optional(),
   })
   .strict();
 
@@ -103,12 +103,12 @@ export function parseTripListQuery(params: URLSearchParams | Record<string, stri
   if (!parsed.success) {
     for (const issue of parsed.error.issues) {
       const field = String(issue.path[0] ?? '');
-      issues.push({ field, message: `${field} ${issue.message}` });
+      issues.push({ field, message: `"${field}" ${issue.message}.` });
     }
   }
   if (issues.length || !parsed.success) return { ok: false, issues };
   const v = parsed.data;
-  if (v.from && v.to && v.from > v.to) return { ok: false, issues: [{ field: 'to', message: 'to is before from' }] };
+  if (v.from && v.to && v.from > v.to) return { ok: false, issues: [{ field: 'to', message: '"to" is before "from".' }] };
   const filters: TripFilters = {};
   if (v.status) filters.status = v.status;
   if (v.customer !== undefined) filters.customer = v.customer;

@@ -2,7 +2,7 @@
 // the page); day counts double-checked with date-fns differenceInCalendarDays, which the module does not use.
 import { describe, test, expect } from 'vitest';
 import { differenceInCalendarDays, parseISO } from 'date-fns';
-import { inPoolDuring, reuseByYear, reuseCsv, reuseSummary, serviceYears, type ReuseBin } from '../../src/lib/reuse-report.ts';
+import { daysInPool, inPoolDuring, reuseByYear, reuseCsv, reuseSummary, serviceYears, type ReuseBin } from '../../src/lib/reuse-report.ts';
 
 const today = '2026-12-01';
 const period = { from: '2025-12-02', to: today }; // 365 days
@@ -35,26 +35,39 @@ test('in the pool during a range: commissioned by its end and not gone before it
   expect(inPoolDuring(B2, '2026-02-11', '2026-03-01')).toBe(false);
 });
 
+test('days in the pool inside a range: B1 all 365, B2 71 (2 Dec → 10 Feb), B3 12 (20 Nov → 1 Dec), B4 none', () => {
+  // B2: 30 days of December (2–31) + 31 of January + 10 of February = 71. B3: 20 Nov – 1 Dec = 11 + 1 = 12.
+  expect([B1, B2, B3, B4].map((b) => daysInPool(b, period.from, period.to))).toEqual([365, 71, 12, 0]);
+  expect(days('2025-12-02', '2026-02-10') + 1).toBe(71); // date-fns agrees
+});
+
 describe('the pool', () => {
-  test('period: 3 bins in the pool, 2 reused (2/3), 5 rotations → 1.67 per bin per year; since commissioning 20 / 4 = 5', () => {
+  test('period: 3 bins in the pool, 2 reused (2/3), 5 rotations over 448 bin-days; since commissioning 20 / 4 = 5', () => {
     const s = reuseSummary(bins, period, today, pool);
-    expect(s).toMatchObject({ days: 365, bins: 3, binsReused: 2, rotations: 5, binsEverCommissioned: 4, rotationsSinceCommissioning: 20, averageRotationsSinceCommissioning: 5 });
+    expect(s).toMatchObject({ days: 365, binDays: 448, bins: 3, binsReused: 2, rotations: 5, binsEverCommissioned: 4, rotationsSinceCommissioning: 20, averageRotationsSinceCommissioning: 5 });
     expect(s.shareReused).toBeCloseTo(2 / 3, 12);
-    expect(s.rotationsPerBinPerYear).toBeCloseTo(5 / 3, 12);
+    // 448 bin-days = 448 / 365 bin-years; 5 / (448 / 365) = 4.07 rotations per bin-year
+    expect(s.rotationsPerBinPerYear).toBeCloseTo(5 / (448 / 365), 12);
     // 20 rotations over (899 + 346 + 11 + 477) / 365 = 1733 / 365 service years = 4.21 a year
     expect(s.rotationsPerServiceYear).toBeCloseTo(20 / (1733 / 365), 12);
   });
 
   test('per calendar year, newest first; this year counted to today (335 days), 2024 has 366', () => {
+    // Bin-days: 2026 = B1 335 + B2 41 (1 Jan – 10 Feb) + B3 12 = 388; 2025 = B1 365 + B2 306 (1 Mar – 31 Dec)
+    // + B4 121 (1 Jan – 1 May: 31 + 28 + 31 + 30 + 1) = 792; 2024 = B1 200 (15 Jun – 31 Dec: 16 + 31 + 31 + 30
+    // + 31 + 30 + 31) + B4 357 (10 Jan – 31 Dec of a leap year: 366 − 9) = 557.
     const years = reuseByYear(bins, today, pool);
-    expect(years.map((y) => [y.year, y.from, y.to, y.partial, y.days, y.bins, y.binsReused, y.rotations])).toEqual([
-      [2026, '2026-01-01', today, true, 335, 3, 1, 2],
-      [2025, '2025-01-01', '2025-12-31', false, 365, 3, 3, 10],
-      [2024, '2024-01-01', '2024-12-31', false, 366, 2, 2, 8],
+    expect(years.map((y) => [y.year, y.from, y.to, y.partial, y.days, y.bins, y.binsReused, y.rotations, y.binDays])).toEqual([
+      [2026, '2026-01-01', today, true, 335, 3, 1, 2, 388],
+      [2025, '2025-01-01', '2025-12-31', false, 365, 3, 3, 10, 792],
+      [2024, '2024-01-01', '2024-12-31', false, 366, 2, 2, 8, 557],
     ]);
-    expect(years[0]!.rotationsPerBinPerYear).toBeCloseTo((2 / 3) * (365 / 335), 12);
+    expect(days('2025-03-01', '2025-12-31') + 1).toBe(306);
+    expect(days('2024-06-15', '2024-12-31') + 1).toBe(200);
+    expect(years[0]!.rotationsPerBinPerYear).toBeCloseTo(2 / (388 / 365), 12);
     expect(years[1]!.shareReused).toBe(1);
-    expect(years[2]!.rotationsPerBinPerYear).toBeCloseTo(4 * (365 / 366), 12);
+    expect(years[1]!.rotationsPerBinPerYear).toBeCloseTo(10 / (792 / 365), 12);
+    expect(years[2]!.rotationsPerBinPerYear).toBeCloseTo(8 / (557 / 365), 12);
   });
 
   test('CSV: one row per bin in the pool during the period, serials in number order', () => {
@@ -72,7 +85,7 @@ describe('the pool', () => {
   });
 
   test('an empty pool: no rates, no years', () => {
-    expect(reuseSummary([], period, today, pool)).toMatchObject({ bins: 0, shareReused: null, rotationsPerBinPerYear: null, averageRotationsSinceCommissioning: null, rotationsPerServiceYear: null });
+    expect(reuseSummary([], period, today, pool)).toMatchObject({ bins: 0, binDays: 0, shareReused: null, rotationsPerBinPerYear: null, averageRotationsSinceCommissioning: null, rotationsPerServiceYear: null });
     expect(reuseByYear([], today, pool)).toEqual([]);
   });
 });
@@ -88,8 +101,8 @@ describe('one customer', () => {
 
   test('bins = those that made a rotation for the customer; no share of the pool', () => {
     const s = reuseSummary(forCustomer, period, today, customer);
-    expect(s).toMatchObject({ bins: 1, binsReused: 1, shareReused: null, rotations: 2, binsEverCommissioned: 2, rotationsSinceCommissioning: 4, averageRotationsSinceCommissioning: 2 });
-    expect(s.rotationsPerBinPerYear).toBeCloseTo(2, 12);
+    expect(s).toMatchObject({ bins: 1, binDays: 365, binsReused: 1, shareReused: null, rotations: 2, binsEverCommissioned: 2, rotationsSinceCommissioning: 4, averageRotationsSinceCommissioning: 2 });
+    expect(s.rotationsPerBinPerYear).toBeCloseTo(2, 12); // B1 served all 365 days
   });
 
   test('CSV names the customer on every row and says the counts are theirs', () => {

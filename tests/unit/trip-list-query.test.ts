@@ -30,7 +30,7 @@ describe('parsing', () => {
   test('an unknown sort column is refused, with the allowed ones named', () => {
     const r = parseTripListQuery({ sort: 'password_hash' });
     expect(r.ok).toBe(false);
-    if (!r.ok) expect(r.issues[0]).toEqual({ field: 'sort', message: `sort sorts by one of: ${TRIP_SORT_KEYS.join(', ')}` });
+    if (!r.ok) expect(r.issues[0]).toEqual({ field: 'sort', message: `"sort" must be one of: ${TRIP_SORT_KEYS.join(', ')}.` });
   });
 
   test('an unknown filter column is refused rather than ignored', () => {
