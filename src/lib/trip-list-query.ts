@@ -29,7 +29,7 @@ export interface TripFilters {
   status?: 'open' | 'closed';
   customer?: number;
   depot?: number;
-  /** Serial or GRAI, or a part of either. */
+  /** A whole GRAI (any written form, or the label's link), or the beginning of a serial. */
   bin?: string;
   /** Liner lot number, or its beginning. */
   lot?: string;

@@ -11,6 +11,7 @@ import type { LocalDate } from '../calendar';
 import { cycleTimeDays, dwellAtCustomer, type DwellAtCustomer } from '../trip-stats';
 import { fillRecordText, sealCheck, type SealCheck } from '../trip-display';
 import { pageCount, type TripListQuery, type TripSortKey } from '../trip-list-query';
+import { parseSerialisedGrai } from '../gs1';
 
 export interface TripListRow {
   id: number;
@@ -103,17 +104,18 @@ function likeLiteral(value: string): string {
   return value.replace(/[\\%_]/g, (c) => `\\${c}`);
 }
 
-function whereFor(query: TripListQuery, p: Params): string {
+function whereFor(query: TripListQuery, p: Params, prefixLength: number): string {
   const clauses: string[] = [];
   const f = query.filters;
   if (f.status) clauses.push(`t.status = ${p.add(f.status)}`);
   if (f.customer !== undefined) clauses.push(`t.customer_id = ${p.add(f.customer)}`);
   if (f.depot !== undefined) clauses.push(`t.depot_site_id = ${p.add(f.depot)}`);
   if (f.bin) {
-    // A GRAI may be pasted grouped for reading ("0 9521234 10010 2 · 100017"): compare without the spacing.
-    const compact = f.bin.replace(/[\s·()]/g, '');
-    const value = p.add(likeLiteral(compact));
-    clauses.push(`(a.serial ILIKE ${value} || '%' OR a.grai LIKE '%' || ${value} || '%')`);
+    // A whole GRAI in any written form (grouped, a label's Digital Link) names one bin; anything else is
+    // the beginning of a serial.
+    const grai = parseSerialisedGrai(f.bin, { companyPrefixLength: prefixLength });
+    if (grai.ok) clauses.push(`a.grai = ${p.add(grai.grai.value)}`);
+    else clauses.push(`a.serial ILIKE ${p.add(likeLiteral(f.bin))} || '%'`);
   }
   if (f.lot) clauses.push(`l.lot_number ILIKE ${p.add(likeLiteral(f.lot))} || '%'`);
   if (f.from) clauses.push(`t.dispatched_at >= ${startOfLocalDay(p.add(f.from), p.zone())}`);
@@ -148,9 +150,9 @@ function toRow(r: Row, timeZone: string): TripListRow {
 export async function listTrips(query: TripListQuery): Promise<TripListPage> {
   if (!Object.hasOwn(SORT_SQL, query.sort)) throw new AppError('bad_request', `The trip list cannot be sorted by "${query.sort}".`);
   const dir = query.dir === 'asc' ? 'ASC' : 'DESC';
-  const { timeZone } = await getSettings();
+  const { timeZone, gs1PrefixLength } = await getSettings();
   const p = new Params(timeZone);
-  const where = whereFor(query, p);
+  const where = whereFor(query, p, gs1PrefixLength);
   const countBind = [...p.values];
   const order = SORT_SQL[query.sort](p);
   const [counted] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n ${FROM} ${where}`, { bind: countBind, type: QueryTypes.SELECT });
