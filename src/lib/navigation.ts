@@ -8,6 +8,7 @@ const NAV: NavItem[] = [
   { href: '/yard', label: 'Yard', icon: 'scan', capability: 'home.yard' },
   { href: '/portal', label: 'My bins', icon: 'home', capability: 'home.portal' },
   { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
+  { href: '/trips', label: 'Trips', icon: 'route', capability: 'trips.view' },
   { href: '/fleet/flags', label: 'Scans to review', icon: 'alert', capability: 'scan.correct' },
   { href: '/requests', label: 'Requests', icon: 'inbox', capability: 'requests.view' },
   { href: '/labels', label: 'Label sheets', icon: 'label', capability: 'labels.print' },
