@@ -43,9 +43,34 @@ export function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
   );
 }
 
+/** Uploads fault photos; without signal the scan goes ahead and says the photos are missing. */
+async function uploadPhotos(files: File[], note: (msg: string | null) => void): Promise<number[]> {
+  const ids: number[] = [];
+  for (const file of files) {
+    const form = new FormData();
+    form.append('file', file);
+    form.append('purpose', 'photo');
+    try {
+      const res = await fetch('/api/attachments', { method: 'POST', body: form, credentials: 'same-origin' });
+      const json = (await res.json()) as { data?: { id: number }; error?: { message: string } };
+      if (!res.ok || !json.data) {
+        note(json.error?.message ?? 'A photo could not be stored.');
+        continue;
+      }
+      ids.push(json.data.id);
+    } catch {
+      note('No signal: the fault is recorded without its photos.');
+      break;
+    }
+  }
+  return ids;
+}
+
 export default function ActionForm({ action, options, busy, onCancel, onSubmit }: { action: Action; options: ActionOptions; busy: boolean; onCancel: () => void; onSubmit: (extra: Record<string, unknown>) => void }) {
   const [checks, setChecks] = useState<Record<string, boolean>>(Object.fromEntries(CHECKS.map(([k]) => [k, true])));
   const [faults, setFaults] = useState('');
+  const [photos, setPhotos] = useState<File[]>([]);
+  const [photoNote, setPhotoNote] = useState<string | null>(null);
   const [lotId, setLotId] = useState<number | null>(options.lots[0]?.id ?? null);
   const [orderId, setOrderId] = useState<number | null>(options.orders[0]?.id ?? null);
   const [purpose, setPurpose] = useState<'hire' | 'transfer'>(options.status === 'available' ? 'transfer' : 'hire');
@@ -57,11 +82,15 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
   const num = (s: string) => (s.trim() === '' ? null : Number(s));
   const seals = (s: string) => s.split(/[\s,;]+/).map((x) => x.trim()).filter(Boolean);
 
-  function handle(e: FormEvent) {
+  async function handle(e: FormEvent) {
     e.preventDefault();
     switch (action) {
-      case 'prep_check':
-        return onSubmit({ prepResult: failed.length ? 'fail' : 'pass', checklist: checks, faults: faults || undefined });
+      case 'prep_check': {
+        const photoIds = failed.length ? await uploadPhotos(photos, setPhotoNote) : [];
+        const lost = failed.length > 0 && photos.length > photoIds.length;
+        const text = lost ? `${faults} (photos not uploaded: no signal)` : faults;
+        return onSubmit({ prepResult: failed.length ? 'fail' : 'pass', checklist: checks, faults: text || undefined, ...(photoIds.length ? { photoIds } : {}) });
+      }
       case 'fit_liner':
         return onSubmit({ linerLotId: lotId ?? undefined });
       case 'dispatch':
@@ -76,7 +105,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
   }
 
   return (
-    <form onSubmit={handle} className="card space-y-4 p-4" data-form={action}>
+    <form onSubmit={(e) => void handle(e)} className="card space-y-4 p-4" data-form={action}>
       <h3 className="font-semibold">{ACTION_LABELS[action]}</h3>
       <Cautions lines={options.cautions[action] ?? []} defer={options.defer} />
 
@@ -100,6 +129,12 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
             <>
               <label className="label" htmlFor="faults">What is wrong (the bin goes to quarantine)</label>
               <textarea id="faults" className="field min-h-[80px] py-2" required minLength={3} maxLength={500} value={faults} onChange={(e) => setFaults(e.target.value)} />
+              <label className="label" htmlFor="fault-photos">Photos of the fault (up to 4)</label>
+              <input
+                id="fault-photos" type="file" accept="image/*" capture="environment" multiple className="block w-full text-sm"
+                onChange={(e) => setPhotos(Array.from(e.target.files ?? []).slice(0, 4))}
+              />
+              {photoNote && <p className="notice-attention">{photoNote}</p>}
             </>
           )}
         </fieldset>

@@ -1,10 +1,10 @@
 // The customer's start page: their bins on hire, site by site, with days on
-// hire and free days left. Every query is scoped to the customer's own
+// hire and free days left (the overdue rule of src/lib/overdue-return.ts). Every query is scoped to the customer's own
 // organisation here, on the server.
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../models';
-import { localDate } from '../calendar';
-import { hireDays } from '../hire-days';
+import { daysBetween, localDate } from '../calendar';
+import { overdueBack } from '../overdue-return';
 import type { Status } from '../lifecycle';
 import { getSettings } from './settings';
 
@@ -28,7 +28,10 @@ export async function loadPortalHome(organisationId: number) {
   const freeDays = org?.free_days ?? 0;
   const bySite = new Map<number | null, PortalBin[]>();
   for (const b of bins) {
-    const days = hireDays(b.start_day, today, freeDays);
+    // One rule for "overdue back" everywhere (src/lib/overdue-return.ts).
+    const check = overdueBack({ status: b.status, deliveredOn: b.start_day, dispatchedOn: null, freeDays, today });
+    const daysOnHire = check.daysWithCustomer ?? Math.max(0, daysBetween(b.start_day, today));
+    const days = { daysOnHire, freeDaysLeft: freeDays - daysOnHire, overdue: check.overdue };
     const list = bySite.get(b.site_id) ?? [];
     list.push({ grai: b.grai, serial: b.serial, status: b.status, filled: b.filled, product: b.product, since: b.start_day, ...days });
     bySite.set(b.site_id, list);

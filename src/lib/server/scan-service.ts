@@ -233,6 +233,10 @@ async function checkActionInputs(asset: AssetRow, input: ScanInput, today: strin
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
     lotNumber = lot.lot_number;
   }
+  if (input.photoIds?.length) {
+    const found = await one<{ n: number }>(`SELECT count(*)::int AS n FROM attachments WHERE id = ANY($1::int[]) AND purpose = 'photo'`, [input.photoIds], t);
+    if (found?.n !== new Set(input.photoIds).size) throw new AppError('unprocessable', 'A photo named with this scan was not uploaded.');
+  }
   if (input.action === 'fill_seal' && !input.fill) {
     throw new AppError('validation_failed', 'Record the product, the quantity and the seal numbers.');
   }

@@ -16,10 +16,10 @@ export async function digestFigures(now: Date) {
     // On hire longer than the customer's free days, counted from delivery (or dispatch when never confirmed).
     q<{ customer: string; bins: number; oldestDays: number }>(
       `SELECT o.name AS customer, count(*)::int AS bins,
-              max(($1::date - (COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date) + 1)::int AS "oldestDays"
+              max($1::date - (COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date)::int AS "oldestDays"
          FROM assets a JOIN trips t ON t.id = a.current_trip_id JOIN organisations o ON o.id = a.customer_id
         WHERE a.status IN ('on_hire', 'awaiting_collection')
-          AND ($1::date - (COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date) + 1 > o.free_days -- delivery day is day 1 (src/lib/hire-days.ts)
+          AND ($1::date - (COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date) > o.free_days -- the rule of src/lib/overdue-return.ts
         GROUP BY o.name ORDER BY bins DESC`,
       [today, settings.timeZone],
     ),
