@@ -24,7 +24,7 @@ async function record(page: Page, action: string, fill?: (p: Page) => Promise<vo
 }
 
 describe('preparing and loading bins on a phone', () => {
-  test('receive → prep check → fit liner on the bin page, then a load of two with the note and delivery confirmation', async () => {
+  test('receive → prep check → fit liner on the bin page, then a load of two with the note and delivery confirmation', { timeout: 120_000 }, async () => {
     const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE code = 'DEP-RTM'`);
     // Two folded empties at the yard's depot, in test date, not prep-checked yet.
     const bins = await rows<{ grai: string; serial: string; bin_type_id: number }>(
@@ -48,7 +48,7 @@ describe('preparing and loading bins on a phone', () => {
       // typed entry on the yard page opens the bin
       await page.goto('/yard');
       await page.fill('#scan-text', bin.grai);
-      await page.click('form[data-scan-input] button[type="submit"]');
+      await page.click('[data-scan-input] button[type="submit"]');
       await page.waitForURL(`**/bins/${bin.grai}`);
       await expect(page.locator('[data-status]').first().getAttribute('data-status')).resolves.toBe('available');
       await record(page, 'prep_check');
@@ -64,7 +64,7 @@ describe('preparing and loading bins on a phone', () => {
     const notReady = await one<{ grai: string }>(`SELECT grai FROM assets WHERE site_id = $1 AND status = 'available' ORDER BY id DESC LIMIT 1`, [depot.id]);
     for (const g of [bins[0]!.grai, notReady.grai, bins[1]!.grai]) {
       await page.fill('#scan-text', g);
-      await page.click('form[data-scan-input] button[type="submit"]');
+      await page.click('[data-scan-input] button[type="submit"]');
       await page.waitForFunction((grai) => document.querySelector('[data-testid="load-attempts"]')?.textContent?.includes(grai), g);
     }
     const refused = page.locator('[data-testid="load-attempts"] li[data-ok="false"]');
