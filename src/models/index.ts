@@ -19,6 +19,7 @@ import { ScanEventKey } from './scan-event-key';
 import { Inspection } from './inspection';
 import { CollectionRequest } from './collection-request';
 import { DamageReport } from './damage-report';
+import { GridView } from './grid-view';
 
 Organisation.hasMany(Site, { foreignKey: 'organisationId', as: 'sites' });
 Site.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });
@@ -61,8 +62,9 @@ CollectionRequest.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
 CollectionRequest.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
 CollectionRequest.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
 DamageReport.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
+GridView.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
 
 export {
   sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage, Attachment, BinType, LinerLot,
-  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport,
+  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport, GridView,
 };
