@@ -536,10 +536,13 @@ function selectList(b: Binds): string {
   a.site_id AS "siteId", s.name AS "siteName", s.code AS "siteCode", s.kind AS "siteKind",
   a.customer_id AS "customerId", o.name AS "customerName", o.free_days AS "freeDays",
   a.site_since AS "siteSince", ${daysExpr('a.site_since', b)} AS "daysAtSite",
+  to_char(a.site_since AT TIME ZONE ${b.tz()}, 'YYYY-MM-DD') AS "siteSinceOn",
   a.last_scan_at AS "lastScanAt", ${daysExpr('a.last_scan_at', b)} AS "daysSilent",
+  to_char(a.last_scan_at AT TIME ZONE ${b.tz()}, 'YYYY-MM-DD HH24:MI') AS "lastScanLocal",
   a.trip_count AS "tripCount", a.last_inspection_on AS "lastInspectionOn", a.next_due AS "nextDue",
   (${BIN_COLUMNS.overdue.predicate(b)}) IS TRUE AS overdue,
   (${BIN_COLUMNS.dueSoon.predicate(b)}) IS TRUE AS "dueSoon",
+  (${BIN_COLUMNS.dueThisMonth.predicate(b)}) IS TRUE AS "dueThisMonth",
   (${overFreeDays(b)}) IS TRUE AS "overFreeDays",
   ll.lot_number AS "linerLot"`;
 }

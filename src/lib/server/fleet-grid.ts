@@ -37,13 +37,18 @@ export interface BinRow {
   freeDays: number | null;
   siteSince: Date | null;
   daysAtSite: number | null;
+  /** Arrival day in the operator's zone, 'YYYY-MM-DD'. */
+  siteSinceOn: string | null;
   lastScanAt: Date | null;
   daysSilent: number | null;
+  /** Last scan in the operator's zone, 'YYYY-MM-DD HH:MM'. */
+  lastScanLocal: string | null;
   tripCount: number;
   lastInspectionOn: string | null;
   nextDue: string | null;
   overdue: boolean;
   dueSoon: boolean;
+  dueThisMonth: boolean;
   overFreeDays: boolean;
   linerLot: string | null;
 }
@@ -102,7 +107,7 @@ export async function fetchBinsPage(req: GridRequest, ctx?: QueryContext): Promi
 const EXPORT_CHUNK = 1000;
 
 /** How each column reads in a spreadsheet: plain values, dates as YYYY-MM-DD, instants in the operator's zone. */
-function csvValue(colId: BinColumnId, row: BinRow, timeZone: string): string | number | null {
+function csvValue(colId: BinColumnId, row: BinRow): string | number | null {
   switch (colId) {
     case 'binType':
       return row.binTypeCode;
@@ -113,29 +118,18 @@ function csvValue(colId: BinColumnId, row: BinRow, timeZone: string): string | n
     case 'customer':
       return row.customerName;
     case 'lastScanAt':
-      return row.lastScanAt ? localDateTime(row.lastScanAt, timeZone) : null;
+      return row.lastScanLocal;
     case 'overdue':
     case 'dueSoon':
+    case 'dueThisMonth':
     case 'overFreeDays':
       return row[colId] ? 'yes' : 'no';
-    case 'dueThisMonth':
-      return null; // a filter, not a stored value; never offered as an export column
     default:
       return row[colId] as string | number | null;
   }
 }
 
-const DATE_TIME = new Map<string, Intl.DateTimeFormat>();
-function localDateTime(instant: Date, timeZone: string): string {
-  let f = DATE_TIME.get(timeZone);
-  if (!f) {
-    f = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', minute: '2-digit', hourCycle: 'h23' });
-    DATE_TIME.set(timeZone, f);
-  }
-  return f.format(instant).replace(',', '');
-}
-
-export const EXPORTABLE_COLUMNS = (Object.keys(BIN_COLUMNS) as BinColumnId[]).filter((c) => c !== 'dueThisMonth');
+export const EXPORTABLE_COLUMNS = Object.keys(BIN_COLUMNS) as BinColumnId[];
 
 /**
  * The filtered, sorted set as CSV, streamed: a server-side cursor hands out EXPORT_CHUNK rows at a time,
@@ -177,7 +171,7 @@ export async function exportBinsCsv(req: Pick<GridRequest, 'sortModel' | 'filter
         }
         const { rows } = await conn.query(`FETCH ${EXPORT_CHUNK} FROM bins_export`);
         if (rows.length) {
-          const data = (rows as unknown as BinRow[]).map((r) => columns.map((c) => csvValue(c, r, context.timeZone)));
+          const data = (rows as unknown as BinRow[]).map((r) => columns.map((c) => csvValue(c, r)));
           // escapeFormulae: a cell starting with = + - @ is not run as a formula when opened in a spreadsheet.
           controller.enqueue(encoder.encode(Papa.unparse(data, { newline: '\r\n', escapeFormulae: true }) + '\r\n'));
         }
