@@ -170,31 +170,37 @@ export function parseSortModel(raw: unknown, path = 'sortModel'): SortItem[] {
   });
 }
 
-function sortTerms(spec: ColumnSpec, dir: SortDir): string {
+/** The ORDER BY term of one column, and the direction it actually walks its index. */
+function sortTerm(spec: ColumnSpec, dir: SortDir): { sql: string; walks: SortDir } {
   const d = dir === 'asc' ? 'ASC' : 'DESC';
   switch (spec.kind) {
     case 'text':
     case 'number':
-      return `${spec.value} ${d}`;
+      return { sql: `${spec.value} ${d}`, walks: dir };
     case 'set':
-      return `${spec.sortBy} ${d}`;
+      return { sql: `${spec.sortBy} ${d}`, walks: dir };
     case 'date':
-      return `${spec.base.column} ${d}`;
+      return { sql: `${spec.base.column} ${d}`, walks: dir };
     case 'daysSince':
       // More days = an earlier instant. Bins with no instant (no site while in transit) have no count and
-      // sort as if smallest; written so the instant's plain index serves both directions.
-      return dir === 'asc' ? `${spec.base.column} DESC NULLS FIRST` : `${spec.base.column} ASC NULLS LAST`;
+      // sort as if smallest; written so the instant's index serves both directions.
+      return dir === 'asc' ? { sql: `${spec.base.column} DESC NULLS FIRST`, walks: 'desc' } : { sql: `${spec.base.column} ASC NULLS LAST`, walks: 'asc' };
     case 'flag':
       throw new Error('flags are not sortable'); // parseSortModel refuses them first
   }
 }
 
-/** ORDER BY terms; the bin id breaks ties so pages never overlap or skip (GRAI is unique on its own). */
+/**
+ * ORDER BY terms. The bin id breaks ties so pages never overlap or skip (GRAI is unique on its own); it
+ * runs the same way as the first term, so a (column, id) index can be walked in one direction, forwards
+ * or backwards, and a deep page is read from the index alone.
+ */
 export function orderBy(sort: SortItem[]): string {
   if (sort.length === 0) return 'a.grai ASC';
-  const terms = sort.map((s) => sortTerms(BIN_COLUMNS[s.colId], s.sort));
-  if (!sort.some((s) => s.colId === 'grai')) terms.push('a.id ASC');
-  return terms.join(', ');
+  const terms = sort.map((s) => sortTerm(BIN_COLUMNS[s.colId], s.sort));
+  const sql = terms.map((t) => t.sql);
+  if (!sort.some((s) => s.colId === 'grai')) sql.push(`a.id ${terms[0]!.walks === 'asc' ? 'ASC' : 'DESC'}`);
+  return sql.join(', ');
 }
 
 // ---------------------------------------------------------------------------------------------------
@@ -519,11 +525,23 @@ export interface SqlStatement {
   values: unknown[];
 }
 
-const FROM = `FROM assets a
-  LEFT JOIN bin_types bt ON bt.id = a.bin_type_id
-  LEFT JOIN sites s ON s.id = a.site_id
-  LEFT JOIN organisations o ON o.id = a.customer_id
-  LEFT JOIN liner_lots ll ON ll.id = a.liner_lot_id`;
+const JOINS: ReadonlyArray<readonly [alias: RegExp, join: string]> = [
+  [/\bbt\./, 'LEFT JOIN bin_types bt ON bt.id = a.bin_type_id'],
+  [/\bs\./, 'LEFT JOIN sites s ON s.id = a.site_id'],
+  [/\bo\./, 'LEFT JOIN organisations o ON o.id = a.customer_id'],
+  [/\bll\./, 'LEFT JOIN liner_lots ll ON ll.id = a.liner_lot_id'],
+];
+const FROM = `FROM assets a\n  ${JOINS.map(([, j]) => j).join('\n  ')}`;
+
+/**
+ * FROM with only the joins the given SQL uses. PostgreSQL drops an unused LEFT JOIN by itself, but the
+ * join's column (a.site_id, …) still counts as needed, which rules out an index-only scan.
+ */
+function fromFor(...sql: string[]): string {
+  const text = sql.join(' ');
+  const joins = JOINS.filter(([alias]) => alias.test(text)).map(([, j]) => j);
+  return ['FROM assets a', ...joins].join('\n  ');
+}
 
 function daysExpr(column: string, b: Binds): string {
   return `(${b.today()} - (${column} AT TIME ZONE ${b.tz()})::date)`;
@@ -532,12 +550,12 @@ function daysExpr(column: string, b: Binds): string {
 /** What one grid row carries (camelCase names straight from SQL). */
 function selectList(b: Binds): string {
   return `a.id, a.grai, a.serial, a.status,
-  a.bin_type_id AS "binTypeId", bt.code AS "binTypeCode", bt.name AS "binTypeName",
-  a.site_id AS "siteId", s.name AS "siteName", s.code AS "siteCode", s.kind AS "siteKind",
+  a.bin_type_id AS "binTypeId", bt.code AS "binTypeCode",
+  a.site_id AS "siteId", s.name AS "siteName",
   a.customer_id AS "customerId", o.name AS "customerName", o.free_days AS "freeDays",
-  a.site_since AS "siteSince", ${daysExpr('a.site_since', b)} AS "daysAtSite",
+  ${daysExpr('a.site_since', b)} AS "daysAtSite",
   to_char(a.site_since AT TIME ZONE ${b.tz()}, 'YYYY-MM-DD') AS "siteSinceOn",
-  a.last_scan_at AS "lastScanAt", ${daysExpr('a.last_scan_at', b)} AS "daysSilent",
+  ${daysExpr('a.last_scan_at', b)} AS "daysSilent",
   to_char(a.last_scan_at AT TIME ZONE ${b.tz()}, 'YYYY-MM-DD HH24:MI') AS "lastScanLocal",
   a.trip_count AS "tripCount", a.last_inspection_on AS "lastInspectionOn", a.next_due AS "nextDue",
   (${BIN_COLUMNS.overdue.predicate(b)}) IS TRUE AS overdue,
@@ -548,13 +566,14 @@ function selectList(b: Binds): string {
 }
 
 /**
- * One page of rows, and (when asked) the count of the whole filtered set.
+ * One page of rows.
  *
  * Paging is OFFSET/LIMIT over the ordered set. The page's ids are picked first by a query that selects
  * nothing but the id (PostgreSQL drops the joins it does not need), so the rows skipped by OFFSET are
- * index entries, not joined rows; only the page's own rows are then joined and shaped ("deferred join").
+ * index entries — with the (column, id) indexes, read from the index alone — not joined rows; only the
+ * page's own rows are then joined and shaped ("deferred join").
  */
-export function binsPageQuery(req: GridRequest, ctx: QueryContext, opts: { count: boolean }): { page: SqlStatement; count: SqlStatement | null } {
+export function binsPageQuery(req: GridRequest, ctx: QueryContext): SqlStatement {
   const b = new Binds(ctx);
   const where = whereClause(req.filterModel, b, ctx);
   const order = orderBy(req.sortModel);
@@ -563,17 +582,19 @@ export function binsPageQuery(req: GridRequest, ctx: QueryContext, opts: { count
   const text = `SELECT ${selectList(b)}
 ${FROM}
 WHERE a.id = ANY(ARRAY(
-  SELECT a.id ${FROM}
+  SELECT a.id ${fromFor(where, order)}
   WHERE ${where}
   ORDER BY ${order}
   LIMIT ${limit} OFFSET ${offset}))
 ORDER BY ${order}`;
-  let count: SqlStatement | null = null;
-  if (opts.count) {
-    const cb = new Binds(ctx);
-    count = { text: `SELECT count(*)::int AS n ${FROM}\nWHERE ${whereClause(req.filterModel, cb, ctx)}`, values: cb.values };
-  }
-  return { page: { text, values: b.values }, count };
+  return { text, values: b.values };
+}
+
+/** How many bins pass the filter (asked for separately, so a page never waits for a count). */
+export function binsCountQuery(filterModel: FilterModel, ctx: QueryContext): SqlStatement {
+  const b = new Binds(ctx);
+  const where = whereClause(filterModel, b, ctx);
+  return { text: `SELECT count(*)::int AS n ${fromFor(where)}\nWHERE ${where}`, values: b.values };
 }
 
 /** Every row of the filtered, sorted set, for a cursor that streams it out in chunks (CSV export). */

@@ -3,11 +3,12 @@ import Papa from 'papaparse';
 import { resetDatabase, sequelize } from './support/db';
 import { poolWorld, makeUser } from './support/fixtures';
 import { callRoute, json, sessionUser } from './support/route';
-import { fetchBinsPage, type BinRow } from '../../src/lib/server/fleet-grid';
+import { countBins, fetchBinsPage, type BinRow } from '../../src/lib/server/fleet-grid';
 import { parseGridRequest, type QueryContext } from '../../src/lib/grid-query';
 import { makeGrai } from '../../src/lib/gs1';
 import { GET as binsRoute } from '../../src/pages/api/fleet/bins/index';
 import { GET as exportRoute } from '../../src/pages/api/fleet/bins/export.csv';
+import { GET as countRoute } from '../../src/pages/api/fleet/bins/count';
 
 // Hand-made bins with known answers. Today is 1 Dec 2026 in Amsterdam (UTC+1 in winter).
 const CTX: QueryContext = { timeZone: 'Europe/Amsterdam', today: '2026-12-01' };
@@ -94,7 +95,8 @@ describe('one page of the fleet grid against hand-made bins', () => {
     expect(res.today).toBe('2026-12-01');
     const b2 = res.rows[1]!;
     expect(b2).toMatchObject({ serial: 'S-002', status: 'on_hire', customerName: 'Test Customer', siteName: 'Customer site', binTypeCode: 'T1000', linerLot: 'TL-001', freeDays: 14 });
-    expect(b2.lastScanAt).toBeInstanceOf(Date);
+    expect(b2.lastScanLocal).toBe('2026-11-10 11:00'); // 10:00 UTC is 11:00 in Amsterdam in November
+    expect(b2.siteSinceOn).toBe('2026-11-10');
   });
 
   test('days at site and days since the last scan count calendar days in the operator zone (checked through ICU)', async () => {
@@ -160,10 +162,11 @@ describe('one page of the fleet grid against hand-made bins', () => {
     expect(keysOf((await page({ filterModel: { dueThisMonth: { filterType: 'boolean', value: true } } })).rows)).toEqual(['B1', 'B2', 'B6']);
   });
 
-  test('pages of two cover the set once, in order, and the count arrives with the first page', async () => {
+  test('pages of two cover the set once, in order; the end is known from a short page or from the count', async () => {
     const sortModel = [{ colId: 'tripCount', sort: 'asc' }];
     const first = await fetchBinsPage(parseGridRequest({ startRow: 0, endRow: 2, sortModel }), CTX);
-    expect(first.lastRow).toBe(7);
+    expect(first.lastRow).toBeNull();
+    expect(await countBins({}, CTX)).toBe(7);
     const seen = [...first.rows];
     for (let start = 2; start < 7; start += 2) {
       const p = await fetchBinsPage(parseGridRequest({ startRow: start, endRow: start + 2, sortModel }), CTX);
@@ -207,6 +210,18 @@ describe('the grid endpoint', () => {
       expect(body.error!.code).toBe('validation_failed');
       expect(body.error!.message + JSON.stringify(body.error!.details ?? '')).toMatch(message);
     }
+  });
+});
+
+describe('the count endpoint', () => {
+  test('counts the filtered set; refuses unknown columns and customers', async () => {
+    const planner = sessionUser(w.planner);
+    const ok = await callRoute(countRoute, { user: planner, path: '/api/fleet/bins/count', query: { filterModel: JSON.stringify({ overFreeDays: { filterType: 'boolean', value: true } }) } });
+    expect(ok.status).toBe(200);
+    expect((await json<{ data: { count: number } }>(ok)).data.count).toBe(2);
+    const bad = await callRoute(countRoute, { user: planner, path: '/api/fleet/bins/count', query: { filterModel: JSON.stringify({ secret: { filterType: 'text', type: 'equals', filter: 'x' } }) } });
+    expect(bad.status).toBe(400);
+    expect((await callRoute(countRoute, { user: sessionUser(w.customerUser), path: '/api/fleet/bins/count' })).status).toBe(403);
   });
 });
 

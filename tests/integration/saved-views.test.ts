@@ -91,7 +91,7 @@ describe('saved views', () => {
   });
 
   test('a stale version is refused; a second view with the same name (any case) is refused', async () => {
-    expect((await patch(ann, annView.id, { name: 'Renamed', version: annView.version - 1 })).status).toBe(409);
+    expect((await patch(ann, annView.id, { name: 'Renamed', version: annView.version! - 1 })).status).toBe(409);
     const dup = await create(ann, { name: 'ON HIRE BY DUE DATE', state: STATE });
     expect(dup.status).toBe(409);
     expect((await json(dup)).error!.message).toMatch(/already have a view called/);

@@ -1,7 +1,7 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import {
-  Binds, GridQueryError, binsExportQuery, binsPageQuery, orderBy, parseFilterModel, parseGridRequest, parseSortModel, whereClause,
+  Binds, GridQueryError, binsCountQuery, binsExportQuery, binsPageQuery, orderBy, parseFilterModel, parseGridRequest, parseSortModel, whereClause,
   BIN_COLUMN_IDS, MAX_PAGE_ROWS, type QueryContext,
 } from '../../src/lib/grid-query';
 import { BUILTIN_VIEWS, parseViewState } from '../../src/lib/grid-views';
@@ -164,29 +164,39 @@ describe('refusals name the problem and what is allowed', () => {
 });
 
 describe('ordering', () => {
-  test('defaults to GRAI; otherwise the sort terms, then the id so pages never overlap', () => {
+  test('defaults to GRAI; otherwise the sort terms, then the id (walking the same way as the first term)', () => {
     expect(orderBy([])).toBe('a.grai ASC');
     expect(orderBy(parseSortModel([{ colId: 'nextDue', sort: 'asc' }, { colId: 'site', sort: 'desc' }]))).toBe('a.next_due ASC, s.name DESC, a.id ASC');
+    expect(orderBy(parseSortModel([{ colId: 'nextDue', sort: 'desc' }]))).toBe('a.next_due DESC, a.id DESC');
     expect(orderBy(parseSortModel([{ colId: 'tripCount', sort: 'desc' }, { colId: 'grai', sort: 'asc' }]))).toBe('a.trip_count DESC, a.grai ASC');
   });
 
   test('more days at site = an earlier arrival, so the day count sorts on the instant, reversed', () => {
     expect(orderBy(parseSortModel([{ colId: 'daysAtSite', sort: 'desc' }]))).toBe('a.site_since ASC NULLS LAST, a.id ASC');
-    expect(orderBy(parseSortModel([{ colId: 'daysAtSite', sort: 'asc' }]))).toBe('a.site_since DESC NULLS FIRST, a.id ASC');
+    expect(orderBy(parseSortModel([{ colId: 'daysAtSite', sort: 'asc' }]))).toBe('a.site_since DESC NULLS FIRST, a.id DESC');
   });
 });
 
 describe('whole statements', () => {
   test('the page picks its ids first, then joins only those rows; the count shares the filter', () => {
     const req = parseGridRequest({ startRow: 200, endRow: 300, sortModel: [{ colId: 'nextDue', sort: 'asc' }], filterModel: { status: { filterType: 'set', values: ['on_hire'] } } });
-    const { page, count } = binsPageQuery(req, CTX, { count: true });
+    const page = binsPageQuery(req, CTX);
     expect(page.text).toMatch(/WHERE a\.id = ANY\(ARRAY\(\n  SELECT a\.id FROM assets a/);
     expect(page.text).toContain('LIMIT $2::int OFFSET $3::int');
     expect(page.values.slice(0, 3)).toEqual([['on_hire'], 100, 200]);
     expect(page.values).toContain('Europe/Amsterdam');
-    expect(count!.text).toMatch(/^SELECT count\(\*\)::int AS n FROM assets a/);
-    expect(count!.values).toEqual([['on_hire']]);
-    expect(binsPageQuery(req, CTX, { count: false }).count).toBeNull();
+    const count = binsCountQuery(req.filterModel, CTX);
+    expect(count.text).toBe('SELECT count(*)::int AS n FROM assets a\nWHERE a.status = ANY($1::text[])');
+    expect(count.values).toEqual([['on_hire']]);
+  });
+
+  test('the id-picking query joins only the tables its filter and sort use (so an index-only scan stays possible)', () => {
+    const inner = (raw: Parameters<typeof parseGridRequest>[0]) => binsPageQuery(parseGridRequest(raw), CTX).text.split('ARRAY(')[1]!.split('LIMIT')[0]!;
+    expect(inner({ sortModel: [{ colId: 'nextDue', sort: 'asc' }] })).not.toMatch(/JOIN/);
+    expect(inner({ sortModel: [{ colId: 'site', sort: 'asc' }] })).toMatch(/LEFT JOIN sites s ON s\.id = a\.site_id/);
+    expect(inner({ sortModel: [{ colId: 'site', sort: 'asc' }] })).not.toMatch(/organisations|liner_lots|bin_types/);
+    expect(inner({ filterModel: { overFreeDays: { filterType: 'boolean', value: true } } })).toMatch(/LEFT JOIN organisations o/);
+    expect(inner({ filterModel: { linerLot: { filterType: 'text', type: 'contains', filter: 'x' } } })).toMatch(/LEFT JOIN liner_lots ll/);
   });
 
   test('every placeholder in a statement has exactly one bind value', () => {
@@ -195,7 +205,7 @@ describe('whole statements', () => {
       sortModel: [{ colId: 'daysAtSite', sort: 'desc' }],
       filterModel: { daysSilent: { filterType: 'number', type: 'greaterThan', filter: 3 }, overFreeDays: { filterType: 'boolean', value: true }, lastScanAt: { filterType: 'date', type: 'inRange', dateFrom: '2026-01-01', dateTo: '2026-06-30' } },
     });
-    for (const s of [binsPageQuery(req, CTX, { count: true }).page, binsPageQuery(req, CTX, { count: true }).count!, binsExportQuery(req, CTX)]) {
+    for (const s of [binsPageQuery(req, CTX), binsCountQuery(req.filterModel, CTX), binsExportQuery(req, CTX)]) {
       const used = new Set([...s.text.matchAll(/\$(\d+)/g)].map((m) => Number(m[1])));
       expect([...used].sort((a, b) => a - b)).toEqual(s.values.map((_, i) => i + 1));
     }

@@ -30,6 +30,8 @@ const PAGE_ROWS = 100;
 
 export interface FleetGridProps {
   firstPage: GridPage;
+  /** Size of the first view's filtered set, counted on the server (null: too costly to count). */
+  firstCount: number | null;
   firstState: ViewState;
   views: ViewSummary[];
   initialViewId: string | null;
@@ -39,48 +41,68 @@ export interface FleetGridProps {
   styleNonce?: string;
 }
 
-export default function FleetGrid({ firstPage, firstState, views, initialViewId, choices, prefixLength, styleNonce }: FleetGridProps) {
+export default function FleetGrid({ firstPage, firstCount, firstState, views, initialViewId, choices, prefixLength, styleNonce }: FleetGridProps) {
   const gridApi = useRef<GridApi<GridRow> | null>(null);
   const context = useMemo<GridContext>(() => ({ today: firstPage.today, prefixLength }), [firstPage.today, prefixLength]);
   const columnDefs = useMemo(() => buildColumnDefs(choices, window.matchMedia('(min-width: 768px)').matches), [choices]);
   const [selectedId, setSelectedId] = useState<string | null>(initialViewId);
   const [baseState, setBaseState] = useState<ViewState>(firstState);
   const [state, setState] = useState<ViewState>(firstState);
-  const [count, setCount] = useState<number | null>(firstPage.lastRow);
+  const [count, setCount] = useState<number | null>(firstPage.lastRow ?? firstCount);
   const [loaded, setLoaded] = useState(firstPage.rows.length);
   const [error, setError] = useState<string | null>(null);
   // The first page was read on the server; hand it to the grid instead of asking again.
   const firstPageRef = useRef<{ key: string; page: GridPage } | null>({ key: stableJson([firstState.sortModel, firstState.filterModel]), page: firstPage });
 
+  // The size of the filtered set is asked for beside the first page of each filter, so no page waits
+  // for a count; an answer for a filter that has since changed is dropped.
+  const countFor = useRef<string>(stableJson(firstState.filterModel));
+  const askCount = useCallback((filterModel: object) => {
+    const key = stableJson(filterModel);
+    countFor.current = key;
+    setCount(null);
+    api<{ count: number | null }>('/api/fleet/bins/count', { query: { filterModel } })
+      .then(({ count: n }) => {
+        if (countFor.current !== key) return;
+        setCount(n);
+        if (n !== null) gridApi.current?.setRowCount(n, true);
+      })
+      .catch(() => undefined); // without a count the grid still scrolls to the end
+  }, []);
+
   const datasource = useMemo<IDatasource>(
     () => ({
       getRows(params: IGetRowsParams) {
-        const deliver = (page: GridPage) => {
+        const deliver = (page: GridPage, knownCount?: number | null) => {
           context.today = page.today;
-          if (params.startRow === 0) setCount(page.lastRow);
-          else if (page.lastRow !== null) setCount(page.lastRow);
           setLoaded((n) => Math.max(n, params.startRow + page.rows.length));
-          params.successCallback(page.rows, page.lastRow ?? undefined);
+          params.successCallback(page.rows, page.lastRow ?? knownCount ?? undefined);
+          if (page.lastRow !== null) {
+            countFor.current = stableJson(params.filterModel);
+            setCount(page.lastRow);
+          } else if (params.startRow === 0 && knownCount === undefined) {
+            askCount(params.filterModel);
+          }
         };
         const key = stableJson([params.sortModel, params.filterModel]);
         const first = firstPageRef.current;
         firstPageRef.current = null;
         if (first && params.startRow === 0 && first.key === key) {
-          deliver(first.page);
+          deliver(first.page, firstCount);
           return;
         }
         setError(null);
         api<GridPage>('/api/fleet/bins', {
           query: { startRow: params.startRow, endRow: params.endRow, sortModel: params.sortModel, filterModel: params.filterModel },
         })
-          .then(deliver)
+          .then((page) => deliver(page))
           .catch((err: unknown) => {
             params.failCallback();
             setError(err instanceof ApiError ? err.message : 'The bins could not be loaded. Try again.');
           });
       },
     }),
-    [context],
+    [context, askCount, firstCount],
   );
 
   const onGridReady = useCallback(

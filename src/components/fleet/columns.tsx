@@ -59,7 +59,7 @@ export function buildColumnDefs(choices: FilterChoices, pinGrai: boolean): Array
       ...setFilter([...choices.customers, { value: null, label: 'No customer' }]),
     },
     { colId: 'daysAtSite', field: 'daysAtSite', headerName: label('daysAtSite'), width: 200, cellRenderer: DaysAtSiteCell, ...NUMBER_FILTER },
-    { colId: 'lastScanAt', field: 'lastScanAt', headerName: label('lastScanAt'), width: 250, cellRenderer: LastScanCell, ...DATE_FILTER },
+    { colId: 'lastScanAt', field: 'lastScanLocal', headerName: label('lastScanAt'), width: 250, cellRenderer: LastScanCell, ...DATE_FILTER },
     { colId: 'daysSilent', field: 'daysSilent', headerName: label('daysSilent'), width: 150, cellRenderer: DaysCell, ...NUMBER_FILTER },
     { colId: 'tripCount', field: 'tripCount', headerName: label('tripCount'), width: 100, cellRenderer: TextCell, ...NUMBER_FILTER },
     { colId: 'lastInspectionOn', field: 'lastInspectionOn', headerName: label('lastInspectionOn'), width: 230, cellRenderer: DateCell, ...DATE_FILTER },

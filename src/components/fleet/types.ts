@@ -1,9 +1,9 @@
 // What the fleet grid island receives: the server's row and page shapes as they
-// arrive over JSON (instants become ISO strings).
+// arrive over JSON.
 import type { BinRow, FilterChoices } from '../../lib/server/fleet-grid';
 import type { ViewSummary } from '../../lib/server/saved-views';
 
-export type GridRow = { [K in keyof BinRow]: BinRow[K] extends Date | null ? string | null : BinRow[K] };
+export type GridRow = BinRow;
 
 export interface GridPage {
   rows: GridRow[];

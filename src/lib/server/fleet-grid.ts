@@ -7,7 +7,7 @@ import { sequelize } from './db';
 import { getSettings } from './settings';
 import { localDate, formatLongDate } from '../calendar';
 import { AppError } from '../api-errors';
-import { binsExportQuery, binsPageQuery, BIN_COLUMNS, GridQueryError, type BinColumnId, type GridRequest, type QueryContext, type SqlStatement } from '../grid-query';
+import { binsCountQuery, binsExportQuery, binsPageQuery, BIN_COLUMNS, GridQueryError, type BinColumnId, type FilterModel, type GridRequest, type QueryContext, type SqlStatement } from '../grid-query';
 import { STATUS_LABELS, type Status } from '../lifecycle';
 
 /** Runs a check from the grid's query language; a refusal becomes a 400 validation_failed with its details. */
@@ -20,6 +20,7 @@ export function checkGrid<T>(fn: () => T): T {
   }
 }
 
+/** One grid row: what the cells show, computed in the operator's zone; no more (it travels 100 at a time). */
 export interface BinRow {
   id: number;
   grai: string;
@@ -27,19 +28,14 @@ export interface BinRow {
   status: Status;
   binTypeId: number;
   binTypeCode: string;
-  binTypeName: string;
   siteId: number | null;
   siteName: string | null;
-  siteCode: string | null;
-  siteKind: string | null;
   customerId: number | null;
   customerName: string | null;
   freeDays: number | null;
-  siteSince: Date | null;
   daysAtSite: number | null;
   /** Arrival day in the operator's zone, 'YYYY-MM-DD'. */
   siteSinceOn: string | null;
-  lastScanAt: Date | null;
   daysSilent: number | null;
   /** Last scan in the operator's zone, 'YYYY-MM-DD HH:MM'. */
   lastScanLocal: string | null;
@@ -55,7 +51,7 @@ export interface BinRow {
 
 export interface BinsPage {
   rows: BinRow[];
-  /** Rows in the whole filtered set, when known; null = keep scrolling to find out. */
+  /** Rows in the whole filtered set when this page reached its end; otherwise null (ask countBins). */
   lastRow: number | null;
   /** The operator's today, against which day counts and due flags were computed. */
   today: string;
@@ -84,21 +80,37 @@ export async function queryContext(now = new Date()): Promise<QueryContext> {
   return { timeZone, today: localDate(now, timeZone) };
 }
 
-/**
- * One page of the grid. The first page of a sort/filter also counts the filtered set (on a second
- * connection, in parallel with the page), so the grid's scrollbar is right from the start; a short page
- * tells the count by itself.
- */
+/** One page of the grid; lastRow is known when the page comes back short (the end of the set). */
 export async function fetchBinsPage(req: GridRequest, ctx?: QueryContext): Promise<BinsPage> {
   const context = ctx ?? (await queryContext());
-  const wantCount = req.startRow === 0;
-  const { page, count } = binsPageQuery(req, context, { count: wantCount });
-  const [rows, counted] = await Promise.all([run(page), count ? run(count) : Promise.resolve(null)]);
-  const pageSize = req.endRow - req.startRow;
-  let lastRow: number | null = null;
-  if (rows.length < pageSize) lastRow = req.startRow + rows.length;
-  else if (counted) lastRow = Number(counted[0]!.n);
+  const rows = await run(binsPageQuery(req, context));
+  const lastRow = rows.length < req.endRow - req.startRow ? req.startRow + rows.length : null;
   return { rows: rows as unknown as BinRow[], lastRow, today: context.today };
+}
+
+/** A count that takes longer than this is not worth its cost: the grid keeps scrolling to find the end. */
+const COUNT_BUDGET_MS = 2_000;
+
+/**
+ * How many bins pass the filter, or null when counting would take longer than COUNT_BUDGET_MS. Asked for
+ * beside the first page (the grid sizes its scrollbar from it), never inside a page request.
+ */
+export async function countBins(filterModel: FilterModel, ctx?: QueryContext): Promise<number | null> {
+  const context = ctx ?? (await queryContext());
+  const statement = binsCountQuery(filterModel, context);
+  return withConnection(async (c) => {
+    await c.query('BEGIN READ ONLY');
+    try {
+      await c.query(`SET LOCAL statement_timeout = ${COUNT_BUDGET_MS}`);
+      const { rows } = await c.query(statement.text, statement.values);
+      await c.query('COMMIT');
+      return Number(rows[0]!.n);
+    } catch (err) {
+      await c.query('ROLLBACK').catch(() => undefined);
+      if ((err as { code?: string }).code === '57014') return null; // query_canceled: over budget
+      throw err;
+    }
+  });
 }
 
 // ---------------------------------------------------------------------------------------------------
