@@ -110,6 +110,7 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
       gridApi.current = e.api;
       applyViewState(e.api, firstState);
       e.api.setGridOption('datasource', datasource);
+      setState(readViewState(e.api));
     },
     [datasource, firstState],
   );
