@@ -238,15 +238,27 @@ function stats(samples: number[]) {
   return { p50: at(50), p95: at(95), min: s[0]!, max: s[s.length - 1]! };
 }
 
-async function measure(fn: () => Promise<unknown>): Promise<number[]> {
-  for (let i = 0; i < WARMUP; i++) await fn();
-  const out: number[] = [];
-  for (let i = 0; i < RUNS; i++) {
+/**
+ * Times two ways of doing the same work, alternating run by run, so both meet the same load on the
+ * machine (a busy neighbour slows whichever happens to be running, not one of them for a whole series).
+ */
+async function measurePair(a: () => Promise<unknown>, b: () => Promise<unknown>): Promise<[number[], number[]]> {
+  for (let i = 0; i < WARMUP; i++) {
+    await a();
+    await b();
+  }
+  const ta: number[] = [];
+  const tb: number[] = [];
+  const time = async (fn: () => Promise<unknown>, into: number[]) => {
     const t0 = performance.now();
     await fn();
-    out.push(performance.now() - t0);
+    into.push(performance.now() - t0);
+  };
+  for (let i = 0; i < RUNS; i++) {
+    await time(a, ta);
+    await time(b, tb);
   }
-  return out;
+  return [ta, tb];
 }
 
 async function main() {
@@ -320,14 +332,16 @@ async function main() {
     for (const s of scenarios) {
       const path = `/api/fleet/bins?${qs({ startRow: String(s.req.startRow), endRow: String(s.req.endRow), sortModel: s.req.sortModel, filterModel: s.req.filterModel })}`;
       let body: { rows: Array<{ id: number }>; lastRow: number | null } | null = null;
-      const http = await measure(async () => {
-        body = await get(path);
-      });
       const statement = binsPageQuery(s.req, ctx);
       let bareRows: Array<{ id: number }> = [];
-      const sql = await measure(async () => {
-        bareRows = (await pool.query(statement.text, statement.values)).rows;
-      });
+      const [http, sql] = await measurePair(
+        async () => {
+          body = await get(path);
+        },
+        async () => {
+          bareRows = (await pool.query(statement.text, statement.values)).rows;
+        },
+      );
       const page = body!;
       if (page.rows.map((r) => r.id).join() !== bareRows.map((r) => r.id).join()) throw new Error(`${s.name}: HTTP and bare SQL returned different rows`);
       results.push({ name: s.name, http: stats(http), sql: stats(sql), note: `${page.rows.length} rows` });
@@ -336,17 +350,29 @@ async function main() {
     for (const s of [scenarios[0]!, scenarios[2]!]) {
       const path = `/api/fleet/bins/count?${qs({ filterModel: s.req.filterModel })}`;
       let n: number | null = null;
-      const http = await measure(async () => {
-        n = (await get<{ count: number | null }>(path)).count;
-      });
       const statement = binsCountQuery(s.req.filterModel, ctx);
-      const sql = await measure(() => pool.query(statement.text, statement.values));
+      const [http, sql] = await measurePair(
+        async () => {
+          n = (await get<{ count: number | null }>(path)).count;
+        },
+        () => pool.query(statement.text, statement.values),
+      );
       results.push({ name: `count: ${s.name.replace(/ \(.*\)$/, '')}`, http: stats(http), sql: stats(sql), note: `count ${n}` });
+    }
+
+    // Reference: what any request costs here — no session (health), and a session with a trivial query.
+    const reference: Array<{ name: string; t: ReturnType<typeof stats> }> = [];
+    for (const [name, path, auth] of [['GET /api/health (no session)', '/api/health', false], ['GET /api/fleet/views (session)', '/api/fleet/views', true]] as const) {
+      const [t] = await measurePair(async () => {
+        const res = await fetch(base + path, { headers: auth ? { Cookie: cookie } : {} });
+        await res.arrayBuffer();
+      }, async () => undefined);
+      reference.push({ name, t: stats(t) });
     }
 
     const f = (n: number) => n.toFixed(1).padStart(6);
     const load = loadavg().map((l) => l.toFixed(2)).join(' ');
-    console.log(`\nfleet grid, ${BINS.toLocaleString('en')} bins / ${EVENTS.toLocaleString('en')} scan events, ${RUNS} runs each after ${WARMUP} warm-up (ms); ${cpus().length} CPUs, load average ${load}`);
+    console.log(`\nfleet grid, ${BINS.toLocaleString('en')} bins / ${EVENTS.toLocaleString('en')} scan events, ${RUNS} runs each after ${WARMUP} warm-up, HTTP and SQL alternating (ms); ${cpus().length} CPUs, load average ${load}`);
     console.log(`${'scenario'.padEnd(40)} ${'HTTP p50'.padStart(8)} ${'p95'.padStart(6)} ${'SQL p50'.padStart(8)} ${'p95'.padStart(6)}  ${'Δp95'.padStart(6)}  ${'result'.padEnd(12)} verdict`);
     let ok = true;
     for (const r of results) {
@@ -356,6 +382,7 @@ async function main() {
       console.log(`${r.name.padEnd(40)} ${f(r.http.p50).padStart(8)} ${f(r.http.p95)} ${f(r.sql.p50).padStart(8)} ${f(r.sql.p95)}  ${f(delta)}  ${r.note.padEnd(12)} ${pass ? 'ok' : 'OVER TARGET'}`);
     }
     console.log(`targets: HTTP p95 ≤ 50 ms and ≤ bare SQL p95 + 15 ms → ${ok ? 'met' : 'NOT met'}`);
+    for (const r of reference) console.log(`reference ${r.name.padEnd(30)} p50 ${f(r.t.p50)}  p95 ${f(r.t.p95)}`);
 
     // How the deep page is served (for the record).
     const deep = binsPageQuery(scenarios[3]!.req, ctx);

@@ -590,11 +590,19 @@ ORDER BY ${order}`;
   return { text, values: b.values };
 }
 
-/** How many bins pass the filter (asked for separately, so a page never waits for a count). */
+/** Counting stops here: past it the grid is told "more than this" and scrolls on to find the end. */
+export const COUNT_CAP = 1_000_000;
+
+/**
+ * How many bins pass the filter, counting at most COUNT_CAP + 1 rows, so the cost of a count is bounded
+ * by rows rather than by a timeout (one statement, no transaction). Asked for separately from the pages,
+ * so a page never waits for a count.
+ */
 export function binsCountQuery(filterModel: FilterModel, ctx: QueryContext): SqlStatement {
   const b = new Binds(ctx);
   const where = whereClause(filterModel, b, ctx);
-  return { text: `SELECT count(*)::int AS n ${fromFor(where)}\nWHERE ${where}`, values: b.values };
+  const cap = b.add(COUNT_CAP + 1, 'int');
+  return { text: `SELECT count(*)::int AS n FROM (SELECT 1 ${fromFor(where)}\nWHERE ${where}\nLIMIT ${cap}) capped`, values: b.values };
 }
 
 /** Every row of the filtered, sorted set, for a cursor that streams it out in chunks (CSV export). */

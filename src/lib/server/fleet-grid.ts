@@ -7,7 +7,7 @@ import { sequelize } from './db';
 import { getSettings } from './settings';
 import { localDate, formatLongDate } from '../calendar';
 import { AppError } from '../api-errors';
-import { binsCountQuery, binsExportQuery, binsPageQuery, BIN_COLUMNS, GridQueryError, type BinColumnId, type FilterModel, type GridRequest, type QueryContext, type SqlStatement } from '../grid-query';
+import { binsCountQuery, binsExportQuery, binsPageQuery, BIN_COLUMNS, COUNT_CAP, GridQueryError, type BinColumnId, type FilterModel, type GridRequest, type QueryContext, type SqlStatement } from '../grid-query';
 import { STATUS_LABELS, type Status } from '../lifecycle';
 
 /** Runs a check from the grid's query language; a refusal becomes a 400 validation_failed with its details. */
@@ -88,29 +88,15 @@ export async function fetchBinsPage(req: GridRequest, ctx?: QueryContext): Promi
   return { rows: rows as unknown as BinRow[], lastRow, today: context.today };
 }
 
-/** A count that takes longer than this is not worth its cost: the grid keeps scrolling to find the end. */
-const COUNT_BUDGET_MS = 2_000;
-
 /**
- * How many bins pass the filter, or null when counting would take longer than COUNT_BUDGET_MS. Asked for
- * beside the first page (the grid sizes its scrollbar from it), never inside a page request.
+ * How many bins pass the filter, or null when there are more than COUNT_CAP (the grid then scrolls on
+ * to find the end). Asked for beside the first page of a filter, never inside a page request.
  */
 export async function countBins(filterModel: FilterModel, ctx?: QueryContext): Promise<number | null> {
   const context = ctx ?? (await queryContext());
-  const statement = binsCountQuery(filterModel, context);
-  return withConnection(async (c) => {
-    await c.query('BEGIN READ ONLY');
-    try {
-      await c.query(`SET LOCAL statement_timeout = ${COUNT_BUDGET_MS}`);
-      const { rows } = await c.query(statement.text, statement.values);
-      await c.query('COMMIT');
-      return Number(rows[0]!.n);
-    } catch (err) {
-      await c.query('ROLLBACK').catch(() => undefined);
-      if ((err as { code?: string }).code === '57014') return null; // query_canceled: over budget
-      throw err;
-    }
-  });
+  const [row] = await run(binsCountQuery(filterModel, context));
+  const n = Number(row!.n);
+  return n > COUNT_CAP ? null : n;
 }
 
 // ---------------------------------------------------------------------------------------------------
