@@ -54,16 +54,18 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
   // The first page was read on the server; hand it to the grid instead of asking again.
   const firstPageRef = useRef<{ key: string; page: GridPage } | null>({ key: stableJson([firstState.sortModel, firstState.filterModel]), page: firstPage });
 
-  // The size of the filtered set is asked for beside the first page of each filter, so no page waits
-  // for a count; an answer for a filter that has since changed is dropped.
-  const countFor = useRef<string>(stableJson(firstState.filterModel));
+  // The size of the filtered set is asked for beside the first page of each filter (never inside a
+  // page request); a new sort of the same filter reuses it, and an answer for a filter that has since
+  // changed is dropped. n: undefined while asked, null when too many to count.
+  const known = useRef<{ key: string; n: number | null | undefined }>({ key: stableJson(firstState.filterModel), n: firstPage.lastRow ?? firstCount });
   const askCount = useCallback((filterModel: object) => {
     const key = stableJson(filterModel);
-    countFor.current = key;
+    known.current = { key, n: undefined };
     setCount(null);
     api<{ count: number | null }>('/api/fleet/bins/count', { query: { filterModel } })
       .then(({ count: n }) => {
-        if (countFor.current !== key) return;
+        if (known.current.key !== key) return;
+        known.current = { key, n };
         setCount(n);
         if (n !== null) gridApi.current?.setRowCount(n, true);
       })
@@ -73,36 +75,37 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
   const datasource = useMemo<IDatasource>(
     () => ({
       getRows(params: IGetRowsParams) {
-        const deliver = (page: GridPage, knownCount?: number | null) => {
+        const filterKey = stableJson(params.filterModel);
+        const deliver = (page: GridPage) => {
           context.today = page.today;
           setLoaded((n) => Math.max(n, params.startRow + page.rows.length));
-          params.successCallback(page.rows, page.lastRow ?? knownCount ?? undefined);
+          const counted = known.current.key === filterKey && typeof known.current.n === 'number' ? known.current.n : undefined;
+          params.successCallback(page.rows, page.lastRow ?? counted);
           if (page.lastRow !== null) {
-            countFor.current = stableJson(params.filterModel);
+            known.current = { key: filterKey, n: page.lastRow };
             setCount(page.lastRow);
-          } else if (params.startRow === 0 && knownCount === undefined) {
+          } else if (params.startRow === 0 && known.current.key !== filterKey) {
             askCount(params.filterModel);
           }
         };
-        const key = stableJson([params.sortModel, params.filterModel]);
         const first = firstPageRef.current;
         firstPageRef.current = null;
-        if (first && params.startRow === 0 && first.key === key) {
-          deliver(first.page, firstCount);
+        if (first && params.startRow === 0 && first.key === stableJson([params.sortModel, params.filterModel])) {
+          deliver(first.page);
           return;
         }
         setError(null);
         api<GridPage>('/api/fleet/bins', {
           query: { startRow: params.startRow, endRow: params.endRow, sortModel: params.sortModel, filterModel: params.filterModel },
         })
-          .then((page) => deliver(page))
+          .then(deliver)
           .catch((err: unknown) => {
             params.failCallback();
             setError(err instanceof ApiError ? err.message : 'The bins could not be loaded. Try again.');
           });
       },
     }),
-    [context, askCount, firstCount],
+    [context, askCount],
   );
 
   const onGridReady = useCallback(
