@@ -13,11 +13,38 @@ import yardServiceWorker from './src/integrations/yard-service-worker.mjs';
 // configured APP_URL / Digital Link base, so a forged Host cannot poison them.
 const allowedDomains = [{}];
 
+// Content-Security-Policy (see DEVELOPERS.md, "Content Security Policy"): Astro
+// hashes every script and style it emits and sends the policy as a header on
+// each rendered page; scripts run only from this origin or by hash. Pages that
+// inject styles at run time (the fleet grid) add a per-response nonce with
+// Astro.csp.insertStyleResource; the middleware adds `style-src-attr` for
+// style="…" attributes, a directive Astro's list does not take.
+/** @type {Exclude<NonNullable<import('astro').AstroUserConfig['experimental']>['csp'], boolean | undefined>} */
+const csp = {
+  algorithm: 'SHA-256',
+  directives: [
+    "default-src 'self'",
+    "img-src 'self' data: blob:",
+    "font-src 'self'",
+    "connect-src 'self'",
+    "media-src 'self' blob:",
+    "worker-src 'self'",
+    "manifest-src 'self'",
+    "object-src 'none'",
+    "base-uri 'self'",
+    "form-action 'self'",
+    "frame-ancestors 'none'",
+  ],
+  scriptDirective: { resources: ["'self'"] },
+  styleDirective: { resources: ["'self'"] },
+};
+
 export default defineConfig({
   output: 'server',
   adapter: node({ mode: 'standalone' }),
   integrations: [react(), tailwind({ applyBaseStyles: false }), auth({ configFile: './auth.config.ts' }), yardServiceWorker()],
   security: { checkOrigin: true, allowedDomains },
+  experimental: { csp },
   server: { host: process.env.HOST ?? 'localhost', port: Number(process.env.PORT ?? 4321) },
   vite: {
     resolve: { alias: { '@': new URL('./src', import.meta.url).pathname } },

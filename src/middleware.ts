@@ -15,6 +15,23 @@ const SECURITY_HEADERS: Record<string, string> = {
 };
 
 /**
+ * Astro sends each rendered page's Content-Security-Policy (astro.config.mjs,
+ * experimental.csp): scripts and <style> elements by hash or nonce only. Its
+ * directive list has no `style-src-attr`, so it is added here: style="…"
+ * attributes (computed sizes, label positions) may stay inline, which cannot
+ * run code; injected <style> elements and scripts stay blocked.
+ */
+function allowStyleAttributes(response: Response) {
+  const policy = response.headers.get('content-security-policy');
+  if (!policy || policy.includes('style-src-attr')) return;
+  try {
+    response.headers.set('content-security-policy', `${policy.trim().replace(/;?$/, ';')} style-src-attr 'unsafe-inline';`);
+  } catch {
+    /* immutable headers (a redirect): nothing to render, nothing to allow */
+  }
+}
+
+/**
  * Every request passes here: the caller's address is pinned, the session is
  * re-checked against the user row, and the path is guarded by the role ×
  * capability table (src/lib/permissions.ts). Endpoints check again, finer.
@@ -61,5 +78,6 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   for (const [k, v] of Object.entries(SECURITY_HEADERS)) {
     if (!response.headers.has(k)) response.headers.set(k, v);
   }
+  allowStyleAttributes(response);
   return response;
 });

@@ -20,6 +20,7 @@ import { Inspection } from './inspection';
 import { CollectionRequest } from './collection-request';
 import { DamageReport } from './damage-report';
 import { Load } from './load';
+import { GridView } from './grid-view';
 
 Organisation.hasMany(Site, { foreignKey: 'organisationId', as: 'sites' });
 Site.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });
@@ -70,7 +71,9 @@ Load.belongsTo(Site, { foreignKey: 'depotSiteId', as: 'depotSite' });
 Load.belongsTo(Site, { foreignKey: 'destinationSiteId', as: 'destinationSite' });
 Trip.belongsTo(Load, { foreignKey: 'loadId', as: 'load' });
 
+GridView.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
+
 export {
   sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage, Attachment, BinType, LinerLot,
-  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport, Load,
+  HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport, Load, GridView,
 };

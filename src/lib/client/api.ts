@@ -35,18 +35,40 @@ export class ApiError extends Error {
   }
 }
 
+export type QueryValue = string | number | boolean | null | undefined | object;
+
+/** Builds a path with a query string; objects and arrays travel as JSON, empty values are left out. */
+export function withQuery(path: string, query: Record<string, QueryValue> = {}): string {
+  const params = new URLSearchParams();
+  for (const [k, v] of Object.entries(query)) {
+    if (v === undefined || v === null || v === '') continue;
+    params.set(k, typeof v === 'object' ? JSON.stringify(v) : String(v));
+  }
+  const qs = params.toString();
+  return qs ? `${path}?${qs}` : path;
+}
+
 type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
 
-async function request<T>(method: Method, path: string, body?: unknown): Promise<T> {
+export interface RequestOptions {
+  method?: Method;
+  query?: Record<string, QueryValue>;
+  body?: unknown;
+  signal?: AbortSignal;
+}
+
+async function request<T>(path: string, opts: RequestOptions = {}): Promise<T> {
   let res: Response;
   try {
-    res = await fetch(path, {
-      method,
+    res = await fetch(withQuery(path, opts.query), {
+      method: opts.method ?? 'GET',
       credentials: 'same-origin',
-      headers: body === undefined ? { Accept: 'application/json' } : { Accept: 'application/json', 'Content-Type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      headers: opts.body === undefined ? { Accept: 'application/json' } : { Accept: 'application/json', 'Content-Type': 'application/json' },
+      body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+      signal: opts.signal,
     });
-  } catch {
+  } catch (err) {
+    if ((err as Error).name === 'AbortError') throw err;
     throw new ApiError('network', 'Loopfold could not be reached. Check your connection and try again.', 0);
   }
   let payload: unknown;
@@ -63,13 +85,17 @@ async function request<T>(method: Method, path: string, body?: unknown): Promise
   return env.data as T;
 }
 
-export const api = {
-  get: <T>(path: string) => request<T>('GET', path),
-  post: <T>(path: string, body?: unknown) => request<T>('POST', path, body ?? {}),
-  put: <T>(path: string, body: unknown) => request<T>('PUT', path, body),
-  patch: <T>(path: string, body: unknown) => request<T>('PATCH', path, body),
-  delete: <T>(path: string) => request<T>('DELETE', path),
-};
+/**
+ * `api(path, { method, query, body, signal })`, or the shorthands
+ * `api.get(path)`, `api.post(path, body)`, `api.put`, `api.patch`, `api.delete`.
+ */
+export const api = Object.assign(<T>(path: string, opts?: RequestOptions) => request<T>(path, opts), {
+  get: <T>(path: string) => request<T>(path),
+  post: <T>(path: string, body?: unknown) => request<T>(path, { method: 'POST', body: body ?? {} }),
+  put: <T>(path: string, body: unknown) => request<T>(path, { method: 'PUT', body }),
+  patch: <T>(path: string, body: unknown) => request<T>(path, { method: 'PATCH', body }),
+  delete: <T>(path: string) => request<T>(path, { method: 'DELETE' }),
+});
 
 /** SWR fetcher: `useSWR(path, fetcher)`. */
-export const fetcher = <T>(path: string) => api.get<T>(path);
+export const fetcher = <T>(path: string): Promise<T> => request<T>(path);

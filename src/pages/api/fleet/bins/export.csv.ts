@@ -1,0 +1,31 @@
+import { endpoint } from '../../../../lib/server/endpoint';
+import { binsExportQuerySchema } from '../../../../lib/server/grid-params';
+import { checkGrid, exportBinsCsv, exportFileName, queryContext, EXPORTABLE_COLUMNS } from '../../../../lib/server/fleet-grid';
+import { parseFilterModel, parseSortModel, type BinColumnId } from '../../../../lib/grid-query';
+import { DEFAULT_VISIBLE } from '../../../../lib/grid-views';
+import { AppError } from '../../../../lib/api-errors';
+
+function exportColumns(list: string | undefined): BinColumnId[] {
+  if (!list) return [...DEFAULT_VISIBLE];
+  const ids = list.split(',').map((c) => c.trim()).filter(Boolean);
+  const unknown = ids.filter((c) => !(EXPORTABLE_COLUMNS as string[]).includes(c));
+  if (unknown.length || ids.length === 0) {
+    throw new AppError('validation_failed', `Cannot export column(s) ${unknown.join(', ') || '(none)'}; the columns are ${EXPORTABLE_COLUMNS.join(', ')}.`);
+  }
+  return [...new Set(ids)] as BinColumnId[];
+}
+
+/** The grid's current filtered, sorted set as CSV (every matching row, streamed in chunks). */
+export const GET = endpoint({ capability: 'fleet.view', query: binsExportQuerySchema }, async ({ query }) => {
+  const req = checkGrid(() => ({ sortModel: parseSortModel(query.sortModel), filterModel: parseFilterModel(query.filterModel) }));
+  const columns = exportColumns(query.columns);
+  const ctx = await queryContext();
+  const body = await exportBinsCsv(req, columns, ctx);
+  return new Response(body, {
+    headers: {
+      'Content-Type': 'text/csv; charset=utf-8',
+      'Content-Disposition': `attachment; filename="${exportFileName(ctx.today)}"`,
+      'Cache-Control': 'no-store',
+    },
+  });
+});

@@ -1,0 +1,19 @@
+import { z } from 'zod';
+import { endpoint } from '../../../../lib/server/endpoint';
+import { createView, listViews } from '../../../../lib/server/saved-views';
+import { MAX_VIEW_NAME } from '../../../../lib/grid-views';
+
+/** The fleet grid's views this user may open: built-in, their own, and those other planners shared. */
+export const GET = endpoint({ capability: 'fleet.view' }, async ({ user }) => listViews(user));
+
+const createSchema = z
+  .object({
+    name: z.string().trim().min(1, 'Give the view a name').max(MAX_VIEW_NAME),
+    shared: z.boolean().default(false),
+    state: z.unknown(),
+  })
+  .strict();
+
+export const POST = endpoint({ capability: 'fleet.view', body: createSchema, status: 201 }, async ({ user, body }) =>
+  createView(user, { name: body.name, shared: body.shared, state: body.state }),
+);
