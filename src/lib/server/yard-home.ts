@@ -30,7 +30,8 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
   const [depot] = await q<{ id: number; name: string }>('SELECT id, name FROM sites WHERE id = $1', [depotId]);
   const horizon = addDays(today, 7);
   const [counts, orders, expected, testsDue, recent] = await Promise.all([
-    q<{ status: Status; count: number }>('SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 GROUP BY status ORDER BY count DESC', [depotId]),
+    // Retired bins have left the pool even when their scrap still stands in the yard.
+    q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [depotId]),
     q<YardHome['orders'][number]>(
       `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity, bt.name AS "binType",
               (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
@@ -56,7 +57,7 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
     q<YardHome['recent'][number]>(
       `SELECT a.grai, a.serial, e.action, e.occurred_at AS "occurredAt", e.status_to AS "statusTo", e.inferred
          FROM scan_events e JOIN assets a ON a.id = e.asset_id
-        WHERE e.user_id = $1 AND e.voided_at IS NULL ORDER BY e.recorded_at DESC, e.id DESC LIMIT 8`,
+        WHERE e.user_id = $1 AND e.voided_at IS NULL ORDER BY e.occurred_at DESC, e.id DESC LIMIT 8`,
       [userId],
     ),
   ]);
