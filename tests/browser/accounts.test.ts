@@ -1,20 +1,14 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { newContext, screenshot, signIn, useApp } from './support/app';
 import { waitForMail, linkIn, freshEmail, createStaff, closeDb } from './support/accounts';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
+const t = useApp();
+
 const admin = DEMO_LOGINS.find((l) => l.role === 'admin')!;
 
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
 afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
   await closeDb();
 });
 
@@ -22,7 +16,7 @@ afterAll(async () => {
 // step still fails on its own (with the locator named) well before the test does.
 const LONG = 120_000;
 async function context(kind: 'desktop' | 'phone' = 'desktop') {
-  const ctx = await newContext(browser, app, kind);
+  const ctx = await newContext(t.browser, t.app, kind);
   ctx.setDefaultTimeout(20_000);
   return ctx;
 }
@@ -59,7 +53,7 @@ describe('invitations', () => {
 
     const mail = await waitForMail(email, { since, subject: /Your Loopfold account/ });
     const link = linkIn(mail.text, '/account/invite');
-    expect(link.startsWith(`${app.url}/account/invite?token=`)).toBe(true);
+    expect(link.startsWith(`${t.app.url}/account/invite?token=`)).toBe(true);
 
     // the invitee opens the link on a phone
     const phone = await (await context('phone')).newPage();

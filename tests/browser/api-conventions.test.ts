@@ -3,20 +3,18 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import type { APIRequestContext, Browser, BrowserContext } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, type RunningApp } from './support/app';
+import { newContext, signIn, useApp } from './support/app';
 import { one, closeDb } from './support/db';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
+const t = useApp();
+
 const contexts: Record<string, BrowserContext> = {};
 const as = (role: string): APIRequestContext => contexts[role]!.request;
 
 beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
   for (const [role, email] of [['yard', 'yard@northmere.example'], ['customer', 'buyer@haldenoils.example'], ['planner', 'planner@northmere.example']]) {
-    const ctx = await newContext(browser, app);
+    const ctx = await newContext(t.browser, t.app);
     const page = await ctx.newPage();
     await signIn(page, email!, DEMO_PASSWORD);
     await page.waitForURL((u) => !u.pathname.startsWith('/login'));
@@ -24,8 +22,6 @@ beforeAll(async () => {
   }
 });
 afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
   await closeDb();
 });
 
@@ -47,7 +43,7 @@ describe('API conventions', () => {
   });
 
   test('401 without a session, 403 for a role that may not, 404 for what is not there', async () => {
-    const anon = await browser.newContext({ baseURL: app.url });
+    const anon = await t.browser.newContext({ baseURL: t.app.url });
     await expectError(await anon.request.post('/api/scan-events', { data: {} }), 401, 'unauthenticated');
     await anon.close();
     await expectError(await as('customer').get('/api/admin/users'), 403, 'forbidden');
@@ -66,7 +62,7 @@ describe('API conventions', () => {
     // a GRAI with a wrong check digit: the message says which digit was expected
     const err = await expectError(await as('yard').post('/api/scan-events', { data: { clientEventId: randomUUID(), grai: '(8003)09521234100109100028', action: 'receive' } }), 404, 'not_found');
     expect(err.message).toMatch(/check digit/i);
-    const types = await as('yard').fetch('/api/scan-events', { method: 'POST', headers: { 'Content-Type': 'text/plain', Origin: app.url }, data: Buffer.from('hello') });
+    const types = await as('yard').fetch('/api/scan-events', { method: 'POST', headers: { 'Content-Type': 'text/plain', Origin: t.app.url }, data: Buffer.from('hello') });
     await expectError(types, 415, 'unsupported_media_type');
   });
 

@@ -1,23 +1,15 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import { readFileSync } from 'node:fs';
 import type { Browser, Page } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { newContext, screenshot, signIn, useApp } from './support/app';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 import { OPERATOR } from '../../src/db/seed/scenario';
 import { makeGrai, groupGrai } from '../../src/lib/gs1';
 import { IMPORT_COLUMNS } from '../../src/lib/register-csv';
 
-let app: RunningApp;
-let browser: Browser;
+const t = useApp();
 
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
+
 
 // Serials unique to this run, so the tests can run again on the same database.
 const RUN = Date.now().toString(36).slice(-5).toUpperCase();
@@ -28,7 +20,7 @@ const MARK = '31HA2/Y/05 24/NL/NMP 4417/2313/1285';
 const HEADER = IMPORT_COLUMNS.map((c) => c.name).join(',');
 
 async function desk(email = 'planner@northmere.example', kind: 'desktop' | 'phone' = 'desktop'): Promise<Page> {
-  const ctx = await newContext(browser, app, kind);
+  const ctx = await newContext(t.browser, t.app, kind);
   const page = await ctx.newPage();
   await signIn(page, email, DEMO_PASSWORD);
   await page.waitForURL((u) => u.pathname !== '/login');

@@ -3,29 +3,25 @@ import { readFileSync } from 'node:fs';
 import pg from 'pg';
 import Papa from 'papaparse';
 import type { Browser, Page } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { newContext, screenshot, signIn, useApp } from './support/app';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
-let app: RunningApp;
-let browser: Browser;
+const t = useApp();
+
 let db: pg.Client;
 
 beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
   db = new pg.Client({ connectionString: process.env.DATABASE_URL });
   await db.connect();
 });
 afterAll(async () => {
   await db?.end();
-  await browser?.close();
-  await app?.stop();
 });
 
 const login = (role: string) => DEMO_LOGINS.find((l) => l.role === role)!;
 
 async function signedIn(role: string, kind: 'desktop' | 'phone' = 'desktop') {
-  const ctx = await newContext(browser, app, kind);
+  const ctx = await newContext(t.browser, t.app, kind);
   const page = await ctx.newPage();
   await signIn(page, login(role).email, DEMO_PASSWORD);
   await page.waitForURL((u) => u.pathname !== '/login');
@@ -212,7 +208,7 @@ describe('Content-Security-Policy', () => {
   });
 
   test('the sign-in page keeps working under the policy', async () => {
-    const ctx = await newContext(browser, app);
+    const ctx = await newContext(t.browser, t.app);
     const page = await ctx.newPage();
     const violations = await watchCsp(page);
     await signIn(page, login('yard').email, DEMO_PASSWORD);

@@ -6,9 +6,11 @@ import { QueryTypes } from 'sequelize';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { PNG } from 'pngjs';
 import jsQR from 'jsqr';
-import { startApp, launchBrowser, newContext, signIn, screenshot, ARTIFACTS, type RunningApp } from './support/app';
+import { ARTIFACTS, newContext, screenshot, signIn, useApp } from './support/app';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 import { sequelize } from '../../src/lib/server/db';
+
+const t = useApp();
 
 // QR label sheets, end to end: the built server renders a sheet, Chromium prints it to PDF at the sheet's
 // own @page size, and the PDF is checked with tools that share no code with Loopfold:
@@ -27,8 +29,6 @@ type Stock = typeof A4;
 const DPI = 300;
 
 const OUT = join(ARTIFACTS, 'labels');
-let app: RunningApp;
-let browser: Browser;
 let ctx: BrowserContext;
 let page: Page;
 let base: string;
@@ -38,11 +38,9 @@ interface BinRow { id: number; grai: string; serial: string; label_printed_at: D
 beforeAll(async () => {
   rmSync(OUT, { recursive: true, force: true });
   mkdirSync(OUT, { recursive: true });
-  app = await startApp();
-  browser = await launchBrowser();
   const [settings] = await sequelize.query<{ digital_link_base: string }>('SELECT digital_link_base FROM settings WHERE id = 1', { type: QueryTypes.SELECT });
   base = settings!.digital_link_base.replace(/\/+$/, '');
-  ctx = await newContext(browser, app, 'desktop');
+  ctx = await newContext(t.browser, t.app, 'desktop');
   page = await ctx.newPage();
   const planner = DEMO_LOGINS.find((l) => l.role === 'planner')!;
   await signIn(page, planner.email, DEMO_PASSWORD);
@@ -50,8 +48,6 @@ beforeAll(async () => {
 });
 afterAll(async () => {
   await ctx?.close();
-  await browser?.close();
-  await app?.stop();
   await sequelize.close();
 });
 
@@ -202,7 +198,7 @@ describe('label sheets print to PDF with every QR readable', () => {
 describe('choosing bins and bad input', () => {
   test('the form: a range shows counts and opens the sheet; screenshots at 1280 and 390 px', async () => {
     for (const kind of ['desktop', 'phone'] as const) {
-      const c = await newContext(browser, app, kind);
+      const c = await newContext(t.browser, t.app, kind);
       const p = await c.newPage();
       await signIn(p, 'planner@northmere.example', DEMO_PASSWORD);
       await p.waitForURL('**/fleet');
@@ -264,7 +260,7 @@ describe('choosing bins and bad input', () => {
     const bad = await page.request.post('/api/labels/printed', { data: { ids: [] } });
     expect(bad.status()).toBe(400);
     expect((await bad.json()).error.code).toBe('validation_failed');
-    const c = await newContext(browser, app);
+    const c = await newContext(t.browser, t.app);
     const p = await c.newPage();
     const yard = DEMO_LOGINS.find((l) => l.role === 'yard')!;
     await signIn(p, yard.email, DEMO_PASSWORD);

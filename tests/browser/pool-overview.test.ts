@@ -4,13 +4,13 @@
 // the customer role kept out of all of it. Screenshots of every page at 1280 px and 390 px.
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { newContext, screenshot, signIn, useApp } from './support/app';
 import { one, rows, closeDb } from './support/db';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
+const t = useApp();
+
 const LONG = 120_000;
-let app: RunningApp;
-let browser: Browser;
 let desktop: BrowserContext;
 let phone: BrowserContext;
 let page: Page;
@@ -21,7 +21,7 @@ const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
 const number = (text: string | null) => Number((text ?? '').replace(/[^\d.-]/g, ''));
 
 async function signedIn(kind: 'desktop' | 'phone', email = planner.email): Promise<BrowserContext> {
-  const ctx = await newContext(browser, app, kind);
+  const ctx = await newContext(t.browser, t.app, kind);
   const p = await ctx.newPage();
   await signIn(p, email, DEMO_PASSWORD);
   await p.waitForURL((u) => u.pathname !== '/login');
@@ -39,8 +39,6 @@ async function onPhone(path: string, name: string, ready?: (p: Page) => Promise<
 }
 
 beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
   desktop = await signedIn('desktop');
   phone = await signedIn('phone');
   page = await desktop.newPage();
@@ -49,8 +47,6 @@ beforeAll(async () => {
 afterAll(async () => {
   await desktop?.close();
   await phone?.close();
-  await browser?.close();
-  await app?.stop();
   await closeDb();
 });
 
@@ -91,7 +87,7 @@ describe('pool overview', () => {
     );
     expect(number(await page.getByTestId('count-stale').textContent())).toBe(stale.n);
 
-    // Every site with coordinates is drawn, and the charts are drawn in the browser.
+    // Every site with coordinates is drawn, and the charts are drawn in the t.browser.
     const placed = await one<{ n: number }>(`SELECT count(*)::int AS n FROM sites WHERE latitude IS NOT NULL AND active`);
     await expect.poll(() => page.locator('[data-testid="site-picture"] svg g[data-site-code]').count()).toBe(placed.n);
     await page.locator('[data-testid="chart-trips"] svg.recharts-surface').first().waitFor({ timeout: 20_000 });

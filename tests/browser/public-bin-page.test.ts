@@ -7,19 +7,13 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { PNG } from 'pngjs';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { newContext, screenshot, signIn, useApp } from './support/app';
 import { one, closeDb as closeDbReads } from './support/db';
 import { waitForMail, freshEmail, createStaff, closeDb as closeMailDb } from './support/accounts';
 
-let app: RunningApp;
-let browser: Browser;
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
+const t = useApp();
+
 afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
   await closeDbReads();
   await closeMailDb();
 });
@@ -72,12 +66,12 @@ describe('the public bin page (story 4)', () => {
     const customerWords = [bin.customer_name, bin.site_name, bin.customer_name.split(' ')[0]!];
 
     // The HTML itself (not just what is visible) names the operator and never the customer or the site.
-    const html = await (await fetch(`${app.url}/8003/${bin.grai}`)).text();
+    const html = await (await fetch(`${t.app.url}/8003/${bin.grai}`)).text();
     expect(html).toContain(settings.operator_name);
     for (const word of customerWords) expect(html).not.toContain(word);
 
     // Not signed in, on a phone: the page a camera app opens.
-    const phone = await newContext(browser, app, 'phone');
+    const phone = await newContext(t.browser, t.app, 'phone');
     phone.setDefaultTimeout(20_000);
     const page = await phone.newPage();
     await page.goto(`/8003/${bin.grai}`);
@@ -100,7 +94,7 @@ describe('the public bin page (story 4)', () => {
     // The planner's mail arrived in the local mailbox, with the link to the requests page.
     const mail = await waitForMail(plannerEmail, { since, subject: /Collection request: 6 folded bins/ });
     expect(mail.subject).toBe(`Collection request: 6 folded bins at ${bin.site_name}`);
-    expect(mail.text).toContain(`${app.url}/requests`);
+    expect(mail.text).toContain(`${t.app.url}/requests`);
     expect(mail.text).toContain(`serial ${bin.serial}`);
 
     // A file that is not a photo is refused with the reason, the typed words stay, nothing is stored.
@@ -141,7 +135,7 @@ describe('the public bin page (story 4)', () => {
     await phone.close();
 
     // The same page on a desktop screen, not signed in.
-    const desk = await newContext(browser, app, 'desktop');
+    const desk = await newContext(t.browser, t.app, 'desktop');
     const deskPage = await desk.newPage();
     await deskPage.goto(`/8003/${bin.grai}`);
     await screenshot(deskPage, 'public-bin-desktop');
@@ -149,7 +143,7 @@ describe('the public bin page (story 4)', () => {
 
     // The planner signs in: both requests are on /requests with bin, site, customer, quantity and photo.
     for (const kind of ['desktop', 'phone'] as const) {
-      const ctx = await newContext(browser, app, kind);
+      const ctx = await newContext(t.browser, t.app, kind);
       ctx.setDefaultTimeout(20_000);
       const p = await ctx.newPage();
       await signIn(p, plannerEmail, 'planner-password-1');

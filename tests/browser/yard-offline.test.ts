@@ -8,23 +8,15 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { randomUUID } from 'node:crypto';
-import { startApp, launchBrowser, newContext, signIn, screenshot, type RunningApp } from './support/app';
+import { newContext, screenshot, signIn, useApp } from './support/app';
 import { availableBinsAtHome, hydrated, query, type PickedBin } from './support/yard';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 
+const t = useApp();
+
 const YARD = 'yard@northmere.example';
 
-let app: RunningApp;
-let browser: Browser;
 
-beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
-});
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
 
 const attr = (page: Page, name: string) => page.locator('[data-sync-status]').getAttribute(name);
 
@@ -47,7 +39,7 @@ describe('yard work without signal', () => {
   test('two scans recorded offline survive a reload and sync exactly once when the server is back', async () => {
     const [checkBin, holdBin, staleBin] = await availableBinsAtHome(YARD, 3);
     expect(staleBin).toBeDefined();
-    const ctx = await newContext(browser, app, 'phone');
+    const ctx = await newContext(t.browser, t.app, 'phone');
     const page = await ctx.newPage();
     await signIn(page, YARD, DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/yard');
@@ -81,7 +73,7 @@ describe('yard work without signal', () => {
     const other = await page.request.post('/api/scan-events', { data: { clientEventId: randomUUID(), assetId: staleBin!.id, action: 'quarantine', note: 'held by the office' } });
     expect(other.status()).toBe(201);
 
-    await app.stop();
+    await t.app.stop();
     await ctx.setOffline(true);
     await waitFor(async () => (await attr(page, 'data-sync-state')) === 'offline', 5_000, 'the offline indicator');
 
@@ -122,7 +114,7 @@ describe('yard work without signal', () => {
     expect(ids).toHaveLength(3);
 
     // Signal back: the `online` event sends everything waiting.
-    await app.start();
+    await t.app.start();
     await ctx.setOffline(false);
     await waitFor(async () => (await attr(page, 'data-pending-count')) === '0', 30_000, 'the queue to drain');
     await waitFor(async () => (await attr(page, 'data-refused-count')) === '1', 5_000, 'the refusal');
@@ -168,7 +160,7 @@ describe('yard work without signal', () => {
 
   test('a bin page saved on the phone opens offline and its actions wait in the queue', async () => {
     const [bin] = await availableBinsAtHome(YARD, 1);
-    const ctx = await newContext(browser, app, 'phone');
+    const ctx = await newContext(t.browser, t.app, 'phone');
     const page = await ctx.newPage();
     await signIn(page, YARD, DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/yard');
@@ -179,7 +171,7 @@ describe('yard work without signal', () => {
     await page.goto(`/bins/${bin!.grai}`); // opened once with signal: kept
     await page.locator('button[data-action="prep_check"]').waitFor();
 
-    await app.stop();
+    await t.app.stop();
     await page.reload();
     await hydrated(page);
     await page.locator('button[data-action="prep_check"]').click();
@@ -193,7 +185,7 @@ describe('yard work without signal', () => {
     await hydrated(page);
     await page.locator(`[data-offline-card][data-grai="${unseen!.grai}"]`).waitFor();
 
-    await app.start();
+    await t.app.start();
     await page.locator('[data-sync-status] > button').click();
     await page.getByRole('button', { name: 'Send now' }).click();
     await waitFor(async () => (await attr(page, 'data-pending-count')) === '0', 20_000, 'the queue to drain');

@@ -7,30 +7,24 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
-import { startApp, launchBrowser, newContext, signIn, screenshot, PHONE, ARTIFACTS, type RunningApp } from './support/app';
+import { ARTIFACTS, PHONE, newContext, screenshot, signIn, useApp } from './support/app';
 import { availableBinsAtHome, gzipSizeOf, hydrated, labelPng, qrClip, type PickedBin } from './support/yard';
 import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
 import { groupGrai } from '../../src/lib/gs1';
 
+const t = useApp();
+
 const YARD = 'yard@northmere.example';
 const BUDGET_BYTES = 150 * 1024; // initial JavaScript of a yard page, gzip (DESIGN §7: the phone page stays small)
 
-let app: RunningApp;
-let browser: Browser;
 let bins: PickedBin[];
 
 beforeAll(async () => {
-  app = await startApp();
-  browser = await launchBrowser();
   bins = await availableBinsAtHome(YARD, 3);
   expect(bins).toHaveLength(3);
 });
-afterAll(async () => {
-  await browser?.close();
-  await app?.stop();
-});
 
-async function yardPage(b: Browser, baseURL = app.url): Promise<Page> {
+async function yardPage(b: Browser, baseURL = t.app.url): Promise<Page> {
   const ctx = await b.newContext({ baseURL, ...PHONE });
   const page = await ctx.newPage();
   await signIn(page, YARD, DEMO_PASSWORD);
@@ -50,7 +44,7 @@ const scriptUrls = (page: Page) =>
 
 describe('identifying a bin on the yard', () => {
   test('the yard pages stay inside the phone budget and load the QR decoder only on demand', async () => {
-    const ctx = await newContext(browser, app, 'phone');
+    const ctx = await newContext(t.browser, t.app, 'phone');
     const page = await ctx.newPage();
     await signIn(page, YARD, DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/yard');
@@ -77,13 +71,13 @@ describe('identifying a bin on the yard', () => {
   });
 
   test('the yard and bin pages at desktop width (planners open the same bin page)', async () => {
-    const yardCtx = await newContext(browser, app, 'desktop');
+    const yardCtx = await newContext(t.browser, t.app, 'desktop');
     const yard = await yardCtx.newPage();
     await signIn(yard, YARD, DEMO_PASSWORD);
     await yard.waitForURL((u) => u.pathname === '/yard');
     await screenshot(yard, 'yard-online-desktop');
     await yardCtx.close();
-    const ctx = await newContext(browser, app, 'desktop');
+    const ctx = await newContext(t.browser, t.app, 'desktop');
     const page = await ctx.newPage();
     await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);
     await page.waitForURL((u) => u.pathname === '/fleet');
@@ -96,7 +90,7 @@ describe('identifying a bin on the yard', () => {
   });
 
   test('typed entry: the grouped GRAI from the label opens the bin', async () => {
-    const page = await yardPage(browser);
+    const page = await yardPage(t.browser);
     const bin = bins[0]!;
     await page.fill('#scan-text', groupGrai(bin.grai, 7));
     await page.click('[data-scan-input] button[type=submit]');
@@ -109,7 +103,7 @@ describe('identifying a bin on the yard', () => {
   });
 
   test('typed entry with a wrong check digit is caught before anything is looked up', async () => {
-    const page = await yardPage(browser);
+    const page = await yardPage(t.browser);
     const bin = bins[0]!;
     const wrong = bin.grai.slice(0, 13) + String((Number(bin.grai[13]) + 1) % 10) + bin.grai.slice(14);
     await page.fill('#scan-text', wrong);
@@ -121,7 +115,7 @@ describe('identifying a bin on the yard', () => {
   });
 
   test('a photo of the QR label opens the bin, and the decoder arrives only then', async () => {
-    const page = await yardPage(browser);
+    const page = await yardPage(t.browser);
     const bin = bins[1]!;
     const loaded: string[] = [];
     page.on('request', (r) => loaded.push(new URL(r.url()).pathname));
@@ -138,7 +132,7 @@ describe('identifying a bin on the yard', () => {
   });
 
   test('a QR code that is not a bin label is refused with what it says', async () => {
-    const page = await yardPage(browser);
+    const page = await yardPage(t.browser);
     await page.setInputFiles('[data-photo-input]', { name: 'other.png', mimeType: 'image/png', buffer: await labelPng('https://example.org/menu') });
     await page.locator('#scan-error').waitFor();
     await expect(page.locator('#scan-error').textContent()).resolves.toMatch(/not a bin label/);
@@ -150,7 +144,7 @@ describe('identifying a bin on the yard', () => {
 describe('the live camera', () => {
   let cameraBrowser: Browser;
   beforeAll(async () => {
-    const clip = qrClip(`${app.url}/8003/${bins[2]!.grai}`, join(tmpdir(), `loopfold-qr-${process.pid}.y4m`));
+    const clip = qrClip(`${t.app.url}/8003/${bins[2]!.grai}`, join(tmpdir(), `loopfold-qr-${process.pid}.y4m`));
     cameraBrowser = await chromium.launch({
       executablePath: '/usr/bin/chromium',
       headless: true,
@@ -177,14 +171,14 @@ describe('the live camera', () => {
   });
 
   test('on plain http the camera explains itself and the photo route still works', async () => {
-    const page = await yardPage(cameraBrowser, `http://yard-lan.test:${app.port}`);
+    const page = await yardPage(cameraBrowser, `http://yard-lan.test:${t.app.port}`);
     expect(await page.evaluate(() => window.isSecureContext)).toBe(false);
     await page.click('[data-open-camera]');
     await page.locator('[data-capture-notice]').waitFor();
     await expect(page.locator('[data-capture-notice]').textContent()).resolves.toMatch(/secure connection/);
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(page, 'yard-camera-insecure-phone');
-    await page.setInputFiles('[data-photo-input]', { name: 'label.png', mimeType: 'image/png', buffer: await labelPng(`http://yard-lan.test:${app.port}/8003/${bins[1]!.grai}`) });
+    await page.setInputFiles('[data-photo-input]', { name: 'label.png', mimeType: 'image/png', buffer: await labelPng(`http://yard-lan.test:${t.app.port}/8003/${bins[1]!.grai}`) });
     await page.waitForURL((u) => u.pathname === `/bins/${bins[1]!.grai}`);
     await page.context().close();
   });
