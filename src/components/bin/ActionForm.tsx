@@ -72,6 +72,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
   const [photos, setPhotos] = useState<File[]>([]);
   const [photoNote, setPhotoNote] = useState<string | null>(null);
   const [lotId, setLotId] = useState<number | null>(options.lots[0]?.id ?? null);
+  const [lotText, setLotText] = useState('');
   const [orderId, setOrderId] = useState<number | null>(options.orders[0]?.id ?? null);
   const [purpose, setPurpose] = useState<'hire' | 'transfer'>(options.status === 'available' ? 'transfer' : 'hire');
   const [note, setNote] = useState('');
@@ -144,6 +145,24 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
         <fieldset className="space-y-2">
           <legend className="label">Liner lot (use the first: it expires soonest)</legend>
           {options.lots.length === 0 && <p className="notice-fault">No usable liner lot at this depot. Receive a lot or ask the planner.</p>}
+          {options.lots.length > 0 && (
+            <div>
+              <label className="label" htmlFor="lot-number">Or type / scan the lot number on the liner box</label>
+              <input
+                id="lot-number" className="field ident" autoComplete="off" autoCapitalize="characters" spellCheck={false}
+                value={lotText}
+                onChange={(e) => {
+                  const typed = e.target.value;
+                  setLotText(typed);
+                  const match = options.lots.find((l) => l.lotNumber.toUpperCase() === typed.trim().toUpperCase());
+                  if (match) setLotId(match.id);
+                }}
+              />
+              {lotText.trim() !== '' && !options.lots.some((l) => l.lotNumber.toUpperCase() === lotText.trim().toUpperCase()) && (
+                <p className="notice-attention mt-1" role="status">Lot {lotText.trim()} is not a usable lot at this depot: it may be expired, on hold or recalled, or not received here. Take a liner from a lot listed below.</p>
+              )}
+            </div>
+          )}
           {options.lots.map((l, i) => (
             <label key={l.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
               <input type="radio" name="lot" checked={lotId === l.id} onChange={() => setLotId(l.id)} />

@@ -13,7 +13,7 @@ export interface YardHome {
   orders: Array<{ id: number; reference: string; customer: string; neededBy: string; quantity: number; loaded: number; binType: string }>;
   toPrepare: number;
   preparedHere: number;
-  expected: { returning: number; awaitingCollection: number };
+  expected: { returning: number; awaitingCollection: number; transfersIn: number };
   testsDue: Array<{ grai: string; serial: string; nextDue: string; status: Status }>;
   testsDueCount: number;
   quarantined: number;
@@ -25,11 +25,11 @@ const q = <T extends object>(sql: string, bind: unknown[]) => sequelize.query<T>
 export async function loadYardHome(depotId: number | null, userId: number): Promise<YardHome> {
   const settings = await getSettings();
   const today = localDate(new Date(), settings.timeZone);
-  const empty: YardHome = { depot: null, today, counts: [], orders: [], toPrepare: 0, preparedHere: 0, expected: { returning: 0, awaitingCollection: 0 }, testsDue: [], testsDueCount: 0, quarantined: 0, recent: [] };
+  const empty: YardHome = { depot: null, today, counts: [], orders: [], toPrepare: 0, preparedHere: 0, expected: { returning: 0, awaitingCollection: 0, transfersIn: 0 }, testsDue: [], testsDueCount: 0, quarantined: 0, recent: [] };
   if (!depotId) return empty;
   const [depot] = await q<{ id: number; name: string }>('SELECT id, name FROM sites WHERE id = $1', [depotId]);
   const horizon = addDays(today, 7);
-  const [counts, orders, expected, testsDue, recent] = await Promise.all([
+  const [counts, orders, expected, transfers, testsDue, recent] = await Promise.all([
     // Retired bins have left the pool even when their scrap still stands in the yard.
     q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [depotId]),
     q<YardHome['orders'][number]>(
@@ -46,6 +46,15 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
               count(*) FILTER (WHERE a.status = 'awaiting_collection')::int AS awaiting
          FROM assets a JOIN trips t ON t.id = a.current_trip_id
         WHERE t.depot_site_id = $1`,
+      [depotId],
+    ),
+    // Empties on a transfer load addressed to this depot, still on the road.
+    q<{ n: number }>(
+      `SELECT count(*)::int AS n FROM assets a
+        WHERE a.status = 'in_transit' AND a.leg = 'transfer'
+          AND (SELECT l.destination_site_id FROM scan_events e JOIN loads l ON l.id = (e.payload->>'loadId')::int
+                WHERE e.asset_id = a.id AND e.action = 'dispatch' AND e.payload ? 'loadId' AND e.voided_at IS NULL
+                ORDER BY e.occurred_at DESC LIMIT 1) = $1`,
       [depotId],
     ),
     q<YardHome['testsDue'][number] & { total: number }>(
@@ -70,7 +79,7 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
     orders,
     toPrepare,
     preparedHere: byStatus.get('prepared') ?? 0,
-    expected: { returning: expected[0]?.returning ?? 0, awaitingCollection: expected[0]?.awaiting ?? 0 },
+    expected: { returning: expected[0]?.returning ?? 0, awaitingCollection: expected[0]?.awaiting ?? 0, transfersIn: transfers[0]?.n ?? 0 },
     testsDue: testsDue.map(({ total: _total, ...t }) => t),
     testsDueCount: testsDue[0]?.total ?? 0,
     quarantined: (byStatus.get('quarantine') ?? 0) + (byStatus.get('in_repair') ?? 0),
