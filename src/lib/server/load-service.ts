@@ -59,9 +59,11 @@ export async function startLoad(user: Actor & { id: number }, input: { hireOrder
   }
   const settings = await getSettings();
   const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
-  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM loads WHERE created_at >= now() - interval \'1 day\'', [])) as [{ n: number }];
+  // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
+  const prefix = `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`;
+  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM loads WHERE reference LIKE $1', [`${prefix}%`])) as [{ n: number }];
   return Load.create({
-    reference: `LD-${day}-${depot.code.replace(/^DEP-/, '')}-${String(n).padStart(3, '0')}`,
+    reference: `${prefix}${String(n).padStart(3, '0')}`,
     hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null, depotSiteId: depot.id, destinationSiteId: destination,
     purpose: input.purpose, targetCount: target, carrier: null, vehicleRegistration: null, driverName: null,
     dispatchedAt: null, deliveredAt: null, receivedByName: null, deliveryPhotoId: null, createdBy: user.id,
