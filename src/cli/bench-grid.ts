@@ -8,7 +8,7 @@
 //
 // Not part of `npm test`. Uses the worktree's own cluster (LOOPFOLD_PG_PORT) and builds the app when stale.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
+import { freePort } from './free-port.mjs';
 import { randomBytes } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
 import { loadavg, cpus } from 'node:os';
@@ -168,17 +168,6 @@ async function seed(c: pg.Client) {
 
 // ---------------------------------------------------------------------------------------------------
 // The app server, signed in as the bench planner through the credentials flow.
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as { port: number };
-      srv.close(() => resolve(port));
-    });
-    srv.on('error', reject);
-  });
-}
 
 async function startServer(url: string, port: number): Promise<ChildProcess> {
   const child = spawn(process.execPath, ['dist/server/entry.mjs'], {

@@ -1,9 +1,8 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { APIContext } from 'astro';
 import { resetDatabase, sequelize } from './support/db';
-import { poolWorld, newBin } from './support/fixtures';
+import { poolWorld, newBin, appErrorOf } from './support/fixtures';
 import { Asset, AuditEntry, Attachment, BinType, ScanEvent } from '../../src/models';
-import { AppError } from '../../src/lib/api-errors';
 import { makeGrai } from '../../src/lib/gs1';
 import { IMPORT_COLUMNS } from '../../src/lib/register-csv';
 import { registerBody, registerFromForm } from '../../src/lib/server/bin-forms';
@@ -35,15 +34,6 @@ const HEADER = IMPORT_COLUMNS.map((c) => c.name).join(',');
 const bytes = (s: string) => new TextEncoder().encode(s);
 const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
 
-async function refusal(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error('expected a refusal');
-}
 
 describe('registering one bin from the form', () => {
   test('a bin with a UN mark gets its month of manufacture from the mark, due dates from its type, a register event and an audit entry', async () => {
@@ -71,7 +61,7 @@ describe('registering one bin from the form', () => {
     const before = await Asset.count();
     const wrongCheck = grai('F0002').slice(0, 13) + String((Number(grai('F0002').charAt(13)) + 1) % 10) + 'F0002';
     const body = registerBody.parse({ grai: wrongCheck, binTypeId: w.binType.id, siteId: w.customerSite.id, unMarking: '31HA1/Y/05 24/NL/Maker 7/2313/1285', lastFullInspectionMonth: '2019-01' });
-    const err = await refusal(registerFromForm(w.planner, body, null));
+    const err = await appErrorOf(registerFromForm(w.planner, body, null));
     expect(err.code).toBe('validation_failed');
     const paths = (err.details as Array<{ path: string }>).map((d) => d.path).sort();
     expect(paths).toEqual(['grai', 'lastFullInspectionMonth', 'siteId', 'unMarking']);
@@ -80,7 +70,7 @@ describe('registering one bin from the form', () => {
 
   test('a GRAI already registered is refused on the field the user typed it in', async () => {
     const body = registerBody.parse({ graiMode: 'serial', serial: 'F0001', binTypeId: w.binType.id, siteId: w.depot.id, manufactureMonth: '2024-05' });
-    const err = await refusal(registerFromForm(w.planner, body, null));
+    const err = await appErrorOf(registerFromForm(w.planner, body, null));
     expect(err.details).toEqual([{ path: 'serial', message: expect.stringContaining('is already registered') }]);
   });
 });
@@ -96,7 +86,7 @@ describe('importing the register from CSV', () => {
     expect(preview.counts).toEqual({ total: 6, ready: 5, withProblems: 1 });
     expect(preview.lines.map((l) => l.line)).toEqual([2, 3, 4, 5, 6, 7]);
     expect(preview.lines[3]).toMatchObject({ line: 5, issues: [{ column: 'depot', message: 'Unknown depot "DEP-NOPE".' }] });
-    const err = await refusal(commitImport(w.planner, file, { expectedSha256: preview.sha256, filename: 'bins.csv', ip: null }));
+    const err = await appErrorOf(commitImport(w.planner, file, { expectedSha256: preview.sha256, filename: 'bins.csv', ip: null }));
     expect(err.code).toBe('unprocessable');
     expect(err.message).toMatch(/1 of 6 lines have problems, so nothing was registered/);
     expect(await Asset.count()).toBe(before);
@@ -132,7 +122,7 @@ describe('importing the register from CSV', () => {
       [3, ['A bin with this GRAI is already registered.']],
       [4, ['The same GRAI is also on line 2.']],
     ]);
-    await refusal(commitImport(w.planner, file, { expectedSha256: preview.sha256, filename: null, ip: null }));
+    await appErrorOf(commitImport(w.planner, file, { expectedSha256: preview.sha256, filename: null, ip: null }));
     expect(await Asset.count()).toBe(before);
   });
 
@@ -141,7 +131,7 @@ describe('importing the register from CSV', () => {
     const preview = await previewImport(file);
     expect(preview.counts.withProblems).toBe(0);
     await registerFromForm(w.planner, registerBody.parse({ grai: grai('R2'), binTypeId: w.binType.id, siteId: w.depot.id, manufactureMonth: '2024-05' }), null);
-    const err = await refusal(commitImport(w.planner, file, { expectedSha256: preview.sha256, filename: null, ip: null }));
+    const err = await appErrorOf(commitImport(w.planner, file, { expectedSha256: preview.sha256, filename: null, ip: null }));
     const lines = (err.details as { preview: { lines: Array<{ line: number; issues: unknown[] }> } }).preview.lines;
     expect(lines.filter((l) => l.issues.length).map((l) => l.line)).toEqual([3]);
     expect(await Asset.count({ where: { grai: grai('R1') } })).toBe(0);
@@ -149,19 +139,19 @@ describe('importing the register from CSV', () => {
 
   test('a file other than the one previewed is refused', async () => {
     const file = bytes(`${HEADER}\n${grai('Q1')},T1000,DEP-T1,2024-05,,,\n`);
-    const err = await refusal(commitImport(w.planner, file, { expectedSha256: sha(bytes('something else')), filename: null, ip: null }));
+    const err = await appErrorOf(commitImport(w.planner, file, { expectedSha256: sha(bytes('something else')), filename: null, ip: null }));
     expect(err.code).toBe('conflict');
     expect(await Asset.count({ where: { grai: grai('Q1') } })).toBe(0);
   });
 
   test('missing columns, binary content and oversize uploads change nothing', async () => {
     const before = await Asset.count();
-    const missing = await refusal(previewImport(bytes(`grai,bin_type\n${grai('M1')},T1000\n`)));
+    const missing = await appErrorOf(previewImport(bytes(`grai,bin_type\n${grai('M1')},T1000\n`)));
     expect(missing.code).toBe('unprocessable');
     expect(missing.details).toMatchObject({ fileProblem: 'missing_columns', missingColumns: ['depot', 'manufacture_month'] });
-    const binary = await refusal(commitImport(w.planner, new Uint8Array([0x50, 0x4b, 3, 4, 0, 0]), { expectedSha256: sha(new Uint8Array([0x50, 0x4b, 3, 4, 0, 0])), filename: null, ip: null }));
+    const binary = await appErrorOf(commitImport(w.planner, new Uint8Array([0x50, 0x4b, 3, 4, 0, 0]), { expectedSha256: sha(new Uint8Array([0x50, 0x4b, 3, 4, 0, 0])), filename: null, ip: null }));
     expect(binary.code).toBe('unsupported_media_type');
-    const declared = await refusal(readUpload(new Request('http://x/', { method: 'POST', headers: { 'content-length': String(20 * 1024 * 1024) }, body: 'x' }), 5 * 1024 * 1024));
+    const declared = await appErrorOf(readUpload(new Request('http://x/', { method: 'POST', headers: { 'content-length': String(20 * 1024 * 1024) }, body: 'x' }), 5 * 1024 * 1024));
     expect(declared.code).toBe('payload_too_large');
     expect(declared.message).toMatch(/^The file is 20 MB; the limit is 5 MB/);
     // No Content-Length: the bytes are counted as they arrive.
@@ -174,7 +164,7 @@ describe('importing the register from CSV', () => {
         c.enqueue(chunk);
       },
     });
-    const streamed = await refusal(readUpload(new Request('http://x/', { method: 'POST', body: stream, duplex: 'half' } as RequestInit), 1024 * 1024));
+    const streamed = await appErrorOf(readUpload(new Request('http://x/', { method: 'POST', body: stream, duplex: 'half' } as RequestInit), 1024 * 1024));
     expect(streamed.code).toBe('payload_too_large');
     expect(sent).toBeLessThan(100);
     expect(await Asset.count()).toBe(before);
@@ -204,7 +194,7 @@ describe('editing a registered bin', () => {
     const opened = (await editableBin(bin.grai))!;
     await updateBin(w.planner, bin.grai, editBody.parse({ version: opened.version, binTypeId: w.binType.id, manufactureMonth: '2024-03' }), null);
     const audits = await AuditEntry.count();
-    const err = await refusal(updateBin(w.planner, bin.grai, editBody.parse({ version: opened.version, binTypeId: w.binType.id, manufactureMonth: '2024-04' }), null));
+    const err = await appErrorOf(updateBin(w.planner, bin.grai, editBody.parse({ version: opened.version, binTypeId: w.binType.id, manufactureMonth: '2024-04' }), null));
     expect(err.code).toBe('changed_meanwhile');
     expect(err.status).toBe(409);
     expect((await Asset.findByPk(bin.id))!.manufactureMonth).toBe('2024-03-01');

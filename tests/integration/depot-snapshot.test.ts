@@ -1,19 +1,11 @@
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
+import { describe, test, expect } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { resetDatabase, sequelize } from './support/db';
-import { poolWorld, newBin } from './support/fixtures';
+import { usePoolWorld, newBin } from './support/fixtures';
 import { recordScan, type ScanInput } from '../../src/lib/server/scan-service';
 import { loadDepotSnapshot } from '../../src/lib/server/depot-snapshot';
 import { LinerLot } from '../../src/models';
 
-let w: Awaited<ReturnType<typeof poolWorld>>;
-beforeAll(async () => {
-  await resetDatabase();
-  w = await poolWorld();
-});
-afterAll(async () => {
-  await sequelize.close();
-});
+const w = usePoolWorld();
 
 const NOW = new Date('2026-12-01T12:00:00Z');
 let minute = 0;

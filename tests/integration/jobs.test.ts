@@ -1,21 +1,13 @@
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
+import { describe, test, expect } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import PgBoss from 'pg-boss';
-import { resetDatabase, sequelize } from './support/db';
-import { poolWorld, newBin, makeUser } from './support/fixtures';
+import { usePoolWorld, newBin, makeUser } from './support/fixtures';
 import { recordScan } from '../../src/lib/server/scan-service';
 import { runJobNow, JOBS } from '../../src/lib/server/jobs/registry';
 import { startJobQueue } from '../../src/lib/server/jobs/queue';
 import { Asset, MailMessage } from '../../src/models';
 
-let w: Awaited<ReturnType<typeof poolWorld>>;
-beforeAll(async () => {
-  await resetDatabase();
-  w = await poolWorld();
-});
-afterAll(async () => {
-  await sequelize.close();
-});
+const w = usePoolWorld();
 
 /** A bin delivered to the customer at `at` and not scanned since. */
 async function onHireSince(at: string) {

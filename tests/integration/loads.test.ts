@@ -1,21 +1,13 @@
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
+import { describe, test, expect } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { resetDatabase, sequelize } from './support/db';
-import { poolWorld, newBin } from './support/fixtures';
+import { usePoolWorld, newBin } from './support/fixtures';
 import { recordScan } from '../../src/lib/server/scan-service';
 import { startLoad, addBinToLoad, dispatchLoad, deliveryToken, loadFromToken, confirmDelivery, loadView } from '../../src/lib/server/load-service';
 import { Asset, HireOrder, Load } from '../../src/models';
 import { AppError } from '../../src/lib/api-errors';
 
-let w: Awaited<ReturnType<typeof poolWorld>>;
-beforeAll(async () => {
-  process.env.AUTH_SECRET ??= 'test-secret';
-  await resetDatabase();
-  w = await poolWorld();
-});
-afterAll(async () => {
-  await sequelize.close();
-});
+process.env.AUTH_SECRET ??= 'test-secret'; // delivery links are signed with it
+const w = usePoolWorld();
 
 async function preparedBin() {
   const bin = await newBin(w);

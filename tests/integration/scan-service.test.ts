@@ -1,19 +1,11 @@
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
+import { describe, test, expect } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { resetDatabase, sequelize } from './support/db';
-import { poolWorld, newBin } from './support/fixtures';
+import { usePoolWorld, newBin, appErrorOf } from './support/fixtures';
 import { recordScan, type ScanInput } from '../../src/lib/server/scan-service';
 import { Asset, ScanEvent, ScanEventKey, Trip } from '../../src/models';
 import { AppError } from '../../src/lib/api-errors';
 
-let w: Awaited<ReturnType<typeof poolWorld>>;
-beforeAll(async () => {
-  await resetDatabase();
-  w = await poolWorld();
-});
-afterAll(async () => {
-  await sequelize.close();
-});
+const w = usePoolWorld();
 
 const at = (iso: string) => new Date(iso);
 const NOW = { now: at('2026-12-01T12:00:00Z') };
@@ -21,15 +13,6 @@ function scan(assetId: number, input: Omit<ScanInput, 'clientEventId' | 'assetId
   return { clientEventId: id, assetId, ...input };
 }
 
-async function errorOf(p: Promise<unknown>): Promise<AppError> {
-  try {
-    await p;
-  } catch (e) {
-    if (e instanceof AppError) return e;
-    throw e;
-  }
-  throw new Error('expected a refusal');
-}
 
 describe('a full rotation through the scan service', () => {
   test('prep check → liner → dispatch → deliver → fill → discharge → fold → collect → receive closes one trip', async () => {
@@ -91,7 +74,7 @@ describe('idempotency', () => {
     const bin = await newBin(w);
     const input = scan(bin.id, { action: 'prep_check', prepResult: 'pass', siteId: w.depot.id });
     await recordScan(w.yard, input, NOW);
-    expect((await errorOf(recordScan(w.planner, input, NOW))).code).toBe('duplicate');
+    expect((await appErrorOf(recordScan(w.planner, input, NOW))).code).toBe('duplicate');
   });
 
   test('the key table itself refuses a duplicate client event id', async () => {
@@ -106,7 +89,7 @@ describe('refusals leave no trace', () => {
     const bin = await newBin(w);
     const before = await Asset.findByPk(bin.id);
     const input = scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id });
-    const err = await errorOf(recordScan(w.yard, input, NOW));
+    const err = await appErrorOf(recordScan(w.yard, input, NOW));
     expect(err.code).toBe('transition_refused');
     expect((err.details as { reason: string }).reason).toBe('prep_check_needed');
     const after = await Asset.findByPk(bin.id);
@@ -119,7 +102,7 @@ describe('refusals leave no trace', () => {
     // made 2023-01 → 2.5-year test due 2025-07-31; scanned 2025-08-05
     const bin = await newBin(w, { manufactureMonth: '2023-01' });
     await recordScan(w.yard, scan(bin.id, { action: 'prep_check', prepResult: 'pass', siteId: w.depot.id, occurredAt: at('2025-08-05T08:00:00Z') }), NOW);
-    const err = await errorOf(recordScan(w.yard, scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id, occurredAt: at('2025-08-05T08:05:00Z') }), NOW));
+    const err = await appErrorOf(recordScan(w.yard, scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id, occurredAt: at('2025-08-05T08:05:00Z') }), NOW));
     expect((err.details as { reason: string }).reason).toBe('inspection_lapsed');
     expect(err.message).toMatch(/lapsed on 2025-07-31/);
     expect((await Asset.findByPk(bin.id))!.status).toBe('available');
@@ -130,7 +113,7 @@ describe('refusals leave no trace', () => {
     await recordScan(w.yard, scan(bin.id, { action: 'prep_check', prepResult: 'pass', siteId: w.depot.id }), NOW);
     await w.lot.update({ status: 'recalled' });
     try {
-      const err = await errorOf(recordScan(w.yard, scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id }), NOW));
+      const err = await appErrorOf(recordScan(w.yard, scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id }), NOW));
       expect((err.details as { reason: string }).reason).toBe('lot_recalled');
       expect(await ScanEvent.count({ where: { assetId: bin.id, action: 'fit_liner' } })).toBe(0);
     } finally {
@@ -140,7 +123,7 @@ describe('refusals leave no trace', () => {
 
   test('a customer cannot act on a bin that is not on hire to them', async () => {
     const bin = await newBin(w);
-    const err = await errorOf(recordScan(w.customerUser, scan(bin.id, { action: 'fold', siteId: w.customerSite.id }), NOW));
+    const err = await appErrorOf(recordScan(w.customerUser, scan(bin.id, { action: 'fold', siteId: w.customerSite.id }), NOW));
     expect(err.code).toBe('not_found');
   });
 });

@@ -2,7 +2,7 @@
 // the built server) on a free port against the e2e database, and drives
 // Debian's chromium through playwright-core.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { createServer } from 'node:net';
+import { freePort } from '../../../src/cli/free-port.mjs';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, afterAll } from 'vitest';
@@ -10,17 +10,6 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 
 export const ROOT = new URL('../../../', import.meta.url).pathname;
 export const ARTIFACTS = join(ROOT, '.loopfold', 'artifacts');
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const srv = createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as { port: number };
-      srv.close(() => resolve(port));
-    });
-    srv.on('error', reject);
-  });
-}
 
 export interface RunningApp {
   url: string;

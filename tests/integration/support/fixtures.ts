@@ -59,3 +59,37 @@ export async function newBin(w: Awaited<ReturnType<typeof poolWorld>>, extra: { 
   const grai = makeGrai('9529999', '10010', `T${String(serialCounter).padStart(5, '0')}`);
   return registerBin(w.planner, { grai, binTypeId: w.binType.id, siteId: w.depot.id, manufactureMonth: extra.manufactureMonth ?? '2026-01', lastIntermediateTestMonth: extra.lastIntermediateTestMonth ?? null }, { now: new Date(extra.registeredAt ?? '2026-11-01T08:00:00Z') });
 }
+
+import { beforeAll, afterAll } from 'vitest';
+import { resetDatabase, sequelize } from './db';
+import { AppError } from '../../../src/lib/api-errors';
+
+export type PoolWorld = Awaited<ReturnType<typeof poolWorld>>;
+
+/**
+ * For a test file: empty tables and a fresh poolWorld() before its tests, the
+ * connection closed after them. The returned object reads through to the world
+ * once it exists, so tests write `w.depot`, `w.yard`, …
+ */
+export function usePoolWorld(): PoolWorld {
+  let world: PoolWorld | undefined;
+  beforeAll(async () => {
+    await resetDatabase();
+    world = await poolWorld();
+  });
+  afterAll(async () => {
+    await sequelize.close();
+  });
+  return new Proxy({} as PoolWorld, { get: (_, key) => (world as Record<PropertyKey, unknown> | undefined)?.[key] });
+}
+
+/** The AppError a call is refused with (fails the test when it is not refused). */
+export async function appErrorOf(p: Promise<unknown>): Promise<AppError> {
+  try {
+    await p;
+  } catch (e) {
+    if (e instanceof AppError) return e;
+    throw e;
+  }
+  throw new Error('expected a refusal');
+}
