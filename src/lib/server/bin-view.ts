@@ -7,22 +7,10 @@ import { daysBetween, localDate } from '../calendar';
 import { testStatus, type TestStatus } from '../inspection-due';
 import { parseUnMarking } from '../un-marking';
 import { getSettings } from './settings';
-import type { SessionUser } from './session-user';
+import { timelineEvents, type BinEvent } from './event-timeline';
 
-export interface BinEvent {
-  id: number;
-  action: Action;
-  occurredAt: string;
-  siteName: string | null;
-  userName: string | null;
-  statusFrom: Status | null;
-  statusTo: Status;
-  inferred: boolean;
-  flagged: boolean;
-  voided: { at: string; reason: string } | null;
-  payload: Record<string, unknown>;
-  tripId: number | null;
-}
+export type { BinEvent };
+import type { SessionUser } from './session-user';
 
 export interface BinView {
   asset: {
@@ -69,17 +57,9 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
   if (isCustomer && row.customer_id !== user.organisationId) return null;
 
   // A customer sees only what happened during their own trips, never other customers' use of the bin.
-  const events = await sequelize.query<Record<string, unknown>>(
-    `SELECT e.id, e.action, e.occurred_at, e.status_from, e.status_to, e.inferred, e.flagged, e.voided_at, e.void_reason, e.payload, e.trip_id,
-            s.name AS site_name, u.name AS user_name
-       FROM scan_events e
-       LEFT JOIN sites s ON s.id = e.site_id
-       LEFT JOIN users u ON u.id = e.user_id
-      WHERE e.asset_id = $1 ${isCustomer ? 'AND e.trip_id IN (SELECT id FROM trips WHERE customer_id = $2)' : ''}
-      ORDER BY e.occurred_at DESC, e.id DESC
-      LIMIT 300`,
-    { bind: isCustomer ? [row.id, user.organisationId] : [row.id], type: QueryTypes.SELECT },
-  );
+  const events = isCustomer
+    ? await timelineEvents('e.asset_id = $1 AND e.trip_id IN (SELECT id FROM trips WHERE customer_id = $2)', [row.id, user.organisationId])
+    : await timelineEvents('e.asset_id = $1', [row.id]);
 
   const iso = (v: unknown) => (v instanceof Date ? v.toISOString() : v == null ? null : String(v));
   const siteSince = iso(row.site_since);
@@ -110,13 +90,7 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
       ? { id: row.liner_lot_id as number, lotNumber: row.lot_number as string, supplier: row.supplier as string, expiryDate: row.expiry_date as string, status: row.lot_status as string }
       : null,
     marking: row.un_marking ? parseUnMarking(row.un_marking as string) : null,
-    events: events.map((e) => ({
-      id: e.id as number, action: e.action as Action, occurredAt: iso(e.occurred_at)!, siteName: (e.site_name as string) ?? null,
-      userName: (e.user_name as string) ?? null, statusFrom: (e.status_from as Status) ?? null, statusTo: e.status_to as Status,
-      inferred: e.inferred as boolean, flagged: e.flagged as boolean,
-      voided: e.voided_at ? { at: iso(e.voided_at)!, reason: e.void_reason as string } : null,
-      payload: (e.payload as Record<string, unknown>) ?? {}, tripId: (e.trip_id as number) ?? null,
-    })),
+    events,
     today,
     timeZone: settings.timeZone,
   };

@@ -4,8 +4,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from './db';
 import { getSettings } from './settings';
 import { tripRowById, type TripListRow } from './trip-list';
-import type { BinEvent } from './bin-view';
-import type { Action, Status } from '../lifecycle';
+import { timelineEvents, type BinEvent } from './event-timeline';
 import { localDate } from '../calendar';
 import type { LocalDate } from '../calendar';
 
@@ -30,12 +29,6 @@ interface DetailRow {
   closing_site: string | null; supplier: string | null; expiry_date: string | null; lot_status: string | null;
 }
 
-interface EventRow {
-  id: number; action: Action; occurred_at: Date; status_from: Status | null; status_to: Status; inferred: boolean; flagged: boolean;
-  voided_at: Date | null; void_reason: string | null; payload: Record<string, unknown> | null; trip_id: number | null;
-  site_name: string | null; user_name: string | null;
-}
-
 const iso = (v: Date | string | null) => (v === null ? null : new Date(v).toISOString());
 
 export async function loadTripView(id: number): Promise<TripView | null> {
@@ -54,16 +47,7 @@ export async function loadTripView(id: number): Promise<TripView | null> {
       WHERE t.id = $1`,
     { bind: [id], type: QueryTypes.SELECT },
   );
-  const events = await sequelize.query<EventRow>(
-    `SELECT e.id, e.action, e.occurred_at, e.status_from, e.status_to, e.inferred, e.flagged, e.voided_at, e.void_reason, e.payload,
-            e.trip_id, s.name AS site_name, u.name AS user_name
-       FROM scan_events e
-       LEFT JOIN sites s ON s.id = e.site_id
-       LEFT JOIN users u ON u.id = e.user_id
-      WHERE e.trip_id = $1
-      ORDER BY e.occurred_at DESC, e.id DESC`,
-    { bind: [id], type: QueryTypes.SELECT },
-  );
+  const events = await timelineEvents('e.trip_id = $1', [id], 1000);
   return {
     trip: {
       ...row,
@@ -75,11 +59,7 @@ export async function loadTripView(id: number): Promise<TripView | null> {
       closingSiteName: detail?.closing_site ?? null,
       linerLot: detail?.supplier ? { supplier: detail.supplier, expiryDate: detail.expiry_date!, status: detail.lot_status! } : null,
     },
-    events: events.map((e) => ({
-      id: e.id, action: e.action, occurredAt: iso(e.occurred_at)!, siteName: e.site_name, userName: e.user_name, statusFrom: e.status_from,
-      statusTo: e.status_to, inferred: e.inferred, flagged: e.flagged, voided: e.voided_at ? { at: iso(e.voided_at)!, reason: e.void_reason ?? '' } : null,
-      payload: e.payload ?? {}, tripId: e.trip_id,
-    })),
+    events,
     timeZone: settings.timeZone,
     today: localDate(new Date(), settings.timeZone),
     gs1PrefixLength: settings.gs1PrefixLength,
