@@ -3,7 +3,8 @@
 // are not ready, with its reason); the load counts them against its target,
 // then carries the carrier's details onto a printable dispatch note whose link
 // lets the receiving end confirm delivery with a name and a photo.
-import { createHash, createHmac, timingSafeEqual } from 'node:crypto';
+import { createHmac, timingSafeEqual } from 'node:crypto';
+import { stableEventId } from './stable-event-id';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Load, HireOrder, Site } from '../../models';
 import { AppError } from '../api-errors';
@@ -138,11 +139,8 @@ function secret(): string {
   return s;
 }
 
-/** A stable client event id per (load, bin), so confirming twice records each delivery once. */
-function deliveryEventId(loadId: number, assetId: number): string {
-  const h = createHash('sha256').update(`deliver:${loadId}:${assetId}`).digest('hex');
-  return `${h.slice(0, 8)}-${h.slice(8, 12)}-4${h.slice(13, 16)}-a${h.slice(17, 20)}-${h.slice(20, 32)}`;
-}
+/** One delivery event per (load, bin): confirming twice records each delivery once. */
+const deliveryEventId = (loadId: number, assetId: number) => stableEventId(`deliver:${loadId}:${assetId}`);
 
 /**
  * The receiving end confirms the load arrived: each bin still on its way is

@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto';
+import { stableEventId } from '../stable-event-id';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../../models';
 import { MISSING_AFTER_DAYS, SILENT_BINS_SQL } from '../../missing-rule';
@@ -7,11 +7,8 @@ import { localDate } from '../../calendar';
 import { getSettings } from '../settings';
 import type { JobContext } from './registry';
 
-/** A stable event id per bin and day: running the job twice on one day records once. */
-function eventId(assetId: number, day: string): string {
-  const h = createHash('sha256').update(`missing-rule:${assetId}:${day}`).digest('hex');
-  return `${h.slice(0, 8)}-${h.slice(8, 12)}-4${h.slice(13, 16)}-8${h.slice(17, 20)}-${h.slice(20, 32)}`;
-}
+/** One event per bin and day: running the job twice on one day records once. */
+const eventId = (assetId: number, day: string) => stableEventId(`missing-rule:${assetId}:${day}`);
 
 /** Marks missing every bin out of the depots that nobody scanned for MISSING_AFTER_DAYS. */
 export async function runMissingBinRule({ now }: JobContext) {
