@@ -23,7 +23,7 @@ export default defineConfig({
       credentials: { email: { label: 'E-mail' }, password: { label: 'Password', type: 'password' } },
       // Loaded lazily so the config (evaluated at build time) never opens a database connection.
       async authorize(credentials, request) {
-        const { authorizeSignIn } = await import('./src/lib/server/sign-in');
+        const { authorizeSignIn } = await import('@/lib/accounts/sign-in.server');
         return authorizeSignIn(credentials, request);
       },
     }),

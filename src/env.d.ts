@@ -2,7 +2,7 @@
 
 declare namespace App {
   interface Locals {
-    user: import('./lib/server/session-user').SessionUser | null;
+    user: import('@/lib/accounts/session-user.server').SessionUser | null;
     clientAddress: string;
   }
 }

@@ -1,9 +1,9 @@
 import { defineMiddleware } from 'astro:middleware';
 import { getSession } from 'auth-astro/server';
 import { accessFor, can } from './lib/permissions';
-import { loadSessionUser } from './lib/server/session-user';
-import { CLIENT_IP_HEADER, clientAddress } from './lib/server/client-ip';
-import { errorResponse } from './lib/server/respond';
+import { loadSessionUser } from '@/lib/accounts/session-user.server';
+import { CLIENT_IP_HEADER, clientAddress } from '@/lib/client-ip.server';
+import { errorResponse } from '@/lib/respond.server';
 
 const STATIC_PREFIXES = ['/_astro/', '/fonts/', '/favicon', '/icons/', '/robots.txt', '/sw.js', '/manifest.webmanifest'];
 

@@ -16,7 +16,7 @@ import pg from 'pg';
 import bcrypt from 'bcryptjs';
 import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
 import { migrate, buildIfStale, say } from './setup.mjs';
-import { binsCountQuery, binsPageQuery, parseGridRequest, type GridRequest, type QueryContext } from '../lib/grid-query';
+import { binsCountQuery, binsPageQuery, parseGridRequest, type GridRequest, type QueryContext } from '../lib/fleet/grid-query';
 import { makeGrai } from '../lib/gs1';
 import { localDate } from '../lib/calendar';
 import { OPERATOR, BIN_TYPES } from '../db/seed/scenario';

@@ -1,9 +1,9 @@
 // The background worker `npm start` runs beside the app server: it works the
-// scheduled jobs (src/lib/server/jobs). Run more than one and each job still
+// scheduled jobs (src/lib/jobs). Run more than one and each job still
 // fires once: pg-boss coordinates through PostgreSQL.
-import { startJobQueue } from '../lib/server/jobs/queue';
-import { getSettings } from '../lib/server/settings';
-import { JOBS } from '../lib/server/jobs/registry';
+import { startJobQueue } from '../lib/jobs/queue.server';
+import { getSettings } from '../lib/settings/settings.server';
+import { JOBS } from '../lib/jobs/registry.server';
 
 const url = process.env.DATABASE_URL;
 if (!url) {

@@ -13,7 +13,7 @@ import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
-/** Must match PAGE_CACHE in src/lib/client/service-worker.ts. */
+/** Must match PAGE_CACHE in src/lib/yard/service-worker.client.ts. */
 export const PAGE_CACHE = 'loopfold-yard-pages';
 
 export function serviceWorkerConfig(clientDir) {

@@ -1,4 +1,4 @@
-import { STATUS_LABELS, type Status } from './lifecycle';
+import { STATUS_LABELS, type Status } from '@/lib/scans/lifecycle';
 import type { IconName } from './icons';
 
 export type Tone = 'good' | 'info' | 'attention' | 'fault' | 'neutral';

@@ -1,6 +1,6 @@
 // How a bin status is shown: always the word and an icon (src/lib/icons.ts), with a
 // tone from the palette as a third cue, never the only one.
-import type { Status } from './lifecycle';
+import type { Status } from '@/lib/scans/lifecycle';
 import type { IconName } from './icons';
 
 export type Tone = 'good' | 'info' | 'attention' | 'fault' | 'quiet';

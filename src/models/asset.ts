@@ -1,7 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn, versionColumn, timestampColumns } from './columns';
-import type { Status, Leg } from '../lib/lifecycle';
+import type { Status, Leg } from '@/lib/scans/lifecycle';
 
 /**
  * A bin, identified by its GS1 GRAI. The current-state columns (status, site,

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 
 /** Who changed what and when (admin and planner edits). Append-only. */
 export class AuditEntry extends Model<InferAttributes<AuditEntry>, InferCreationAttributes<AuditEntry>> {

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** "Empties ready for collection" — from the public bin page, the customer portal or a planner. */

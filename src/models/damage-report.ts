@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** A reported fault on a bin — from the public page, a customer or a yard. */

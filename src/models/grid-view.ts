@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
-import type { ViewState } from '../lib/grid-views';
+import { sequelize } from '@/db/sequelize';
+import type { ViewState } from '@/lib/fleet/grid-views';
 
 /** A planner's saved grid view (filter, sort, columns), private or shared with all planners and admins. */
 export class GridView extends Model<InferAttributes<GridView>, InferCreationAttributes<GridView>> {

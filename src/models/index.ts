@@ -1,6 +1,6 @@
 // Every model, imported explicitly (no directory scan: the server is bundled),
 // and the associations between them in one place.
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { Organisation } from './organisation';
 import { Site } from './site';
 import { User } from './user';

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn } from './columns';
 
 export type InspectionKind = 'prep_check' | 'intermediate' | 'full' | 'after_repair';

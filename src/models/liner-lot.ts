@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** A supplier's lot of single-use liners received at a depot. Stock on hand is derived, never stored. */

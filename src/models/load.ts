@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn, versionColumn, timestampColumns } from './columns';
 
 /** Many bins going out on one truck against one hire order (or a transfer of empties). */

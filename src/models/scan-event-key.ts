@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 
 /** The idempotency key of a client-generated scan, with the answer first given for it. */
 export class ScanEventKey extends Model<InferAttributes<ScanEventKey>, InferCreationAttributes<ScanEventKey>> {

@@ -1,6 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
-import type { Action, Status } from '../lib/lifecycle';
+import { sequelize } from '@/db/sequelize';
+import type { Action, Status } from '@/lib/scans/lifecycle';
 
 /** One entry of the append-only scan log. Never deleted: a wrong scan is voided with a reason. */
 export class ScanEvent extends Model<InferAttributes<ScanEvent>, InferCreationAttributes<ScanEvent>> {

@@ -1,5 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { versionColumn } from './columns';
 
 /** Operator-wide settings (one row): GS1 identity, time zone for all day counts, money, mail sender. */

@@ -1,7 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes } from 'sequelize';
-import { sequelize } from '../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { idColumn, versionColumn, timestampColumns } from './columns';
-import type { Role } from '../lib/permissions';
+import type { Role } from '@/lib/permissions';
 
 /** Someone who signs in. Invited users have no password until they follow their link. */
 export class User extends Model<InferAttributes<User>, InferCreationAttributes<User>> {

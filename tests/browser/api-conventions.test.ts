@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import type { APIRequestContext, Browser, BrowserContext } from 'playwright-core';
 import { newContext, signIn, useApp } from './support/app';
 import { one, closeDb } from './support/db';
-import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
+import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
 

@@ -3,7 +3,7 @@
 import { describe, test, expect, afterAll } from 'vitest';
 import { useApp, newContext, signIn, screenshot } from './support/app';
 import { rows, one, closeDb } from './support/db';
-import { DEMO_PASSWORD } from '../../src/db/seed/demo-logins.mjs';
+import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
 afterAll(closeDb);

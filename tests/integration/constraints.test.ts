@@ -1,7 +1,7 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import { resetDatabase, sqlErrorCode, sequelize } from './support/db';
 import { baseWorld } from './support/fixtures';
-import { Organisation, Site, User } from '../../src/models';
+import { Organisation, Site, User } from '@/models';
 
 // PostgreSQL error codes: 23514 check_violation, 23505 unique_violation,
 // 23503 foreign_key_violation, 23502 not_null_violation.

@@ -1,5 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import { changedFields } from '../../src/lib/audit-diff';
+import { changedFields } from '@/lib/audit-diff';
 
 describe('what changed between two snapshots', () => {
   test('only differing fields, on both sides', () => {

@@ -24,7 +24,7 @@ import {
   isYearMonth,
   localDate,
   monthOf,
-} from '../../src/lib/calendar.ts';
+} from '@/lib/calendar.ts';
 import { inProcessTimeZone } from './support/process-time-zone.ts';
 
 const pad = (value: number, width = 2) => String(value).padStart(width, '0');

@@ -2,7 +2,7 @@
 // zero on the decimal digits (the school rule), so 1.005 at two decimals is 1.01 — binary floating point
 // holds 1.005 as 1.00499999999999989…, which a plain toFixed(2) would turn into "1.00".
 import { describe, test, expect } from 'vitest';
-import { formatCount, formatDays, formatDecimal, formatPercent, plainDecimal } from '../../src/lib/figures.ts';
+import { formatCount, formatDays, formatDecimal, formatPercent, plainDecimal } from '@/lib/figures.ts';
 
 describe('figures', () => {
   test('counts group thousands with commas', () => {

@@ -10,8 +10,8 @@ import {
   makeGrai,
   parseGrai,
   parseSerialisedGrai,
-} from '../../src/lib/gs1.ts';
-import type { GraiParseResult } from '../../src/lib/gs1.ts';
+} from '@/lib/gs1.ts';
+import type { GraiParseResult } from '@/lib/gs1.ts';
 
 /** Narrows a parse result for the assertions that follow. */
 function okParts(result: GraiParseResult) {

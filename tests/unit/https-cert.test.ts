@@ -5,7 +5,7 @@ import { X509Certificate, createPrivateKey, createPublicKey } from 'node:crypto'
 import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { certificateNames, ensureLocalCertificate, lanAddresses, SERVER_CERT_DAYS } from '../../src/cli/https.mjs';
+import { certificateNames, ensureLocalCertificate, lanAddresses, SERVER_CERT_DAYS } from '@/cli/https.mjs';
 
 const DAY = 86_400_000;
 

@@ -1,5 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import { formatMoment, formatMomentAbsolute, relativeHint } from '../../src/lib/moment-text';
+import { formatMoment, formatMomentAbsolute, relativeHint } from '@/lib/moment-text';
 
 describe('moments in the operator zone', () => {
   // EU summer time: clocks go from 02:00 CET to 03:00 CEST at 01:00 UTC on the

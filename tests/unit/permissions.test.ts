@@ -1,6 +1,6 @@
 import { describe, test, expect } from 'vitest';
-import { accessFor, can, HOME_BY_ROLE, ROLES, CAPABILITIES } from '../../src/lib/permissions';
-import { safeNextPath } from '../../src/lib/safe-redirect';
+import { accessFor, can, HOME_BY_ROLE, ROLES, CAPABILITIES } from '@/lib/permissions';
+import { safeNextPath } from '@/lib/safe-redirect';
 
 describe('role × capability table', () => {
   test('customers reach their portal and bins, never the planner desk or admin', () => {

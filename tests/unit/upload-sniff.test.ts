@@ -1,5 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import { decodeCsvUpload } from '../../src/lib/upload-sniff';
+import { decodeCsvUpload } from '@/lib/upload-sniff';
 
 const bytes = (...values: number[]) => new Uint8Array(values);
 const text = (s: string) => new TextEncoder().encode(s);

@@ -1,10 +1,10 @@
 import { useMemo, useState } from 'react';
-import { Icon } from '../ui/Icon';
-import { api, ApiError } from '../../lib/client/api';
-import { ROLE_LABELS, STATUS_LABELS, personStatus, type PeopleChoices, type PersonRow, type PersonStatus } from '../../lib/people';
-import { formatMoment, formatMomentAbsolute, relativeHint } from '../../lib/moment-text';
-import { ROLES, type Role } from '../../lib/permissions';
-import type { IconName } from '../../lib/icons';
+import { Icon } from '@/components/ui/Icon';
+import { api, ApiError } from '@/lib/api.client';
+import { ROLE_LABELS, STATUS_LABELS, personStatus, type PeopleChoices, type PersonRow, type PersonStatus } from '@/lib/accounts/people';
+import { formatMoment, formatMomentAbsolute, relativeHint } from '@/lib/moment-text';
+import { ROLES, type Role } from '@/lib/permissions';
+import type { IconName } from '@/lib/icons';
 import { InviteDialog, EditPersonDialog, type Flash } from './PersonDialogs';
 
 export interface PeopleAdminProps {

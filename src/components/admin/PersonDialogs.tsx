@@ -1,9 +1,9 @@
 import { useState, type FormEvent } from 'react';
-import { Dialog, FieldProblem } from '../ui/Dialog';
-import { api, ApiError } from '../../lib/client/api';
-import { ROLE_LABELS, isStaffRole, type PeopleChoices, type PersonRow } from '../../lib/people';
-import { ROLES, type Role } from '../../lib/permissions';
-import { formatMomentAbsolute } from '../../lib/moment-text';
+import { Dialog, FieldProblem } from '@/components/ui/Dialog';
+import { api, ApiError } from '@/lib/api.client';
+import { ROLE_LABELS, isStaffRole, type PeopleChoices, type PersonRow } from '@/lib/accounts/people';
+import { ROLES, type Role } from '@/lib/permissions';
+import { formatMomentAbsolute } from '@/lib/moment-text';
 
 export interface Flash {
   tone: 'good' | 'attention' | 'fault';

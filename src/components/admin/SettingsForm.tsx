@@ -1,9 +1,9 @@
 import { useMemo, useState, type FormEvent, type ReactNode } from 'react';
-import { FieldProblem } from '../ui/Dialog';
-import { api, ApiError } from '../../lib/client/api';
-import { fractionToPercent, percentToFraction } from '../../lib/percent';
-import { formatMomentAbsolute } from '../../lib/moment-text';
-import type { SettingsView } from '../../lib/settings-schema';
+import { FieldProblem } from '@/components/ui/Dialog';
+import { api, ApiError } from '@/lib/api.client';
+import { fractionToPercent, percentToFraction } from '@/lib/percent';
+import { formatMomentAbsolute } from '@/lib/moment-text';
+import type { SettingsView } from '@/lib/settings/settings-schema';
 
 type Problems = Record<string, string>;
 

@@ -3,9 +3,9 @@
 // page and the yard's offline bin card; the caller decides how the result is
 // recorded (directly, or through the phone's scan queue).
 import { useState, type FormEvent } from 'react';
-import { ACTION_LABELS, type Action, type Status } from '../../lib/lifecycle';
-import { Icon } from '../ui/Icon';
-import type { LotOption, OrderOption } from '../../lib/server/action-options';
+import { ACTION_LABELS, type Action, type Status } from '@/lib/scans/lifecycle';
+import { Icon } from '@/components/ui/Icon';
+import type { LotOption, OrderOption } from '@/lib/yard/action-options.server';
 
 /** What the forms offer: lots in first-expiry-first-out order, orders soonest first. */
 export interface ActionOptions {

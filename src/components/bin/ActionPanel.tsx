@@ -3,7 +3,7 @@
 // phone to send later, or refused with the reason). The bin page and the
 // yard's offline bin card both use it; `record` decides how a scan is sent.
 import { useState } from 'react';
-import { ACTION_LABELS, STATUS_LABELS, type Action, type Status } from '../../lib/lifecycle';
+import { ACTION_LABELS, STATUS_LABELS, type Action, type Status } from '@/lib/scans/lifecycle';
 import ActionForm, { type ActionOptions } from './ActionForm';
 
 export type PanelOutcome =

@@ -1,12 +1,12 @@
 // The bin page's actions island. Records through POST /api/scan-events with
 // the bin's version, so two people acting at once cannot overwrite each other.
 // Yard users record through the phone's scan queue: without signal the scan is
-// saved on the phone and sent later (src/lib/client/scan-queue.ts).
-import { api, ApiError } from '../../lib/client/api';
-import { newClientEventId } from '../../lib/client/ids';
-import { submitScan } from '../../lib/client/scan-queue';
-import type { Action, Status } from '../../lib/lifecycle';
-import type { LotOption, OrderOption, SiteOption } from '../../lib/server/action-options';
+// saved on the phone and sent later (src/lib/yard/scan-queue.client.ts).
+import { api, ApiError } from '@/lib/api.client';
+import { newClientEventId } from '@/lib/yard/ids.client';
+import { submitScan } from '@/lib/yard/scan-queue.client';
+import type { Action, Status } from '@/lib/scans/lifecycle';
+import type { LotOption, OrderOption, SiteOption } from '@/lib/yard/action-options.server';
 import ActionPanel, { type PanelOutcome } from './ActionPanel';
 
 export interface BinActionsProps {

@@ -1,17 +1,17 @@
 import { useEffect, useMemo, useState, type FormEvent } from 'react';
-import { api, ApiError } from '../../lib/client/api';
-import { groupGrai, parseSerialisedGrai } from '../../lib/gs1';
-import { checkMarkAgainstType, graiFromSerial, isMonth } from '../../lib/registration-check';
-import { decodeUnMark } from '../../lib/un-mark-summary';
-import { inspectionLabel, nextDue } from '../../lib/inspection-due';
-import { policyForBinType } from '../../lib/bin-policy';
-import { formatLongDate } from '../../lib/calendar';
-import { STATUS_LABELS } from '../../lib/lifecycle';
-import type { FormOptions, BinTypeOption } from '../../lib/server/bin-forms';
-import type { EditableBin } from '../../lib/server/bin-edit';
+import { api, ApiError } from '@/lib/api.client';
+import { groupGrai, parseSerialisedGrai } from '@/lib/gs1';
+import { checkMarkAgainstType, graiFromSerial, isMonth } from '@/lib/bins/registration-check';
+import { decodeUnMark } from '@/lib/bins/un-mark-summary';
+import { inspectionLabel, nextDue } from '@/lib/inspections/inspection-due';
+import { policyForBinType } from '@/lib/bins/bin-policy';
+import { formatLongDate } from '@/lib/calendar';
+import { STATUS_LABELS } from '@/lib/scans/lifecycle';
+import type { FormOptions, BinTypeOption } from '@/lib/bins/bin-forms.server';
+import type { EditableBin } from '@/lib/bins/bin-edit.server';
 import { FormField, describedBy } from './FormField';
 import { UnMarkPanel } from './UnMarkPanel';
-import { Icon } from '../ui/Icon';
+import { Icon } from '@/components/ui/Icon';
 
 interface Fields {
   graiMode: 'grai' | 'serial';

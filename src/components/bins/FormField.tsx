@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { Icon } from '../ui/Icon';
+import { Icon } from '@/components/ui/Icon';
 
 /** A labelled form field with its hint and the server's (or the page's) problem below it. */
 export function FormField({ id, label, hint, problem, children }: { id: string; label: string; hint?: ReactNode; problem?: string; children: ReactNode }) {

@@ -1,8 +1,8 @@
 import { useEffect, useRef, useState, type ChangeEvent } from 'react';
-import { ApiError } from '../../lib/client/api';
-import type { ErrorCode } from '../../lib/api-errors';
-import type { ImportPreview, PreviewLine } from '../../lib/server/register-import';
-import { Icon } from '../ui/Icon';
+import { ApiError } from '@/lib/api.client';
+import type { ErrorCode } from '@/lib/api-errors';
+import type { ImportPreview, PreviewLine } from '@/lib/bins/register-import.server';
+import { Icon } from '@/components/ui/Icon';
 
 type Phase = 'idle' | 'checking' | 'preview' | 'registering' | 'done';
 

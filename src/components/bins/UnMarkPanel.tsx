@@ -1,5 +1,5 @@
-import type { UnMarkSummary } from '../../lib/un-mark-summary';
-import { Icon } from '../ui/Icon';
+import type { UnMarkSummary } from '@/lib/bins/un-mark-summary';
+import { Icon } from '@/components/ui/Icon';
 
 /** The UN mark decoded as it is typed: each field in words, or the parser's reason it cannot be read. */
 export function UnMarkPanel({ summary, typeWarning }: { summary: UnMarkSummary | null; typeWarning?: string | null }) {

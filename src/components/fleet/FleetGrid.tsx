@@ -9,10 +9,10 @@ import {
   ColumnApiModule, RowStyleModule,
   type GridApi, type GridReadyEvent, type IDatasource, type IGetRowsParams, type RowClickedEvent, type CellKeyDownEvent,
 } from 'ag-grid-community';
-import { api, withQuery, ApiError } from '../../lib/client/api';
-import { Icon } from '../ui/Icon';
-import { BIN_COLUMNS, isBinColumnId, type BinColumnId, type FilterCondition } from '../../lib/grid-query';
-import type { ViewState } from '../../lib/grid-views';
+import { api, withQuery, ApiError } from '@/lib/api.client';
+import { Icon } from '@/components/ui/Icon';
+import { BIN_COLUMNS, isBinColumnId, type BinColumnId, type FilterCondition } from '@/lib/fleet/grid-query';
+import type { ViewState } from '@/lib/fleet/grid-views';
 import { loopfoldGridTheme } from './grid-theme';
 import { buildColumnDefs } from './columns';
 import { binHref } from './cells';

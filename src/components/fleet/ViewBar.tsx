@@ -3,9 +3,9 @@
 // through the typed API client and then refresh the list.
 import { useState } from 'react';
 import useSWR from 'swr';
-import { api, fetcher, ApiError } from '../../lib/client/api';
-import { Icon } from '../ui/Icon';
-import type { ViewState } from '../../lib/grid-views';
+import { api, fetcher, ApiError } from '@/lib/api.client';
+import { Icon } from '@/components/ui/Icon';
+import type { ViewState } from '@/lib/fleet/grid-views';
 import type { ViewSummary } from './types';
 
 const VIEWS_KEY = '/api/fleet/views';

@@ -1,11 +1,11 @@
 // Cell renderers of the fleet grid. Status and flags are a word plus an icon,
 // dates are absolute with a relative hint, identifiers are grouped in Plex Mono.
 import type { CustomCellRendererProps } from 'ag-grid-react';
-import { Icon } from '../ui/Icon';
-import { formatLongDate, formatRelative } from '../../lib/calendar';
-import { groupGrai } from '../../lib/gs1';
-import { STATUS_LABELS, type Status } from '../../lib/lifecycle';
-import { STATUS_LOOK, TONE_TEXT } from '../../lib/status-look';
+import { Icon } from '@/components/ui/Icon';
+import { formatLongDate, formatRelative } from '@/lib/calendar';
+import { groupGrai } from '@/lib/gs1';
+import { STATUS_LABELS, type Status } from '@/lib/scans/lifecycle';
+import { STATUS_LOOK, TONE_TEXT } from '@/lib/status-look';
 import type { GridContext, GridRow } from './types';
 
 type Props = CustomCellRendererProps<GridRow, unknown, GridContext>;

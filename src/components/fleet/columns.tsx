@@ -1,7 +1,7 @@
-// The fleet grid's columns. Column ids are the server's whitelist (src/lib/grid-query.ts):
+// The fleet grid's columns. Column ids are the server's whitelist (src/lib/fleet/grid-query.ts):
 // whatever the grid sends as a sort or filter model is keyed by these ids.
 import type { ColDef } from 'ag-grid-community';
-import { BIN_COLUMNS, DUE_SOON_DAYS, type BinColumnId } from '../../lib/grid-query';
+import { BIN_COLUMNS, DUE_SOON_DAYS, type BinColumnId } from '@/lib/fleet/grid-query';
 import { GraiCell, StatusCell, DateCell, NextDueCell, LastScanCell, DaysAtSiteCell, DaysCell, FlagCell, TextCell } from './cells';
 import { SetFilter, BooleanFilter, type SetOption } from './filters';
 import type { FilterChoices, GridRow } from './types';

@@ -1,6 +1,6 @@
 // Column filters AG Grid's community edition does not have: a set filter (pick
 // statuses, sites, customers, types) and a yes/no filter for flags. Their models
-// are the shapes src/lib/grid-query.ts accepts; the server does the filtering.
+// are the shapes src/lib/fleet/grid-query.ts accepts; the server does the filtering.
 import { useMemo, useState } from 'react';
 import { useGridFilter, type CustomFilterProps } from 'ag-grid-react';
 

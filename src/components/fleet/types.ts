@@ -1,7 +1,7 @@
 // What the fleet grid island receives: the server's row and page shapes as they
 // arrive over JSON.
-import type { BinRow, FilterChoices } from '../../lib/server/fleet-grid';
-import type { ViewSummary } from '../../lib/server/saved-views';
+import type { BinRow, FilterChoices } from '@/lib/fleet/fleet-grid.server';
+import type { ViewSummary } from '@/lib/fleet/saved-views.server';
 
 export type GridRow = BinRow;
 

@@ -1,9 +1,9 @@
 // Moving a saved view's state into the grid and back out, and describing the
 // active filters in words for the chips above the grid.
 import type { ColumnState, GridApi } from 'ag-grid-community';
-import { BIN_COLUMNS, BIN_COLUMN_IDS, isBinColumnId, type BinColumnId, type FilterCondition, type SimpleCondition, type SortItem } from '../../lib/grid-query';
-import { DEFAULT_VISIBLE, type ViewColumn, type ViewState } from '../../lib/grid-views';
-import { formatLongDate } from '../../lib/calendar';
+import { BIN_COLUMNS, BIN_COLUMN_IDS, isBinColumnId, type BinColumnId, type FilterCondition, type SimpleCondition, type SortItem } from '@/lib/fleet/grid-query';
+import { DEFAULT_VISIBLE, type ViewColumn, type ViewState } from '@/lib/fleet/grid-views';
+import { formatLongDate } from '@/lib/calendar';
 import type { FilterChoices, GridRow } from './types';
 
 export const EMPTY_STATE: ViewState = { filterModel: {}, sortModel: [], columns: [] };

@@ -2,9 +2,9 @@
 // (a dispatch scan). Shows count against target, the bins on, and every
 // refusal with its reason; then the carrier's details send the truck off.
 import { useState, type FormEvent } from 'react';
-import ScanInput, { type Identified } from '../yard/ScanInput';
-import { api, ApiError } from '../../lib/client/api';
-import { newClientEventId } from '../../lib/client/ids';
+import ScanInput, { type Identified } from '@/components/yard/ScanInput';
+import { api, ApiError } from '@/lib/api.client';
+import { newClientEventId } from '@/lib/yard/ids.client';
 
 interface Bin { grai: string; serial: string; lotNumber: string | null }
 interface Props {

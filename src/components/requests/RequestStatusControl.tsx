@@ -1,9 +1,9 @@
 import { useState } from 'react';
-import { Icon } from '../ui/Icon';
-import { Dialog } from '../ui/Dialog';
-import { api, ApiError } from '../../lib/client/api';
-import { TONE_CLASSES } from '../../lib/status-display';
-import { needsConfirmation, nextStatuses, statusLook, stepLabel, type RequestKind, type RequestStatus } from '../../lib/request-status';
+import { Icon } from '@/components/ui/Icon';
+import { Dialog } from '@/components/ui/Dialog';
+import { api, ApiError } from '@/lib/api.client';
+import { TONE_CLASSES } from '@/lib/status-display';
+import { needsConfirmation, nextStatuses, statusLook, stepLabel, type RequestKind, type RequestStatus } from '@/lib/requests/request-status';
 
 export interface RequestStatusControlProps {
   kind: RequestKind;

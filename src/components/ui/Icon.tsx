@@ -1,4 +1,4 @@
-import { ICONS, type IconName } from '../../lib/icons';
+import { ICONS, type IconName } from '@/lib/icons';
 
 export function Icon({ name, size = 20, className = '', label }: { name: IconName; size?: number; className?: string; label?: string }) {
   return (

@@ -1,6 +1,6 @@
 import { Icon } from './Icon';
-import { STATUS_DISPLAY, TONE_CLASSES } from '../../lib/status-display';
-import type { Status } from '../../lib/lifecycle';
+import { STATUS_DISPLAY, TONE_CLASSES } from '@/lib/status-display';
+import type { Status } from '@/lib/scans/lifecycle';
 
 export function StatusBadge({ status, size = 'sm' }: { status: Status; size?: 'sm' | 'lg' }) {
   const d = STATUS_DISPLAY[status];

@@ -2,19 +2,19 @@
 // on by the scans still waiting on the phone, with the actions the rule table
 // allows from there. What is recorded here waits in the phone's queue.
 import { useEffect, useState } from 'react';
-import { groupGrai } from '../../lib/gs1';
-import type { Identified } from '../../lib/bin-identify';
-import { ACTION_LABELS, isInspectionLapsed, type Action, type Status } from '../../lib/lifecycle';
-import { CAUTIONS, DEFER } from '../../lib/safety';
-import { dateHint, findInSnapshot, offlineActions, projectBin, todayIn, type ActingContext } from '../../lib/yard-offline';
-import { newClientEventId } from '../../lib/client/ids';
-import { submitScan, subscribe, type QueueStatus } from '../../lib/client/scan-queue';
-import { loadSnapshot, onSnapshot } from '../../lib/client/depot-snapshot';
-import type { StoredSnapshot } from '../../lib/client/yard-db';
-import type { ScanEventBody } from '../../lib/scan-schema';
-import ActionPanel, { type PanelOutcome } from '../bin/ActionPanel';
-import { StatusBadge } from '../ui/StatusBadge';
-import { Icon } from '../ui/Icon';
+import { groupGrai } from '@/lib/gs1';
+import type { Identified } from '@/lib/bins/bin-identify';
+import { ACTION_LABELS, isInspectionLapsed, type Action, type Status } from '@/lib/scans/lifecycle';
+import { CAUTIONS, DEFER } from '@/lib/yard/safety';
+import { dateHint, findInSnapshot, offlineActions, projectBin, todayIn, type ActingContext } from '@/lib/yard/yard-offline';
+import { newClientEventId } from '@/lib/yard/ids.client';
+import { submitScan, subscribe, type QueueStatus } from '@/lib/yard/scan-queue.client';
+import { loadSnapshot, onSnapshot } from '@/lib/yard/depot-snapshot.client';
+import type { StoredSnapshot } from '@/lib/yard/yard-db.client';
+import type { ScanEventBody } from '@/lib/scans/scan-schema';
+import ActionPanel, { type PanelOutcome } from '@/components/bin/ActionPanel';
+import { StatusBadge } from '@/components/ui/StatusBadge';
+import { Icon } from '@/components/ui/Icon';
 
 interface Props {
   identified: Identified;

@@ -1,15 +1,15 @@
 // Reading a bin's QR label: live through the camera, or from a photo taken
 // with the phone's own camera app. The decoder is loaded only when one of the
-// two opens (dynamic import of src/lib/client/qr-reader.ts). The live camera
+// two opens (dynamic import of src/lib/yard/qr-reader.client.ts). The live camera
 // needs a secure context (HTTPS, or localhost); on plain HTTP the photo route
 // still works, and the screen says so.
 import { useEffect, useId, useRef, useState, type ChangeEvent } from 'react';
-import { Icon } from '../ui/Icon';
-import type { QrReader } from '../../lib/client/qr-reader';
+import { Icon } from '@/components/ui/Icon';
+import type { QrReader } from '@/lib/yard/qr-reader.client';
 
 type Mode = 'idle' | 'starting' | 'live' | 'reading';
 
-const loadReader = () => import('../../lib/client/qr-reader');
+const loadReader = () => import('@/lib/yard/qr-reader.client');
 
 const INSECURE =
   'The live camera works only over a secure connection (an https:// address). This page was opened over plain http, so use “Photo” to take a picture of the label instead. Your administrator can switch the yard network to HTTPS (README: “Phones on the yard: HTTPS”).';

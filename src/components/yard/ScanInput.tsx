@@ -4,8 +4,8 @@
 // carries a GS1 Digital Link URI (…/8003/<GRAI>); whichever way the identity
 // came in, the same thing happens next.
 import { useState, type FormEvent } from 'react';
-import { identify, identifyDecoded, isIdentified, type Identified, type IdentifyResult } from '../../lib/bin-identify';
-import { Icon } from '../ui/Icon';
+import { identify, identifyDecoded, isIdentified, type Identified, type IdentifyResult } from '@/lib/bins/bin-identify';
+import { Icon } from '@/components/ui/Icon';
 import QrCapture from './QrCapture';
 
 export type { Identified };

@@ -3,12 +3,12 @@
 // until the user dismisses them. It also starts the yard's background sync
 // and registers the service worker, once per page.
 import { useEffect, useState } from 'react';
-import { ACTION_LABELS } from '../../lib/lifecycle';
-import { dismissRefused, subscribe, syncNow, type QueueStatus } from '../../lib/client/scan-queue';
-import { startYardSync } from '../../lib/client/yard-sync';
-import { registerYardServiceWorker } from '../../lib/client/service-worker';
-import { currentUserId } from '../../lib/client/yard-db';
-import type { QueuedScan } from '../../lib/scan-queue-state';
+import { ACTION_LABELS } from '@/lib/scans/lifecycle';
+import { dismissRefused, subscribe, syncNow, type QueueStatus } from '@/lib/yard/scan-queue.client';
+import { startYardSync } from '@/lib/yard/yard-sync.client';
+import { registerYardServiceWorker } from '@/lib/yard/service-worker.client';
+import { currentUserId } from '@/lib/yard/yard-db.client';
+import type { QueuedScan } from '@/lib/yard/scan-queue-state';
 
 // Signal bars and a struck-through cloud: the state is always a word and a shape, never colour alone.
 const ONLINE_PATH = 'M4 18h.01M8 18v-3M12 18v-7M16 18V8M20 18V5';

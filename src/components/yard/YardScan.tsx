@@ -4,7 +4,7 @@
 import { useEffect, useRef, useState } from 'react';
 import ScanInput, { binHref, type Identified } from './ScanInput';
 import OfflineBinCard from './OfflineBinCard';
-import { serverReachable } from '../../lib/client/scan-queue';
+import { serverReachable } from '@/lib/yard/scan-queue.client';
 
 export default function YardScan({ prefixLength }: { prefixLength: number }) {
   const [card, setCard] = useState<{ id: Identified; n: number } | null>(null);

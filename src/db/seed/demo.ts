@@ -1,5 +1,5 @@
 import bcrypt from 'bcryptjs';
-import { sequelize, Organisation, Site, User, Setting, BinType } from '../../models';
+import { sequelize, Organisation, Site, User, Setting, BinType } from '@/models';
 import { generateHistory } from './history';
 import { DEMO_LOGINS, DEMO_PASSWORD } from './demo-logins.mjs';
 import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES } from './scenario';

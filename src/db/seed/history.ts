@@ -1,17 +1,17 @@
 // Eighteen months of invented pool history, generated through the same scan
-// service the yards use (src/lib/server/scan-service.ts), so the bins' current
+// service the yards use (src/lib/scans/scan-service.server.ts), so the bins' current
 // state and the event log agree by construction. Deterministic: a seeded PRNG.
 import { randomUUID } from 'node:crypto';
 import { Op } from 'sequelize';
-import { sequelize, Asset, BinType, HireOrder, Inspection, LinerLot, Organisation, Site, User } from '../../models';
-import { recordScan, type Actor, type ScanInput } from '../../lib/server/scan-service';
-import { registerBin } from '../../lib/server/bin-register';
-import { makeGrai } from '../../lib/gs1';
-import { nextDue } from '../../lib/inspection-due';
-import { policyForBinType } from '../../lib/bin-policy';
-import { addMonthsToMonth, localDate } from '../../lib/calendar';
-import { seededRandom, type Random } from '../../lib/random';
-import { AppError } from '../../lib/api-errors';
+import { sequelize, Asset, BinType, HireOrder, Inspection, LinerLot, Organisation, Site, User } from '@/models';
+import { recordScan, type Actor, type ScanInput } from '@/lib/scans/scan-service.server';
+import { registerBin } from '@/lib/bins/bin-register.server';
+import { makeGrai } from '@/lib/gs1';
+import { nextDue } from '@/lib/inspections/inspection-due';
+import { policyForBinType } from '@/lib/bins/bin-policy';
+import { addMonthsToMonth, localDate } from '@/lib/calendar';
+import { seededRandom, type Random } from '@/lib/random';
+import { AppError } from '@/lib/api-errors';
 import { CUSTOMERS, OPERATOR, PRODUCTS, LINER_SUPPLIERS } from './scenario';
 
 const DAY = 86_400_000;

@@ -1,8 +1,8 @@
 // Entry point of the demo seeder (run with tsx by the sequelize-cli seeder).
-import { sequelize } from '../../lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { seedDemo } from './demo';
 
-const { Organisation } = await import('../../models');
+const { Organisation } = await import('@/models');
 if ((await Organisation.count()) > 0) {
   console.log('[seed] data already present: demo scenario not seeded');
 } else {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { sequelize } from '../../lib/server/db';
-import { dataResponse, errorResponse } from '../../lib/server/respond';
+import { sequelize } from '@/db/sequelize';
+import { dataResponse, errorResponse } from '@/lib/respond.server';
 
 const started = Date.now();
 

@@ -1,7 +1,7 @@
-import { endpoint } from '../../lib/server/endpoint';
-import { exportFilename, registerCsvStream } from '../../lib/server/register-export';
-import { getSettings } from '../../lib/server/settings';
-import { localDate } from '../../lib/calendar';
+import { endpoint } from '@/lib/endpoint.server';
+import { exportFilename, registerCsvStream } from '@/lib/bins/register-export.server';
+import { getSettings } from '@/lib/settings/settings.server';
+import { localDate } from '@/lib/calendar';
 
 /** The whole bin register as CSV, streamed page by page (planner and admin). */
 export const GET = endpoint({ capability: 'bins.import' }, async () => {

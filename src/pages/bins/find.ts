@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { findBin } from '../../lib/server/bin-lookup';
+import { findBin } from '@/lib/bins/bin-lookup.server';
 
 /**
  * The "find a bin" box posts here (GET ?q=…): a GRAI in any form or a serial

@@ -2,7 +2,7 @@
 // the built server) on a free port against the e2e database, and drives
 // Debian's chromium through playwright-core.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { freePort } from '../../../src/cli/free-port.mjs';
+import { freePort } from '@/cli/free-port.mjs';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, afterAll } from 'vitest';

@@ -1,6 +1,6 @@
 // Integration tests run against the real test database (never a mock):
 // `npm test` migrates a fresh `loopfold_test`; each file starts from empty tables.
-import { sequelize } from '../../../src/lib/server/db';
+import { sequelize } from '@/db/sequelize';
 
 export async function resetDatabase() {
   await sequelize.query(`

@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
-import { Organisation, Site, User, Setting } from '../../../src/models';
-import type { Role } from '../../../src/lib/permissions';
+import { Organisation, Site, User, Setting } from '@/models';
+import type { Role } from '@/lib/permissions';
 
 /** A minimal world: settings, the operator with one depot, one customer with one site. */
 export async function baseWorld() {
@@ -30,11 +30,11 @@ export async function makeUser(role: Role, organisationId: number, extra: Partia
   });
 }
 
-import { BinType, LinerLot, HireOrder } from '../../../src/models';
-import { registerBin } from '../../../src/lib/server/bin-register';
-import { makeGrai } from '../../../src/lib/gs1';
-import { forgetSettings } from '../../../src/lib/server/settings';
-import type { Actor } from '../../../src/lib/server/scan-service';
+import { BinType, LinerLot, HireOrder } from '@/models';
+import { registerBin } from '@/lib/bins/bin-register.server';
+import { makeGrai } from '@/lib/gs1';
+import { forgetSettings } from '@/lib/settings/settings.server';
+import type { Actor } from '@/lib/scans/scan-service.server';
 
 /** baseWorld plus a bin type, a liner lot, an open hire order and one user per role. */
 export async function poolWorld() {
@@ -62,7 +62,7 @@ export async function newBin(w: Awaited<ReturnType<typeof poolWorld>>, extra: { 
 
 import { beforeAll, afterAll } from 'vitest';
 import { resetDatabase, sequelize } from './db';
-import { AppError } from '../../../src/lib/api-errors';
+import { AppError } from '@/lib/api-errors';
 
 export type PoolWorld = Awaited<ReturnType<typeof poolWorld>>;
 

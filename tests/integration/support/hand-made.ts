@@ -3,9 +3,9 @@
 // with the dates the test's arithmetic uses. The table constraints still apply, so every state is a legal one.
 import { QueryTypes } from 'sequelize';
 import { sequelize } from './db';
-import { registerBin } from '../../../src/lib/server/bin-register';
-import { makeGrai } from '../../../src/lib/gs1';
-import type { Actor } from '../../../src/lib/server/scan-service';
+import { registerBin } from '@/lib/bins/bin-register.server';
+import { makeGrai } from '@/lib/gs1';
+import type { Actor } from '@/lib/scans/scan-service.server';
 
 export async function handBin(actor: Actor, opts: { serial: string; binTypeId: number; siteId: number; registeredAt: string; assetType?: string }) {
   const grai = makeGrai('9529999', opts.assetType ?? '10010', opts.serial);

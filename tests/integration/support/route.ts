@@ -2,8 +2,8 @@
 // resolved (the middleware's job), so integration tests cover the route's own
 // validation, permissions and envelope against the real database.
 import type { APIContext, APIRoute } from 'astro';
-import type { SessionUser } from '../../../src/lib/server/session-user';
-import type { Role } from '../../../src/lib/permissions';
+import type { SessionUser } from '@/lib/accounts/session-user.server';
+import type { Role } from '@/lib/permissions';
 
 export function sessionUser(u: { id: number | null; role: Role; organisationId: number; homeSiteId?: number | null }, name = `Test ${u.role}`): SessionUser {
   return { id: u.id ?? 0, email: `${u.role}-${u.id}@test.example`, name, role: u.role, organisationId: u.organisationId, organisationName: 'Test', homeSiteId: u.homeSiteId ?? null, qualifiedInspector: false };

@@ -1,7 +1,7 @@
 import type { z } from 'zod';
-import { endpoint } from '../../../lib/server/endpoint';
-import { setPasswordSchema } from '../../../lib/account-rules';
-import { setPasswordWithLink } from '../../../lib/server/accounts';
+import { endpoint } from '@/lib/endpoint.server';
+import { setPasswordSchema } from '@/lib/accounts/account-rules';
+import { setPasswordWithLink } from '@/lib/accounts/accounts.server';
 
 /** Set a password with an invitation or reset link (public: the link is the credential). */
 // Public routes name all three type arguments: `Pub = true` admits capability 'public'.

@@ -1,7 +1,7 @@
 import type { z } from 'zod';
-import { endpoint } from '../../../lib/server/endpoint';
-import { RESET_REQUEST_ANSWER, resetRequestSchema } from '../../../lib/account-rules';
-import { requestPasswordReset } from '../../../lib/server/accounts';
+import { endpoint } from '@/lib/endpoint.server';
+import { RESET_REQUEST_ANSWER, resetRequestSchema } from '@/lib/accounts/account-rules';
+import { requestPasswordReset } from '@/lib/accounts/accounts.server';
 
 /** "Forgotten password": the same answer whether or not the account exists; the mail goes out after the answer. */
 // Public routes name all three type arguments: `Pub = true` admits capability 'public'.

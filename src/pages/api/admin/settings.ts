@@ -1,7 +1,7 @@
-import { endpoint } from '../../../lib/server/endpoint';
-import { settingsSchema } from '../../../lib/settings-schema';
-import { readSettings, updateSettings } from '../../../lib/server/settings';
-import { actorFrom } from '../../../lib/server/audit';
+import { endpoint } from '@/lib/endpoint.server';
+import { settingsSchema } from '@/lib/settings/settings-schema';
+import { readSettings, updateSettings } from '@/lib/settings/settings.server';
+import { actorFrom } from '@/lib/audit.server';
 
 export const GET = endpoint({ capability: 'settings.manage' }, async () => ({ settings: await readSettings() }));
 

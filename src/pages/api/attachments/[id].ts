@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { Attachment } from '../../../models';
-import { errorResponse } from '../../../lib/server/respond';
-import { can } from '../../../lib/permissions';
+import { Attachment } from '@/models';
+import { errorResponse } from '@/lib/respond.server';
+import { can } from '@/lib/permissions';
 
 /**
  * Serves a stored file with its sniffed type, only to signed-in users who may

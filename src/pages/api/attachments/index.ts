@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { endpoint } from '../../../lib/server/endpoint';
-import { readUpload, storeAttachment } from '../../../lib/server/attachments';
+import { endpoint } from '@/lib/endpoint.server';
+import { readUpload, storeAttachment } from '@/lib/attachments.server';
 
 const purpose = z.enum(['photo', 'certificate', 'document']);
 

@@ -1,5 +1,5 @@
-import { endpoint } from '../../../lib/server/endpoint';
-import { registerBody, registerFromForm } from '../../../lib/server/bin-forms';
+import { endpoint } from '@/lib/endpoint.server';
+import { registerBody, registerFromForm } from '@/lib/bins/bin-forms.server';
 
 /** Register one bin (the /bins/new form). Every problem comes back at once, per field. */
 export const POST = endpoint({ capability: 'bins.edit', body: registerBody, status: 201 }, async ({ ctx, user, body }) =>

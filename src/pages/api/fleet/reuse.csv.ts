@@ -1,12 +1,12 @@
 import { z } from 'zod';
 import Papa from 'papaparse';
-import { endpoint } from '../../../lib/server/endpoint';
-import { AppError } from '../../../lib/api-errors';
-import { getSettings } from '../../../lib/server/settings';
-import { reuseData } from '../../../lib/server/reuse-data';
-import { reuseCsv } from '../../../lib/reuse-report';
-import { parseReportPeriod } from '../../../lib/report-period';
-import { localDate } from '../../../lib/calendar';
+import { endpoint } from '@/lib/endpoint.server';
+import { AppError } from '@/lib/api-errors';
+import { getSettings } from '@/lib/settings/settings.server';
+import { reuseData } from '@/lib/trips/reuse-data.server';
+import { reuseCsv } from '@/lib/trips/reuse-report';
+import { parseReportPeriod } from '@/lib/trips/report-period';
+import { localDate } from '@/lib/calendar';
 
 const query = z
   .object({

@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { endpoint } from '../../../lib/server/endpoint';
-import { markLabelsPrinted } from '../../../lib/server/label-run';
-import { MAX_LABELS_PER_RUN } from '../../../lib/label-selection';
+import { endpoint } from '@/lib/endpoint.server';
+import { markLabelsPrinted } from '@/lib/labels/label-run.server';
+import { MAX_LABELS_PER_RUN } from '@/lib/labels/label-selection';
 
 const body = z
   .object({

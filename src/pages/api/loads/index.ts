@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { endpoint } from '../../../lib/server/endpoint';
-import { startLoad } from '../../../lib/server/load-service';
+import { endpoint } from '@/lib/endpoint.server';
+import { startLoad } from '@/lib/loads/load-service.server';
 
 const body = z
   .object({

@@ -1,7 +1,7 @@
-import { endpoint, toErrorResponse } from '../../../lib/server/endpoint';
-import { scanRequestSchema } from '../../../lib/scan-schema';
-import { recordScanFromClient } from '../../../lib/server/scan-intake';
-import { dataResponse } from '../../../lib/server/respond';
+import { endpoint, toErrorResponse } from '@/lib/endpoint.server';
+import { scanRequestSchema } from '@/lib/scans/scan-schema';
+import { recordScanFromClient } from '@/lib/scans/scan-intake.server';
+import { dataResponse } from '@/lib/respond.server';
 
 /**
  * Record one scan, or a batch (offline sync). Each event carries a client id:

@@ -1,7 +1,7 @@
-import { endpoint } from '../../../lib/server/endpoint';
-import { AppError } from '../../../lib/api-errors';
-import { parseTripListQuery } from '../../../lib/trip-list-query';
-import { listTrips } from '../../../lib/server/trip-list';
+import { endpoint } from '@/lib/endpoint.server';
+import { AppError } from '@/lib/api-errors';
+import { parseTripListQuery } from '@/lib/trips/trip-list-query';
+import { listTrips } from '@/lib/trips/trip-list.server';
 
 /**
  * One page of trips, sorted and filtered on the server: GET /api/trips?sort=dwell&dir=asc&customer=4&page=2.

@@ -1,6 +1,6 @@
-import { endpoint } from '../../../lib/server/endpoint';
-import { templateCsv } from '../../../lib/register-csv';
-import { formOptions } from '../../../lib/server/bin-forms';
+import { endpoint } from '@/lib/endpoint.server';
+import { templateCsv } from '@/lib/bins/register-csv';
+import { formOptions } from '@/lib/bins/bin-forms.server';
 
 /** A template for the register import, with this operator's own bin type and depot codes. */
 export const GET = endpoint({ capability: 'bins.import' }, async () => {

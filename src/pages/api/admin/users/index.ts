@@ -1,8 +1,8 @@
-import { endpoint } from '../../../../lib/server/endpoint';
-import { inviteSchema } from '../../../../lib/people-schemas';
-import { listPeople } from '../../../../lib/server/people';
-import { invitePerson } from '../../../../lib/server/accounts';
-import { actorFrom } from '../../../../lib/server/audit';
+import { endpoint } from '@/lib/endpoint.server';
+import { inviteSchema } from '@/lib/accounts/people-schemas';
+import { listPeople } from '@/lib/accounts/people.server';
+import { invitePerson } from '@/lib/accounts/accounts.server';
+import { actorFrom } from '@/lib/audit.server';
 
 /** Everyone who signs in. */
 export const GET = endpoint({ capability: 'users.manage' }, async () => ({ people: await listPeople() }));

@@ -1,7 +1,7 @@
-import { endpoint } from '../../../../lib/server/endpoint';
-import { AppError } from '../../../../lib/api-errors';
-import { canonicalGrai, editBody, updateBin } from '../../../../lib/server/bin-edit';
-import { getSettings } from '../../../../lib/server/settings';
+import { endpoint } from '@/lib/endpoint.server';
+import { AppError } from '@/lib/api-errors';
+import { canonicalGrai, editBody, updateBin } from '@/lib/bins/bin-edit.server';
+import { getSettings } from '@/lib/settings/settings.server';
 
 /**
  * Correct a registered bin (the /bins/<grai>/edit form). The path rule for

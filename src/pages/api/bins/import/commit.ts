@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { commitImport, readUpload } from '../../../../lib/server/register-import';
+import { endpoint } from '@/lib/endpoint.server';
+import { commitImport, readUpload } from '@/lib/bins/register-import.server';
 
 const query = z.object({
   sha256: z.string().regex(/^[0-9a-f]{64}$/, 'Give the sha256 of the previewed file.'),

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { previewImport, readUpload } from '../../../../lib/server/register-import';
+import { endpoint } from '@/lib/endpoint.server';
+import { previewImport, readUpload } from '@/lib/bins/register-import.server';
 
 /**
  * Check a register CSV without writing anything. The body is the file itself

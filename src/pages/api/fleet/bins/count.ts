@@ -1,7 +1,7 @@
-import { endpoint } from '../../../../lib/server/endpoint';
-import { gridModelsQuery } from '../../../../lib/server/grid-params';
-import { checkGrid, countBins } from '../../../../lib/server/fleet-grid';
-import { parseFilterModel } from '../../../../lib/grid-query';
+import { endpoint } from '@/lib/endpoint.server';
+import { gridModelsQuery } from '@/lib/fleet/grid-params';
+import { checkGrid, countBins } from '@/lib/fleet/fleet-grid.server';
+import { parseFilterModel } from '@/lib/fleet/grid-query';
 
 /** How many bins pass filterModel: { count }, or { count: null } past a million (the grid scrolls on to find the end). */
 export const GET = endpoint({ capability: 'fleet.view', query: gridModelsQuery }, async ({ query }) => {

@@ -1,9 +1,9 @@
-import { endpoint } from '../../../../lib/server/endpoint';
-import { binsExportQuerySchema } from '../../../../lib/server/grid-params';
-import { checkGrid, exportBinsCsv, exportFileName, queryContext, EXPORTABLE_COLUMNS } from '../../../../lib/server/fleet-grid';
-import { parseFilterModel, parseSortModel, type BinColumnId } from '../../../../lib/grid-query';
-import { DEFAULT_VISIBLE } from '../../../../lib/grid-views';
-import { AppError } from '../../../../lib/api-errors';
+import { endpoint } from '@/lib/endpoint.server';
+import { binsExportQuerySchema } from '@/lib/fleet/grid-params';
+import { checkGrid, exportBinsCsv, exportFileName, queryContext, EXPORTABLE_COLUMNS } from '@/lib/fleet/fleet-grid.server';
+import { parseFilterModel, parseSortModel, type BinColumnId } from '@/lib/fleet/grid-query';
+import { DEFAULT_VISIBLE } from '@/lib/fleet/grid-views';
+import { AppError } from '@/lib/api-errors';
 
 function exportColumns(list: string | undefined): BinColumnId[] {
   if (!list) return [...DEFAULT_VISIBLE];

@@ -1,8 +1,8 @@
-import { endpoint } from '../../../../lib/server/endpoint';
-import { binsPageQuerySchema } from '../../../../lib/server/grid-params';
-import { checkGrid, fetchBinsPage } from '../../../../lib/server/fleet-grid';
-import { dataResponse } from '../../../../lib/server/respond';
-import { parseGridRequest } from '../../../../lib/grid-query';
+import { endpoint } from '@/lib/endpoint.server';
+import { binsPageQuerySchema } from '@/lib/fleet/grid-params';
+import { checkGrid, fetchBinsPage } from '@/lib/fleet/fleet-grid.server';
+import { dataResponse } from '@/lib/respond.server';
+import { parseGridRequest } from '@/lib/fleet/grid-query';
 
 /**
  * One page of the fleet grid (AG Grid's infinite row model): rows startRow..endRow of the bins that pass

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { deleteView, updateView } from '../../../../lib/server/saved-views';
-import { MAX_VIEW_NAME, isBuiltinViewId } from '../../../../lib/grid-views';
-import { AppError } from '../../../../lib/api-errors';
+import { endpoint } from '@/lib/endpoint.server';
+import { deleteView, updateView } from '@/lib/fleet/saved-views.server';
+import { MAX_VIEW_NAME, isBuiltinViewId } from '@/lib/fleet/grid-views';
+import { AppError } from '@/lib/api-errors';
 
 function viewId(raw: string | undefined): number {
   if (raw && isBuiltinViewId(raw)) throw new AppError('forbidden', 'Built-in views cannot be changed or deleted. Save a copy under your own name instead.');

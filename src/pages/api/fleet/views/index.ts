@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { createView, listViews } from '../../../../lib/server/saved-views';
-import { MAX_VIEW_NAME } from '../../../../lib/grid-views';
+import { endpoint } from '@/lib/endpoint.server';
+import { createView, listViews } from '@/lib/fleet/saved-views.server';
+import { MAX_VIEW_NAME } from '@/lib/fleet/grid-views';
 
 /** The fleet grid's views this user may open: built-in, their own, and those other planners shared. */
 export const GET = endpoint({ capability: 'fleet.view' }, async ({ user }) => listViews(user));

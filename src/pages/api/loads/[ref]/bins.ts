@@ -1,9 +1,9 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { addBinToLoad } from '../../../../lib/server/load-service';
-import { findBin } from '../../../../lib/server/bin-lookup';
-import { Load } from '../../../../models';
-import { AppError } from '../../../../lib/api-errors';
+import { endpoint } from '@/lib/endpoint.server';
+import { addBinToLoad } from '@/lib/loads/load-service.server';
+import { findBin } from '@/lib/bins/bin-lookup.server';
+import { Load } from '@/models';
+import { AppError } from '@/lib/api-errors';
 
 const body = z
   .object({

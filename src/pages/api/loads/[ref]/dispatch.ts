@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { dispatchLoad } from '../../../../lib/server/load-service';
-import { Load } from '../../../../models';
-import { AppError } from '../../../../lib/api-errors';
+import { endpoint } from '@/lib/endpoint.server';
+import { dispatchLoad } from '@/lib/loads/load-service.server';
+import { Load } from '@/models';
+import { AppError } from '@/lib/api-errors';
 
 const body = z
   .object({

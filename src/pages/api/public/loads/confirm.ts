@@ -1,11 +1,11 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { confirmDelivery, loadFromToken } from '../../../../lib/server/load-service';
-import { formFile, readForm, storeAttachment } from '../../../../lib/server/attachments';
-import { publicFormLimit, hit } from '../../../../lib/server/rate-limits';
-import { dataResponse, errorResponse } from '../../../../lib/server/respond';
-import { toErrorResponse } from '../../../../lib/server/endpoint';
-import { HireOrder } from '../../../../models';
+import { confirmDelivery, loadFromToken } from '@/lib/loads/load-service.server';
+import { formFile, readForm, storeAttachment } from '@/lib/attachments.server';
+import { publicFormLimit, hit } from '@/lib/rate-limits.server';
+import { dataResponse, errorResponse } from '@/lib/respond.server';
+import { toErrorResponse } from '@/lib/endpoint.server';
+import { HireOrder } from '@/models';
 
 const fields = z.object({
   token: z.string().min(10).max(120),

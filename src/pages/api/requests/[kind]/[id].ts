@@ -1,9 +1,9 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { AppError } from '../../../../lib/api-errors';
-import { actorFrom } from '../../../../lib/server/audit';
-import { changeRequestStatus } from '../../../../lib/server/requests';
-import { isStatusOf, type RequestKind } from '../../../../lib/request-status';
+import { endpoint } from '@/lib/endpoint.server';
+import { AppError } from '@/lib/api-errors';
+import { actorFrom } from '@/lib/audit.server';
+import { changeRequestStatus } from '@/lib/requests/requests.server';
+import { isStatusOf, type RequestKind } from '@/lib/requests/request-status';
 
 const body = z.object({
   status: z.string().min(1).max(20),

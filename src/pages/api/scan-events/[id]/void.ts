@@ -1,7 +1,7 @@
 import { z } from 'zod';
-import { endpoint } from '../../../../lib/server/endpoint';
-import { voidScan } from '../../../../lib/server/scan-corrections';
-import { AppError } from '../../../../lib/api-errors';
+import { endpoint } from '@/lib/endpoint.server';
+import { voidScan } from '@/lib/scans/scan-corrections.server';
+import { AppError } from '@/lib/api-errors';
 
 const body = z.object({ reason: z.string().trim().min(5, 'Say why this scan is wrong (at least 5 characters).').max(300) }).strict();
 

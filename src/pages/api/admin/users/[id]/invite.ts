@@ -1,7 +1,7 @@
-import { endpoint } from '../../../../../lib/server/endpoint';
-import { idParamSchema } from '../../../../../lib/people-schemas';
-import { resendInvitation } from '../../../../../lib/server/accounts';
-import { actorFrom } from '../../../../../lib/server/audit';
+import { endpoint } from '@/lib/endpoint.server';
+import { idParamSchema } from '@/lib/accounts/people-schemas';
+import { resendInvitation } from '@/lib/accounts/accounts.server';
+import { actorFrom } from '@/lib/audit.server';
 
 /** Mail a fresh invitation link to someone who has not set a password; older links stop working. */
 export const POST = endpoint({ capability: 'users.manage' }, async ({ ctx }) =>

@@ -1,6 +1,6 @@
-import { endpoint } from '../../../../../lib/server/endpoint';
-import { markReviewed } from '../../../../../lib/server/scan-review';
-import { AppError } from '../../../../../lib/api-errors';
+import { endpoint } from '@/lib/endpoint.server';
+import { markReviewed } from '@/lib/scans/scan-review.server';
+import { AppError } from '@/lib/api-errors';
 
 /** A planner confirms a flagged scan as right (the alternative is voiding it on the bin page). */
 export const POST = endpoint({ capability: 'scan.correct' }, async ({ ctx, user }) => {

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { binFromDigitalLink, receivePublicReport } from '../../../../../lib/server/public-reports';
-import { dataResponse, errorResponse } from '../../../../../lib/server/respond';
-import { toErrorResponse } from '../../../../../lib/server/endpoint';
-import type { ReportForm } from '../../../../../lib/report-forms';
+import { binFromDigitalLink, receivePublicReport } from '@/lib/requests/public-reports.server';
+import { dataResponse, errorResponse } from '@/lib/respond.server';
+import { toErrorResponse } from '@/lib/endpoint.server';
+import type { ReportForm } from '@/lib/requests/report-forms';
 
 const FORMS: Record<string, ReportForm> = { 'collection-request': 'collection', 'damage-report': 'damage' };
 

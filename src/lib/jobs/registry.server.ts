@@ -1,0 +1,33 @@
+// Scheduled work, run on a PostgreSQL-backed queue (pg-boss) so it fires once
+// however many app servers or workers run. Each job is a plain async function
+// of a clock, so tests (and the admin "run now") call it directly at a fixed time.
+import { runMissingBinRule } from './missing-bins.server';
+import { runPlannerDigest } from './planner-digest.server';
+
+export interface JobContext {
+  now: Date;
+}
+
+export interface JobDefinition {
+  name: string;
+  /** Cron in the operator's time zone. */
+  cron: string;
+  description: string;
+  run: (ctx: JobContext) => Promise<Record<string, unknown>>;
+}
+
+export const JOBS: readonly JobDefinition[] = [
+  { name: 'missing-bin-rule', cron: '15 2 * * *', description: 'Marks missing the bins out of the depots that nobody scanned for 120 days.', run: runMissingBinRule },
+  { name: 'planner-digest', cron: '0 7 * * 1-5', description: 'Mails planners what needs a decision today.', run: runPlannerDigest },
+];
+
+export function jobByName(name: string): JobDefinition | undefined {
+  return JOBS.find((j) => j.name === name);
+}
+
+/** Runs a job now, at the given clock (tests, and the admin's "run now"). */
+export async function runJobNow(name: string, ctx: JobContext = { now: new Date() }) {
+  const job = jobByName(name);
+  if (!job) throw new Error(`No job named ${name}`);
+  return job.run(ctx);
+}

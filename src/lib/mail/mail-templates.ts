@@ -1,0 +1,258 @@
+// The words of every message Loopfold sends, as small pure functions: data in,
+// { subject, text, html } out. Plain text is the message; the HTML part is the
+// same text with clickable links, for mail programs that prefer HTML.
+import { formatMomentAbsolute } from '@/lib/moment-text';
+import { textToHtml } from './text-links';
+
+export interface MailContent {
+  subject: string;
+  text: string;
+  html: string;
+}
+
+/** What the mailer records as the message's kind (mail_outbox.kind). */
+export type MailKind = 'invite' | 'password_reset' | 'planner_digest' | 'collection_request' | 'damage_report' | 'seal_mismatch';
+
+function compose(subject: string, lines: string[]): MailContent {
+  const text = lines.join('\n').replace(/\n{3,}/g, '\n\n').trim() + '\n';
+  return { subject, text, html: textToHtml(text) };
+}
+
+function signature(operatorName: string): string[] {
+  return ['', `— ${operatorName}, sent by Loopfold`];
+}
+
+export interface InviteMailInput {
+  recipientName: string;
+  recipientEmail: string;
+  roleLabel: string;
+  organisationName: string;
+  operatorName: string;
+  inviterName: string;
+  link: string;
+  expiresAt: Date;
+  timeZone: string;
+}
+
+export function inviteMail(i: InviteMailInput): MailContent {
+  const where = i.organisationName === i.operatorName ? i.operatorName : `${i.organisationName} (with ${i.operatorName})`;
+  return compose(`Your Loopfold account at ${i.operatorName}`, [
+    `Hello ${i.recipientName},`,
+    '',
+    `${i.inviterName} has opened a Loopfold account for you: ${i.roleLabel}, ${where}.`,
+    '',
+    `Choose your password with this link. It works once, until ${formatMomentAbsolute(i.expiresAt, i.timeZone)} (${i.timeZone} time):`,
+    i.link,
+    '',
+    `After that, sign in with your e-mail address (${i.recipientEmail}) and the password you chose.`,
+    '',
+    'If you were not expecting this, you can ignore this message: nothing happens unless the link is used.',
+    ...signature(i.operatorName),
+  ]);
+}
+
+export interface ResetMailInput {
+  recipientName: string;
+  recipientEmail: string;
+  operatorName: string;
+  link: string;
+  validForMinutes: number;
+}
+
+export function passwordResetMail(i: ResetMailInput): MailContent {
+  const validity = i.validForMinutes % 60 === 0 ? `${i.validForMinutes / 60} hour${i.validForMinutes === 60 ? '' : 's'}` : `${i.validForMinutes} minutes`;
+  return compose('Reset your Loopfold password', [
+    `Hello ${i.recipientName},`,
+    '',
+    `Someone asked to reset the password of the Loopfold account ${i.recipientEmail} at ${i.operatorName}.`,
+    '',
+    `Choose a new password with this link. It works once, within ${validity}:`,
+    i.link,
+    '',
+    'If you did not ask for this, ignore this message: your password stays as it is.',
+    ...signature(i.operatorName),
+  ]);
+}
+
+// Mail to planners about requests from outside (the public bin page, later the
+// portal). Unlike the public page, these may name the site and the customer:
+// they go to the operator's own staff only.
+
+export type RequestSource = 'public' | 'portal' | 'planner' | 'yard';
+
+const SOURCE_WORDS: Record<RequestSource, string> = {
+  public: 'the public bin page (someone who scanned a label)',
+  portal: 'the customer portal',
+  planner: 'a planner',
+  yard: 'a yard',
+};
+
+export interface RequestMailBin {
+  serial: string;
+  /** The GRAI grouped for reading (groupGrai). */
+  grai: string;
+}
+
+interface RequestMailCommon {
+  operatorName: string;
+  source: RequestSource;
+  bin: RequestMailBin | null;
+  siteName: string | null;
+  customerName: string | null;
+  receivedAt: Date;
+  timeZone: string;
+  /** The planners' requests page (APP_URL + /requests). */
+  link: string;
+}
+
+export interface CollectionRequestMailInput extends RequestMailCommon {
+  quantity: number;
+  locationNote: string | null;
+  contactName: string | null;
+  contactPhone: string | null;
+  contactEmail: string | null;
+  note: string | null;
+}
+
+export interface DamageReportMailInput extends RequestMailCommon {
+  description: string;
+  hasPhoto: boolean;
+  contactName: string | null;
+  contactEmail: string | null;
+}
+
+const bins = (n: number) => `${n} folded bin${n === 1 ? '' : 's'}`;
+
+function whereLine(i: RequestMailCommon): string {
+  if (!i.siteName) return 'Where: not known from the bin (it is not recorded at a site); see the spot below.';
+  return `Where: ${i.siteName}${i.customerName ? ` (${i.customerName})` : ''}`;
+}
+
+function binLine(bin: RequestMailBin | null): string {
+  return bin ? `Bin scanned: serial ${bin.serial}, GRAI ${bin.grai}` : 'Bin scanned: none (sent without a bin label)';
+}
+
+function contactLine(name: string | null, phone: string | null, email: string | null): string {
+  const parts = [name, phone, email].filter((p): p is string => !!p);
+  return `Contact: ${parts.length ? parts.join(' · ') : 'none given'}`;
+}
+
+function receivedLine(i: RequestMailCommon): string {
+  return `Received ${formatMomentAbsolute(i.receivedAt, i.timeZone)} (${i.timeZone} time) through ${SOURCE_WORDS[i.source]}.`;
+}
+
+export function collectionRequestMail(i: CollectionRequestMailInput): MailContent {
+  const at = i.siteName ?? (i.bin ? `bin ${i.bin.serial}` : 'an unknown site');
+  return compose(`Collection request: ${bins(i.quantity)} at ${at}`, [
+    `${bins(i.quantity)} ${i.quantity === 1 ? 'is' : 'are'} empty and ready for collection.`,
+    '',
+    whereLine(i),
+    ...(i.locationNote ? [`Exact spot: ${i.locationNote}`] : []),
+    binLine(i.bin),
+    contactLine(i.contactName, i.contactPhone, i.contactEmail),
+    ...(i.note ? ['', 'Note from the sender:', i.note] : []),
+    '',
+    receivedLine(i),
+    '',
+    'Schedule the collection on the requests page:',
+    i.link,
+    ...signature(i.operatorName),
+  ]);
+}
+
+export function damageReportMail(i: DamageReportMailInput): MailContent {
+  const what = i.bin ? `bin ${i.bin.serial}` : 'a bin';
+  return compose(`Damage reported on ${what}${i.siteName ? ` at ${i.siteName}` : ''}`, [
+    `Someone reported damage on ${what}:`,
+    '',
+    i.description,
+    '',
+    whereLine(i),
+    binLine(i.bin),
+    contactLine(i.contactName, null, i.contactEmail),
+    i.hasPhoto ? 'A photo came with the report; see it on the requests page.' : 'No photo came with the report.',
+    '',
+    receivedLine(i),
+    '',
+    'Triage it on the requests page; the bin stays in service until someone quarantines it:',
+    i.link,
+    ...signature(i.operatorName),
+  ]);
+}
+
+/** How each kind is named on the "Sent mail" page. */
+export const MAIL_KIND_LABELS: Record<MailKind, string> = {
+  invite: 'Invitation',
+  password_reset: 'Password reset',
+  planner_digest: 'Morning digest',
+  collection_request: 'Collection request',
+  damage_report: 'Damage report',
+  seal_mismatch: 'Seal mismatch alert',
+};
+
+export interface DigestInput {
+  recipientName: string;
+  operatorName: string;
+  day: string; // '1 Dec 2026'
+  appUrl: string;
+  overdueByCustomer: Array<{ customer: string; bins: number; oldestDays: number }>;
+  flaggedScans: number;
+  sealMismatches: number;
+  openCollectionRequests: number;
+  testsDueSoon: number;
+  testsLapsed: number;
+  markedMissing: number;
+}
+
+/** The planners' morning digest: what needs a decision today, with links. */
+export function plannerDigestMail(d: DigestInput): MailContent {
+  const overdueTotal = d.overdueByCustomer.reduce((s, c) => s + c.bins, 0);
+  const lines = [
+    `Hello ${d.recipientName},`,
+    '',
+    `The pool on ${d.day}:`,
+    '',
+    `• ${overdueTotal} bin${overdueTotal === 1 ? '' : 's'} overdue back from customers (past their free days)`,
+    ...d.overdueByCustomer.map((c) => `    ${c.customer}: ${c.bins} (oldest ${c.oldestDays} days on hire)`),
+    `• ${d.openCollectionRequests} open collection request${d.openCollectionRequests === 1 ? '' : 's'}`,
+    `• ${d.flaggedScans} scan${d.flaggedScans === 1 ? '' : 's'} flagged in the last 24 hours (missed steps inferred)${d.sealMismatches ? `, ${d.sealMismatches} with seal numbers that did not match` : ''}`,
+    `• ${d.testsDueSoon} bin${d.testsDueSoon === 1 ? '' : 's'} due for a periodic test within 30 days; ${d.testsLapsed} already lapsed`,
+    ...(d.markedMissing ? [`• ${d.markedMissing} bin${d.markedMissing === 1 ? '' : 's'} marked missing overnight by the missing-bin rule`] : []),
+    '',
+    `Open the pool overview: ${d.appUrl.replace(/\/$/, '')}/fleet`,
+    ...signature(d.operatorName),
+  ];
+  return compose(`Pool digest ${d.day}: ${overdueTotal} overdue, ${d.testsLapsed} tests lapsed`, lines);
+}
+
+export interface SealMismatchInput {
+  operatorName: string;
+  serial: string;
+  grai: string;
+  siteName: string | null;
+  customerName: string | null;
+  applied: string[];
+  found: string[];
+  at: Date;
+  timeZone: string;
+  link: string;
+}
+
+/** Sent to planners at once when the seals found at discharge differ from those fitted at filling. */
+export function sealMismatchMail(m: SealMismatchInput): MailContent {
+  const missing = m.applied.filter((s) => !m.found.includes(s));
+  const extra = m.found.filter((s) => !m.applied.includes(s));
+  return compose(`Seal mismatch on bin ${m.serial}${m.customerName ? ` at ${m.customerName}` : ''}`, [
+    `At ${formatMomentAbsolute(m.at, m.timeZone)} the seals checked on bin ${m.serial} (${m.grai})${m.siteName ? ` at ${m.siteName}` : ''} did not match those fitted when it was filled.`,
+    '',
+    `Fitted at filling: ${m.applied.length ? m.applied.join(', ') : 'none recorded'}`,
+    `Found at discharge: ${m.found.length ? m.found.join(', ') : 'none'}`,
+    ...(missing.length ? [`Not found: ${missing.join(', ')}`] : []),
+    ...(extra.length ? [`Unexpected: ${extra.join(', ')}`] : []),
+    '',
+    'The load may have been opened on the way. Check with the customer before the product is used, and follow your procedure for suspected tampering.',
+    '',
+    `The bin's page: ${m.link}`,
+    ...signature(m.operatorName),
+  ]);
+}

@@ -1,0 +1,380 @@
+// Recording a scan: the one path by which a bin's state changes.
+//
+// Inside one transaction: claim the client event id (idempotency), read the
+// bin, let the pure rule table decide (src/lib/scans/lifecycle.ts), write any
+// inferred steps and the event itself to the append-only log, update the trip
+// and the bin's current-state columns (optimistic locking on `version`), and
+// store the answer under the client event id so a replay returns it again.
+// A refusal rolls everything back: it leaves no trace.
+import { Op, OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
+import { sequelize, Asset } from '@/models';
+import { AppError } from '@/lib/api-errors';
+import { decide, checkLinerLot, INFERRED_STATUS, type Action, type BinState, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
+import { localDate } from '@/lib/calendar';
+import { getSettings } from '@/lib/settings/settings.server';
+import type { SessionUser } from '@/lib/accounts/session-user.server';
+
+export interface FillRecord {
+  product: string;
+  volumeL?: number | null;
+  massKg?: number | null;
+  temperatureC?: number | null;
+  seals: string[];
+}
+
+export interface ScanInput {
+  clientEventId: string;
+  assetId: number;
+  action: Action;
+  /** When it happened on the device (offline scans arrive later); defaults to now. */
+  occurredAt?: Date;
+  /** Where it happened; yard scans default to the user's home depot. */
+  siteId?: number | null;
+  /** The version of the bin the user was looking at; a mismatch is "changed meanwhile". */
+  expectedVersion?: number;
+  prepResult?: 'pass' | 'fail';
+  checklist?: Record<string, boolean>;
+  faults?: string;
+  photoIds?: number[];
+  linerLotId?: number;
+  purpose?: 'hire' | 'transfer';
+  hireOrderId?: number;
+  /** The load (truck) a dispatched bin goes out on. */
+  loadId?: number;
+  fill?: FillRecord;
+  sealsVerified?: string[];
+  note?: string;
+}
+
+export interface ScanOutcome {
+  clientEventId: string;
+  replayed: boolean;
+  eventId: number;
+  assetId: number;
+  grai: string;
+  action: Action;
+  statusFrom: string | null;
+  statusTo: string;
+  inferred: Action[];
+  flags: string[];
+  tripId: number | null;
+  version: number;
+}
+
+/** Who is scanning (a SessionUser, or the demo generator acting as one). */
+export type Actor = Omit<Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId'>, 'id'> & {
+  /** null when nobody signed in: the receiving end confirming a delivery through its link. */
+  id: number | null;
+};
+
+interface Options {
+  now?: Date;
+  transaction?: Transaction;
+}
+
+const MAX_FUTURE_MS = 5 * 60_000;
+
+export async function recordScan(actor: Actor, input: ScanInput, opts: Options = {}): Promise<ScanOutcome> {
+  const now = opts.now ?? new Date();
+  const occurredAt = input.occurredAt ?? now;
+  if (occurredAt.getTime() > now.getTime() + MAX_FUTURE_MS) {
+    throw new AppError('validation_failed', 'The scan time is in the future; check the phone clock.');
+  }
+  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, t);
+  try {
+    return await (opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run));
+  } catch (err) {
+    if (err instanceof OptimisticLockError) throw changedMeanwhile();
+    throw err;
+  }
+}
+
+function changedMeanwhile() {
+  return new AppError('changed_meanwhile', 'Someone recorded something on this bin meanwhile. Look at its page again, then repeat the action if it still applies.');
+}
+
+// The hot path (yard scans, offline batches, the demo generator) is plain SQL:
+// a handful of statements per scan, no model instances to build.
+interface AssetRow {
+  id: number; grai: string; bin_type_id: number; status: Status; site_id: number | null; site_kind: SiteKind | null;
+  customer_id: number | null; current_trip_id: number | null; leg: Leg | null; prep_checked: boolean;
+  liner_lot_id: number | null; filled: boolean; trip_count: number; next_due: string | null; last_scan_at: Date | null; version: number;
+}
+interface SiteRow { id: number; kind: SiteKind; organisation_id: number; active: boolean }
+interface TripRow { id: number; customer_id: number; seals_applied: string[]; delivered_at: Date | null }
+
+async function one<T extends object>(sql: string, bind: unknown[], t: Transaction): Promise<T | undefined> {
+  const rows = await sequelize.query<T>(sql, { bind, transaction: t, type: QueryTypes.SELECT });
+  return rows[0];
+}
+
+async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, t: Transaction): Promise<ScanOutcome> {
+  // 1. Claim the client event id first: a concurrent replay waits here and then sees the claim.
+  const claimed = await one(
+    `INSERT INTO scan_event_keys (client_event_id, user_id, outcome) VALUES ($1, $2, '{}'::jsonb)
+     ON CONFLICT (client_event_id) DO NOTHING RETURNING client_event_id`,
+    [input.clientEventId, actor.id],
+    t,
+  );
+  if (!claimed) return replay(actor, input.clientEventId, t);
+
+  // 2. The bin and where the scan happens.
+  const asset = await one<AssetRow>(
+    `SELECT a.id, a.grai, a.bin_type_id, a.status, a.site_id, s.kind AS site_kind, a.customer_id, a.current_trip_id, a.leg,
+            a.prep_checked, a.liner_lot_id, a.filled, a.trip_count, a.next_due, a.last_scan_at, a.version
+       FROM assets a LEFT JOIN sites s ON s.id = a.site_id WHERE a.id = $1`,
+    [input.assetId],
+    t,
+  );
+  if (!asset) throw new AppError('not_found', 'No bin with that identity is registered.');
+  if (actor.role === 'customer' && asset.customer_id !== actor.organisationId) {
+    throw new AppError('not_found', 'No bin with that identity is on hire to your organisation.');
+  }
+  if (input.expectedVersion !== undefined && input.expectedVersion !== asset.version) throw changedMeanwhile();
+  const site = await scanSite(actor, input, t);
+  const settings = await getSettings();
+  const today = localDate(occurredAt, settings.timeZone);
+
+  // 3. The rule table decides.
+  const state: BinState = {
+    status: asset.status,
+    siteId: asset.site_id === null ? null : String(asset.site_id),
+    siteKind: asset.site_kind,
+    leg: asset.leg,
+    prepChecked: asset.prep_checked,
+    linerLotId: asset.liner_lot_id === null ? null : String(asset.liner_lot_id),
+    filled: asset.filled,
+    tripOpen: asset.current_trip_id !== null,
+    nextDue: asset.next_due,
+  };
+  const decision = decide(state, input.action, {
+    role: actor.role,
+    today,
+    siteId: site ? String(site.id) : null,
+    siteKind: site ? site.kind : null,
+    prepResult: input.prepResult,
+    linerLotId: input.linerLotId === undefined ? undefined : String(input.linerLotId),
+    purpose: input.purpose,
+  });
+  if (!decision.ok) throw refusal(decision);
+  const { order, lotNumber } = await checkActionInputs(asset, input, today, t);
+
+  // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
+  const flags = [...decision.flags];
+  const tripId = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
+  const eventTripId = tripId ?? asset.current_trip_id;
+  const rows: unknown[][] = decision.inferred.map((step, i) => [
+    step, new Date(occurredAt.getTime() - decision.inferred.length + i), null, null, INFERRED_STATUS[step], true, true,
+    JSON.stringify({ inferredBy: input.clientEventId }),
+  ]);
+  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}) };
+  rows.push([input.action, occurredAt, input.clientEventId, asset.status, decision.to, false, flags.length > 0, JSON.stringify({ ...eventPayload(input, decision, flags), ...named })]);
+  const bind: unknown[] = [asset.id, site?.id ?? null, actor.id, eventTripId];
+  const values = rows.map((r) => {
+    const base = bind.length;
+    bind.push(...r);
+    return `($1, $${base + 1}, $${base + 2}, $2, $3, $${base + 3}, $${base + 4}, $${base + 5}, $4, $${base + 6}, $${base + 7}, $${base + 8}::jsonb)`;
+  });
+  const inserted = await sequelize.query<{ id: number }>(
+    `INSERT INTO scan_events (asset_id, action, occurred_at, site_id, user_id, client_event_id, status_from, status_to, trip_id, inferred, flagged, payload)
+     VALUES ${values.join(', ')} RETURNING id`,
+    { bind, transaction: t, type: QueryTypes.SELECT },
+  );
+  const eventId = inserted[inserted.length - 1]!.id;
+
+  // 5. The bin's current state follows the log, guarded by its version.
+  const version = await applyPatch(asset, decision, tripId, occurredAt, t);
+
+  const outcome: ScanOutcome = {
+    clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai,
+    action: input.action, statusFrom: decision.from, statusTo: decision.to, inferred: decision.inferred, flags,
+    tripId: eventTripId, version,
+  };
+  await sequelize.query('UPDATE scan_event_keys SET outcome = $2, scan_event_id = $3 WHERE client_event_id = $1', {
+    bind: [input.clientEventId, JSON.stringify(outcome), eventId],
+    transaction: t,
+  });
+  return outcome;
+}
+
+async function replay(actor: Actor, clientEventId: string, t: Transaction): Promise<ScanOutcome> {
+  const row = await one<{ user_id: number | null; outcome: ScanOutcome }>('SELECT user_id, outcome FROM scan_event_keys WHERE client_event_id = $1', [clientEventId], t);
+  if (!row || row.user_id !== actor.id) {
+    throw new AppError('duplicate', 'This event id was already used by another scan.');
+  }
+  return { ...row.outcome, replayed: true };
+}
+
+function refusal(decision: Extract<Decision, { ok: false }>): AppError {
+  return new AppError('transition_refused', decision.reason, { reason: decision.code, action: decision.action });
+}
+
+async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise<SiteRow | null> {
+  const siteId = input.siteId === undefined ? (actor.role === 'yard' ? actor.homeSiteId : null) : input.siteId;
+  if (siteId === null || siteId === undefined) return null;
+  const site = await one<SiteRow>('SELECT id, kind, organisation_id, active FROM sites WHERE id = $1', [siteId], t);
+  if (!site || !site.active) throw new AppError('unprocessable', 'That site does not exist or is closed.');
+  if (actor.role === 'customer' && site.organisation_id !== actor.organisationId) {
+    throw new AppError('forbidden', 'You can record scans only at your own sites.');
+  }
+  return site;
+}
+
+interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number }
+
+/** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
+async function checkActionInputs(asset: AssetRow, input: ScanInput, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+  let lotNumber: string | null = null;
+  if (input.action === 'fit_liner') {
+    const lot = await one<{ status: 'released' | 'on_hold' | 'recalled'; expiry_date: string; lot_number: string }>(
+      'SELECT status, expiry_date, lot_number FROM liner_lots WHERE id = $1', [input.linerLotId], t);
+    if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
+    const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiry_date, lotNumber: lot.lot_number }, today);
+    if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
+    lotNumber = lot.lot_number;
+  }
+  if (input.photoIds?.length) {
+    const found = await one<{ n: number }>(`SELECT count(*)::int AS n FROM attachments WHERE id = ANY($1::int[]) AND purpose = 'photo'`, [input.photoIds], t);
+    if (found?.n !== new Set(input.photoIds).size) throw new AppError('unprocessable', 'A photo named with this scan was not uploaded.');
+  }
+  if (input.action === 'fill_seal' && !input.fill) {
+    throw new AppError('validation_failed', 'Record the product, the quantity and the seal numbers.');
+  }
+  if (!input.hireOrderId) {
+    if (input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire') {
+      throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: 'dispatch' });
+    }
+    return { order: null, lotNumber };
+  }
+  const order = await one<OrderRow>(
+    'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id FROM hire_orders WHERE id = $1', [input.hireOrderId], t);
+  if (!order || !['open', 'loading'].includes(order.status)) {
+    throw new AppError('transition_refused', 'That hire order is not open for loading.', { reason: 'order_not_open', action: input.action });
+  }
+  if (order.bin_type_id !== asset.bin_type_id) {
+    const type = await one<{ name: string }>('SELECT name FROM bin_types WHERE id = $1', [order.bin_type_id], t);
+    throw new AppError('transition_refused', `Hire order ${order.reference} asks for ${type?.name ?? 'another bin type'}; this bin is a different type.`, { reason: 'wrong_bin_type', action: input.action });
+  }
+  return { order, lotNumber };
+}
+
+/** Opens, updates or closes the bin's trip; returns the id of the trip the event belongs to. */
+async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, input: ScanInput, site: SiteRow | null, order: OrderRow | null, at: Date, t: Transaction, flags: string[]): Promise<number | null> {
+  if (d.trip === 'none') return null;
+  if (d.trip === 'open') {
+    const customerId = order?.customer_id ?? (site?.kind === 'customer' ? site.organisation_id : null);
+    if (!customerId) throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: input.action });
+    const created = await one<{ id: number }>(
+      `INSERT INTO trips (asset_id, hire_order_id, customer_id, depot_site_id, customer_site_id, liner_lot_id, dispatched_at, delivered_at, load_id)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id`,
+      [
+        asset.id, order?.id ?? null, customerId, asset.site_id ?? order?.depot_site_id ?? site!.id,
+        site?.kind === 'customer' ? site.id : (order?.delivery_site_id ?? null), asset.liner_lot_id, at, input.action === 'deliver' ? at : null,
+        input.loadId ?? null,
+      ],
+      t,
+    );
+    return created!.id;
+  }
+  if (!asset.current_trip_id) return null;
+  const set: string[] = [];
+  const bind: unknown[] = [asset.current_trip_id];
+  const put = (col: string, value: unknown) => {
+    bind.push(value);
+    set.push(`${col} = $${bind.length}`);
+  };
+  switch (input.action) {
+    case 'deliver':
+      put('delivered_at', at);
+      if (site) put('customer_site_id', site.id);
+      break;
+    case 'fill_seal': {
+      const f = input.fill!;
+      if (d.inferred.includes('deliver') && site) put('customer_site_id', site.id);
+      put('filled_at', at);
+      put('fill_product', f.product);
+      put('fill_volume_l', f.volumeL ?? null);
+      put('fill_mass_kg', f.massKg ?? null);
+      put('fill_temperature_c', f.temperatureC ?? null);
+      put('seals_applied', f.seals);
+      break;
+    }
+    case 'discharge': {
+      const trip = await one<TripRow>('SELECT id, customer_id, seals_applied, delivered_at FROM trips WHERE id = $1', [asset.current_trip_id], t);
+      const verified = input.sealsVerified ?? [];
+      put('discharged_at', at);
+      if (site) put('discharge_site_id', site.id);
+      put('seals_verified', verified);
+      const applied = new Set(trip?.seals_applied ?? []);
+      if (verified.length > 0 && (verified.length !== applied.size || verified.some((s) => !applied.has(s)))) {
+        put('seal_mismatch', true);
+        flags.push('seal_mismatch');
+      }
+      break;
+    }
+    case 'collect':
+      put('collected_at', at);
+      break;
+    default:
+      break;
+  }
+  if (d.trip === 'close') {
+    put('returned_at', at);
+    put('closing_site_id', site?.id ?? null);
+    set.push(`status = 'closed'`);
+  }
+  if (set.length) {
+    await sequelize.query(`UPDATE trips SET ${set.join(', ')}, version = version + 1, updated_at = now() WHERE id = $1`, { bind, transaction: t });
+  }
+  return asset.current_trip_id;
+}
+
+/** Writes the decision's patch onto the bin; refuses when someone else changed it first. */
+async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, tripId: number | null, at: Date, t: Transaction): Promise<number> {
+  const p = d.patch;
+  const siteId = 'siteId' in p ? (p.siteId == null ? null : Number(p.siteId)) : asset.site_id;
+  const linerLotId = 'linerLotId' in p ? (p.linerLotId == null ? null : Number(p.linerLotId)) : asset.liner_lot_id;
+  let currentTripId = asset.current_trip_id;
+  let customerId = asset.customer_id;
+  let tripCount = asset.trip_count;
+  if (d.trip === 'open' && tripId) {
+    currentTripId = tripId;
+    customerId = (await one<{ customer_id: number }>('SELECT customer_id FROM trips WHERE id = $1', [tripId], t))!.customer_id;
+  }
+  if (d.trip === 'close') {
+    currentTripId = null;
+    customerId = null;
+    tripCount += 1;
+  }
+  const lastScanAt = asset.last_scan_at && asset.last_scan_at > at ? asset.last_scan_at : at;
+  const updated = await one<{ version: number }>(
+    `UPDATE assets SET status = $3, site_id = $4, site_since = CASE WHEN site_id IS DISTINCT FROM $4 OR site_since IS NULL THEN $5 ELSE site_since END,
+            leg = $6, prep_checked = $7, liner_lot_id = $8, filled = $9, current_trip_id = $10, customer_id = $11, trip_count = $12,
+            last_scan_at = $13, version = version + 1, updated_at = now()
+      WHERE id = $1 AND version = $2 RETURNING version`,
+    [
+      asset.id, asset.version, p.status ?? asset.status, siteId, at, 'leg' in p ? (p.leg ?? null) : asset.leg,
+      'prepChecked' in p ? p.prepChecked : asset.prep_checked, linerLotId, 'filled' in p ? p.filled : asset.filled,
+      currentTripId, customerId, tripCount, lastScanAt,
+    ],
+    t,
+  );
+  if (!updated) throw changedMeanwhile();
+  return updated.version;
+}
+
+function eventPayload(input: ScanInput, d: Extract<Decision, { ok: true }>, flags: string[]): Record<string, unknown> {
+  const payload: Record<string, unknown> = { patch: d.patch, trip: d.trip };
+  if (d.inferred.length) payload.inferred = d.inferred;
+  if (flags.length) payload.flags = flags;
+  for (const key of ['prepResult', 'checklist', 'faults', 'photoIds', 'linerLotId', 'purpose', 'hireOrderId', 'loadId', 'fill', 'sealsVerified', 'note'] as const) {
+    if (input[key] !== undefined) payload[key] = input[key];
+  }
+  return payload;
+}
+
+/** Finds bins by canonical GRAI values (used by the API and the demo generator). */
+export async function assetIdsByGrai(grais: string[], t?: Transaction): Promise<Map<string, number>> {
+  const rows = await Asset.findAll({ where: { grai: { [Op.in]: grais } }, attributes: ['id', 'grai'], transaction: t });
+  return new Map(rows.map((r) => [r.grai, r.id]));
+}

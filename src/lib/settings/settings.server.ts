@@ -1,0 +1,91 @@
+import { Setting } from '@/models';
+import { AppError } from '@/lib/api-errors';
+import type { SettingsInput, SettingsView } from './settings-schema';
+import { recordAudit, type AuditActor } from '@/lib/audit.server';
+import { sequelize } from '@/db/sequelize';
+
+export interface OperatorSettings {
+  operatorName: string;
+  gs1CompanyPrefix: string;
+  gs1PrefixLength: number;
+  digitalLinkBase: string;
+  timeZone: string;
+  currency: string;
+  taxRate: number;
+  mailSender: string;
+  returnInstructions: string;
+  version: number;
+}
+
+// Settings change rarely and are read on most requests: cache for a few
+// seconds per process (several app servers each see a change within 5 s).
+let cached: { at: number; value: OperatorSettings } | null = null;
+const TTL_MS = 5_000;
+
+export async function getSettings(): Promise<OperatorSettings> {
+  if (cached && Date.now() - cached.at < TTL_MS) return cached.value;
+  const row = await Setting.findByPk(1);
+  if (!row) throw new AppError('unavailable', 'Loopfold has no operator settings yet; run the seed or set them up as admin.');
+  const value: OperatorSettings = {
+    operatorName: row.operatorName,
+    gs1CompanyPrefix: row.gs1CompanyPrefix,
+    gs1PrefixLength: row.gs1PrefixLength,
+    digitalLinkBase: row.digitalLinkBase,
+    timeZone: row.timeZone,
+    currency: row.currency,
+    taxRate: Number(row.taxRate),
+    mailSender: row.mailSender,
+    returnInstructions: row.returnInstructions,
+    version: row.version,
+  };
+  cached = { at: Date.now(), value };
+  return value;
+}
+
+/** Call after changing settings so this process sees the change at once. */
+export function forgetSettings() {
+  cached = null;
+}
+
+// Editing (admin settings page)
+
+const FIELDS = [
+  'operatorName', 'gs1CompanyPrefix', 'gs1PrefixLength', 'digitalLinkBase', 'timeZone', 'currency', 'taxRate', 'mailSender', 'returnInstructions',
+] as const;
+
+function snapshot(s: Setting) {
+  return Object.fromEntries(FIELDS.map((f) => [f, s[f]])) as Omit<SettingsView, 'version' | 'updatedAt'>;
+}
+
+function view(s: Setting): SettingsView {
+  return { ...snapshot(s), version: s.version, updatedAt: new Date(s.updatedAt).toISOString() };
+}
+
+export async function readSettings(): Promise<SettingsView> {
+  const s = await Setting.findByPk(1);
+  if (!s) throw new AppError('not_found', 'The settings have not been created yet; run the set-up first.');
+  return view(s);
+}
+
+/**
+ * Saves the settings when the form was loaded from the current version; a
+ * form loaded before someone else's save is refused (409), never merged.
+ */
+export async function updateSettings(input: SettingsInput, actor: AuditActor): Promise<SettingsView> {
+  return sequelize.transaction(async (transaction) => {
+    const s = await Setting.findByPk(1, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!s) throw new AppError('not_found', 'The settings have not been created yet; run the set-up first.');
+    if (s.version !== input.version) {
+      throw new AppError('changed_meanwhile', 'Someone changed the settings while you were editing. Reload to see their version, then make your change again.');
+    }
+    const before = snapshot(s);
+    // NUMERIC comes back as "0.2100": an equal rate typed as "0.21" is no change.
+    const next = { ...input, taxRate: Number(input.taxRate) === Number(before.taxRate) ? before.taxRate : input.taxRate };
+    for (const f of FIELDS) s.set(f, next[f]);
+    await s.save({ transaction });
+    await s.reload({ transaction });
+    await recordAudit({ actor, action: 'settings.update', entityType: 'settings', entityId: s.id, before, after: snapshot(s) }, { transaction });
+    forgetSettings();
+    return view(s);
+  });
+}

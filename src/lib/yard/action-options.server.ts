@@ -1,0 +1,45 @@
+// What the action forms offer: where the user acts from, the liner lots they
+// may fit (first-expiry-first-out), the hire orders a bin may go out on.
+import { QueryTypes } from 'sequelize';
+import { sequelize } from '@/models';
+import type { SiteKind } from '@/lib/scans/lifecycle';
+import type { SessionUser } from '@/lib/accounts/session-user.server';
+
+export interface SiteOption { id: number; name: string; kind: SiteKind }
+export interface LotOption { id: number; lotNumber: string; supplier: string; expiryDate: string }
+export interface OrderOption { id: number; reference: string; customer: string; neededBy: string; quantity: number; loaded: number }
+
+/** Where this user records from by default: the yard's home depot, otherwise where the bin stands. */
+export async function actingSite(user: SessionUser, binSite: SiteOption | null): Promise<SiteOption | null> {
+  if (user.role === 'yard' && user.homeSiteId) {
+    const [s] = await sequelize.query<SiteOption>('SELECT id, name, kind FROM sites WHERE id = $1', { bind: [user.homeSiteId], type: QueryTypes.SELECT });
+    return s ?? null;
+  }
+  return binSite;
+}
+
+/** Usable lots at a depot, the one to use first on top (earliest expiry, then oldest receipt). */
+export async function lotsAt(siteId: number, today: string): Promise<LotOption[]> {
+  return sequelize.query<LotOption>(
+    `SELECT id, lot_number AS "lotNumber", supplier, expiry_date AS "expiryDate"
+       FROM liner_lots WHERE site_id = $1 AND status = 'released' AND expiry_date >= $2 AND received_on <= $2
+      ORDER BY expiry_date, received_on, id LIMIT 20`,
+    { bind: [siteId, today], type: QueryTypes.SELECT },
+  );
+}
+
+/** Hire orders this depot is loading or will load, for the bin's type, soonest first. */
+export async function ordersAt(depotId: number, binTypeId: number): Promise<OrderOption[]> {
+  return sequelize.query<OrderOption>(
+    `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity,
+            (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
+       FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id
+      WHERE ho.depot_site_id = $1 AND ho.bin_type_id = $2 AND ho.status IN ('open', 'loading')
+      ORDER BY ho.needed_by, ho.id LIMIT 20`,
+    { bind: [depotId, binTypeId], type: QueryTypes.SELECT },
+  );
+}
+
+export async function depots(): Promise<SiteOption[]> {
+  return sequelize.query<SiteOption>(`SELECT id, name, kind FROM sites WHERE kind = 'depot' AND active ORDER BY name`, { type: QueryTypes.SELECT });
+}
