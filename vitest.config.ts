@@ -1,13 +1,16 @@
 import { getViteConfig } from 'astro/config';
 
-// One config, three folders. The runner (src/cli/test.mjs) picks the folder and
-// sets the database and server addresses; database files run one at a time.
+// One config, three projects. Unit files are pure and run in parallel; integration and browser files share
+// one database (and the browser files one server port range), so they run one file at a time. The runner
+// (src/cli/test.mjs) picks the project and sets the database and server addresses.
+const shared = { testTimeout: 30_000, hookTimeout: 120_000 };
 export default getViteConfig({
   test: {
-    include: ['tests/**/*.test.ts'],
-    fileParallelism: false,
-    testTimeout: 30_000,
-    hookTimeout: 120_000,
     reporters: ['default'],
+    projects: [
+      { extends: true, test: { ...shared, name: 'unit', include: ['tests/unit/**/*.test.ts'], fileParallelism: true } },
+      { extends: true, test: { ...shared, name: 'integration', include: ['tests/integration/**/*.test.ts'], fileParallelism: false } },
+      { extends: true, test: { ...shared, name: 'browser', include: ['tests/browser/**/*.test.ts'], fileParallelism: false } },
+    ],
   },
 });

@@ -28,7 +28,7 @@ function vitest(folder, env) {
   // Words after `--` narrow the run to matching files of the folder; flags pass through.
   const filters = vitestExtra.filter((a) => !a.startsWith('-')).map((a) => `tests/${folder}/${a}`);
   const flags = vitestExtra.filter((a) => a.startsWith('-'));
-  const r = spawnSync(bin('vitest'), ['run', ...(filters.length ? filters : [`tests/${folder}`]), ...flags], {
+  const r = spawnSync(bin('vitest'), ['run', '--project', folder, ...filters, ...flags], {
     stdio: 'inherit',
     env: { ...process.env, ...env },
   });

@@ -181,6 +181,12 @@ describe('Content-Security-Policy', () => {
     expect(violations).toEqual([]);
 
     const outcome = await page.evaluate(async () => {
+      // Wait for the browser to report both blocked elements (script and style), not for a fixed time.
+      const blocked = new Promise<void>((resolve, reject) => {
+        let seen = 0;
+        document.addEventListener('securitypolicyviolation', () => (++seen >= 2 ? resolve() : undefined));
+        setTimeout(() => reject(new Error('the browser reported fewer than two CSP violations in 10 s')), 10_000);
+      });
       const s = document.createElement('script');
       s.textContent = 'window.__injected = true;';
       document.head.append(s);
@@ -193,7 +199,7 @@ describe('Content-Security-Policy', () => {
       const div = document.createElement('div');
       div.setAttribute('style', 'width: 123px');
       document.body.append(div);
-      await new Promise((r) => setTimeout(r, 200));
+      await blocked;
       return {
         script: (window as unknown as { __injected?: boolean }).__injected ?? false,
         style: getComputedStyle(probe).width === '77px',
