@@ -368,7 +368,14 @@ export function statementFor(input: StatementInput): Statement {
 
   const lines: StatementLine[] = [];
   const resolved = new Map<string, ResolvedTrip>();
+  const foundTrips = new Set((input.found ?? []).map((f) => f.tripId));
   for (const trip of input.trips) {
+    // A trip received back at a depot before the period, or dispatched after it, has no line in it: skip it
+    // before asking which tariff governs it (an old trip from before the first tariff must not block a period).
+    const receivedOn = dateOf(ctx, trip.receivedAt, `trip ${trip.tripId} depot receipt`);
+    const dispatchedOn = dateOf(ctx, trip.dispatchedAt, `trip ${trip.tripId} dispatch`);
+    const outside = (receivedOn !== null && receivedOn < period.from) || (dispatchedOn !== null && dispatchedOn > period.to);
+    if (outside && !foundTrips.has(trip.tripId)) continue;
     const r = resolveTrip(ctx, tariffs, trip, missingOn.get(trip.tripId) ?? null);
     if (r === null) continue;
     resolved.set(trip.tripId, r);

@@ -152,6 +152,18 @@ describe('statement lines worked by hand', () => {
     expect(brief(fromDispatch)).toEqual([['hire', 'T7', '2027-03-01', '2027-03-14', '3-16', 14, 100, 1400]]);
   });
 
+  test('trips received back before the period or dispatched after it add nothing, even from before the first tariff', () => {
+    const s = run({
+      tariffs: [{ ...V1, effectiveFrom: '2027-02-01' }],
+      trips: [
+        trip({ tripId: 'OLD', dispatchedAt: '2027-01-05T08:00:00+01:00', deliveredAt: '2027-01-06T08:00:00+01:00', receivedAt: '2027-01-30T08:00:00+01:00' }),
+        trip({ tripId: 'NEXT', dispatchedAt: '2027-04-01T08:00:00+02:00' }),
+      ],
+    });
+    expect(s.lines).toEqual([]);
+    expect(s.totals).toMatchObject({ netMinor: 0, taxMinor: 0, grossMinor: 0 });
+  });
+
   test('a delivery never scanned counts from the dispatch and the lines say so', () => {
     const s = run({ trips: [trip({ tripId: 'T8', collectedAt: '2027-03-20T09:00:00+01:00' })] }); // dispatched 27 Feb
     // 28 Feb = day 1 (in February); 1–13 Mar days 2–14 free; 14–19 Mar at 2.50 (6 days), 20 Mar at 3.00.
