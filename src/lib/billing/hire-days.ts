@@ -93,3 +93,12 @@ export function clipRange(range: HireDayRange, from: LocalDate, to: LocalDate): 
   const last = range.last < to ? range.last : to;
   return first <= last ? rangeOf(first, last) : NO_DAYS;
 }
+
+/**
+ * The same count as `hireDaysThrough` as a PostgreSQL expression, for queries that filter on it (the planners'
+ * digest): `GREATEST(0, asOf − start + k)`, k = 1 when the first day counts. Both arguments are SQL expressions of
+ * type date written by the caller (constants and bind placeholders only — never user text).
+ */
+export function hireDaysThroughSql(startDateSql: string, asOfDateSql: string, terms: DayCountTerms = DEFAULT_DAY_COUNT): string {
+  return `GREATEST(0, (${asOfDateSql}) - (${startDateSql})${terms.firstDayCounts ? ' + 1' : ''})`;
+}

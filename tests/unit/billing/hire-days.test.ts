@@ -6,7 +6,7 @@ import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import { addDays as fnsAddDays, differenceInCalendarDays, format, max as fnsMax, min as fnsMin, parseISO } from 'date-fns';
 import {
-  DEFAULT_DAY_COUNT, clipRange, firstHireDay, hireDayNumber, hireDayRange, hireDaysThrough, lastFreeDay,
+  DEFAULT_DAY_COUNT, clipRange, firstHireDay, hireDayNumber, hireDayRange, hireDaysThrough, hireDaysThroughSql, lastFreeDay,
 } from '@/lib/billing/hire-days';
 import { overdueBack } from '@/lib/overdue-return';
 
@@ -66,6 +66,11 @@ describe('hire days: which dates of a hire count', () => {
     const base = { status: 'on_hire' as const, deliveredOn: '2027-03-01', dispatchedOn: null, freeDays: 14, dayCount: BOTH };
     expect(overdueBack({ ...base, today: '2027-03-14' })).toMatchObject({ daysWithCustomer: 14, overdue: false, freeUntil: '2027-03-14' });
     expect(overdueBack({ ...base, today: '2027-03-15' })).toMatchObject({ daysWithCustomer: 15, daysOver: 1, overdue: true });
+  });
+
+  test('the SQL form of the running count (exact SQL; checked against PostgreSQL in tests/integration/billing)', () => {
+    expect(hireDaysThroughSql('s.d', '$1::date')).toBe('GREATEST(0, ($1::date) - (s.d))');
+    expect(hireDaysThroughSql('s.d', '$1::date', BOTH)).toBe('GREATEST(0, ($1::date) - (s.d) + 1)');
   });
 
   test('agrees with date-fns on random hires, terms and periods (second opinion)', () => {
