@@ -11,9 +11,13 @@
  * its dispatch (the earlier date, so the count never flatters the customer's side); such a count is marked
  * `estimated`. Bins in any other status (in transit back, at a depot, missing…) are not "overdue back": the
  * rule does not apply to them.
+ *
+ * The day count itself — which dates count, and that the free days are the first counted ones — is the one of
+ * hire billing (src/lib/billing/hire-days.ts), so "overdue" and "charged" agree on every day. A customer's tariff
+ * may say which ends count (`dayCount`); without it the default terms give the counts above.
  */
-import { addDays, daysBetween } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
+import { DEFAULT_DAY_COUNT, hireDaysThrough, lastFreeDay as lastFreeHireDay, type DayCountTerms } from '@/lib/billing/hire-days';
 import type { Status } from '@/lib/scans/lifecycle';
 
 /** The statuses in which a bin is with the customer and the free-day clock runs. */
@@ -25,6 +29,8 @@ export interface OverdueInput {
   dispatchedOn: LocalDate | null;
   freeDays: number;
   today: LocalDate;
+  /** Which ends of the hire count (the customer's tariff); the billing default when left out. */
+  dayCount?: DayCountTerms;
 }
 
 export interface OverdueCheck {
@@ -47,17 +53,16 @@ export function isWithCustomer(status: Status): boolean {
   return (WITH_CUSTOMER_STATUSES as readonly Status[]).includes(status);
 }
 
-export function lastFreeDay(deliveredOn: LocalDate, freeDays: number): LocalDate {
-  if (!Number.isInteger(freeDays) || freeDays < 0) throw new RangeError(`Free days must be a whole number ≥ 0, got ${freeDays}`);
-  return addDays(deliveredOn, freeDays);
+export function lastFreeDay(deliveredOn: LocalDate, freeDays: number, dayCount: DayCountTerms = DEFAULT_DAY_COUNT): LocalDate {
+  return lastFreeHireDay(deliveredOn, freeDays, dayCount);
 }
 
-export function overdueBack({ status, deliveredOn, dispatchedOn, freeDays, today }: OverdueInput): OverdueCheck {
+export function overdueBack({ status, deliveredOn, dispatchedOn, freeDays, today, dayCount = DEFAULT_DAY_COUNT }: OverdueInput): OverdueCheck {
   const start = deliveredOn ?? dispatchedOn;
   if (!isWithCustomer(status) || start === null) return NOT_APPLICABLE;
-  const freeUntil = lastFreeDay(start, freeDays);
+  const freeUntil = lastFreeDay(start, freeDays, dayCount);
   // Records from the future (a clock off on a phone) count as zero days, never as negative ones.
-  const daysWithCustomer = Math.max(0, daysBetween(start, today));
+  const daysWithCustomer = hireDaysThrough(start, today, dayCount);
   const daysOver = Math.max(0, daysWithCustomer - freeDays);
   return { applies: true, daysWithCustomer, daysOver, overdue: daysOver > 0, estimated: deliveredOn === null, freeUntil };
 }

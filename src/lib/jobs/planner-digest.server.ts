@@ -5,6 +5,11 @@ import { addDays, formatLongDate, localDate } from '@/lib/calendar';
 import { sendMail } from '@/lib/mail/mailer.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { JobContext } from './registry.server';
+import { hireDaysThroughSql } from '@/lib/billing/hire-days';
+
+// Days with the customer so far, counted from delivery (or dispatch when never confirmed): the day count of
+// src/lib/billing/hire-days.ts, which the overdue rule (src/lib/fleet/overdue-return.ts) uses too.
+const DAYS_WITH_CUSTOMER_SQL = hireDaysThroughSql('(COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date', '$1::date');
 
 const q = <T extends object>(sql: string, bind: unknown[] = []) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT });
 
@@ -16,10 +21,10 @@ export async function digestFigures(now: Date) {
     // On hire longer than the customer's free days, counted from delivery (or dispatch when never confirmed).
     q<{ customer: string; bins: number; oldestDays: number }>(
       `SELECT o.name AS customer, count(*)::int AS bins,
-              max($1::date - (COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date)::int AS "oldestDays"
+              max(${DAYS_WITH_CUSTOMER_SQL})::int AS "oldestDays"
          FROM assets a JOIN trips t ON t.id = a.current_trip_id JOIN organisations o ON o.id = a.customer_id
         WHERE a.status IN ('on_hire', 'awaiting_collection')
-          AND ($1::date - (COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date) > o.free_days -- the rule of src/lib/fleet/overdue-return.ts
+          AND ${DAYS_WITH_CUSTOMER_SQL} > o.free_days
         GROUP BY o.name ORDER BY bins DESC`,
       [today, settings.timeZone],
     ),
