@@ -158,3 +158,9 @@ export const orderCommandSchema = z
     version: z.number().int().min(0),
   })
   .strict();
+
+/** An order id from a path segment, or null when it cannot be one (answered as "no such order"). */
+export function parseOrderId(raw: string | undefined): number | null {
+  const parsed = id.safeParse(raw);
+  return parsed.success ? parsed.data : null;
+}

@@ -122,3 +122,13 @@ export function statusFromLoads(status: OrderStatus, progress: OrderProgress): O
 export function remaining(progress: OrderProgress): number {
   return Math.max(0, progress.quantity - progress.dispatched);
 }
+
+/** How a status is shown: a word and an icon, with a tone as a third cue (never colour alone). */
+export const ORDER_STATUS_LOOK: Readonly<Record<OrderStatus, { icon: 'plusBox' | 'check' | 'truck' | 'route' | 'retired' | 'hold'; tone: 'good' | 'info' | 'attention' | 'fault' | 'neutral' }>> = {
+  draft: { icon: 'plusBox', tone: 'neutral' },
+  confirmed: { icon: 'check', tone: 'attention' },
+  loading: { icon: 'truck', tone: 'info' },
+  dispatched: { icon: 'route', tone: 'good' },
+  closed: { icon: 'retired', tone: 'neutral' },
+  cancelled: { icon: 'hold', tone: 'neutral' },
+};

@@ -253,9 +253,9 @@ export async function orderView(id: number): Promise<OrderView | null> {
 // ---------------------------------------------------------------------------
 
 function noTariff(customer: string, day: string): AppError {
-  return new AppError('unprocessable', `${customer} has no tariff in force on ${day}: enter their terms first, then confirm the order.`, {
-    fields: { neededBy: 'no tariff in force on this date' },
-  });
+  return new AppError('unprocessable', `${customer} has no tariff in force on ${day}: enter their terms first, then confirm the order.`, [
+    { path: 'neededBy', message: 'no tariff in force for this customer on this date' },
+  ]);
 }
 
 /** Checks the customer, sites and bin type fit together; answers the customer's name. */
