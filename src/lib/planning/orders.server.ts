@@ -367,3 +367,56 @@ export async function orderFormChoices(): Promise<OrderFormChoices> {
     binTypes,
   };
 }
+
+// ---------------------------------------------------------------------------
+// The fill planner's view of an order
+// ---------------------------------------------------------------------------
+
+export interface FillPlannerData {
+  orderId: number;
+  reference: string;
+  customer: string;
+  product: string | null;
+  linerFoodContact: boolean;
+  linerMaxFillTempC: number | null;
+  binType: { name: string; capacityL: number; tareKg: number; maxGrossKg: number; unCode: string | null };
+  /** The UN mark most bins of the type carry, as a starting point for the dangerous goods check. */
+  usualMark: string | null;
+  binsWithUsualMark: number;
+  binsOfType: number;
+}
+
+export async function fillPlannerData(orderId: number): Promise<FillPlannerData | null> {
+  const [row] = await q<Record<string, unknown>>(
+    `SELECT ho.id, ho.reference, ho.product, ho.liner_food_contact, ho.liner_max_fill_temp_c, o.name AS customer,
+            bt.id AS bt_id, bt.name AS bt_name, bt.nominal_capacity_l, bt.tare_kg, bt.max_gross_kg, bt.un_code
+       FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id JOIN bin_types bt ON bt.id = ho.bin_type_id
+      WHERE ho.id = $1`,
+    [orderId],
+  );
+  if (!row) return null;
+  const [mark] = await q<{ un_marking: string | null; n: number; total: number }>(
+    `SELECT un_marking, count(*)::int AS n, sum(count(*)) OVER ()::int AS total
+       FROM assets WHERE bin_type_id = $1 AND status <> 'retired'
+      GROUP BY un_marking ORDER BY (un_marking IS NULL), count(*) DESC, un_marking LIMIT 1`,
+    [row.bt_id],
+  );
+  return {
+    orderId: row.id as number,
+    reference: row.reference as string,
+    customer: row.customer as string,
+    product: (row.product as string) ?? null,
+    linerFoodContact: row.liner_food_contact as boolean,
+    linerMaxFillTempC: (row.liner_max_fill_temp_c as number) ?? null,
+    binType: {
+      name: row.bt_name as string,
+      capacityL: row.nominal_capacity_l as number,
+      tareKg: Number(row.tare_kg),
+      maxGrossKg: Number(row.max_gross_kg),
+      unCode: (row.un_code as string) ?? null,
+    },
+    usualMark: mark?.un_marking ?? null,
+    binsWithUsualMark: mark?.un_marking ? mark.n : 0,
+    binsOfType: mark?.total ?? 0,
+  };
+}

@@ -96,6 +96,32 @@ describe('hire orders', () => {
     await desk.close();
   });
 
+  test('the fill planner on an order: the water example of ADR 4.1.1.4 (b) (REFERENCES §3) and a refused target', async () => {
+    const order = await one<{ id: number }>(`SELECT ho.id FROM hire_orders ho JOIN bin_types bt ON bt.id = ho.bin_type_id WHERE bt.nominal_capacity_l = 1000 ORDER BY ho.id LIMIT 1`);
+    const ctx = await newContext(t.browser, t.app, 'desktop');
+    const page = await ctx.newPage();
+    await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);
+    await page.waitForURL('**/fleet');
+    await page.goto(`/planning/orders/${order.id}`);
+    await page.click('[data-testid="plan-fill"]');
+    await page.waitForURL(`**/planning/orders/${order.id}/fill`);
+    // water: d15 = 0.999099 g/mL (CRC Handbook), d50 = 0.98803 g/mL (ITS-90 equation), filled at 20 °C → 97.07 %, 970.7 L
+    await page.fill('#f-d15', '0.999099');
+    await page.fill('#f-d50', '0.98803');
+    await page.fill('#f-temp', '20');
+    await page.fill('#f-density', '0.9982');
+    await page.fill('#f-target', '960');
+    await expect(page.locator('[data-testid="fill-max"]').getAttribute('data-percent')).resolves.toBe('97.07');
+    await expect(page.locator('[data-testid="fill-max"]').getAttribute('data-litres')).resolves.toBe('970.7');
+    await expect(page.locator('[data-testid="fill-verdict"]').getAttribute('data-fits')).resolves.toBe('true');
+    await page.fill('#f-target', '980');
+    await expect(page.locator('[data-testid="fill-verdict"]').getAttribute('data-fits')).resolves.toBe('false');
+    await expect(page.locator('[data-testid="fill-verdict"]').textContent()).resolves.toMatch(/over the maximum fill of 970.7 L/);
+    await expect(page.locator('[data-testid="fill-result"]').textContent()).resolves.toMatch(/safety data sheet/);
+    await screenshot(page, 'fill-planner-desktop');
+    await ctx.close();
+  });
+
   test('a customer may not open the planner pages', async () => {
     const ctx = await newContext(t.browser, t.app, 'desktop');
     const page = await ctx.newPage();

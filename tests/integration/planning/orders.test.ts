@@ -8,7 +8,7 @@ import { startLoad, addBinToLoad, dispatchLoad } from '@/lib/server/load-service
 import { loadYardHome } from '@/lib/server/yard-home';
 import { loadDepotSnapshot } from '@/lib/server/depot-snapshot';
 import { ordersAt } from '@/lib/server/action-options';
-import { commandOrder, createOrder, listOrders, orderView, tariffOn } from '@/lib/planning/orders.server';
+import { commandOrder, createOrder, fillPlannerData, listOrders, orderView, tariffOn } from '@/lib/planning/orders.server';
 import { orderInputSchema, DEFAULT_ORDER_LIST } from '@/lib/planning/order-forms';
 import { addDays, localDate } from '@/lib/calendar';
 import { HireOrder, Organisation, Site, Tariff } from '@/models';
@@ -147,6 +147,21 @@ describe("an order's status follows its loads", () => {
     const v = (await orderView(order.id))!;
     await refused(commandOrder(order.id, { command: 'cancel', version: v.version }, actor()), 'transition_refused', /bins are already loaded/);
     expect((await commandOrder(order.id, { command: 'close', version: v.version }, actor())).status).toBe('closed');
+  });
+});
+
+describe('the fill planner reads the order and its bin type', () => {
+  test('capacity, masses and liner limit come from the order; the usual UN mark of the type is offered', async () => {
+    await sequelize.query(`UPDATE assets SET un_marking = '31HA2/Y/03 26/D/Faltwerk 12/10800/1285' WHERE id IN (SELECT id FROM assets ORDER BY id LIMIT 2)`);
+    const order = await createOrder(input({ linerMaxFillTempC: 30 }), actor());
+    const data = (await fillPlannerData(order.id))!;
+    expect(data.binType).toEqual({ name: 'Test bin 1000 L', capacityL: 1000, tareKg: 86, maxGrossKg: 1285, unCode: '31HA2' });
+    expect(data.linerMaxFillTempC).toBe(30);
+    expect(data.usualMark).toBe('31HA2/Y/03 26/D/Faltwerk 12/10800/1285');
+    expect(data.binsWithUsualMark).toBe(2);
+    const [{ n }] = (await sequelize.query(`SELECT count(*)::int AS n FROM assets WHERE status <> 'retired'`, { type: 'SELECT' })) as [{ n: number }];
+    expect(data.binsOfType).toBe(n);
+    expect(await fillPlannerData(999_999)).toBeNull();
   });
 });
 
