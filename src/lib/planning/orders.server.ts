@@ -178,7 +178,10 @@ export interface OrderView {
   customer: string;
   deliverySite: { id: number; name: string; address: string | null };
   depot: { id: number; name: string };
-  binType: { id: number; name: string; nominalCapacityL: number };
+  binType: {
+    id: number; name: string; nominalCapacityL: number;
+    footprintLengthMm: number; footprintWidthMm: number; heightErectedMm: number; heightFoldedMm: number; tareKg: number; maxGrossKg: number;
+  };
   quantity: number;
   neededBy: string;
   product: string | null;
@@ -199,7 +202,8 @@ const iso = (v: unknown) => (v instanceof Date ? v.toISOString() : v == null ? n
 export async function orderView(id: number): Promise<OrderView | null> {
   const [row] = await q<Record<string, unknown>>(
     `SELECT ho.*, o.name AS customer, ds.name AS ds_name, ds.address AS ds_address, dp.name AS dp_name,
-            bt.name AS bt_name, bt.nominal_capacity_l AS bt_capacity
+            bt.name AS bt_name, bt.nominal_capacity_l AS bt_capacity, bt.footprint_length_mm, bt.footprint_width_mm,
+            bt.height_erected_mm, bt.height_folded_mm, bt.tare_kg, bt.max_gross_kg
        FROM hire_orders ho
        JOIN organisations o ON o.id = ho.customer_id
        JOIN sites ds ON ds.id = ho.delivery_site_id
@@ -231,7 +235,12 @@ export async function orderView(id: number): Promise<OrderView | null> {
     customer: row.customer as string,
     deliverySite: { id: row.delivery_site_id as number, name: row.ds_name as string, address: (row.ds_address as string) ?? null },
     depot: { id: row.depot_site_id as number, name: row.dp_name as string },
-    binType: { id: row.bin_type_id as number, name: row.bt_name as string, nominalCapacityL: row.bt_capacity as number },
+    binType: {
+      id: row.bin_type_id as number, name: row.bt_name as string, nominalCapacityL: row.bt_capacity as number,
+      footprintLengthMm: row.footprint_length_mm as number, footprintWidthMm: row.footprint_width_mm as number,
+      heightErectedMm: row.height_erected_mm as number, heightFoldedMm: row.height_folded_mm as number,
+      tareKg: Number(row.tare_kg), maxGrossKg: Number(row.max_gross_kg),
+    },
     quantity,
     neededBy: row.needed_by as string,
     product: (row.product as string) ?? null,

@@ -33,6 +33,7 @@ describe('hire orders', () => {
     await planner.goto('/planning/orders');
     await planner.click('[data-testid="new-order"]');
     await planner.waitForURL('**/planning/orders/new');
+    await planner.waitForSelector('astro-island:not([ssr]) [data-testid="order-form"]'); // the form is an island: wait until it is live
     // an empty form is refused with the fields named, nothing is saved
     await planner.click('[data-testid="order-form"] button[type="submit"]');
     await expect(planner.locator('#o-quantity-problem').textContent()).resolves.toMatch(/Required/);
@@ -47,12 +48,15 @@ describe('hire orders', () => {
     await screenshot(planner, 'order-form-desktop');
     await planner.click('[data-testid="order-form"] button[type="submit"]');
     await planner.waitForURL(/\/planning\/orders\/\d+\?created=1/);
+    await planner.waitForFunction(() => !document.querySelector('astro-island[ssr]'));
     const orderId = Number(new URL(planner.url()).pathname.split('/').pop());
     await expect(planner.locator('[data-order-status]').first().getAttribute('data-order-status')).resolves.toBe('confirmed');
     await expect(planner.locator('[data-testid="order-tariff"]').textContent()).resolves.toMatch(/Free days\s*21 days/);
     const stored = await one<{ reference: string; status: string; liner_food_contact: boolean; liner_max_fill_temp_c: number }>(
       `SELECT reference, status, liner_food_contact, liner_max_fill_temp_c FROM hire_orders WHERE id = $1`, [orderId]);
     expect(stored).toMatchObject({ status: 'confirmed', liner_food_contact: true, liner_max_fill_temp_c: 45 });
+    // 1200 × 1000 mm, 1160 mm erected: 26 floor positions × 2 levels on a standard trailer (REFERENCES §9, common practice)
+    await expect(planner.locator('[data-testid="order-trucks"]').textContent()).resolves.toMatch(/takes 52 of these bins \(26 floor positions × 2 high/);
     await screenshot(planner, 'order-page-confirmed-desktop');
 
     // the yard prepares one bin and loads it against the new order
@@ -105,6 +109,7 @@ describe('hire orders', () => {
     await page.goto(`/planning/orders/${order.id}`);
     await page.click('[data-testid="plan-fill"]');
     await page.waitForURL(`**/planning/orders/${order.id}/fill`);
+    await page.waitForSelector('astro-island:not([ssr]) [data-testid="fill-planner"]');
     // water: d15 = 0.999099 g/mL (CRC Handbook), d50 = 0.98803 g/mL (ITS-90 equation), filled at 20 °C → 97.07 %, 970.7 L
     await page.fill('#f-d15', '0.999099');
     await page.fill('#f-d50', '0.98803');
