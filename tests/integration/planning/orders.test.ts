@@ -1,6 +1,7 @@
 import { describe, test, expect, beforeAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { usePoolWorld, newBin, appErrorOf } from '../support/fixtures';
+import { QueryTypes } from 'sequelize';
 import { sqlErrorCode, sequelize } from '../support/db';
 import { callRoute, json, sessionUser } from '../support/route';
 import { recordScan } from '@/lib/server/scan-service';
@@ -17,6 +18,7 @@ import * as statusRoute from '@/pages/api/planning/orders/[id]/status';
 
 process.env.AUTH_SECRET ??= 'test-secret';
 const w = usePoolWorld();
+const sel = <T extends object>(sql: string, bind: unknown[] = []) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT });
 const actor = () => ({ userId: w.planner.id, ip: '127.0.0.1' });
 const today = () => localDate(new Date(), 'Europe/Amsterdam');
 
@@ -87,7 +89,7 @@ describe('a draft counts nowhere', () => {
     await expect(startLoad({ ...w.yard, id: w.yard.id! }, { purpose: 'hire', hireOrderId: draft.id })).rejects.toMatchObject({ code: 'unprocessable' });
     const bin = await preparedBin();
     await refused(recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'dispatch', siteId: w.depot.id, purpose: 'hire', hireOrderId: draft.id }), 'transition_refused', /still a draft/);
-    const [{ n }] = (await sequelize.query(`SELECT count(*)::int AS n FROM trips WHERE hire_order_id = $1`, { bind: [draft.id], type: 'SELECT' })) as [{ n: number }];
+    const [{ n }] = (await sel<{ n: number }>(`SELECT count(*)::int AS n FROM trips WHERE hire_order_id = $1`, [draft.id]));
     expect(n).toBe(0);
 
     // once confirmed it is demand
@@ -159,7 +161,7 @@ describe('the fill planner reads the order and its bin type', () => {
     expect(data.linerMaxFillTempC).toBe(30);
     expect(data.usualMark).toBe('31HA2/Y/03 26/D/Faltwerk 12/10800/1285');
     expect(data.binsWithUsualMark).toBe(2);
-    const [{ n }] = (await sequelize.query(`SELECT count(*)::int AS n FROM assets WHERE status <> 'retired'`, { type: 'SELECT' })) as [{ n: number }];
+    const [{ n }] = (await sel<{ n: number }>(`SELECT count(*)::int AS n FROM assets WHERE status <> 'retired'`, []));
     expect(data.binsOfType).toBe(n);
     expect(await fillPlannerData(999_999)).toBeNull();
   });
@@ -169,7 +171,7 @@ describe('the database keeps the statuses', () => {
   test("the old word 'open' is gone and a new order starts as a draft", async () => {
     const code = await sqlErrorCode(`UPDATE hire_orders SET status = 'open' WHERE id = $1`, [w.order.id]);
     expect(code).toBe('23514');
-    const [row] = (await sequelize.query(`SELECT column_default FROM information_schema.columns WHERE table_name = 'hire_orders' AND column_name = 'status'`, { type: 'SELECT' })) as [{ column_default: string }];
+    const [row] = (await sel<{ column_default: string }>(`SELECT column_default FROM information_schema.columns WHERE table_name = 'hire_orders' AND column_name = 'status'`, []));
     expect(row.column_default).toContain('draft');
   });
 });
@@ -177,10 +179,10 @@ describe('the database keeps the statuses', () => {
 describe('the order list and the API', () => {
   test('filters and paging happen in the database', async () => {
     const all = await listOrders(DEFAULT_ORDER_LIST);
-    const [{ n }] = (await sequelize.query(`SELECT count(*)::int AS n FROM hire_orders`, { type: 'SELECT' })) as [{ n: number }];
+    const [{ n }] = (await sel<{ n: number }>(`SELECT count(*)::int AS n FROM hire_orders`, []));
     expect(all.total).toBe(n);
     const drafts = await listOrders({ ...DEFAULT_ORDER_LIST, filters: { status: 'draft' } });
-    const [{ d }] = (await sequelize.query(`SELECT count(*)::int AS d FROM hire_orders WHERE status = 'draft'`, { type: 'SELECT' })) as [{ d: number }];
+    const [{ d }] = (await sel<{ d: number }>(`SELECT count(*)::int AS d FROM hire_orders WHERE status = 'draft'`, []));
     expect(drafts.total).toBe(d);
     expect(drafts.rows.every((r) => r.status === 'draft')).toBe(true);
     const demand = await listOrders({ ...DEFAULT_ORDER_LIST, filters: { status: 'demand' } });
