@@ -21,6 +21,7 @@ export const CAPABILITIES = {
   'requests.view': ['planner', 'admin'],
   'orders.view': ['planner', 'admin'],
   'orders.edit': ['planner', 'admin'],
+  'tariffs.manage': ['admin'],
   'liners.view': ['yard', 'planner', 'admin'],
   'portal.view': ['customer'],
   'users.manage': ['admin'],
@@ -85,6 +86,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/admin/settings', 'settings.manage'],
   ['/api/admin/settings', 'settings.manage'],
   ['/admin/sites', 'sites.manage'],
+  ['/api/admin/tariffs', 'tariffs.manage'],
   ['/api/admin/', 'settings.manage'],
   ['/admin', 'users.manage'],
   // The register (before the general /bins rule). /bins/<grai>/edit is under

@@ -47,6 +47,7 @@ describe('path rules', () => {
     ['/planning/orders/12', 'orders.view'],
     ['/api/planning/orders', 'orders.view'],
     ['/api/planning/orders/12/status', 'orders.view'],
+    ['/api/admin/tariffs', 'tariffs.manage'],
     ['/yard', 'home.yard'],
     ['/portal', 'home.portal'],
     ['/admin/users', 'users.manage'],

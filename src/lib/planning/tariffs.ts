@@ -7,7 +7,8 @@
  * included; `validTo = null` means "until further notice". A customer's
  * tariffs never overlap (the database enforces it too).
  */
-import type { LocalDate } from '@/lib/calendar';
+import { z } from 'zod';
+import { isLocalDate, type LocalDate } from '@/lib/calendar';
 
 export interface TariffTerms {
   freeDays: number;
@@ -45,3 +46,49 @@ export function periodsOverlap(a: Pick<Tariff, 'validFrom' | 'validTo'>, b: Pick
 export function periodWords(t: Pick<Tariff, 'validFrom' | 'validTo'>): string {
   return t.validTo === null ? `from ${t.validFrom}, until further notice` : `${t.validFrom} to ${t.validTo}`;
 }
+
+export type NewTariffPlan =
+  | { ok: true; /** The open-ended tariff that the new one succeeds, ended the day before it starts. */ endPrevious: { id: number; validTo: LocalDate } | null }
+  | { ok: false; message: string };
+
+/**
+ * Where a new tariff fits among a customer's tariffs: an open-ended tariff that
+ * began before it is ended the day before the new one starts (the usual price
+ * change); any other overlap is refused, naming the period in the way.
+ * `dayBefore` is passed in so this stays free of date arithmetic of its own.
+ */
+export function planNewTariff(
+  existing: readonly Pick<Tariff, 'id' | 'validFrom' | 'validTo'>[],
+  next: Pick<Tariff, 'validFrom' | 'validTo'>,
+  dayBefore: (day: LocalDate) => LocalDate,
+): NewTariffPlan {
+  if (next.validTo !== null && next.validTo < next.validFrom) return { ok: false, message: 'The tariff ends before it begins.' };
+  let endPrevious: { id: number; validTo: LocalDate } | null = null;
+  for (const t of existing) {
+    if (!periodsOverlap(t, next)) continue;
+    if (t.validTo === null && t.validFrom < next.validFrom) {
+      endPrevious = { id: t.id, validTo: dayBefore(next.validFrom) };
+      continue;
+    }
+    return { ok: false, message: `It overlaps the tariff in force ${periodWords(t)}; choose dates outside it.` };
+  }
+  return { ok: true, endPrevious };
+}
+
+const money = z.string().trim().regex(/^\d{1,8}(\.\d{1,2})?$/, 'must be an amount like 1.60 (at most two decimals)');
+const day = z.string().refine(isLocalDate, 'must be a date like 2027-01-01');
+
+/** A new tariff as an admin enters it. */
+export const tariffInputSchema = z
+  .object({
+    customerId: z.number().int().positive(),
+    freeDays: z.number({ invalid_type_error: 'must be a number' }).int('must be whole days').min(0, 'must be 0 or more').max(365, 'must be at most 365'),
+    dailyRate: money,
+    perTripFee: money,
+    lostBinFee: money,
+    currency: z.string().regex(/^[A-Z]{3}$/, 'must be a three-letter ISO 4217 code such as EUR'),
+    validFrom: day,
+    validTo: day.nullish().transform((v) => v ?? null),
+  })
+  .strict();
+export type TariffInput = z.infer<typeof tariffInputSchema>;

@@ -1,6 +1,6 @@
 import { describe, test, expect } from 'vitest';
 import { DEFAULT_ORDER_LIST, orderInputSchema, orderListSearch, parseOrderListQuery } from '@/lib/planning/order-forms';
-import { inForce, periodsOverlap, tariffInForce } from '@/lib/planning/tariffs';
+import { inForce, periodsOverlap, planNewTariff, tariffInForce } from '@/lib/planning/tariffs';
 
 describe('order list query', () => {
   test('defaults: wanted date ascending, 50 a page', () => {
@@ -56,5 +56,23 @@ describe('tariff in force (hand-worked dates, both ends included)', () => {
     expect(periodsOverlap(old, { validFrom: '2026-06-30', validTo: null })).toBe(true);
     expect(periodsOverlap(current, { validFrom: '2030-01-01', validTo: '2030-12-31' })).toBe(true);
     expect(periodsOverlap({ validFrom: '2020-01-01', validTo: '2020-12-31' }, current)).toBe(false);
+  });
+});
+
+describe('a new tariff among the old ones (hand-worked dates)', () => {
+  const dayBefore = (d: string) => ({ '2027-01-01': '2026-12-31', '2026-07-01': '2026-06-30', '2026-03-01': '2026-02-28' })[d] ?? 'unexpected';
+  const old = { id: 1, validFrom: '2025-01-01', validTo: '2026-06-30' };
+  const current = { id: 2, validFrom: '2026-07-01', validTo: null };
+  test('a price change from 1 Jan 2027 ends the open-ended tariff on 31 Dec 2026', () => {
+    expect(planNewTariff([old, current], { validFrom: '2027-01-01', validTo: null }, dayBefore)).toEqual({ ok: true, endPrevious: { id: 2, validTo: '2026-12-31' } });
+  });
+  test('a first tariff, or one in a gap, ends nothing', () => {
+    expect(planNewTariff([], { validFrom: '2026-03-01', validTo: null }, dayBefore)).toEqual({ ok: true, endPrevious: null });
+    expect(planNewTariff([old], { validFrom: '2024-01-01', validTo: '2024-12-31' }, dayBefore)).toEqual({ ok: true, endPrevious: null });
+  });
+  test('an overlap with a closed period, or a start on the open one\'s first day, is refused with the period', () => {
+    expect(planNewTariff([old, current], { validFrom: '2026-03-01', validTo: null }, dayBefore)).toEqual({ ok: false, message: expect.stringContaining('2025-01-01 to 2026-06-30') });
+    expect(planNewTariff([current], { validFrom: '2026-07-01', validTo: null }, dayBefore)).toMatchObject({ ok: false });
+    expect(planNewTariff([], { validFrom: '2026-07-01', validTo: '2026-06-01' }, dayBefore)).toMatchObject({ ok: false });
   });
 });
