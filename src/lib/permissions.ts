@@ -19,6 +19,9 @@ export const CAPABILITIES = {
   'trips.view': ['planner', 'admin'],
   'loads.manage': ['yard', 'planner', 'admin'],
   'requests.view': ['planner', 'admin'],
+  'orders.view': ['planner', 'admin'],
+  'orders.edit': ['planner', 'admin'],
+  'tariffs.manage': ['admin'],
   'liners.view': ['yard', 'planner', 'admin'],
   'portal.view': ['customer'],
   'users.manage': ['admin'],
@@ -72,6 +75,10 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/labels', 'labels.print'],
   ['/api/labels/', 'labels.print'],
   ['/requests', 'requests.view'],
+  // Hire orders: the list, the order page and the form; the API's POSTs check orders.edit themselves.
+  ['/planning/orders/new', 'orders.edit'],
+  ['/planning/orders', 'orders.view'],
+  ['/api/planning/orders', 'orders.view'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],
   ['/admin/users', 'users.manage'],
@@ -79,6 +86,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/admin/settings', 'settings.manage'],
   ['/api/admin/settings', 'settings.manage'],
   ['/admin/sites', 'sites.manage'],
+  ['/api/admin/tariffs', 'tariffs.manage'],
   ['/api/admin/', 'settings.manage'],
   ['/admin', 'users.manage'],
   // The register (before the general /bins rule). /bins/<grai>/edit is under

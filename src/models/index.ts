@@ -21,6 +21,7 @@ import { CollectionRequest } from './collection-request';
 import { DamageReport } from './damage-report';
 import { Load } from './load';
 import { GridView } from './grid-view';
+import { Tariff } from './tariff';
 
 Organisation.hasMany(Site, { foreignKey: 'organisationId', as: 'sites' });
 Site.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });
@@ -72,8 +73,11 @@ Load.belongsTo(Site, { foreignKey: 'destinationSiteId', as: 'destinationSite' })
 Trip.belongsTo(Load, { foreignKey: 'loadId', as: 'load' });
 
 GridView.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
+Tariff.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
+Organisation.hasMany(Tariff, { foreignKey: 'customerId', as: 'tariffs' });
 
 export {
   sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage, Attachment, BinType, LinerLot,
   HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport, Load, GridView,
+  Tariff,
 };

@@ -16,6 +16,12 @@ describe('role × capability table', () => {
       expect(can(role, 'settings.manage')).toBe(role === 'admin');
     }
   });
+  test('hire orders are for planners and admins only', () => {
+    for (const role of ROLES) {
+      expect(can(role, 'orders.view')).toBe(role === 'planner' || role === 'admin');
+      expect(can(role, 'orders.edit')).toBe(role === 'planner' || role === 'admin');
+    }
+  });
   test('no role and an unknown role can do nothing', () => {
     for (const cap of Object.keys(CAPABILITIES) as Array<keyof typeof CAPABILITIES>) {
       expect(can(null, cap)).toBe(false);
@@ -36,6 +42,12 @@ describe('path rules', () => {
     ['/8003/095212340000160001', 'public'],
     ['/fleet', 'fleet.view'],
     ['/fleet/grid', 'fleet.view'],
+    ['/planning/orders', 'orders.view'],
+    ['/planning/orders/new', 'orders.edit'],
+    ['/planning/orders/12', 'orders.view'],
+    ['/api/planning/orders', 'orders.view'],
+    ['/api/planning/orders/12/status', 'orders.view'],
+    ['/api/admin/tariffs', 'tariffs.manage'],
     ['/yard', 'home.yard'],
     ['/portal', 'home.portal'],
     ['/admin/users', 'users.manage'],

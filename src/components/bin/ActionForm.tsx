@@ -186,7 +186,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
                 <span className="ml-auto text-sm text-ink-soft num">{o.loaded}/{o.quantity} · by {o.neededBy}</span>
               </label>
             ))}
-          {options.status === 'prepared' && options.orders.length === 0 && <p className="notice-attention">No open hire order at this depot for this bin type.</p>}
+          {options.status === 'prepared' && options.orders.length === 0 && <p className="notice-attention">No confirmed hire order at this depot for this bin type.</p>}
           {options.status === 'available' && <p>Transfer of folded empties to another depot (no hire).</p>}
         </fieldset>
       )}

@@ -1,5 +1,5 @@
 import bcrypt from 'bcryptjs';
-import { sequelize, Organisation, Site, User, Setting, BinType } from '@/models';
+import { sequelize, Organisation, Site, User, Setting, BinType, Tariff } from '@/models';
 import { generateHistory } from './history';
 import { DEMO_LOGINS, DEMO_PASSWORD } from './demo-logins.mjs';
 import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES } from './scenario';
@@ -48,6 +48,11 @@ async function seedPeopleAndPlaces() {
         opts,
       );
       customers.set(c.name, org);
+      // The customer's tariff: orders and billing read their terms from here, in force since before the history.
+      await Tariff.create(
+        { customerId: org.id, freeDays: c.freeDays, dailyRate: c.dailyRate, perTripFee: c.tripFee, lostBinFee: c.lostBinFee, currency: OPERATOR.currency, validFrom: '2020-01-01', validTo: null },
+        opts,
+      );
       for (const s of c.sites) {
         const site = await Site.create(
           { organisationId: org.id, code: s.code, name: s.name, kind: 'customer', address: s.address, latitude: String(s.lat), longitude: String(s.lon) },

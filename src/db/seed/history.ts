@@ -180,7 +180,9 @@ async function orderFor(world: World, customer: World['customers'][number], depo
     return p;
   }
   const order = await p;
-  await HireOrder.increment('quantity', { where: { id: order.id } });
+  // The history's orders grow by one bin per dispatch, so each new bin reopens its order for loading
+  // (the scan service marks an order dispatched once every ordered bin has left).
+  await HireOrder.update({ quantity: sequelize.literal('quantity + 1'), status: 'loading' }, { where: { id: order.id } });
   return order;
 }
 
@@ -338,7 +340,7 @@ async function openComingOrders(world: World) {
       await HireOrder.create({
         reference: `HO-${localDate(needed, OPERATOR.timeZone).slice(2, 7).replace('-', '')}-N${String(n).padStart(3, '0')}`,
         customerId: c.org.id, deliverySiteId: c.filling.id, depotSiteId: c.homeDepot.id, binTypeId: world.types[k % 2]!.id,
-        quantity: rnd.pick([12, 20, 24, 24, 30, 40]), neededBy: localDate(needed, OPERATOR.timeZone), status: 'open',
+        quantity: rnd.pick([12, 20, 24, 24, 30, 40]), neededBy: localDate(needed, OPERATOR.timeZone), status: 'confirmed',
         product: PRODUCTS[c.org.name] ?? null, notes: null,
       });
     }

@@ -11,6 +11,8 @@ import { AppError } from '@/lib/api-errors';
 import { localDate } from '@/lib/calendar';
 import { recordScan, type Actor, type ScanOutcome } from '@/lib/scans/scan-service.server';
 import { getSettings } from '@/lib/settings/settings.server';
+import { countsAsDemand } from '@/lib/planning/order-status';
+import { syncOrderStatus } from '@/lib/planning/orders.server';
 
 export interface LoadBin { grai: string; serial: string; lotNumber: string | null; statusNow: string; dispatchedAt: string }
 
@@ -46,7 +48,7 @@ export async function startLoad(user: Actor & { id: number }, input: { hireOrder
   let destination = input.destinationSiteId ?? null;
   if (input.purpose === 'hire') {
     const order = input.hireOrderId ? await HireOrder.findByPk(input.hireOrderId) : null;
-    if (!order || !['open', 'loading'].includes(order.status)) throw new AppError('unprocessable', 'Choose an open hire order.');
+    if (!order || !countsAsDemand(order.status)) throw new AppError('unprocessable', 'Choose a confirmed hire order (drafts are not loaded).');
     if (order.depotSiteId !== depot.id) throw new AppError('unprocessable', `Hire order ${order.reference} is served from another depot.`);
     const existing = await Load.findOne({ where: { hireOrderId: order.id, status: 'loading', depotSiteId: depot.id } });
     if (existing) return existing;
@@ -91,7 +93,6 @@ export async function addBinToLoad(user: Actor, loadId: number, input: { clientE
       { clientEventId: input.clientEventId, assetId: input.assetId, action: 'dispatch', occurredAt: input.occurredAt, siteId: load.depot_site_id, purpose: load.purpose, hireOrderId: load.hire_order_id ?? undefined, loadId: load.id },
       { transaction: t },
     );
-    if (load.hire_order_id) await sequelize.query(`UPDATE hire_orders SET status = 'loading' WHERE id = $1 AND status = 'open'`, { bind: [load.hire_order_id], transaction: t });
     return { ...outcome, loaded: outcome.replayed ? loaded : loaded + 1, target: load.target_count };
   });
 }
@@ -106,13 +107,7 @@ export async function dispatchLoad(loadId: number, input: { carrier: string; veh
     if (loaded === 0) throw new AppError('unprocessable', 'Scan at least one bin onto the load first.');
     Object.assign(load, { ...input, driverName: input.driverName || null, status: 'dispatched', dispatchedAt: new Date() });
     await load.save({ transaction: t });
-    if (load.hireOrderId) {
-      await sequelize.query(
-        `UPDATE hire_orders SET status = 'dispatched'
-          WHERE id = $1 AND (SELECT count(*) FROM trips WHERE hire_order_id = $1) >= quantity`,
-        { bind: [load.hireOrderId], transaction: t },
-      );
-    }
+    if (load.hireOrderId) await syncOrderStatus(load.hireOrderId, t);
     return load;
   });
 }

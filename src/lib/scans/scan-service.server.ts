@@ -13,6 +13,8 @@ import { decide, checkLinerLot, INFERRED_STATUS, type Action, type BinState, typ
 import { localDate } from '@/lib/calendar';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
+import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
+import { syncOrderStatus } from '@/lib/planning/orders.server';
 
 export interface FillRecord {
   product: string;
@@ -162,6 +164,8 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
   const flags = [...decision.flags];
   const tripId = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
+  // The order follows its bins: the first one loaded makes it loading, the last one dispatched makes it dispatched.
+  if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const eventTripId = tripId ?? asset.current_trip_id;
   const rows: unknown[][] = decision.inferred.map((step, i) => [
     step, new Date(occurredAt.getTime() - decision.inferred.length + i), null, null, INFERRED_STATUS[step], true, true,
@@ -248,8 +252,9 @@ async function checkActionInputs(asset: AssetRow, input: ScanInput, today: strin
   }
   const order = await one<OrderRow>(
     'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id FROM hire_orders WHERE id = $1', [input.hireOrderId], t);
-  if (!order || !['open', 'loading'].includes(order.status)) {
-    throw new AppError('transition_refused', 'That hire order is not open for loading.', { reason: 'order_not_open', action: input.action });
+  if (!order || !countsAsDemand(order.status as OrderStatus)) {
+    const why = order?.status === 'draft' ? ' it is still a draft; a planner confirms it first' : order ? ` it is ${order.status}` : '';
+    throw new AppError('transition_refused', `That hire order is not open for loading${why ? `:${why}` : ''}.`, { reason: 'order_not_open', action: input.action });
   }
   if (order.bin_type_id !== asset.bin_type_id) {
     const type = await one<{ name: string }>('SELECT name FROM bin_types WHERE id = $1', [order.bin_type_id], t);

@@ -4,6 +4,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import type { SiteKind } from '@/lib/scans/lifecycle';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
+import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
 
 export interface SiteOption { id: number; name: string; kind: SiteKind }
 export interface LotOption { id: number; lotNumber: string; supplier: string; expiryDate: string }
@@ -34,7 +35,7 @@ export async function ordersAt(depotId: number, binTypeId: number): Promise<Orde
     `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity,
             (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
        FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id
-      WHERE ho.depot_site_id = $1 AND ho.bin_type_id = $2 AND ho.status IN ('open', 'loading')
+      WHERE ho.depot_site_id = $1 AND ho.bin_type_id = $2 AND ho.status IN (${DEMAND_STATUSES_SQL})
       ORDER BY ho.needed_by, ho.id LIMIT 20`,
     { bind: [depotId, binTypeId], type: QueryTypes.SELECT },
   );

@@ -8,6 +8,7 @@ import { localDate } from '@/lib/calendar';
 import type { DepotSnapshot, SnapshotBin, SnapshotOrder } from './yard-offline';
 import { lotsAt, type SiteOption } from './action-options.server';
 import { getSettings } from '@/lib/settings/settings.server';
+import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
 
 /** More bins than any one depot holds; a guard, not a page size. */
 const MAX_BINS = 20_000;
@@ -41,7 +42,7 @@ export async function loadDepotSnapshot(depotId: number, now = new Date()): Prom
       `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity, ho.bin_type_id AS "binTypeId",
               (SELECT count(*)::int FROM trips tr WHERE tr.hire_order_id = ho.id) AS loaded
          FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id
-        WHERE ho.depot_site_id = $1 AND ho.status IN ('open', 'loading')
+        WHERE ho.depot_site_id = $1 AND ho.status IN (${DEMAND_STATUSES_SQL})
         ORDER BY ho.needed_by, ho.id LIMIT 200`,
       { bind: [depotId], type: QueryTypes.SELECT },
     ),

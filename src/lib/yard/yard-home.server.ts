@@ -5,6 +5,7 @@ import { sequelize } from '@/models';
 import { addDays, localDate } from '@/lib/calendar';
 import type { Action, Status } from '@/lib/scans/lifecycle';
 import { getSettings } from '@/lib/settings/settings.server';
+import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
 
 export interface YardHome {
   depot: { id: number; name: string } | null;
@@ -36,7 +37,7 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
       `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity, bt.name AS "binType",
               (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
          FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id JOIN bin_types bt ON bt.id = ho.bin_type_id
-        WHERE ho.depot_site_id = $1 AND ho.status IN ('open', 'loading') AND ho.needed_by <= $2
+        WHERE ho.depot_site_id = $1 AND ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $2
         ORDER BY ho.needed_by, ho.id`,
       [depotId, horizon],
     ),

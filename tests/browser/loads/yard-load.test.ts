@@ -41,7 +41,7 @@ describe('preparing and loading bins on a phone', () => {
     const bins = [returning, here];
     expect(bins.every(Boolean)).toBe(true);
     const order = await one<{ id: number; reference: string }>(
-      `SELECT id, reference FROM hire_orders WHERE depot_site_id = $1 AND status IN ('open','loading') AND bin_type_id = $2 ORDER BY needed_by LIMIT 1`,
+      `SELECT id, reference FROM hire_orders WHERE depot_site_id = $1 AND status IN ('confirmed','loading') AND bin_type_id = $2 ORDER BY needed_by LIMIT 1`,
       [depot.id, bins[0]!.bin_type_id],
     );
     expect(order).toBeTruthy();

@@ -36,7 +36,7 @@ import { makeGrai } from '@/lib/gs1';
 import { forgetSettings } from '@/lib/settings/settings.server';
 import type { Actor } from '@/lib/scans/scan-service.server';
 
-/** baseWorld plus a bin type, a liner lot, an open hire order and one user per role. */
+/** baseWorld plus a bin type, a liner lot, a confirmed hire order and one user per role. */
 export async function poolWorld() {
   forgetSettings();
   const w = await baseWorld();
@@ -45,7 +45,7 @@ export async function poolWorld() {
     footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1160, heightFoldedMm: 380, unCode: '31HA2',
   });
   const lot = await LinerLot.create({ supplier: 'Test Liners', lotNumber: 'TL-001', spec: 'PE bag', quantityReceived: 100, receivedOn: '2026-01-01', expiryDate: '2028-01-01', siteId: w.depot.id, certificateId: null, statusReason: null });
-  const order = await HireOrder.create({ reference: 'HO-TEST-1', customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, binTypeId: binType.id, quantity: 24, neededBy: '2026-12-10', product: 'Test oil', notes: null });
+  const order = await HireOrder.create({ reference: 'HO-TEST-1', customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, binTypeId: binType.id, quantity: 24, neededBy: '2026-12-10', status: 'confirmed', product: 'Test oil', notes: null });
   const planner = await makeUser('planner', w.operator.id);
   const yard = await makeUser('yard', w.operator.id, { homeSiteId: w.depot.id });
   const customerUser = await makeUser('customer', w.customer.id);

@@ -1,0 +1,42 @@
+import { describe, test, expect } from 'vitest';
+import { usePoolWorld } from '../support/fixtures';
+import { callRoute, json, sessionUser } from '../support/route';
+import { makeUser } from '../support/fixtures';
+import { tariffOn } from '@/lib/planning/orders.server';
+import { Tariff } from '@/models';
+import * as route from '@/pages/api/admin/tariffs';
+
+const w = usePoolWorld();
+const body = (extra: Record<string, unknown> = {}) => ({
+  customerId: w.customer.id, freeDays: 14, dailyRate: '1.60', perTripFee: '24.00', lostBinFee: '780.00', currency: 'EUR', validFrom: '2026-01-01', ...extra,
+});
+
+describe('entering tariffs (admin)', () => {
+  test('a first tariff, then a price change that ends it the day before; overlaps refused; others may not', async () => {
+    const admin = sessionUser(await makeUser('admin', w.operator.id));
+    const first = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body() });
+    expect(first.status).toBe(201);
+    expect((await json<{ data: { endedPrevious: unknown } }>(first)).data.endedPrevious).toBeNull();
+
+    const change = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ dailyRate: '1.75', validFrom: '2027-03-01' }) });
+    expect(change.status).toBe(201);
+    // 1 Mar 2027 − 1 day = 28 Feb 2027 (2027 is not a leap year)
+    expect((await json<{ data: { endedPrevious: { validTo: string } } }>(change)).data.endedPrevious.validTo).toBe('2027-02-28');
+    expect((await tariffOn(w.customer.id, '2027-02-28'))?.dailyRate).toBe('1.60');
+    expect((await tariffOn(w.customer.id, '2027-03-01'))?.dailyRate).toBe('1.75');
+
+    const overlap = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ validFrom: '2026-06-01', validTo: '2026-06-30' }) });
+    expect(overlap.status).toBe(422);
+    expect((await json(overlap)).error?.message).toContain('2026-01-01 to 2027-02-28');
+    const bad = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ dailyRate: '1.605', currency: 'eur' }) });
+    expect(bad.status).toBe(400);
+    expect(await Tariff.count({ where: { customerId: w.customer.id } })).toBe(2);
+
+    const list = await callRoute(route.GET, { user: admin, path: '/api/admin/tariffs', query: { customer: String(w.customer.id) } });
+    expect((await json<{ data: { validFrom: string }[] }>(list)).data.map((t) => t.validFrom)).toEqual(['2027-03-01', '2026-01-01']);
+    const planner = await callRoute(route.POST, { user: sessionUser(w.planner), path: '/api/admin/tariffs', method: 'POST', body: body({ validFrom: '2030-01-01' }) });
+    expect(planner.status).toBe(403);
+    const audit = await Tariff.sequelize!.query(`SELECT action FROM audit_entries WHERE entity_type = 'tariff' ORDER BY id`, { type: 'SELECT' });
+    expect(audit.map((a) => (a as { action: string }).action)).toEqual(['tariff.create', 'tariff.end', 'tariff.create']);
+  });
+});
