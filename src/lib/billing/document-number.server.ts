@@ -3,7 +3,7 @@
 // or rolls back, so numbers are consecutive and a rolled-back issue gives its number back (no gaps).
 import type { Transaction } from 'sequelize';
 import { QueryTypes } from 'sequelize';
-import { sequelize } from '@/lib/server/db';
+import { sequelize } from '@/db/sequelize';
 import { formatDocumentNumber, type DocumentSeries } from './document-number';
 
 export interface TakenNumber { series: DocumentSeries; year: number; sequence: number; number: string }

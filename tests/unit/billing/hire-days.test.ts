@@ -8,7 +8,7 @@ import { addDays as fnsAddDays, differenceInCalendarDays, format, max as fnsMax,
 import {
   DEFAULT_DAY_COUNT, clipRange, firstHireDay, hireDayNumber, hireDayRange, hireDaysThrough, hireDaysThroughSql, lastFreeDay,
 } from '@/lib/billing/hire-days';
-import { overdueBack } from '@/lib/overdue-return';
+import { overdueBack } from '@/lib/fleet/overdue-return';
 
 const BOTH = { firstDayCounts: true, lastDayCounts: true };
 const FIRST_ONLY = { firstDayCounts: true, lastDayCounts: false };
