@@ -196,7 +196,7 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
               <input type="checkbox" checked={onlyProblems} onChange={(e) => setOnlyProblems(e.target.checked)} id="only-problems" /> Show only lines with problems
             </label>
           )}
-          <div className="overflow-x-auto">
+          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Lines of the file (the table scrolls sideways)">
             <table className="w-full text-left text-sm" id="import-preview">
               <thead className="whitespace-nowrap bg-paper text-ink-soft">
                 <tr>

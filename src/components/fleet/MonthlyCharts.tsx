@@ -27,7 +27,8 @@ const shortMonth = (label: string) => label.replace(/^(\w{3}) \d{2}(\d{2})$/, "$
 
 function Frame({ children }: { children: ReactElement }) {
   return (
-    <div aria-hidden="true" className="h-64 w-full">
+    // The chart is a picture of the table beside it (which screen readers read): hidden and out of the tab order.
+    <div aria-hidden="true" inert className="h-64 w-full">
       <ResponsiveContainer width="100%" height="100%">
         {children}
       </ResponsiveContainer>

@@ -79,7 +79,7 @@ export default function LoadScanner(props: Props) {
             {bins.length}<span className="text-lg text-ink-soft">/{props.target}</span>
           </span>
         </div>
-        <div className="mt-2 h-3 rounded-full bg-paper-deep" role="progressbar" aria-valuemin={0} aria-valuemax={props.target} aria-valuenow={bins.length}>
+        <div className="mt-2 h-3 rounded-full bg-paper-deep" role="progressbar" aria-label="Bins on the load against the target" aria-valuemin={0} aria-valuemax={props.target} aria-valuenow={bins.length}>
           <div className="h-3 rounded-full bg-kelp" style={{ width: `${Math.min(100, (bins.length / props.target) * 100)}%` }} />
         </div>
         {full && <p className="mt-2 font-medium text-moss">Target reached. Enter the carrier’s details below.</p>}

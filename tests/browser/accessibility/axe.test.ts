@@ -1,0 +1,149 @@
+// WCAG 2 A and AA on every page, for every role that may open it, at phone and desktop width. The rules are
+// axe-core's (the well-known engine, not rules of our own); the list of pages comes from src/pages, and each
+// dynamic route gets a real example value from the e2e database. A page no role may open fails the test too, so a
+// new page is covered the day it lands.
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import { createRequire } from 'node:module';
+import { describe, test, expect, afterAll } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { useApp, ROOT, PHONE, DESKTOP, signIn } from '../support/app';
+import { one, closeDb } from '../support/db';
+import { DEMO_PASSWORD, DEMO_LOGINS } from '@/db/seed/demo-logins.mjs';
+import { accessFor, can, type Role } from '@/lib/permissions';
+
+const t = useApp();
+afterAll(closeDb);
+
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'];
+
+/** Every page route under src/pages (API routes and non-page endpoints left out), as its file pattern. */
+function pageRoutes(): string[] {
+  const base = join(ROOT, 'src/pages');
+  const out: string[] = [];
+  const walk = (dir: string) => {
+    for (const e of readdirSync(dir)) {
+      const p = join(dir, e);
+      if (statSync(p).isDirectory()) walk(p);
+      else if (e.endsWith('.astro')) out.push('/' + relative(base, p).replace(/\.astro$/, '').replace(/(^|\/)index$/, ''));
+    }
+  };
+  walk(base);
+  return out.map((r) => (r === '/' ? '/' : r.replace(/\/$/, ''))).sort();
+}
+
+type Viewer = Role | 'anonymous';
+const VIEWERS: Viewer[] = ['anonymous', 'yard', 'planner', 'admin', 'customer'];
+
+function mayOpen(viewer: Viewer, path: string): boolean {
+  const access = accessFor(path.split('?')[0]!);
+  if (access === 'public') return true;
+  if (viewer === 'anonymous') return false;
+  if (access === 'signed-in') return true;
+  return can(viewer, access);
+}
+
+interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number }
+async function examples(): Promise<Examples> {
+  const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
+  const mine = await one<{ grai: string }>(
+    `SELECT a.grai FROM assets a JOIN users u ON u.organisation_id = a.customer_id WHERE u.email = $1 AND a.status = 'on_hire' ORDER BY a.id LIMIT 1`,
+    [customer.email],
+  );
+  const bin = await one<{ grai: string; id: number }>(`SELECT grai, id FROM assets WHERE status = 'available' ORDER BY id LIMIT 1`);
+  const trip = await one<{ id: number }>(`SELECT id FROM trips ORDER BY id DESC LIMIT 1`);
+  for (const [what, v] of Object.entries({ mine, bin, trip })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
+  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id };
+}
+
+/** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
+function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string): string {
+  const grai = viewer === 'customer' ? ex.customerGrai : ex.anyGrai;
+  const known: Record<string, string> = {
+    '/8003/[...value]': `/8003/${ex.anyGrai}`,
+    '/bins/[grai]': `/bins/${grai}`,
+    '/bins/[grai]/edit': `/bins/${ex.anyGrai}/edit`,
+    '/trips/[id]': `/trips/${ex.tripId}`,
+    '/loads/[ref]': `/loads/${ex.loadRef}`,
+    '/loads/[ref]/note': `/loads/${ex.loadRef}/note`,
+    '/loads/confirm/[token]': confirmPath,
+    '/labels/sheet': `/labels/sheet?ids=${ex.binId}`,
+  };
+  if (route.includes('[')) {
+    const url = known[route];
+    if (!url) throw new Error(`no example value for the dynamic route ${route}: add one to this test`);
+    return url;
+  }
+  return route;
+}
+
+interface Violation { id: string; impact: string | null; help: string; nodes: string[] }
+async function axe(page: Page): Promise<Violation[]> {
+  await page.evaluate(AXE_SOURCE);
+  return page.evaluate(async (tags) => {
+    const w = window as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: Array<{ id: string; impact: string | null; help: string; nodes: Array<{ target: unknown[] }> }> }> } };
+    const r = await w.axe.run(document, { runOnly: { type: 'tag', values: tags }, resultTypes: ['violations'] });
+    return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => n.target.join(' ')) }));
+  }, WCAG_TAGS);
+}
+
+async function contextFor(viewer: Viewer, width: 'phone' | 'desktop'): Promise<BrowserContext> {
+  // axe is injected through the DevTools protocol; the app's own CSP stays as it is for the page itself.
+  const ctx = await t.browser.newContext({ ...(width === 'phone' ? PHONE : DESKTOP), baseURL: t.app.url, bypassCSP: true });
+  if (viewer !== 'anonymous') {
+    const login = DEMO_LOGINS.find((l) => l.role === viewer)!;
+    const page = await ctx.newPage();
+    await signIn(page, login.email, DEMO_PASSWORD);
+    await page.waitForURL((u) => !u.pathname.startsWith('/login'));
+    await page.close();
+  }
+  return ctx;
+}
+
+describe('accessibility: WCAG 2 A/AA (axe-core) on every page, every role, 390 and 1280 px', () => {
+  test('every page route is opened by at least one role', () => {
+    const orphans = pageRoutes().filter((r) => !VIEWERS.some((v) => mayOpen(v, r.replace(/\[[^\]]+\]/g, 'x'))));
+    expect(orphans).toEqual([]);
+  });
+
+  for (const width of ['phone', 'desktop'] as const) {
+    test(`no violations at ${width === 'phone' ? 390 : 1280} px`, async () => {
+      const ex = await examples();
+      // A load as the yard starts one (the demo pool has none open), and its delivery link read off the dispatch
+      // note, as the receiving end gets it.
+      const yard = await contextFor('yard', width);
+      const order = await one<{ id: number }>(
+        `SELECT ho.id FROM hire_orders ho JOIN users u ON u.home_site_id = ho.depot_site_id
+          WHERE u.email = 'yard@northmere.example' AND ho.status IN ('open', 'confirmed', 'loading') ORDER BY ho.id LIMIT 1`,
+      );
+      expect(order, 'the yard depot has an open hire order').toBeDefined();
+      const started = await yard.request.post('/api/loads', { data: { purpose: 'hire', hireOrderId: order.id }, headers: { Origin: t.app.url } });
+      expect(started.status(), await started.text()).toBe(201);
+      ex.loadRef = ((await started.json()) as { data: { reference: string } }).data.reference;
+      const note = await yard.newPage();
+      await note.goto(`/loads/${ex.loadRef}/note`);
+      const confirmPath = new URL((await note.getByTestId('confirm-link').getAttribute('href'))!).pathname;
+      await yard.close();
+
+      const found: string[] = [];
+      let opened = 0;
+      for (const viewer of VIEWERS) {
+        const ctx = await contextFor(viewer, width);
+        const page = await ctx.newPage();
+        for (const route of pageRoutes()) {
+          const url = urlFor(route, viewer, ex, confirmPath);
+          if (!mayOpen(viewer, url)) continue;
+          const res = await page.goto(url);
+          expect(res?.status(), `${viewer} ${url}`).toBeLessThan(500);
+          await page.waitForLoadState('networkidle').catch(() => undefined);
+          opened += 1;
+          for (const v of await axe(page)) found.push(`${viewer} ${url} [${v.id}, ${v.impact}] ${v.help}: ${v.nodes.join(' | ')}`);
+        }
+        await ctx.close();
+      }
+      expect(opened).toBeGreaterThan(40);
+      expect(found, found.join('\n')).toEqual([]);
+    }, 600_000);
+  }
+});
