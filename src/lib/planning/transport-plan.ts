@@ -188,10 +188,17 @@ const STATUS_BY_CODE: Record<number, SolverStatus> = {
   17: 'interrupted',
 };
 
-function runModel(highs: Highs, data: ModelData, options: Record<string, number | string | boolean>, isMip: boolean): RunOutcome {
+function runModel(
+  highs: Highs,
+  data: ModelData,
+  options: Record<string, number | string | boolean>,
+  isMip: boolean,
+  start?: Float64Array,
+): RunOutcome {
   try {
     return highs.withModel(data, (model) => {
       model.options.set({ output_flag: false, ...options });
+      if (start) model.setSolution({ colValue: start });
       model.run();
       const code = model.getModelStatus();
       const status = STATUS_BY_CODE[code] ?? 'error';
@@ -239,7 +246,7 @@ function csr(rows: { cols: number[]; vals: number[] }[], numCols: number) {
 
 /** A solver value that should be integral (vertex of a network LP, or an integer column), snapped. */
 function snap(value: number): number {
-  const rounded = Math.round(value);
+  const rounded = Math.round(value) || 0; // never −0
   return Math.abs(value - rounded) <= 1e-6 * Math.max(1, Math.abs(value)) ? rounded : value;
 }
 
@@ -438,6 +445,17 @@ function checkTypeMatrix(value: unknown, label: string, types: number): number[]
   });
 }
 
+/** Least common multiple of whole capacities, or 1 (fractional coefficients) when it would be large. */
+function commonMultiple(values: number[]): number {
+  const gcd = (a: number, b: number): number => (b === 0 ? a : gcd(b, a % b));
+  let l = 1;
+  for (const v of values) {
+    l = (l / gcd(l, v)) * v;
+    if (l > 1e6) return 1;
+  }
+  return l;
+}
+
 export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptions): Promise<TruckPlanResult> {
   const capacity = checkList(input?.truckCapacity, 'truckCapacity').map((v, k) => {
     if (typeof v !== 'number' || !Number.isInteger(v) || v <= 0) {
@@ -521,12 +539,54 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
     rowLower.push(met[k]);
     rowUpper.push(met[k]);
   }
-  // Σk x[lane][k] / capacity[k] ≤ y[lane]: the mix on a lane fits in its trucks.
+  // Σk x[lane][k] / capacity[k] ≤ y[lane]: the mix on a lane fits in its trucks. Written with whole
+  // coefficients (× the least common multiple of the capacities, when it is small), which the solver's
+  // integer-rounding cuts work with far better than with fractions.
+  const scale = commonMultiple(capacity);
   lanes.forEach((_, li) => {
     const cols = [...capacity.map((_, k) => xCol(li, k)), yCol(li)];
-    rows.push({ cols, vals: [...capacity.map((c) => 1 / c), -1] });
+    rows.push({ cols, vals: [...capacity.map((c) => scale / c), -scale] });
     rowLower.push(-highs.infinity);
     rowUpper.push(0);
+  });
+  // Valid inequalities that change no integer plan but tighten the LP relaxation a great deal (the usual
+  // strong linking of fixed-charge network design): a lane without a truck carries nothing, so
+  // x[lane][k] ≤ min(supply, demand) × y[lane] whenever that amount is under a full truck of type k.
+  lanes.forEach((l, li) => {
+    for (let k = 0; k < types; k++) {
+      const most = Math.min(supplies[l.from][k], demands[l.to][k]);
+      if (most > 0 && most < capacity[k]) {
+        rows.push({ cols: [xCol(li, k), yCol(li)], vals: [1, -most] });
+        rowLower.push(-highs.infinity);
+        rowUpper.push(0);
+      }
+    }
+  });
+  // When all demand of every type is met, each destination receives all it asked for, in whole trucks:
+  // at least ⌈Σk demand/capacity⌉ trucks arrive there. Likewise a source that sends everything.
+  const totalOf = (m: number[][], k: number) => m.reduce((sum, row) => sum + row[k], 0);
+  const allDemandMet = capacity.every((_, k) => met[k] === totalOf(demands, k));
+  const allSupplyUsed = capacity.every((_, k) => met[k] === totalOf(supplies, k));
+  const truckFloor = (amounts: number[]) => Math.ceil(amounts.reduce((sum, a, k) => sum + a / capacity[k], 0) - 1e-9);
+  if (allDemandMet) {
+    demands.forEach((row, j) => {
+      const floor = truckFloor(row);
+      if (floor > 0) {
+        const cols = byDestination[j].map(yCol);
+        rows.push({ cols, vals: cols.map(() => 1) });
+        rowLower.push(floor);
+        rowUpper.push(highs.infinity);
+      }
+    });
+  }
+  supplies.forEach((row, i) => {
+    const floor = truckFloor(row);
+    if ((mustShip[i] || allSupplyUsed) && floor > 0) {
+      const cols = bySource[i].map(yCol);
+      rows.push({ cols, vals: cols.map(() => 1) });
+      rowLower.push(floor);
+      rowUpper.push(highs.infinity);
+    }
   });
   const colCost = new Float64Array(numCols);
   const colUpper = new Float64Array(numCols).fill(highs.infinity);
@@ -536,6 +596,34 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
     // No more trucks than the lane could ever fill: a tighter bound helps the branch and bound.
     colUpper[yCol(li)] = Math.ceil(capacity.reduce((s, c, k) => s + colUpper[xCol(li, k)] / c, 0) - 1e-9);
   });
+  // A first plan for the branch and bound to improve on: each bin type moved at its share of a truck's cost
+  // (a transportation LP per type, whose vertices are whole numbers), then trucks rounded up per lane.
+  const startLp = runModel(
+    highs,
+    {
+      numCols: L * types,
+      numRows: supplies.length * types + demands.length * types + types,
+      colCost: Float64Array.from(lanes.flatMap((l) => capacity.map((c) => l.cost / c))),
+      colLower: new Float64Array(L * types),
+      colUpper: new Float64Array(L * types).fill(highs.infinity),
+      rowLower: Float64Array.from(rowLower.slice(0, supplies.length * types + demands.length * types + types)),
+      rowUpper: Float64Array.from(rowUpper.slice(0, supplies.length * types + demands.length * types + types)),
+      matrix: csr(rows.slice(0, supplies.length * types + demands.length * types + types), L * types),
+    },
+    lpOpts,
+    false,
+  );
+  let start: Float64Array | undefined;
+  if (startLp.hasSolution) {
+    const x = Array.from(startLp.colValue, snap);
+    if (x.every(Number.isInteger)) {
+      start = new Float64Array(numCols);
+      x.forEach((v, c) => (start![c] = v));
+      lanes.forEach((_, li) => {
+        start![yCol(li)] = Math.ceil(capacity.reduce((sum, c, k) => sum + x[xCol(li, k)] / c, 0) - 1e-9);
+      });
+    }
+  }
   const outcome = runModel(
     highs,
     {
@@ -549,10 +637,12 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
       matrix: csr(rows, numCols),
       integrality: new Int32Array(numCols).fill(highs.constants.variableType.integer),
     },
-    mipOpts,
+    // The time limit is for the whole plan: the MIP gets what the first steps left of it.
+    { ...mipOpts, time_limit: Math.max(0.5, Number(mipOpts.time_limit) - step1.seconds - startLp.seconds) },
     true,
+    start,
   );
-  const seconds = step1.seconds + outcome.seconds;
+  const seconds = step1.seconds + startLp.seconds + outcome.seconds;
   if (!outcome.hasSolution) {
     const reason =
       outcome.status === 'time_limit'

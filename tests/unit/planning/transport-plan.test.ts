@@ -186,3 +186,25 @@ describe('solveTruckPlan (whole trucks, one commodity per bin type)', () => {
     await expect(solveTruckPlan(CASE, { mipRelGap: 2 })).rejects.toThrow(/mipRelGap/);
   });
 });
+
+describe('solveTruckPlan under a time limit', () => {
+  it('stops at the limit with a plan, the status and the gap HiGHS reports', async () => {
+    // 20 sources × 100 destinations, two bin types (seeded). In 0.5 s HiGHS cannot prove the optimum; the
+    // answer must still be a feasible plan (the rounded first plan at least) with a gap above 0.
+    let seed = 11;
+    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const int = (lo: number, hi: number) => lo + Math.floor(rand() * (hi - lo + 1));
+    const supplies = Array.from({ length: 20 }, () => [int(100, 300), int(50, 150)]);
+    const demands = Array.from({ length: 100 }, () => [int(0, 60), int(0, 30)]);
+    const truckCosts = supplies.map(() => demands.map(() => int(150, 900)));
+    const r = await solveTruckPlan({ supplies, demands, truckCosts, truckCapacity: [52, 26] }, { timeLimit: 0.5, mipRelGap: 0.0001 });
+    expect(r.status).toBe('time_limit');
+    expect(r.hasPlan).toBe(true);
+    expect(r.mipGap).toBeGreaterThan(0.0001);
+    expect(r.bound).toBeLessThanOrEqual(r.totalCost);
+    expect(r.unmetDemand.flat().every((v) => v === 0)).toBe(true);
+    for (const l of r.lanes) expect(l.load[0] / 52 + l.load[1] / 26).toBeLessThanOrEqual(l.trucks + 1e-9);
+    const delivered = [0, 1].map((k) => r.lanes.reduce((s, l) => s + l.load[k], 0));
+    expect(delivered).toEqual([0, 1].map((k) => demands.reduce((s, d) => s + d[k], 0)));
+  }, 30_000);
+});
