@@ -90,7 +90,7 @@ async function main() {
 
   for (const size of ['drops', 'loads'] as const) {
   const mip = truckInstance(20, 100, 15, size);
-  const totals = (rows: number[][]) => [0, 1].map((k) => rows.reduce((s, r) => s + r[k], 0));
+  const totals = (rows: readonly (readonly number[])[]) => [0, 1].map((k) => rows.reduce((s, r) => s + r[k], 0));
   console.log(`\n2${size === 'drops' ? 'a' : 'b'}. integer trucks 20 × 100, two bin types, '${size}' (capacity ${mip.truckCapacity.join(' / ')} per truck), supply ${totals(mip.supplies).join(' / ')}, demand ${totals(mip.demands).join(' / ')}`);
   console.log('   options: time_limit 10 s (whole plan), mip_rel_gap 0.01');
   for (let r = 1; r <= RUNS; r++) {
