@@ -333,3 +333,59 @@ export function usualReturnDepots(trips: readonly TripHistoryRecord[], asOf: Loc
   }
   return out;
 }
+
+// ---------------------------------------------------------------------------------------------------------
+// Back-test: forecasts made at past dates against what came back
+
+export interface HistoryTrip extends TripHistoryRecord {
+  /** Depot the bin left from (the fallback return depot). */
+  dispatchDepotKey: string;
+}
+
+/** The bins on hire at the end of `asOf`, each assigned to the depot its site usually returns to. */
+export function binsOutAsOf(trips: readonly HistoryTrip[], asOf: LocalDate): BinOut[] {
+  const usual = usualReturnDepots(trips, asOf);
+  return trips
+    .filter((t) => t.dispatchedOn <= asOf && (t.returnedOn === null || t.returnedOn > asOf))
+    .map((t) => ({ depotKey: usual.get(t.siteKey) ?? t.dispatchDepotKey, siteKey: t.siteKey, binTypeKey: t.binTypeKey, dispatchedOn: t.dispatchedOn }));
+}
+
+export interface BackTestDay {
+  asOf: LocalDate;
+  depotKey: string;
+  date: LocalDate;
+  actual: number;
+  expected: number;
+  low: number;
+  high: number;
+  inside: boolean;
+}
+
+/**
+ * For each forecast date: fit on what was known then, forecast the returns of the bins then on hire, and
+ * count, per depot and day of the horizon, how many of those bins actually came back there that day.
+ */
+export function backTestReturns(
+  trips: readonly HistoryTrip[],
+  asOfDates: readonly LocalDate[],
+  { horizonDays, minReturns = 20 }: { horizonDays: number; minReturns?: number },
+): { days: BackTestDay[]; insideShare: number } {
+  const days: BackTestDay[] = [];
+  for (const asOf of asOfDates) {
+    const model = fitReturnModel(trips, asOf, { minReturns });
+    const out = trips.filter((t) => t.dispatchedOn <= asOf && (t.returnedOn === null || t.returnedOn > asOf));
+    const actual = new Map<string, number>();
+    for (const t of out) {
+      if (t.returnedOn === null || !t.returnDepotKey) continue;
+      const key = `${t.returnDepotKey}\u0000${t.returnedOn}`;
+      actual.set(key, (actual.get(key) ?? 0) + 1);
+    }
+    for (const depot of forecastReturns(model, binsOutAsOf(trips, asOf), { asOf, horizonDays })) {
+      for (const d of depot.days) {
+        const n = actual.get(`${depot.depotKey}\u0000${d.date}`) ?? 0;
+        days.push({ asOf, depotKey: depot.depotKey, date: d.date, actual: n, expected: d.expected, low: d.low, high: d.high, inside: n >= d.low && n <= d.high });
+      }
+    }
+  }
+  return { days, insideShare: days.length === 0 ? Number.NaN : days.filter((d) => d.inside).length / days.length };
+}
