@@ -111,7 +111,10 @@ function submit<T>(job: Omit<SolverJob, 'id'>, steps: number): Promise<T> {
   const w = worker;
   const id = nextId++;
   const limitSeconds = job.options?.timeLimit ?? DEFAULT_TIME_LIMIT_SECONDS;
-  const budgetMs = (Number.isFinite(limitSeconds) && limitSeconds > 0 ? limitSeconds : DEFAULT_TIME_LIMIT_SECONDS) * 1000 * steps + MARGIN_MS;
+  // Each step is bounded by the time limit, and the LP steps of a truck plan by at least 30 s (see
+  // transport-plan.ts): allow all of that before giving up on the worker.
+  const limit = Number.isFinite(limitSeconds) && limitSeconds > 0 ? limitSeconds : DEFAULT_TIME_LIMIT_SECONDS;
+  const budgetMs = (limit * steps + 60) * 1000 + MARGIN_MS;
   return new Promise<T>((resolvePromise, reject) => {
     const timer = setTimeout(() => {
       pending.delete(id);

@@ -103,13 +103,18 @@ export interface TruckPlanResult {
   status: SolverStatus;
   /** False when the solver stopped without any feasible plan (lanes, flows and totals are then empty). */
   hasPlan: boolean;
+  /** True when time ran out before HiGHS improved on (or took up) the rounded first plan, which is returned. */
+  firstPlanOnly?: boolean;
   totalCost: number;
   totalTrucks: number;
   lanes: TruckLane[];
   /** unmetDemand[j][k]; unusedSupply[i][k]. */
   unmetDemand: number[][];
   unusedSupply: number[][];
-  /** Relative gap HiGHS reports between the plan and its lower bound (0 = proven optimal); null for no plan. */
+  /**
+   * Relative gap HiGHS reports between the plan and its lower bound (0 = proven optimal); null when there is
+   * no plan, or when the search stopped before it had any bound (HiGHS then reports an infinite gap).
+   */
   mipGap: number | null;
   /** HiGHS's lower bound on the cost. */
   bound: number | null;
@@ -120,6 +125,7 @@ export interface TruckPlanResult {
 
 export const DEFAULT_TIME_LIMIT_SECONDS = 10;
 export const DEFAULT_MIP_REL_GAP = 0.001;
+const MIN_LP_SECONDS = 30;
 
 let solverLoading: Promise<Highs> | null = null;
 
@@ -478,8 +484,10 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
       if (c !== null && c < 0) throw new PlanInputError(`truckCosts[${i}][${j}] must be ≥ 0 (got ${c})`);
     }),
   );
-  const lpOpts = highsOptions(options, false);
   const mipOpts = highsOptions(options, true);
+  // The LP steps before the search (milliseconds on an idle machine) may take longer than a very short
+  // limit: without them there is no plan at all. The search gets what is left of the limit, at least 0.5 s.
+  const lpOpts = { ...highsOptions(options, false), time_limit: Math.max(Number(mipOpts.time_limit), MIN_LP_SECONDS) };
   const lanes = lanesOf(costs);
   const highs = await loadSolver();
 
@@ -643,7 +651,11 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
     start,
   );
   const seconds = step1.seconds + startLp.seconds + outcome.seconds;
-  if (!outcome.hasSolution) {
+  // Stopped before HiGHS took up any plan of its own (a very short limit on a busy machine): the first plan is
+  // still a valid answer; its gap is measured against HiGHS's bound, HiGHS's way (|plan − bound| / |plan|).
+  const usedFirstPlan = !outcome.hasSolution && start !== undefined;
+  const values = usedFirstPlan ? start! : outcome.colValue;
+  if (!outcome.hasSolution && !usedFirstPlan) {
     const reason =
       outcome.status === 'time_limit'
         ? 'the time limit ran out before the solver found a plan in whole trucks'
@@ -654,8 +666,8 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
   const unmetDemand = demands.map((r) => [...r]);
   const unusedSupply = supplies.map((r) => [...r]);
   lanes.forEach((l, li) => {
-    const trucks = snap(outcome.colValue[yCol(li)]);
-    const load = capacity.map((_, k) => snap(outcome.colValue[xCol(li, k)]));
+    const trucks = snap(values[yCol(li)]);
+    const load = capacity.map((_, k) => snap(values[xCol(li, k)]));
     load.forEach((b, k) => {
       unmetDemand[l.to][k] -= b;
       unusedSupply[l.from][k] -= b;
@@ -664,16 +676,20 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
       planLanes.push({ from: l.from, to: l.to, trucks, costPerTruck: l.cost, cost: trucks * l.cost, load });
     }
   });
+  const totalCost = snap(planLanes.reduce((s, l) => s + l.cost, 0));
+  const bound = outcome.bound !== null && Number.isFinite(outcome.bound) ? outcome.bound : null;
+  const firstPlanGap = bound === null ? null : totalCost === 0 ? 0 : Math.abs(totalCost - bound) / Math.abs(totalCost);
   return {
     status: outcome.status,
     hasPlan: true,
-    totalCost: snap(planLanes.reduce((s, l) => s + l.cost, 0)),
+    firstPlanOnly: usedFirstPlan,
+    totalCost,
     totalTrucks: planLanes.reduce((s, l) => s + l.trucks, 0),
     lanes: planLanes,
     unmetDemand: unmetDemand.map((r) => r.map(snap)),
     unusedSupply: unusedSupply.map((r) => r.map(snap)),
-    mipGap: outcome.mipGap,
-    bound: outcome.bound,
+    mipGap: usedFirstPlan ? firstPlanGap : outcome.mipGap !== null && Number.isFinite(outcome.mipGap) ? outcome.mipGap : null,
+    bound,
     solveSeconds: seconds,
   };
 }

@@ -200,8 +200,13 @@ describe('solveTruckPlan under a time limit', () => {
     const r = await solveTruckPlan({ supplies, demands, truckCosts, truckCapacity: [52, 26] }, { timeLimit: 0.5, mipRelGap: 0.0001 });
     expect(r.status).toBe('time_limit');
     expect(r.hasPlan).toBe(true);
-    expect(r.mipGap).toBeGreaterThan(0.0001);
-    expect(r.bound).toBeLessThanOrEqual(r.totalCost);
+    // On a busy machine the search may stop before it has a bound: the gap is then unknown (null).
+    if (r.bound !== null) {
+      expect(r.bound).toBeLessThanOrEqual(r.totalCost);
+      expect(r.mipGap).toBeGreaterThan(0.0001);
+    } else {
+      expect(r.mipGap).toBeNull();
+    }
     expect(r.unmetDemand.flat().every((v) => v === 0)).toBe(true);
     for (const l of r.lanes) expect(l.load[0] / 52 + l.load[1] / 26).toBeLessThanOrEqual(l.trucks + 1e-9);
     const delivered = [0, 1].map((k) => r.lanes.reduce((s, l) => s + l.load[k], 0));
