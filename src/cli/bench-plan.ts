@@ -12,10 +12,10 @@
 // Not part of `npm test`. Instances come from a fixed seed, so every run solves the same problems.
 import { performance } from 'node:perf_hooks';
 import { cpus, loadavg } from 'node:os';
-import { seededRandom } from '../lib/random';
-import { solveTransportation } from '../lib/planning/transport-plan';
-import type { TransportationInput, TruckPlanInput } from '../lib/planning/transport-plan';
-import { solveTransportationOffThread, solveTruckPlanOffThread, stopPlanSolver } from '../lib/planning/plan-solver.server';
+import { seededRandom } from '@/lib/random';
+import { solveTransportation } from '@/lib/planning/transport-plan';
+import type { TransportationInput, TruckPlanInput } from '@/lib/planning/transport-plan';
+import { solveTransportationOffThread, solveTruckPlanOffThread, stopPlanSolver } from '@/lib/planning/plan-solver.server';
 
 const args = process.argv.slice(2);
 const runsArg = args.indexOf('--runs');

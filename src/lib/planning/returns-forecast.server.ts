@@ -4,8 +4,8 @@
  * discharge site when the trip has no site), bin type, depots.
  */
 import { QueryTypes } from 'sequelize';
-import { sequelize } from '@/lib/server/db';
-import { getSettings } from '@/lib/server/settings';
+import { sequelize } from '@/db/sequelize';
+import { getSettings } from '@/lib/settings/settings.server';
 import { localDate } from '@/lib/calendar';
 import type { HistoryTrip } from './returns-forecast';
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { resetDatabase, sequelize } from '../support/db';
 import { seedDemo } from '@/db/seed/demo';
-import { forgetSettings } from '@/lib/server/settings';
+import { forgetSettings } from '@/lib/settings/settings.server';
 import { loadTripHistory } from '@/lib/planning/returns-forecast.server';
 import { backTestReturns, binsOutAsOf, fitReturnModel, forecastReturns } from '@/lib/planning/returns-forecast';
 import { addDays } from '@/lib/calendar';
