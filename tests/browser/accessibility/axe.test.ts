@@ -44,7 +44,7 @@ function mayOpen(viewer: Viewer, path: string): boolean {
   return can(viewer, access);
 }
 
-interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number }
+interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
   const mine = await one<{ grai: string }>(
@@ -53,8 +53,9 @@ async function examples(): Promise<Examples> {
   );
   const bin = await one<{ grai: string; id: number }>(`SELECT grai, id FROM assets WHERE status = 'available' ORDER BY id LIMIT 1`);
   const trip = await one<{ id: number }>(`SELECT id FROM trips ORDER BY id DESC LIMIT 1`);
-  for (const [what, v] of Object.entries({ mine, bin, trip })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id };
+  const order = await one<{ id: number }>(`SELECT id FROM hire_orders ORDER BY id DESC LIMIT 1`);
+  for (const [what, v] of Object.entries({ mine, bin, trip, order })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
+  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -69,6 +70,8 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/loads/[ref]/note': `/loads/${ex.loadRef}/note`,
     '/loads/confirm/[token]': confirmPath,
     '/labels/sheet': `/labels/sheet?ids=${ex.binId}`,
+    '/planning/orders/[id]': `/planning/orders/${ex.orderId}`,
+    '/planning/orders/[id]/fill': `/planning/orders/${ex.orderId}/fill`,
   };
   if (route.includes('[')) {
     const url = known[route];
