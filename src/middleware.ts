@@ -62,6 +62,11 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   const access = accessFor(path);
   const isApi = path.startsWith('/api/');
   const user = ctx.locals.user;
+  if (access === 'denied') {
+    // No rule names this path: closed to everyone until one does.
+    if (isApi) return errorResponse('forbidden', 'This address is not open.');
+    return ctx.rewrite('/forbidden');
+  }
   if (access !== 'public') {
     if (!user) {
       if (isApi) return errorResponse('unauthenticated', 'Sign in first.');

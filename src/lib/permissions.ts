@@ -39,19 +39,29 @@ export function can(role: Role | null | undefined, capability: Capability): bool
   return (CAPABILITIES[capability] as readonly Role[]).includes(role);
 }
 
-/** 'public' = anyone; 'signed-in' = any active user; otherwise a capability. */
-export type Access = 'public' | 'signed-in' | Capability;
+/**
+ * 'public' = anyone; 'signed-in' = any active user; 'denied' = nobody (a path
+ * no rule names); otherwise a capability.
+ */
+export type Access = 'public' | 'signed-in' | 'denied' | Capability;
 
 /**
- * Path rules, most specific first; the first prefix that matches decides.
- * A path no rule names needs a signed-in user (deny by default).
+ * Path rules, most specific first; the first that matches decides. A rule
+ * matches its path and everything that starts with it (`/fleet` covers
+ * `/fleet/bins`); a rule marked 'exact' matches only its path. A path no rule
+ * names is denied to everyone (403): a new page or route needs its own rule,
+ * and tests/unit/page-access.test.ts fails for any file under src/pages without one.
  */
-export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]> = [
+export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access, match?: 'exact']> = [
+  ['/', 'signed-in', 'exact'], // sends each role to its home
+  ['/forbidden', 'public'], // the 403 page itself (the middleware rewrites to it)
   ['/login', 'public'],
   ['/account/invite', 'public'],
   ['/account/reset', 'public'],
   ['/api/auth/', 'public'],
   ['/api/health', 'public'],
+  ['/account', 'signed-in', 'exact'], // a person's own account: end all their sessions
+  ['/api/account/sessions', 'signed-in'],
   ['/api/account/', 'public'],
   ['/api/public/', 'public'],
   ['/8003/', 'public'], // Digital Link resolver: the page itself decides what a visitor sees
@@ -91,14 +101,18 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/bins', 'bins.view'],
   ['/api/bins', 'bins.view'],
   ['/api/scan-events', 'scan.record'],
+  ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
+  ['/api/yard/', 'home.yard'],
 ];
 
 export function accessFor(pathname: string): Access {
-  for (const [prefix, access] of PATH_RULES) {
-    if (pathname === prefix || pathname.startsWith(prefix)) return access;
+  for (const [prefix, access, match] of PATH_RULES) {
+    if (pathname === prefix) return access;
+    if (match === 'exact') continue;
+    if (pathname.startsWith(prefix)) return access;
     if (prefix.endsWith('/') && pathname === prefix.slice(0, -1)) return access;
   }
-  return 'signed-in';
+  return 'denied';
 }
 
 export const HOME_BY_ROLE: Record<Role, string> = {

@@ -39,8 +39,8 @@ describe('path rules', () => {
     ['/portal', 'home.portal'],
     ['/admin/users', 'users.manage'],
     ['/admin/mail', 'mail.read'],
-    ['/something-new', 'signed-in'],
-    ['/api/something-new', 'signed-in'],
+    ['/something-new', 'denied'],
+    ['/api/something-new', 'denied'],
   ])('%s → %s', (path, access) => {
     expect(accessFor(path)).toBe(access);
   });
