@@ -7,6 +7,7 @@ export const ROLES = ['admin', 'planner', 'yard', 'customer'] as const;
 export type Role = (typeof ROLES)[number];
 
 export const CAPABILITIES = {
+  'account.own': ['admin', 'planner', 'yard', 'customer'], // one's own account and sessions
   'home.yard': ['yard'],
   'home.portal': ['customer'],
   'fleet.view': ['planner', 'admin'],
@@ -60,8 +61,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/account/reset', 'public'],
   ['/api/auth/', 'public'],
   ['/api/health', 'public'],
-  ['/account', 'signed-in', 'exact'], // a person's own account: end all their sessions
-  ['/api/account/sessions', 'signed-in'],
+  ['/account', 'account.own', 'exact'], // a person's own account: end all their sessions
+  ['/api/account/sessions', 'account.own'],
   ['/api/account/', 'public'],
   ['/api/public/', 'public'],
   ['/8003/', 'public'], // Digital Link resolver: the page itself decides what a visitor sees
