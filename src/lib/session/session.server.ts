@@ -24,6 +24,41 @@ function secret(): string {
 }
 
 /**
+ * Decoded tokens by cookie name and exact token text. Decoding derives the key
+ * (HKDF) and decrypts on every call, the largest CPU cost of a signed-in
+ * request; a browser sends the same token until it is renewed, so the payload
+ * is remembered. The token text is the whole secret (a changed byte is another
+ * key here and fails decryption), and the expiry is checked on every use, so a
+ * remembered payload is accepted exactly when decoding it again would be.
+ * Everything that can change (active, role, epoch, sign-out) is read from the
+ * database on every request regardless.
+ */
+const decoded = new Map<string, Record<string, unknown>>();
+const DECODED_MAX = 2000;
+const CLOCK_TOLERANCE_S = 15; // as @auth/core/jwt decode allows
+
+async function decodeToken(token: string, salt: string, nowMs: number): Promise<Record<string, unknown> | null> {
+  const key = `${salt}\n${token}`;
+  let payload = decoded.get(key) ?? null;
+  if (!payload) {
+    try {
+      payload = (await decode({ token, secret: secret(), salt })) as Record<string, unknown> | null;
+    } catch {
+      return null;
+    }
+    if (!payload) return null;
+    if (decoded.size >= DECODED_MAX) decoded.delete(decoded.keys().next().value!);
+    decoded.set(key, payload);
+  }
+  const exp = payload.exp;
+  if (typeof exp !== 'number' || exp + CLOCK_TOLERANCE_S <= nowMs / 1000) {
+    decoded.delete(key);
+    return null;
+  }
+  return payload;
+}
+
+/**
  * Who is signed in on this request, and which cookies to write back. A token
  * that does not decode (tampered, expired, another secret) or names a session
  * that has ended is cleared, as Auth.js clears a session cookie it cannot use.
@@ -34,12 +69,7 @@ export async function checkSession(request: Request, nowMs = Date.now()): Promis
   const { token, names } = readSessionToken(parseCookieHeader(request.headers.get('cookie')), name);
   if (!token) return { user: null, cookies: [], secure };
 
-  let payload: Record<string, unknown> | null = null;
-  try {
-    payload = (await decode({ token, secret: secret(), salt: name })) as Record<string, unknown> | null;
-  } catch {
-    payload = null;
-  }
+  const payload = await decodeToken(token, name, nowMs);
   const claims = sessionClaims(payload);
   if (!payload || !claims) return { user: null, cookies: sessionCookieClears(names), secure };
 
@@ -49,6 +79,6 @@ export async function checkSession(request: Request, nowMs = Date.now()): Promis
   if (!refreshDue(claims.iat, Math.floor(nowMs / 1000))) return { user, cookies: [], secure };
   // Slide the expiry as Auth.js's session handler does: the same claims,
   // re-encrypted with a fresh issue time, expiry and token id.
-  const renewed = await encode({ token: payload, secret: secret(), salt: name, maxAge: SESSION_MAX_AGE_S });
+  const renewed = await encode({ token: { ...payload }, secret: secret(), salt: name, maxAge: SESSION_MAX_AGE_S });
   return { user, cookies: sessionCookieWrites(name, renewed, names), secure };
 }

@@ -234,3 +234,22 @@ describe('ending sessions', () => {
     expect(await count()).toBe(0);
   });
 });
+
+describe('a remembered decoding changes nothing that decoding again would not', () => {
+  test('the same token checked twice: the second time still reads the row (a sign-out between bites) and still checks expiry', async () => {
+    vi.useFakeTimers({ toFake: ['Date'] });
+    const t0 = new Date('2026-12-04T08:00:00Z').getTime();
+    vi.setSystemTime(t0);
+    const p = await makeUser('planner', world.operator.id);
+    const jar = await authSignIn(HTTP, p.email);
+    expect((await checkSession(get(HTTP, jar))).user?.id).toBe(p.id);
+    expect((await checkSession(get(HTTP, jar))).user?.id).toBe(p.id);
+    const token = (await getToken({ req: get(HTTP, jar), secret: process.env.AUTH_SECRET!, secureCookie: false })) as Record<string, unknown>;
+    await endSession(token);
+    expect((await checkSession(get(HTTP, jar))).user).toBeNull();
+    const fresh = await authSignIn(HTTP, p.email);
+    expect((await checkSession(get(HTTP, fresh))).user?.id).toBe(p.id);
+    vi.setSystemTime(t0 + (SESSION_MAX_AGE_S + 16) * 1000);
+    expect((await checkSession(get(HTTP, fresh))).user).toBeNull();
+  });
+});
