@@ -1,7 +1,6 @@
 import { defineMiddleware } from 'astro:middleware';
-import { getSession } from 'auth-astro/server';
-import { accessFor, can } from './lib/permissions';
-import { loadSessionUser } from '@/lib/accounts/session-user.server';
+import { accessFor, can } from '@/lib/permissions';
+import { checkSession } from '@/lib/session/session.server';
 import { CLIENT_IP_HEADER, clientAddress } from '@/lib/client-ip.server';
 import { errorResponse } from '@/lib/respond.server';
 
@@ -33,7 +32,7 @@ function allowStyleAttributes(response: Response) {
 
 /**
  * Every request passes here: the caller's address is pinned, the session is
- * re-checked against the user row, and the path is guarded by the role ×
+ * re-checked against the user row (src/lib/session/), and the path is guarded by the role ×
  * capability table (src/lib/permissions.ts). Endpoints check again, finer.
  */
 export const onRequest = defineMiddleware(async (ctx, next) => {
@@ -55,13 +54,26 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
 
   ctx.locals.user = null;
   if (!path.startsWith('/api/auth/')) {
-    const session = (await getSession(ctx.request)) as { uid?: unknown; role?: unknown } | null;
-    if (session) ctx.locals.user = await loadSessionUser(session.uid, session.role);
+    // The session cookie decoded here (not through the auth handler), the user
+    // row read once; a renewed or cleared cookie rides on whatever is answered.
+    const session = await checkSession(ctx.request);
+    ctx.locals.user = session.user;
+    for (const c of session.cookies) {
+      ctx.cookies.set(c.name, c.value, {
+        path: '/', httpOnly: true, sameSite: 'lax', secure: session.secure,
+        ...(c.maxAge > 0 ? { expires: new Date(Date.now() + c.maxAge * 1000) } : { maxAge: 0, expires: new Date(0) }),
+      });
+    }
   }
 
   const access = accessFor(path);
   const isApi = path.startsWith('/api/');
   const user = ctx.locals.user;
+  if (access === 'denied') {
+    // No rule names this path: closed to everyone until one does.
+    if (isApi) return errorResponse('forbidden', 'This address is not open.');
+    return ctx.rewrite('/forbidden');
+  }
   if (access !== 'public') {
     if (!user) {
       if (isApi) return errorResponse('unauthenticated', 'Sign in first.');

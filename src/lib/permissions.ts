@@ -7,6 +7,7 @@ export const ROLES = ['admin', 'planner', 'yard', 'customer'] as const;
 export type Role = (typeof ROLES)[number];
 
 export const CAPABILITIES = {
+  'account.own': ['admin', 'planner', 'yard', 'customer'], // one's own account and sessions
   'home.yard': ['yard'],
   'home.portal': ['customer'],
   'fleet.view': ['planner', 'admin'],
@@ -42,19 +43,29 @@ export function can(role: Role | null | undefined, capability: Capability): bool
   return (CAPABILITIES[capability] as readonly Role[]).includes(role);
 }
 
-/** 'public' = anyone; 'signed-in' = any active user; otherwise a capability. */
-export type Access = 'public' | 'signed-in' | Capability;
+/**
+ * 'public' = anyone; 'signed-in' = any active user; 'denied' = nobody (a path
+ * no rule names); otherwise a capability.
+ */
+export type Access = 'public' | 'signed-in' | 'denied' | Capability;
 
 /**
- * Path rules, most specific first; the first prefix that matches decides.
- * A path no rule names needs a signed-in user (deny by default).
+ * Path rules, most specific first; the first that matches decides. A rule
+ * matches its path and everything that starts with it (`/fleet` covers
+ * `/fleet/bins`); a rule marked 'exact' matches only its path. A path no rule
+ * names is denied to everyone (403): a new page or route needs its own rule,
+ * and tests/unit/page-access.test.ts fails for any file under src/pages without one.
  */
-export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]> = [
+export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access, match?: 'exact']> = [
+  ['/', 'signed-in', 'exact'], // sends each role to its home
+  ['/forbidden', 'public'], // the 403 page itself (the middleware rewrites to it)
   ['/login', 'public'],
   ['/account/invite', 'public'],
   ['/account/reset', 'public'],
   ['/api/auth/', 'public'],
   ['/api/health', 'public'],
+  ['/account', 'account.own', 'exact'], // a person's own account: end all their sessions
+  ['/api/account/sessions', 'account.own'],
   ['/api/account/', 'public'],
   ['/api/public/', 'public'],
   ['/8003/', 'public'], // Digital Link resolver: the page itself decides what a visitor sees
@@ -99,14 +110,18 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access]
   ['/bins', 'bins.view'],
   ['/api/bins', 'bins.view'],
   ['/api/scan-events', 'scan.record'],
+  ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
+  ['/api/yard/', 'home.yard'],
 ];
 
 export function accessFor(pathname: string): Access {
-  for (const [prefix, access] of PATH_RULES) {
-    if (pathname === prefix || pathname.startsWith(prefix)) return access;
+  for (const [prefix, access, match] of PATH_RULES) {
+    if (pathname === prefix) return access;
+    if (match === 'exact') continue;
+    if (pathname.startsWith(prefix)) return access;
     if (prefix.endsWith('/') && pathname === prefix.slice(0, -1)) return access;
   }
-  return 'signed-in';
+  return 'denied';
 }
 
 export const HOME_BY_ROLE: Record<Role, string> = {

@@ -13,6 +13,8 @@ export class Attachment extends Model<InferAttributes<Attachment>, InferCreation
   declare purpose: 'photo' | 'certificate' | 'import' | 'document';
   declare organisationId: number | null;
   declare uploadedBy: number | null;
+  /** The bin a scan's photo belongs to, set by the first scan that names it. */
+  declare assetId: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
 }
 
@@ -27,6 +29,7 @@ Attachment.init(
     purpose: { type: DataTypes.STRING(32), allowNull: false },
     organisationId: { type: DataTypes.INTEGER, allowNull: true },
     uploadedBy: { type: DataTypes.INTEGER, allowNull: true },
+    assetId: { type: DataTypes.INTEGER, allowNull: true },
     createdAt: DataTypes.DATE,
   },
   // Never load the bytes unless asked: lists of attachments stay light.

@@ -15,6 +15,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare qualifiedInspector: CreationOptional<boolean>;
   declare active: CreationOptional<boolean>;
   declare lastSignInAt: Date | null;
+  /** Counted up to end all of this person's sessions at once (src/lib/session/). */
+  declare sessionEpoch: CreationOptional<number>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -32,6 +34,7 @@ User.init(
     qualifiedInspector: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+    sessionEpoch: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     version: versionColumn,
     ...timestampColumns,
   },

@@ -210,6 +210,18 @@ export function EditPersonDialog({
     }
   }
 
+  async function endSessions() {
+    setBusy(true);
+    setError(null);
+    try {
+      await api.post(`/api/admin/users/${person.id}/sessions`);
+      onSaved(person, { tone: 'good', text: `${person.name} is signed out on every device; they sign in again to continue.` });
+    } catch (err) {
+      setError({ text: problemText(err), stale: false });
+      setBusy(false);
+    }
+  }
+
   return (
     <Dialog title={`Change ${person.name}`} labelId="edit-title" onClose={onClose}>
       <p className="-mt-1 text-sm text-ink-soft">{person.email} · {person.organisationName}</p>
@@ -284,6 +296,12 @@ export function EditPersonDialog({
           <div className="mt-2 flex flex-wrap items-center justify-between gap-3 text-sm">
             <span className="text-ink-soft">Deactivating signs them out everywhere at once.</span>
             <button type="button" className="btn-quiet text-brick" onClick={() => setConfirming(true)} id="deactivate">Deactivate…</button>
+          </div>
+        )}
+        {person.active && person.hasPassword && (
+          <div className="mt-3 flex flex-wrap items-center justify-between gap-3 text-sm">
+            <span className="text-ink-soft">A lost phone or a shared computer left signed in: end every session they have.</span>
+            <button type="button" className="btn-quiet" disabled={busy} id="end-sessions" onClick={() => void endSessions()}>Sign out everywhere</button>
           </div>
         )}
       </section>

@@ -14,27 +14,38 @@ export interface SessionUser {
   qualifiedInspector: boolean;
 }
 
+/** The claims a session token carries (src/lib/session/session-cookie.ts). */
+export interface SessionKey {
+  uid: number;
+  role: string;
+  sid: string;
+  epoch: number;
+}
+
 /**
- * Re-reads the user behind a session token. The token is a signed JWT that
- * outlives deactivation and role changes, so on every request the row must
- * still exist, be active and still carry the role the token was issued for.
- * One primary-key lookup.
+ * Re-reads the user behind a session token. The token is an encrypted cookie
+ * that outlives deactivation, role changes and sign-out, so on every request
+ * the row must still exist and be active, still carry the role and the session
+ * epoch the token was issued with, and this session must not have been signed
+ * out. One query: a primary-key lookup and a primary-key probe.
  */
-export async function loadSessionUser(uid: unknown, tokenRole: unknown): Promise<SessionUser | null> {
-  const id = Number(uid);
+export async function loadSessionUser(key: SessionKey): Promise<SessionUser | null> {
+  const { uid: id, role: tokenRole, sid, epoch } = key;
   if (!Number.isInteger(id) || id <= 0 || !isRole(tokenRole)) return null;
   const rows = await sequelize.query<{
     id: number; email: string; name: string; role: string; organisation_id: number;
     organisation_name: string; home_site_id: number | null; qualified_inspector: boolean; active: boolean;
+    session_epoch: number; ended: boolean;
   }>(
     `SELECT u.id, u.email, u.name, u.role, u.organisation_id, o.name AS organisation_name,
-            u.home_site_id, u.qualified_inspector, u.active AND o.active AS active
+            u.home_site_id, u.qualified_inspector, u.active AND o.active AS active, u.session_epoch,
+            EXISTS (SELECT 1 FROM ended_sessions e WHERE e.session_id = $2::uuid) AS ended
        FROM users u JOIN organisations o ON o.id = u.organisation_id
       WHERE u.id = $1`,
-    { bind: [id], type: QueryTypes.SELECT },
+    { bind: [id, sid], type: QueryTypes.SELECT },
   );
   const row = rows[0];
-  if (!row || !row.active || row.role !== tokenRole || !isRole(row.role)) return null;
+  if (!row || !row.active || row.ended || row.session_epoch !== epoch || row.role !== tokenRole || !isRole(row.role)) return null;
   return {
     id: row.id,
     email: row.email,

@@ -43,5 +43,5 @@ export async function authorizeSignIn(raw: unknown, request: Request) {
   }
 
   await Promise.all([accountLimit.delete(email), User.update({ lastSignInAt: new Date() }, { where: { id: user.id } })]);
-  return { id: String(user.id), name: user.name, email: user.email, role: user.role };
+  return { id: String(user.id), name: user.name, email: user.email, role: user.role, sessionEpoch: user.sessionEpoch };
 }

@@ -3,6 +3,7 @@
 // of a clock, so tests (and the admin "run now") call it directly at a fixed time.
 import { runMissingBinRule } from './missing-bins.server';
 import { runPlannerDigest } from './planner-digest.server';
+import { deleteExpiredSessionEnds } from '@/lib/session/session-ends.server';
 
 export interface JobContext {
   now: Date;
@@ -19,6 +20,7 @@ export interface JobDefinition {
 export const JOBS: readonly JobDefinition[] = [
   { name: 'missing-bin-rule', cron: '15 2 * * *', description: 'Marks missing the bins out of the depots that nobody scanned for 120 days.', run: runMissingBinRule },
   { name: 'planner-digest', cron: '0 7 * * 1-5', description: 'Mails planners what needs a decision today.', run: runPlannerDigest },
+  { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];
 
 export function jobByName(name: string): JobDefinition | undefined {

@@ -159,7 +159,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     purpose: input.purpose,
   });
   if (!decision.ok) throw refusal(decision);
-  const { order, lotNumber } = await checkActionInputs(asset, input, today, t);
+  const { order, lotNumber } = await checkActionInputs(actor, asset, input, today, t);
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
   const flags = [...decision.flags];
@@ -227,7 +227,7 @@ async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise
 interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number }
 
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
-async function checkActionInputs(asset: AssetRow, input: ScanInput, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
   let lotNumber: string | null = null;
   if (input.action === 'fit_liner') {
     const lot = await one<{ status: 'released' | 'on_hold' | 'recalled'; expiry_date: string; lot_number: string }>(
@@ -238,8 +238,20 @@ async function checkActionInputs(asset: AssetRow, input: ScanInput, today: strin
     lotNumber = lot.lot_number;
   }
   if (input.photoIds?.length) {
-    const found = await one<{ n: number }>(`SELECT count(*)::int AS n FROM attachments WHERE id = ANY($1::int[]) AND purpose = 'photo'`, [input.photoIds], t);
-    if (found?.n !== new Set(input.photoIds).size) throw new AppError('unprocessable', 'A photo named with this scan was not uploaded.');
+    // A scan's photos are its organisation's own uploads, and belong to this
+    // bin: the first scan that names a photo claims it for its bin. One answer
+    // for every failure, so nobody learns which ids exist or whose they are.
+    const ids = [...new Set(input.photoIds)];
+    const claimed = await one<{ n: number }>(
+      `WITH c AS (
+         UPDATE attachments SET asset_id = $2
+          WHERE id = ANY($1::int[]) AND purpose = 'photo' AND organisation_id = $3 AND (asset_id IS NULL OR asset_id = $2)
+         RETURNING id)
+       SELECT count(*)::int AS n FROM c`,
+      [ids, asset.id, actor.organisationId], t);
+    if (claimed?.n !== ids.length) {
+      throw new AppError('unprocessable', 'A photo named with this scan is not one your organisation uploaded for this bin. Take the photo again.', { field: 'photoIds' });
+    }
   }
   if (input.action === 'fill_seal' && !input.fill) {
     throw new AppError('validation_failed', 'Record the product, the quantity and the seal numbers.');

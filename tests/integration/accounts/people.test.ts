@@ -5,6 +5,8 @@ import { listPeople, updatePerson, personById } from '@/lib/accounts/people.serv
 import { loadSessionUser } from '@/lib/accounts/session-user.server';
 import { AuditEntry, User } from '@/models';
 
+const SID = '00000000-0000-4000-8000-000000000001';
+
 let world: Awaited<ReturnType<typeof baseWorld>>;
 let admin: User;
 const actor = () => ({ userId: admin.id, ip: '203.0.113.5' });
@@ -83,20 +85,20 @@ describe('changing a person', () => {
 
   test('deactivation ends the session at the next request; reactivation restores it; both audited', async () => {
     const p = await makeUser('planner', world.operator.id);
-    expect(await loadSessionUser(p.id, 'planner')).not.toBeNull();
+    expect(await loadSessionUser({ uid: p.id, role: 'planner', sid: SID, epoch: 0 })).not.toBeNull();
     const off = await updatePerson(p.id, { version: 0, active: false }, actor());
     expect(off.active).toBe(false);
-    expect(await loadSessionUser(p.id, 'planner')).toBeNull();
+    expect(await loadSessionUser({ uid: p.id, role: 'planner', sid: SID, epoch: 0 })).toBeNull();
     expect(await lastAudit(p.id)).toMatchObject({ action: 'user.deactivate', before: { active: true }, after: { active: false } });
     await updatePerson(p.id, { version: off.version, active: true }, actor());
-    expect(await loadSessionUser(p.id, 'planner')).not.toBeNull();
+    expect(await loadSessionUser({ uid: p.id, role: 'planner', sid: SID, epoch: 0 })).not.toBeNull();
     expect(await lastAudit(p.id)).toMatchObject({ action: 'user.reactivate' });
   });
 
   test('a role change also ends the old session (the token carries the old role)', async () => {
     const p = await makeUser('planner', world.operator.id);
     await updatePerson(p.id, { version: 0, role: 'admin' }, actor());
-    expect(await loadSessionUser(p.id, 'planner')).toBeNull();
+    expect(await loadSessionUser({ uid: p.id, role: 'planner', sid: SID, epoch: 0 })).toBeNull();
   });
 
   test('an unknown person is not found', async () => {
