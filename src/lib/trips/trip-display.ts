@@ -11,7 +11,7 @@
  * at the load before anything else). The trip list's "mismatch only" filter applies the same rule in SQL.
  */
 import type { IconName } from '@/lib/icons';
-import type { Tone } from '@/lib/status-display';
+import type { Tone } from '@/lib/status-look';
 
 export type SealState = 'not_sealed' | 'awaiting_check' | 'match' | 'mismatch';
 
@@ -72,7 +72,7 @@ export function fillRecordText(fill: FillRecord): string | null {
 }
 
 /** A trip is open from dispatch until the bin is received back at a depot. Word and icon, as for bins. */
-export const TRIP_STATUS_DISPLAY: Record<'open' | 'closed', { label: string; icon: IconName; tone: Tone }> = {
+export const TRIP_STATUS_LOOK: Record<'open' | 'closed', { label: string; icon: IconName; tone: Tone }> = {
   open: { label: 'Out', icon: 'route', tone: 'info' },
   closed: { label: 'Back', icon: 'check', tone: 'good' },
 };
