@@ -3,6 +3,7 @@
 // same text with clickable links, for mail programs that prefer HTML.
 import { formatMomentAbsolute } from '@/lib/moment-text';
 import { textToHtml } from './text-links';
+import { sealDifference } from '@/lib/trips/seal-check';
 
 export interface MailContent {
   subject: string;
@@ -240,8 +241,7 @@ export interface SealMismatchInput {
 
 /** Sent to planners at once when the seals found at discharge differ from those fitted at filling. */
 export function sealMismatchMail(m: SealMismatchInput): MailContent {
-  const missing = m.applied.filter((s) => !m.found.includes(s));
-  const extra = m.found.filter((s) => !m.applied.includes(s));
+  const { missing, unexpected: extra } = sealDifference(m.applied, m.found);
   return compose(`Seal mismatch on bin ${m.serial}${m.customerName ? ` at ${m.customerName}` : ''}`, [
     `At ${formatMomentAbsolute(m.at, m.timeZone)} the seals checked on bin ${m.serial} (${m.grai})${m.siteName ? ` at ${m.siteName}` : ''} did not match those fitted when it was filled.`,
     '',

@@ -11,6 +11,7 @@ import { sequelize, Asset } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { decide, checkLinerLot, INFERRED_STATUS, type Action, type BinState, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
 import { localDate } from '@/lib/calendar';
+import { sealsMatch } from '@/lib/trips/seal-check';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 
@@ -305,8 +306,7 @@ async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, in
       put('discharged_at', at);
       if (site) put('discharge_site_id', site.id);
       put('seals_verified', verified);
-      const applied = new Set(trip?.seals_applied ?? []);
-      if (verified.length > 0 && (verified.length !== applied.size || verified.some((s) => !applied.has(s)))) {
+      if (verified.length > 0 && !sealsMatch(trip?.seals_applied ?? [], verified)) {
         put('seal_mismatch', true);
         flags.push('seal_mismatch');
       }
