@@ -4,6 +4,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { addDays, localDate } from '@/lib/calendar';
 import type { Action, Status } from '@/lib/scans/lifecycle';
+import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import { getSettings } from '@/lib/settings/settings.server';
 
 export interface YardHome {
@@ -61,7 +62,7 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
       `SELECT grai, serial, next_due AS "nextDue", status, count(*) OVER ()::int AS total FROM assets
         WHERE site_id = $1 AND status IN ('available', 'quarantine', 'in_repair') AND next_due <= $2
         ORDER BY next_due LIMIT 8`,
-      [depotId, addDays(today, 30)],
+      [depotId, addDays(today, DUE_SOON_DAYS)],
     ),
     q<YardHome['recent'][number]>(
       `SELECT a.grai, a.serial, e.action, e.occurred_at AS "occurredAt", e.status_to AS "statusTo", e.inferred
