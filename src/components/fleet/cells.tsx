@@ -2,7 +2,7 @@
 // dates are absolute with a relative hint, identifiers are grouped in Plex Mono.
 import type { CustomCellRendererProps } from 'ag-grid-react';
 import { Icon } from '@/components/ui/Icon';
-import { formatLongDate, formatRelative } from '@/lib/calendar';
+import { formatDayCount as days, formatLongDate, formatRelative } from '@/lib/calendar';
 import { groupGrai } from '@/lib/gs1';
 import { STATUS_LABELS, type Status } from '@/lib/scans/lifecycle';
 import { STATUS_LOOK, TONE_TEXT } from '@/lib/status-look';
@@ -94,9 +94,6 @@ export function LastScanCell({ data, context }: Props) {
   );
 }
 
-function days(n: number): string {
-  return `${n} ${n === 1 ? 'day' : 'days'}`;
-}
 
 export function DaysAtSiteCell({ data }: Props) {
   if (!data) return null;
