@@ -6,6 +6,7 @@ import { addDays, localDate } from '@/lib/calendar';
 import type { Action, Status } from '@/lib/scans/lifecycle';
 import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import { getSettings } from '@/lib/settings/settings.server';
+import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 
 export interface YardHome {
   depot: { id: number; name: string } | null;
@@ -33,13 +34,8 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
   const [counts, orders, expected, transfers, testsDue, recent] = await Promise.all([
     // Retired bins have left the pool even when their scrap still stands in the yard.
     q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [depotId]),
-    q<YardHome['orders'][number]>(
-      `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity, bt.name AS "binType",
-              (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
-         FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id JOIN bin_types bt ON bt.id = ho.bin_type_id
-        WHERE ho.depot_site_id = $1 AND ho.status IN ('open', 'loading') AND ho.needed_by <= $2
-        ORDER BY ho.needed_by, ho.id`,
-      [depotId, horizon],
+    openOrdersAt(depotId, { neededBy: horizon }).then((list) =>
+      list.map(({ id, reference, customer, neededBy, quantity, loaded, binType }) => ({ id, reference, customer, neededBy, quantity, loaded, binType })),
     ),
     // Bins that left from this depot come back to it, as a rule.
     q<{ returning: number; awaiting: number }>(
