@@ -6,6 +6,7 @@ import type { Transaction } from 'sequelize';
 import { fileTypeFromBuffer } from 'file-type';
 import { Attachment } from '@/models';
 import { AppError } from './api-errors';
+import { can, type Role } from './permissions';
 
 export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
 
@@ -78,4 +79,14 @@ export async function readUpload(request: Request, field = 'file'): Promise<{ by
   const file = await formFile(form, field);
   if (!file) throw new AppError('validation_failed', 'Choose a file to upload.');
   return { ...file, form };
+}
+
+/**
+ * A stored file with its bytes, for someone allowed to see it: operator staff (who may edit bins, and the yard)
+ * see every file; anyone else only their own organisation's. null when there is no such file for this user.
+ */
+export async function attachmentFor(user: { role: Role; organisationId: number }, id: number): Promise<Attachment | null> {
+  const row = await Attachment.scope('withContent').findByPk(id);
+  const staff = can(user.role, 'bins.edit') || user.role === 'yard';
+  return row && (staff || row.organisationId === user.organisationId) ? row : null;
 }

@@ -224,9 +224,15 @@ export function daysBetween(fromDate: LocalDate, toDate: LocalDate): number {
   return dayNumberOf(parseLocalDate(toDate)) - dayNumberOf(parseLocalDate(fromDate));
 }
 
-function dayCount(days: number): string {
-  return `${days} ${days === 1 ? 'day' : 'days'}`;
+/**
+ * A count of days in words: 1 → '1 day', 3 → '3 days', and a count already written out ('14.3', '1,204') keeps
+ * its text: '1' is the only singular. The one place the day/days wording is decided.
+ */
+export function formatDayCount(days: number | string): string {
+  const text = String(days);
+  return `${text} ${text === '1' ? 'day' : 'days'}`;
 }
+const dayCount = formatDayCount;
 
 /** The relative hint shown after an absolute date: "today", "in 103 days", "3 days ago". */
 export function formatRelative(date: LocalDate, today: LocalDate): string {

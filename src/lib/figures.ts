@@ -9,6 +9,8 @@
  *   plainDecimal(2.345, 2)         → '2.35'  (no grouping: for CSV cells)
  */
 
+import { formatDayCount } from './calendar';
+
 const DASH = '—';
 
 function finite(value: number | null | undefined): value is number {
@@ -40,8 +42,7 @@ export function formatPercent(fraction: number | null | undefined, decimals = 1)
 
 export function formatDays(value: number | null | undefined, decimals = 0): string {
   if (!finite(value)) return DASH;
-  const text = formatDecimal(value, decimals);
-  return `${text} ${text === '1' ? 'day' : 'days'}`;
+  return formatDayCount(formatDecimal(value, decimals));
 }
 
 /** For machine-read files: '.' decimal point, no grouping, empty for no value. */

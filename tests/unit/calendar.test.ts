@@ -19,6 +19,7 @@ import {
   daysBetween,
   endOfMonth,
   formatLongDate,
+  formatDayCount,
   formatRelative,
   isLocalDate,
   isYearMonth,
@@ -246,5 +247,13 @@ describe('validation', () => {
     expect(() => addDays('2026-01-01', 1.5)).toThrow(RangeError);
     expect(() => addMonthsToMonth('2026-01', Number.NaN)).toThrow(RangeError);
     expect(() => formatLongDate('14 Mar 2027')).toThrow(RangeError);
+  });
+});
+
+describe('formatDayCount: the one day/days wording', () => {
+  test.each([
+    [0, '0 days'], [1, '1 day'], [2, '2 days'], [-1, '-1 days'], ['1', '1 day'], ['1.0', '1.0 days'], ['14.3', '14.3 days'], ['1,204', '1,204 days'],
+  ] as const)('%s → %s', (n, text) => {
+    expect(formatDayCount(n)).toBe(text);
   });
 });

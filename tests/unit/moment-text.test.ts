@@ -35,3 +35,11 @@ describe('relative hints', () => {
     expect(formatMoment('2027-03-07T09:12:00Z', 'UTC', now)).toBe('7 Mar 2027, 09:12 · 3 days ago');
   });
 });
+
+describe('September is "Sep" on every ICU', () => {
+  // Some ICU versions abbreviate September as "Sept" in en-GB; the yard's queue and offline card now print through
+  // formatMomentAbsolute, whose month names come from a fixed list.
+  test('formatMomentAbsolute', () => {
+    expect(formatMomentAbsolute('2026-09-14T07:05:00Z', 'Europe/Amsterdam')).toBe('14 Sep 2026, 09:05');
+  });
+});

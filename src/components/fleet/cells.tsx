@@ -2,10 +2,11 @@
 // dates are absolute with a relative hint, identifiers are grouped in Plex Mono.
 import type { CustomCellRendererProps } from 'ag-grid-react';
 import { Icon } from '@/components/ui/Icon';
-import { formatLongDate, formatRelative } from '@/lib/calendar';
+import { formatDayCount as days, formatLongDate, formatRelative } from '@/lib/calendar';
 import { groupGrai } from '@/lib/gs1';
 import { STATUS_LABELS, type Status } from '@/lib/scans/lifecycle';
 import { STATUS_LOOK, TONE_TEXT } from '@/lib/status-look';
+import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import type { GridContext, GridRow } from './types';
 
 type Props = CustomCellRendererProps<GridRow, unknown, GridContext>;
@@ -73,7 +74,7 @@ export function NextDueCell({ data, context }: Props) {
         </span>
       )}
       {data.dueSoon && (
-        <span className="inline-flex items-center gap-1 rounded bg-ochre-tint px-1.5 text-sm font-medium text-ochre-text" title="Due within 30 days">
+        <span className="inline-flex items-center gap-1 rounded bg-ochre-tint px-1.5 text-sm font-medium text-ochre-text" title={`Due within ${DUE_SOON_DAYS} days`}>
           <Icon name="waiting" size={15} /> Due soon
         </span>
       )}
@@ -93,9 +94,6 @@ export function LastScanCell({ data, context }: Props) {
   );
 }
 
-function days(n: number): string {
-  return `${n} ${n === 1 ? 'day' : 'days'}`;
-}
 
 export function DaysAtSiteCell({ data }: Props) {
   if (!data) return null;

@@ -1,7 +1,8 @@
 // The fleet grid's columns. Column ids are the server's whitelist (src/lib/fleet/grid-query.ts):
 // whatever the grid sends as a sort or filter model is keyed by these ids.
 import type { ColDef } from 'ag-grid-community';
-import { BIN_COLUMNS, DUE_SOON_DAYS, type BinColumnId } from '@/lib/fleet/grid-query';
+import { BIN_COLUMNS, type BinColumnId } from '@/lib/fleet/grid-query';
+import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import { GraiCell, StatusCell, DateCell, NextDueCell, LastScanCell, DaysAtSiteCell, DaysCell, FlagCell, TextCell } from './cells';
 import { SetFilter, BooleanFilter, type SetOption } from './filters';
 import type { FilterChoices, GridRow } from './types';

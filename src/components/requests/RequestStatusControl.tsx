@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { Icon } from '@/components/ui/Icon';
 import { Dialog } from '@/components/ui/Dialog';
 import { api, ApiError } from '@/lib/api.client';
-import { TONE_CLASSES } from '@/lib/status-display';
+import { TONE_CLASSES } from '@/lib/status-look';
 import { needsConfirmation, nextStatuses, statusLook, stepLabel, type RequestKind, type RequestStatus } from '@/lib/requests/request-status';
 
 export interface RequestStatusControlProps {

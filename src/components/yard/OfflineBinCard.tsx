@@ -6,7 +6,8 @@ import { groupGrai } from '@/lib/gs1';
 import type { Identified } from '@/lib/bins/bin-identify';
 import { ACTION_LABELS, isInspectionLapsed, type Action, type Status } from '@/lib/scans/lifecycle';
 import { CAUTIONS, DEFER } from '@/lib/yard/safety';
-import { dateHint, findInSnapshot, offlineActions, projectBin, todayIn, type ActingContext } from '@/lib/yard/yard-offline';
+import { findInSnapshot, offlineActions, projectBin, todayIn, type ActingContext } from '@/lib/yard/yard-offline';
+import { dateWithHint, instantLabel } from '@/lib/dates-display';
 import { newClientEventId } from '@/lib/yard/ids.client';
 import { submitScan, subscribe, type QueueStatus } from '@/lib/yard/scan-queue.client';
 import { loadSnapshot, onSnapshot } from '@/lib/yard/depot-snapshot.client';
@@ -22,9 +23,6 @@ interface Props {
   onClose: () => void;
 }
 
-function timeLabel(iso: string, timeZone: string): string {
-  return new Intl.DateTimeFormat('en-GB', { timeZone, day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', hour12: false }).format(new Date(iso));
-}
 
 export default function OfflineBinCard({ identified, prefixLength, onClose }: Props) {
   const [stored, setStored] = useState<StoredSnapshot | null | undefined>(undefined);
@@ -80,7 +78,7 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
       </div>
 
       <p className="notice-info" role="status">
-        No connection to Loopfold. {snapshot ? <>Showing your depot as this phone saw it at {timeLabel(stored!.storedAt, snapshot.timeZone)}.</> : <>This phone has no offline copy of your depot yet: it is saved the next time the yard page opens with signal.</>} What you record is saved on the phone and sent when the signal is back.
+        No connection to Loopfold. {snapshot ? <>Showing your depot as this phone saw it at {instantLabel(stored!.storedAt, snapshot.timeZone)}.</> : <>This phone has no offline copy of your depot yet: it is saved the next time the yard page opens with signal.</>} What you record is saved on the phone and sent when the signal is back.
       </p>
 
       {bin && projection && ctx && snapshot && (
@@ -95,7 +93,7 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
             <dt className="text-ink-soft">Where</dt>
             <dd>{bin.where === 'here' ? snapshot.depot.name : `On its way back to ${snapshot.depot.name}`}</dd>
             <dt className="text-ink-soft">Test due</dt>
-            <dd className="num">{bin.nextDue ? dateHint(bin.nextDue, ctx.today) : 'no periodic test'}</dd>
+            <dd className="num">{bin.nextDue ? dateWithHint(bin.nextDue, ctx.today) : 'no periodic test'}</dd>
             <dt className="text-ink-soft">Prep check</dt>
             <dd>{bin.prepChecked ? 'passed since it arrived' : 'not yet'}</dd>
           </dl>

@@ -9,13 +9,16 @@ import { startYardSync } from '@/lib/yard/yard-sync.client';
 import { registerYardServiceWorker } from '@/lib/yard/service-worker.client';
 import { currentUserId } from '@/lib/yard/yard-db.client';
 import type { QueuedScan } from '@/lib/yard/scan-queue-state';
+import { instantLabel } from '@/lib/dates-display';
 
 // Signal bars and a struck-through cloud: the state is always a word and a shape, never colour alone.
 const ONLINE_PATH = 'M4 18h.01M8 18v-3M12 18v-7M16 18V8M20 18V5';
 const OFFLINE_PATH = 'M7 17h10a4 4 0 0 0 .5-8A6 6 0 0 0 6 9.5 3.8 3.8 0 0 0 7 17zM4 4l16 16';
 
+// When a scan was queued, in the phone's own zone ("14 Mar 2027, 09:12"), through the shared formatter.
+const PHONE_ZONE = Intl.DateTimeFormat().resolvedOptions().timeZone;
 function when(iso: string): string {
-  return new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', hour12: false }).format(new Date(iso));
+  return instantLabel(iso, PHONE_ZONE);
 }
 
 function what(s: QueuedScan): string {

@@ -13,6 +13,7 @@ import { registerBin } from './bin-register.server';
 import { recordAudit } from '@/lib/audit.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { Actor } from '@/lib/scans/scan-service.server';
+import { depotChoices } from '@/lib/fleet/choices.server';
 
 export interface BinTypeOption extends BinTypeRef {
   name: string;
@@ -38,14 +39,14 @@ export async function formOptions(): Promise<FormOptions> {
   const [settings, types, depots] = await Promise.all([
     getSettings(),
     BinType.findAll({ where: { active: true }, order: [['code', 'ASC']] }),
-    Site.findAll({ where: { kind: 'depot', active: true }, order: [['name', 'ASC']] }),
+    depotChoices(),
   ]);
   return {
     binTypes: types.map((t) => ({
       id: t.id, code: t.code, name: t.name, graiAssetType: t.graiAssetType, unCode: t.unCode, active: t.active,
       policyKind: t.policyKind, intermediateMonths: t.intermediateMonths, fullMonths: t.fullMonths,
     })),
-    depots: depots.map((d) => ({ id: d.id, code: d.code, name: d.name, kind: d.kind, active: d.active })),
+    depots: depots.map((d) => ({ id: d.id, code: d.code, name: d.name, kind: d.kind, active: true })),
     companyPrefix: settings.gs1CompanyPrefix,
     prefixLength: settings.gs1PrefixLength,
   };

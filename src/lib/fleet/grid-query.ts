@@ -20,6 +20,8 @@
  */
 import { STATUSES } from '@/lib/scans/lifecycle';
 import { addDays, endOfMonth, isLocalDate, monthOf, type LocalDate } from '@/lib/calendar';
+import { overdueBackSql } from './overdue-return';
+import { DUE_SOON_DAYS, testDueSoonSql } from '@/lib/inspections/inspection-due';
 
 export const MAX_PAGE_ROWS = 500;
 export const MAX_SORT_COLUMNS = 5;
@@ -103,9 +105,12 @@ export type ColumnSpec =
 
 const STATUS_ORDER = `array_position(ARRAY[${STATUSES.map((s) => `'${s}'`).join(',')}]::text[], a.status)`;
 
-/** Bins on hire (or folded at the customer, waiting) for longer than that customer's free days. */
+/**
+ * Bins on hire (or folded at the customer, waiting) for longer than that customer's free days, counted from
+ * the delivery (or the dispatch when the delivery was never scanned): the rule of overdue-return.ts.
+ */
 function overFreeDays(b: Binds): string {
-  return `(a.status IN ('on_hire', 'awaiting_collection') AND a.site_since < ((${b.today()} - o.free_days)::timestamp AT TIME ZONE ${b.tz()}))`;
+  return overdueBackSql(b.today(), b.tz());
 }
 
 export const BIN_COLUMNS = {
@@ -123,15 +128,13 @@ export const BIN_COLUMNS = {
   nextDue: { kind: 'date', label: 'Next test due', base: { type: 'dateColumn', column: 'a.next_due' } },
   linerLot: { kind: 'text', label: 'Liner lot', value: 'll.lot_number', exactEquals: true },
   overdue: { kind: 'flag', label: 'Test overdue', predicate: (b) => `a.next_due < ${b.today()}` },
-  dueSoon: { kind: 'flag', label: 'Test due within 30 days', predicate: (b) => `a.next_due BETWEEN ${b.today()} AND ${b.today()} + 30` },
+  dueSoon: { kind: 'flag', label: `Test due within ${DUE_SOON_DAYS} days`, predicate: (b) => testDueSoonSql('a.next_due', b.today()) },
   dueThisMonth: { kind: 'flag', label: 'Test due by month end', predicate: (b) => `a.next_due <= ${b.monthEnd()}` },
   overFreeDays: { kind: 'flag', label: 'Over free days', predicate: overFreeDays },
 } as const satisfies Record<string, ColumnSpec>;
 
 export type BinColumnId = keyof typeof BIN_COLUMNS;
 export const BIN_COLUMN_IDS = Object.keys(BIN_COLUMNS) as BinColumnId[];
-/** How many days ahead "due soon" looks (the dueSoon flag). */
-export const DUE_SOON_DAYS = 30;
 
 export function isBinColumnId(value: unknown): value is BinColumnId {
   return typeof value === 'string' && Object.prototype.hasOwnProperty.call(BIN_COLUMNS, value);
@@ -530,6 +533,7 @@ const JOINS: ReadonlyArray<readonly [alias: RegExp, join: string]> = [
   [/\bs\./, 'LEFT JOIN sites s ON s.id = a.site_id'],
   [/\bo\./, 'LEFT JOIN organisations o ON o.id = a.customer_id'],
   [/\bll\./, 'LEFT JOIN liner_lots ll ON ll.id = a.liner_lot_id'],
+  [/\bt\./, 'LEFT JOIN trips t ON t.id = a.current_trip_id'],
 ];
 const FROM = `FROM assets a\n  ${JOINS.map(([, j]) => j).join('\n  ')}`;
 

@@ -3,6 +3,7 @@
  *
  *   overdueBack({ status, deliveredOn, dispatchedOn, freeDays, today }) → OverdueCheck
  *   lastFreeDay(deliveredOn, freeDays)                                  → the last day still inside the free days
+ *   overdueBackSql(today, timeZone)                                     → the same "overdue" as an SQL predicate
  *
  * The rule (the operator's hire terms): a bin that is with the customer — on hire, or folded and awaiting
  * collection — is overdue once more calendar days have passed since its delivery than the customer's free
@@ -65,4 +66,17 @@ export function overdueBack({ status, deliveredOn, dispatchedOn, freeDays, today
   const daysWithCustomer = hireDaysThrough(start, today, dayCount);
   const daysOver = Math.max(0, daysWithCustomer - freeDays);
   return { applies: true, daysWithCustomer, daysOver, overdue: daysOver > 0, estimated: deliveredOn === null, freeUntil };
+}
+
+/**
+ * overdueBack(...).overdue as SQL, for queries that filter or count in the database (the fleet grid's
+ * "Over free days", the planners' digest). `today` and `timeZone` are SQL expressions (bind parameters);
+ * the query must alias the bin `a`, its current trip `t` (trips.id = a.current_trip_id, LEFT JOIN is fine)
+ * and the bin's customer `o`. "More days since the start than free days" is written as "the start instant
+ * is before the first moment of local day (today − free days)", so an index on the instant can serve it.
+ * Checked against overdueBack() row by row in tests/integration/fleet/overdue-back-drift.test.ts.
+ */
+export function overdueBackSql(today: string, timeZone: string): string {
+  const statuses = WITH_CUSTOMER_STATUSES.map((s) => `'${s}'`).join(', ');
+  return `(a.status IN (${statuses}) AND COALESCE(t.delivered_at, t.dispatched_at) < ((${today} - o.free_days)::timestamp AT TIME ZONE ${timeZone}))`;
 }

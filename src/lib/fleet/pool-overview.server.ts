@@ -9,7 +9,7 @@ import { addDays, addMonthsToMonth, daysBetween, endOfMonth, localDate, monthOf 
 import type { LocalDate } from '@/lib/calendar';
 import { STATUSES, type SiteKind, type Status } from '@/lib/scans/lifecycle';
 import { overdueBack, WITH_CUSTOMER_STATUSES } from './overdue-return';
-import { firstRecentDay } from './scan-age';
+import { firstRecentDay, notScannedForSql } from './scan-age';
 import { shrinkage, shrinkageWindow, type Shrinkage, type Window } from './shrinkage';
 import { fillMonths, type MonthPoint } from './month-series';
 
@@ -219,7 +219,7 @@ async function empties(today: LocalDate, timeZone: string): Promise<EmptiesAtSit
 
 async function notScanned(today: LocalDate, timeZone: string, days: number): Promise<PoolOverview['stale']> {
   const recentFrom = firstRecentDay(today, days);
-  const where = `a.status NOT IN ('retired', 'missing') AND (a.last_scan_at IS NULL OR a.last_scan_at < ${startOfLocalDay('$2', '$1')})`;
+  const where = notScannedForSql('$2', '$1');
   const [counted] = await select<{ n: number }>(`SELECT count(*)::int AS n FROM assets a WHERE ${where}`, [timeZone, recentFrom]);
   const rows = await select<{ id: number; grai: string; serial: string; status: Status; site: string | null; last_scan_at: Date | null }>(
     `SELECT a.id, a.grai, a.serial, a.status, s.name AS site, a.last_scan_at

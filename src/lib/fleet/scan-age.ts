@@ -4,6 +4,7 @@
  *   parseStaleDays(text)              → { ok, days } — the N chosen on the page (1–3650, default 30)
  *   firstRecentDay(today, days)       → the earliest last-scan date that still counts as recent
  *   isNotScannedFor(lastScanOn, today, days) → true when the last scan was N or more calendar days ago
+ *   notScannedForSql(firstRecent, timeZone)  → the same test as SQL on `a.last_scan_at`, for bins in service
  *
  * Days are calendar days in the operator's zone: with N = 30 on 1 Dec, a bin last scanned on 1 Nov (30 days
  * ago) counts, one scanned on 2 Nov (29 days ago) does not. A bin never scanned at all always counts.
@@ -33,4 +34,14 @@ export function firstRecentDay(today: LocalDate, days: number): LocalDate {
 export function isNotScannedFor(lastScanOn: LocalDate | null, today: LocalDate, days: number): boolean {
   if (lastScanOn === null) return true;
   return daysBetween(lastScanOn, today) >= days;
+}
+
+/**
+ * isNotScannedFor(...) as SQL for the pool overview, on bins still in service (not retired, not missing):
+ * never scanned, or last scanned before the first moment of local day `firstRecent` (= firstRecentDay(today, N)).
+ * `firstRecent` and `timeZone` are SQL expressions (bind parameters). Checked against isNotScannedFor() in
+ * tests/integration/fleet/silent-drift.test.ts.
+ */
+export function notScannedForSql(firstRecent: string, timeZone: string): string {
+  return `a.status NOT IN ('retired', 'missing') AND (a.last_scan_at IS NULL OR a.last_scan_at < (${firstRecent}::date::timestamp AT TIME ZONE ${timeZone}))`;
 }

@@ -5,7 +5,8 @@
  *   policyProblems(policy)                       → string[]  (empty when the policy is usable)
  *   nextDue(history, policy)                     → { intermediateDue, fullDue, nextDue, nextKind }
  *   inspectionLabel(kind, policy)                → "2.5-year" | "5-year" | "18-month" …
- *   testStatus(due, today, soonWithinDays = 30)  → 'ok' | 'due_soon' | 'overdue'
+ *   testStatus(due, today, soonWithinDays = DUE_SOON_DAYS) → 'ok' | 'due_soon' | 'overdue'
+ *   testDueSoonSql(dueColumn, today)             → testStatus(...) = 'due_soon' as SQL (fleet grid, digest)
  *   bookingWindowOpensOn(due, policy)            → first day the operator should book the test
  *   mayFillAndDispatch(dueDates, today, policy?) → { ok: true } | { ok: false, lapsedOn, reason }
  *   mayCarryFilled({ filledOn, nextDue, today, policy })
@@ -141,13 +142,11 @@ export function nextDue(history: InspectionHistory, policy: InspectionPolicy): D
 
   const intermediateDue = endOfMonth(addMonthsToMonth(intermediateClockStart, policy.intermediateMonths));
   const fullDue = endOfMonth(addMonthsToMonth(fullClockStart, policy.fullMonths));
-  return fullDue <= intermediateDue
-    ? { intermediateDue, fullDue, nextDue: fullDue, nextKind: 'full' }
-    : { intermediateDue, fullDue, nextDue: intermediateDue, nextKind: 'intermediate' };
+  return dueDatesOf(intermediateDue, fullDue);
 }
 
 /** The name of an inspection as the yard says it: 30 months → "2.5-year", 60 → "5-year", 18 → "18-month". */
-export function inspectionLabel(kind: InspectionKind, policy: InspectionPolicy): string {
+export function inspectionLabel(kind: InspectionKind, policy: Pick<InspectionPolicy, 'intermediateMonths' | 'fullMonths'>): string {
   const months = kind === 'full' ? policy.fullMonths : policy.intermediateMonths;
   const wholeOrHalfYears = months % 12 === 0 || (months % 6 === 0 && months > 24);
   return wholeOrHalfYears ? `${months / 12}-year` : `${months}-month`;
@@ -155,11 +154,26 @@ export function inspectionLabel(kind: InspectionKind, policy: InspectionPolicy):
 
 export type TestStatus = 'ok' | 'due_soon' | 'overdue';
 
+/**
+ * How many days ahead a periodic test counts as "due soon": the bin page, the fleet grid's flag, the yard's list
+ * and the planners' digest all use this one number (a month to book the test: common practice, not a rule).
+ */
+export const DUE_SOON_DAYS = 30;
+
 /** 'overdue' after the due date; 'due_soon' from `soonWithinDays` before it up to and including the due date. */
-export function testStatus(due: LocalDate, today: LocalDate, soonWithinDays = 30): TestStatus {
+export function testStatus(due: LocalDate, today: LocalDate, soonWithinDays = DUE_SOON_DAYS): TestStatus {
   const daysLeft = daysBetween(today, due);
   if (daysLeft < 0) return 'overdue';
   return daysLeft <= soonWithinDays ? 'due_soon' : 'ok';
+}
+
+/**
+ * testStatus(due, today) = 'due_soon' as SQL: `dueColumn` (a DATE) from today up to DUE_SOON_DAYS ahead, both
+ * included; `today` is an SQL expression of type date. Checked against testStatus() in
+ * tests/integration/fleet/due-soon-drift.test.ts.
+ */
+export function testDueSoonSql(dueColumn: string, today: string): string {
+  return `${dueColumn} BETWEEN ${today} AND ${today} + ${DUE_SOON_DAYS}`;
 }
 
 /** A booking aid only: booking early never moves the due date; the next one runs from the test done. */
@@ -167,13 +181,24 @@ export function bookingWindowOpensOn(due: LocalDate, policy: InspectionPolicy): 
   return addDays(due, -policy.bookingWindowDays);
 }
 
+/** Which inspection puts a lapsed bin back in service: past the 5-year date as well, only the full one. */
+export function inspectionNeeded(due: Pick<DueDates, 'nextKind' | 'fullDue'>, today: LocalDate): InspectionKind {
+  return due.nextKind === 'full' || today > due.fullDue ? 'full' : 'intermediate';
+}
+
+/** The two due dates as a bin row stores them, read back into DueDates (the earlier one is next; a tie is 'full'). */
+export function dueDatesOf(intermediateDue: LocalDate, fullDue: LocalDate): DueDates {
+  return fullDue <= intermediateDue
+    ? { intermediateDue, fullDue, nextDue: fullDue, nextKind: 'full' }
+    : { intermediateDue, fullDue, nextDue: intermediateDue, nextKind: 'intermediate' };
+}
+
 export type LapseCheck = { ok: true } | { ok: false; lapsedOn: LocalDate; reason: string };
 
 /** ADR 4.1.2.2 / 49 CFR 180.352: no filling and dispatch once the periodic test or inspection has lapsed. */
 export function mayFillAndDispatch(due: DueDates, today: LocalDate, policy: InspectionPolicy = DEFAULT_UN_POLICY): LapseCheck {
   if (today <= due.nextDue) return { ok: true };
-  // Past the 5-year date as well, only the full inspection puts the bin back in service.
-  const needed: InspectionKind = due.nextKind === 'full' || today > due.fullDue ? 'full' : 'intermediate';
+  const needed = inspectionNeeded(due, today);
   return {
     ok: false,
     lapsedOn: due.nextDue,

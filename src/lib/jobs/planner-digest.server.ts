@@ -1,7 +1,9 @@
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { plannerDigestMail } from '@/lib/mail/mail-templates';
-import { addDays, formatLongDate, localDate } from '@/lib/calendar';
+import { formatLongDate, localDate } from '@/lib/calendar';
+import { overdueBackSql } from '@/lib/fleet/overdue-return';
+import { testDueSoonSql } from '@/lib/inspections/inspection-due';
 import { sendMail } from '@/lib/mail/mailer.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { JobContext } from './registry.server';
@@ -23,8 +25,7 @@ export async function digestFigures(now: Date) {
       `SELECT o.name AS customer, count(*)::int AS bins,
               max(${DAYS_WITH_CUSTOMER_SQL})::int AS "oldestDays"
          FROM assets a JOIN trips t ON t.id = a.current_trip_id JOIN organisations o ON o.id = a.customer_id
-        WHERE a.status IN ('on_hire', 'awaiting_collection')
-          AND ${DAYS_WITH_CUSTOMER_SQL} > o.free_days
+        WHERE ${overdueBackSql('$1::date', '$2::text')}
         GROUP BY o.name ORDER BY bins DESC`,
       [today, settings.timeZone],
     ),
@@ -36,9 +37,9 @@ export async function digestFigures(now: Date) {
     ),
     q<{ n: number }>(`SELECT count(*)::int AS n FROM collection_requests WHERE status = 'open'`),
     q<{ soon: number; lapsed: number }>(
-      `SELECT count(*) FILTER (WHERE next_due >= $1 AND next_due <= $2)::int AS soon, count(*) FILTER (WHERE next_due < $1)::int AS lapsed
+      `SELECT count(*) FILTER (WHERE ${testDueSoonSql('next_due', '$1::date')})::int AS soon, count(*) FILTER (WHERE next_due < $1::date)::int AS lapsed
          FROM assets WHERE status NOT IN ('retired', 'missing')`,
-      [today, addDays(today, 30)],
+      [today],
     ),
     q<{ n: number }>(`SELECT count(*)::int AS n FROM scan_events WHERE action = 'mark_missing' AND user_id IS NULL AND recorded_at > $1::timestamptz - interval '24 hours'`, [now]),
   ]);

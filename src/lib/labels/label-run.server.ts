@@ -204,3 +204,17 @@ export async function markLabelsPrinted(ids: readonly number[], at: Date = new D
   const found = new Set(rows.map((r) => r.id));
   return { marked: found.size, missing: unique.filter((id) => !found.has(id)), printedAt: at };
 }
+
+export interface LabelFormChoices {
+  sites: Array<{ id: number; name: string; code: string; kind: string }>;
+  binTypes: Array<{ id: number; code: string; name: string }>;
+}
+
+/** What the selection form offers: active sites by kind and name, every bin type by code. */
+export async function labelFormChoices(): Promise<LabelFormChoices> {
+  const [sites, binTypes] = await Promise.all([
+    sequelize.query<LabelFormChoices['sites'][number]>(`SELECT id, name, code, kind FROM sites WHERE active ORDER BY kind, name`, { type: QueryTypes.SELECT }),
+    sequelize.query<LabelFormChoices['binTypes'][number]>(`SELECT id, code, name FROM bin_types ORDER BY code`, { type: QueryTypes.SELECT }),
+  ]);
+  return { sites, binTypes };
+}

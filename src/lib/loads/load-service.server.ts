@@ -118,6 +118,19 @@ export function deliveryToken(load: { id: number; reference: string }): string {
   return `${load.reference}.${mac}`;
 }
 
+/** The id of the load with this reference; not_found when there is none. */
+export async function loadIdByReference(reference: string): Promise<number> {
+  const load = reference ? await Load.findOne({ where: { reference }, attributes: ['id'] }) : null;
+  if (!load) throw new AppError('not_found', 'No such load.');
+  return load.id;
+}
+
+/** The customer a load goes to (through its hire order); null for a transfer between depots. */
+export async function loadCustomerId(load: Load): Promise<number | null> {
+  const order = load.hireOrderId ? await HireOrder.findByPk(load.hireOrderId, { attributes: ['customerId'] }) : null;
+  return order?.customerId ?? null;
+}
+
 export async function loadFromToken(token: string): Promise<Load | null> {
   const [reference, mac] = token.split('.');
   if (!reference || !mac || reference.length > 40) return null;

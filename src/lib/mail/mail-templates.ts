@@ -3,6 +3,8 @@
 // same text with clickable links, for mail programs that prefer HTML.
 import { formatMomentAbsolute } from '@/lib/moment-text';
 import { textToHtml } from './text-links';
+import { sealDifference } from '@/lib/trips/seal-check';
+import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 
 export interface MailContent {
   subject: string;
@@ -216,7 +218,7 @@ export function plannerDigestMail(d: DigestInput): MailContent {
     ...d.overdueByCustomer.map((c) => `    ${c.customer}: ${c.bins} (oldest ${c.oldestDays} days on hire)`),
     `• ${d.openCollectionRequests} open collection request${d.openCollectionRequests === 1 ? '' : 's'}`,
     `• ${d.flaggedScans} scan${d.flaggedScans === 1 ? '' : 's'} flagged in the last 24 hours (missed steps inferred)${d.sealMismatches ? `, ${d.sealMismatches} with seal numbers that did not match` : ''}`,
-    `• ${d.testsDueSoon} bin${d.testsDueSoon === 1 ? '' : 's'} due for a periodic test within 30 days; ${d.testsLapsed} already lapsed`,
+    `• ${d.testsDueSoon} bin${d.testsDueSoon === 1 ? '' : 's'} due for a periodic test within ${DUE_SOON_DAYS} days; ${d.testsLapsed} already lapsed`,
     ...(d.markedMissing ? [`• ${d.markedMissing} bin${d.markedMissing === 1 ? '' : 's'} marked missing overnight by the missing-bin rule`] : []),
     '',
     `Open the pool overview: ${d.appUrl.replace(/\/$/, '')}/fleet`,
@@ -240,8 +242,7 @@ export interface SealMismatchInput {
 
 /** Sent to planners at once when the seals found at discharge differ from those fitted at filling. */
 export function sealMismatchMail(m: SealMismatchInput): MailContent {
-  const missing = m.applied.filter((s) => !m.found.includes(s));
-  const extra = m.found.filter((s) => !m.applied.includes(s));
+  const { missing, unexpected: extra } = sealDifference(m.applied, m.found);
   return compose(`Seal mismatch on bin ${m.serial}${m.customerName ? ` at ${m.customerName}` : ''}`, [
     `At ${formatMomentAbsolute(m.at, m.timeZone)} the seals checked on bin ${m.serial} (${m.grai})${m.siteName ? ` at ${m.siteName}` : ''} did not match those fitted when it was filled.`,
     '',

@@ -4,7 +4,7 @@
 //               a cancelled request reopened; a done collection is final)
 //   damage:     open → triaged → closed (a closed report can be reopened)
 import type { IconName } from '@/lib/icons';
-import type { Tone } from '@/lib/status-display';
+import type { Tone } from '@/lib/status-look';
 
 export type RequestKind = 'collection' | 'damage';
 

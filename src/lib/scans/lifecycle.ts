@@ -6,6 +6,7 @@
 export const STATUSES = ['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair', 'missing', 'retired'] as const;
 export const ACTIONS = ['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found'] as const;
 import { ROLES, type Role } from '@/lib/permissions';
+import { dueDatesOf, inspectionLabel, inspectionNeeded } from '@/lib/inspections/inspection-due';
 export { ROLES, type Role };
 
 export type Status = (typeof STATUSES)[number];
@@ -23,6 +24,11 @@ export interface BinState {
   filled: boolean; // filled and sealed, not yet discharged
   tripOpen: boolean;
   nextDue: string | null; // 'YYYY-MM-DD' next periodic test/inspection due; null = no periodic regime
+  /**
+   * Both due dates and the bin type's intervals, so a lapse refusal names the inspection that is needed
+   * ("2.5-year", "5-year", "18-month" …). Optional: without it the refusal says "its periodic inspection".
+   */
+  inspection?: { intermediateDue: string; fullDue: string; intermediateMonths: number; fullMonths: number } | null;
 }
 
 export interface ActionContext {
@@ -163,9 +169,13 @@ export function isInspectionLapsed(nextDue: string | null, today: string): boole
 // lapsed. Lining and hire dispatch are refused for the same reason (the only point of either is a fill).
 function lapsedRefusal(s: BinState, today: string): Refusal | null {
   if (!isInspectionLapsed(s.nextDue, today)) return null;
+  const i = s.inspection;
+  const label = i ? inspectionLabel(inspectionNeeded(dueDatesOf(i.intermediateDue, i.fullDue), today), i) : null;
+  // "an 8-year", "an 11-month", "an 18-month": the article follows the spoken number.
+  const book = label ? `${/^(8|11-|18-)/.test(label) ? 'an' : 'a'} ${label} inspection` : 'its periodic inspection';
   return {
     code: 'inspection_lapsed',
-    reason: `Periodic test lapsed on ${s.nextDue}; book a 2.5-year inspection. A bin may not be lined, filled or dispatched for hire after its test has lapsed.`,
+    reason: `Periodic test lapsed on ${s.nextDue}; book ${book}. A bin may not be lined, filled or dispatched for hire after its test has lapsed.`,
   };
 }
 

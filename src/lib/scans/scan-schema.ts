@@ -2,9 +2,19 @@
 // sync). One schema, used by the endpoint and by the offline queue's checks.
 import { z } from 'zod';
 import { ACTIONS } from './lifecycle';
+import { repeatedSeals } from '@/lib/trips/seal-check';
 
 const RECORDABLE = ACTIONS.filter((a) => a !== 'register') as [Exclude<(typeof ACTIONS)[number], 'register'>, ...Array<Exclude<(typeof ACTIONS)[number], 'register'>>];
 const seal = z.string().trim().min(1).max(32).regex(/^[A-Za-z0-9\-/.]+$/, 'Seal numbers use letters, digits, - / and . only');
+/** Up to six seal numbers, each once: a number written twice is a typing slip or two seals read as one. */
+const sealList = z
+  .array(seal)
+  .max(6)
+  .superRefine((list, ctx) => {
+    for (const n of repeatedSeals(list)) {
+      ctx.addIssue({ code: z.ZodIssueCode.custom, message: `Seal number ${n} is listed twice; each seal has its own number, so enter every seal once.` });
+    }
+  });
 
 export const scanEventSchema = z
   .object({
@@ -29,10 +39,10 @@ export const scanEventSchema = z
         volumeL: z.number().positive().max(3000).nullable().optional(),
         massKg: z.number().positive().max(5000).nullable().optional(),
         temperatureC: z.number().min(-40).max(100).nullable().optional(),
-        seals: z.array(seal).max(6),
+        seals: sealList,
       })
       .optional(),
-    sealsVerified: z.array(seal).max(6).optional(),
+    sealsVerified: sealList.optional(),
     note: z.string().trim().max(500).optional(),
   })
   .strict()

@@ -11,6 +11,7 @@ import { sequelize, Asset } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { decide, checkLinerLot, INFERRED_STATUS, type Action, type BinState, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
 import { localDate } from '@/lib/calendar';
+import { sealsMatch } from '@/lib/trips/seal-check';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
@@ -101,6 +102,7 @@ interface AssetRow {
   id: number; grai: string; bin_type_id: number; status: Status; site_id: number | null; site_kind: SiteKind | null;
   customer_id: number | null; current_trip_id: number | null; leg: Leg | null; prep_checked: boolean;
   liner_lot_id: number | null; filled: boolean; trip_count: number; next_due: string | null; last_scan_at: Date | null; version: number;
+  next_intermediate_due: string | null; next_full_due: string | null; intermediate_months: number; full_months: number;
 }
 interface SiteRow { id: number; kind: SiteKind; organisation_id: number; active: boolean }
 interface TripRow { id: number; customer_id: number; seals_applied: string[]; delivered_at: Date | null }
@@ -123,8 +125,9 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   // 2. The bin and where the scan happens.
   const asset = await one<AssetRow>(
     `SELECT a.id, a.grai, a.bin_type_id, a.status, a.site_id, s.kind AS site_kind, a.customer_id, a.current_trip_id, a.leg,
-            a.prep_checked, a.liner_lot_id, a.filled, a.trip_count, a.next_due, a.last_scan_at, a.version
-       FROM assets a LEFT JOIN sites s ON s.id = a.site_id WHERE a.id = $1`,
+            a.prep_checked, a.liner_lot_id, a.filled, a.trip_count, a.next_due, a.last_scan_at, a.version,
+            a.next_intermediate_due, a.next_full_due, bt.intermediate_months, bt.full_months
+       FROM assets a JOIN bin_types bt ON bt.id = a.bin_type_id LEFT JOIN sites s ON s.id = a.site_id WHERE a.id = $1`,
     [input.assetId],
     t,
   );
@@ -148,6 +151,10 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     filled: asset.filled,
     tripOpen: asset.current_trip_id !== null,
     nextDue: asset.next_due,
+    inspection:
+      asset.next_intermediate_due && asset.next_full_due
+        ? { intermediateDue: asset.next_intermediate_due, fullDue: asset.next_full_due, intermediateMonths: asset.intermediate_months, fullMonths: asset.full_months }
+        : null,
   };
   const decision = decide(state, input.action, {
     role: actor.role,
@@ -322,8 +329,7 @@ async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, in
       put('discharged_at', at);
       if (site) put('discharge_site_id', site.id);
       put('seals_verified', verified);
-      const applied = new Set(trip?.seals_applied ?? []);
-      if (verified.length > 0 && (verified.length !== applied.size || verified.some((s) => !applied.has(s)))) {
+      if (verified.length > 0 && !sealsMatch(trip?.seals_applied ?? [], verified)) {
         put('seal_mismatch', true);
         flags.push('seal_mismatch');
       }

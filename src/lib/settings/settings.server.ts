@@ -89,3 +89,13 @@ export async function updateSettings(input: SettingsInput, actor: AuditActor): P
     return view(s);
   });
 }
+
+/** The operator's time zone, or UTC while no settings exist yet (admin pages still open before the set-up). */
+export async function operatorTimeZone(): Promise<string> {
+  try {
+    return (await getSettings()).timeZone;
+  } catch (err) {
+    if (err instanceof AppError && err.code === 'unavailable') return 'UTC';
+    throw err;
+  }
+}

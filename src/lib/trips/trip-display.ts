@@ -1,54 +1,13 @@
 /**
  * How a trip's fill record and tamper-evident seals read on the planner pages.
  *
- *   sealCheck(applied, verified, flagged)  → { state, label, icon, tone } — always a word and an icon
  *   fillRecordText(fill)                   → 'Rapeseed oil · 912 L · 839 kg · 14 °C' (no-break space before each unit),
  *                                            or null when nothing was recorded
  *
- * Seals: numbers applied at filling travel with the load and are checked at discharge. The check is a
- * mismatch when the discharge scan flagged one, or when the two lists are not the same set of numbers —
- * compared exactly, as the scan does (a seal missing, added, replaced or typed differently is reason to look
- * at the load before anything else). The trip list's "mismatch only" filter applies the same rule in SQL.
+ * The seal check lives in ./seal-check.ts.
  */
 import type { IconName } from '@/lib/icons';
-import type { Tone } from '@/lib/status-display';
-
-export type SealState = 'not_sealed' | 'awaiting_check' | 'match' | 'mismatch';
-
-export interface SealCheck {
-  state: SealState;
-  label: string;
-  icon: IconName;
-  tone: Tone;
-}
-
-const SEAL_DISPLAY: Record<SealState, Omit<SealCheck, 'state'>> = {
-  not_sealed: { label: 'Not sealed yet', icon: 'waiting', tone: 'neutral' },
-  awaiting_check: { label: 'Sealed, not checked yet', icon: 'waiting', tone: 'info' },
-  match: { label: 'Checked: seals match', icon: 'check', tone: 'good' },
-  mismatch: { label: 'Seal mismatch', icon: 'alert', tone: 'fault' },
-};
-
-function asSet(seals: readonly string[]): Set<string> {
-  return new Set(seals.filter((s) => s !== ''));
-}
-
-function sameSet(a: Set<string>, b: Set<string>): boolean {
-  return a.size === b.size && [...a].every((x) => b.has(x));
-}
-
-export function sealState(applied: readonly string[], verified: readonly string[], flagged: boolean): SealState {
-  const a = asSet(applied);
-  const v = asSet(verified);
-  if (flagged) return 'mismatch';
-  if (v.size > 0) return sameSet(a, v) ? 'match' : 'mismatch';
-  return a.size > 0 ? 'awaiting_check' : 'not_sealed';
-}
-
-export function sealCheck(applied: readonly string[], verified: readonly string[], flagged: boolean): SealCheck {
-  const state = sealState(applied, verified, flagged);
-  return { state, ...SEAL_DISPLAY[state] };
-}
+import type { Tone } from '@/lib/status-look';
 
 export interface FillRecord {
   product: string | null;
@@ -72,7 +31,7 @@ export function fillRecordText(fill: FillRecord): string | null {
 }
 
 /** A trip is open from dispatch until the bin is received back at a depot. Word and icon, as for bins. */
-export const TRIP_STATUS_DISPLAY: Record<'open' | 'closed', { label: string; icon: IconName; tone: Tone }> = {
+export const TRIP_STATUS_LOOK: Record<'open' | 'closed', { label: string; icon: IconName; tone: Tone }> = {
   open: { label: 'Out', icon: 'route', tone: 'info' },
   closed: { label: 'Back', icon: 'check', tone: 'good' },
 };

@@ -9,7 +9,8 @@ import { AppError } from '@/lib/api-errors';
 import { addDays, localDate } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
 import { cycleTimeDays, dwellAtCustomer, type DwellAtCustomer } from './trip-stats';
-import { fillRecordText, sealCheck, type SealCheck } from './trip-display';
+import { fillRecordText } from './trip-display';
+import { sealCheck, sealMismatchSql, type SealCheck } from './seal-check';
 import { pageCount, type TripListQuery, type TripSortKey } from './trip-list-query';
 import { parseSerialisedGrai } from '@/lib/gs1';
 
@@ -81,9 +82,8 @@ const SORT_SQL: Record<TripSortKey, (p: Params) => string> = {
   id: () => 't.id',
 };
 
-// A seal mismatch exactly as src/lib/trips/trip-display.ts decides it: flagged by the scan, or checked numbers that
-// are not the same set as those applied.
-const SEAL_MISMATCH_SQL = `(t.seal_mismatch OR (cardinality(t.seals_verified) > 0 AND NOT (t.seals_applied @> t.seals_verified AND t.seals_verified @> t.seals_applied)))`;
+// A seal mismatch exactly as sealState() decides it (./seal-check.ts).
+const SEAL_MISMATCH_SQL = sealMismatchSql('t');
 
 const COLUMNS = `
   t.id, t.status, t.asset_id, a.grai, a.serial, t.customer_id, o.name AS customer_name, ds.name AS depot_name,

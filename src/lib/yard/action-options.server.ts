@@ -4,7 +4,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import type { SiteKind } from '@/lib/scans/lifecycle';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
-import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
+import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 
 export interface SiteOption { id: number; name: string; kind: SiteKind }
 export interface LotOption { id: number; lotNumber: string; supplier: string; expiryDate: string }
@@ -31,16 +31,6 @@ export async function lotsAt(siteId: number, today: string): Promise<LotOption[]
 
 /** Hire orders this depot is loading or will load, for the bin's type, soonest first. */
 export async function ordersAt(depotId: number, binTypeId: number): Promise<OrderOption[]> {
-  return sequelize.query<OrderOption>(
-    `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity,
-            (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
-       FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id
-      WHERE ho.depot_site_id = $1 AND ho.bin_type_id = $2 AND ho.status IN (${DEMAND_STATUSES_SQL})
-      ORDER BY ho.needed_by, ho.id LIMIT 20`,
-    { bind: [depotId, binTypeId], type: QueryTypes.SELECT },
-  );
-}
-
-export async function depots(): Promise<SiteOption[]> {
-  return sequelize.query<SiteOption>(`SELECT id, name, kind FROM sites WHERE kind = 'depot' AND active ORDER BY name`, { type: QueryTypes.SELECT });
+  const list = await openOrdersAt(depotId, { binTypeId, limit: 20 });
+  return list.map(({ id, reference, customer, neededBy, quantity, loaded }) => ({ id, reference, customer, neededBy, quantity, loaded }));
 }

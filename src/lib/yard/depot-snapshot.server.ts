@@ -6,9 +6,9 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { localDate } from '@/lib/calendar';
 import type { DepotSnapshot, SnapshotBin, SnapshotOrder } from './yard-offline';
+import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 import { lotsAt, type SiteOption } from './action-options.server';
 import { getSettings } from '@/lib/settings/settings.server';
-import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
 
 /** More bins than any one depot holds; a guard, not a page size. */
 const MAX_BINS = 20_000;
@@ -38,13 +38,8 @@ export async function loadDepotSnapshot(depotId: number, now = new Date()): Prom
       { bind: [depotId], type: QueryTypes.SELECT },
     ),
     lotsAt(depotId, today),
-    sequelize.query<SnapshotOrder>(
-      `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity, ho.bin_type_id AS "binTypeId",
-              (SELECT count(*)::int FROM trips tr WHERE tr.hire_order_id = ho.id) AS loaded
-         FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id
-        WHERE ho.depot_site_id = $1 AND ho.status IN (${DEMAND_STATUSES_SQL})
-        ORDER BY ho.needed_by, ho.id LIMIT 200`,
-      { bind: [depotId], type: QueryTypes.SELECT },
+    openOrdersAt(depotId, { limit: 200 }).then((list) =>
+      list.map(({ id, reference, customer, neededBy, quantity, loaded, binTypeId }): SnapshotOrder => ({ id, reference, customer, neededBy, quantity, loaded, binTypeId })),
     ),
   ]);
   return { depot, generatedAt: now.toISOString(), today, timeZone: settings.timeZone, bins, lots, orders };

@@ -4,8 +4,9 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { addDays, localDate } from '@/lib/calendar';
 import type { Action, Status } from '@/lib/scans/lifecycle';
+import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import { getSettings } from '@/lib/settings/settings.server';
-import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
+import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 
 export interface YardHome {
   depot: { id: number; name: string } | null;
@@ -33,13 +34,8 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
   const [counts, orders, expected, transfers, testsDue, recent] = await Promise.all([
     // Retired bins have left the pool even when their scrap still stands in the yard.
     q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [depotId]),
-    q<YardHome['orders'][number]>(
-      `SELECT ho.id, ho.reference, o.name AS customer, ho.needed_by AS "neededBy", ho.quantity, bt.name AS "binType",
-              (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id) AS loaded
-         FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id JOIN bin_types bt ON bt.id = ho.bin_type_id
-        WHERE ho.depot_site_id = $1 AND ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $2
-        ORDER BY ho.needed_by, ho.id`,
-      [depotId, horizon],
+    openOrdersAt(depotId, { neededBy: horizon }).then((list) =>
+      list.map(({ id, reference, customer, neededBy, quantity, loaded, binType }) => ({ id, reference, customer, neededBy, quantity, loaded, binType })),
     ),
     // Bins that left from this depot come back to it, as a rule.
     q<{ returning: number; awaiting: number }>(
@@ -62,7 +58,7 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
       `SELECT grai, serial, next_due AS "nextDue", status, count(*) OVER ()::int AS total FROM assets
         WHERE site_id = $1 AND status IN ('available', 'quarantine', 'in_repair') AND next_due <= $2
         ORDER BY next_due LIMIT 8`,
-      [depotId, addDays(today, 30)],
+      [depotId, addDays(today, DUE_SOON_DAYS)],
     ),
     q<YardHome['recent'][number]>(
       `SELECT a.grai, a.serial, e.action, e.occurred_at AS "occurredAt", e.status_to AS "statusTo", e.inferred

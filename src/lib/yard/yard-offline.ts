@@ -132,21 +132,13 @@ export function offlineActions(bin: SnapshotBin, ctx: ActingContext): Action[] {
   });
 }
 
-/** Today's date (YYYY-MM-DD) in the operator's time zone, without a date library. */
+
+/**
+ * Today's date (YYYY-MM-DD) in the operator's time zone, through Intl only: calendar.ts's localDate() gives the
+ * same answer (unit-tested against luxon) but would bring luxon into every yard page's JavaScript.
+ */
 export function todayIn(timeZone: string, at: Date): string {
   const parts = new Intl.DateTimeFormat('en-GB', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).formatToParts(at);
   const get = (t: string) => parts.find((p) => p.type === t)?.value ?? '';
   return `${get('year')}-${get('month')}-${get('day')}`;
-}
-
-const MONTHS = ['Jan', 'Feb', 'Mar', 'Apr', 'May', 'Jun', 'Jul', 'Aug', 'Sep', 'Oct', 'Nov', 'Dec'];
-const dayNumber = (d: string) => Date.UTC(Number(d.slice(0, 4)), Number(d.slice(5, 7)) - 1, Number(d.slice(8, 10))) / 86_400_000;
-
-/** "14 Mar 2027 · in 103 days" (the same words as the server-rendered pages, without their date library). */
-export function dateHint(date: string, today: string): string {
-  const days = dayNumber(date) - dayNumber(today);
-  const long = `${Number(date.slice(8, 10))} ${MONTHS[Number(date.slice(5, 7)) - 1]} ${date.slice(0, 4)}`;
-  const n = Math.abs(days);
-  const count = `${n} ${n === 1 ? 'day' : 'days'}`;
-  return `${long} · ${days === 0 ? 'today' : days > 0 ? `in ${count}` : `${count} ago`}`;
 }

@@ -29,17 +29,19 @@ interface BinSpec {
   tripCount: number;
   leg?: string;
   lot?: boolean;
+  /** The current trip's delivery: "over free days" counts from it (overdue-return.ts), not from siteSince. */
+  deliveredAt?: string;
 }
 
 const BINS: BinSpec[] = [
   // arrived 23:30 local on 30 Nov → 1 day at site today; test lapsed on 15 Nov
   { key: 'B1', serial: 'S-001', status: 'available', site: 'depot', siteSince: '2026-11-30T22:30:00Z', lastScanAt: '2026-11-30T22:30:00Z', nextDue: '2026-11-15', lastInspectionOn: '2024-05-15', tripCount: 5 },
   // on hire 21 days with 14 free days; test due in 19 days
-  { key: 'B2', serial: 'S-002', status: 'on_hire', site: 'customerSite', customer: true, siteSince: '2026-11-10T10:00:00Z', lastScanAt: '2026-11-10T10:00:00Z', nextDue: '2026-12-20', tripCount: 2, lot: true },
-  // on hire 6 days: inside the free days
-  { key: 'B3', serial: 'S-003', status: 'on_hire', site: 'customerSite', customer: true, siteSince: '2026-11-25T10:00:00Z', lastScanAt: '2026-11-25T10:00:00Z', nextDue: '2027-06-01', tripCount: 9, lot: true },
+  { key: 'B2', serial: 'S-002', status: 'on_hire', site: 'customerSite', customer: true, siteSince: '2026-11-10T10:00:00Z', deliveredAt: '2026-11-10T10:00:00Z', lastScanAt: '2026-11-10T10:00:00Z', nextDue: '2026-12-20', tripCount: 2, lot: true },
+  // on site 6 days, delivered 12 days ago (moved between two sites of the customer): inside the free days
+  { key: 'B3', serial: 'S-003', status: 'on_hire', site: 'customerSite', customer: true, siteSince: '2026-11-25T10:00:00Z', deliveredAt: '2026-11-19T10:00:00Z', lastScanAt: '2026-11-25T10:00:00Z', nextDue: '2027-06-01', tripCount: 9, lot: true },
   // folded at the customer 30 days; last scan 00:30 local on 1 Nov → silent exactly 30 days; no periodic test
-  { key: 'B4', serial: 'X-104', status: 'awaiting_collection', site: 'customerSite', customer: true, siteSince: '2026-11-01T12:00:00Z', lastScanAt: '2026-10-31T23:30:00Z', nextDue: null, tripCount: 0 },
+  { key: 'B4', serial: 'X-104', status: 'awaiting_collection', site: 'customerSite', customer: true, siteSince: '2026-11-01T12:00:00Z', deliveredAt: '2026-10-20T12:00:00Z', lastScanAt: '2026-10-31T23:30:00Z', nextDue: null, tripCount: 0 },
   // in quarantine since 1 Sep; test due in 35 days (not "soon")
   { key: 'B5', serial: 'X-105', status: 'quarantine', site: 'depot2', siteSince: '2026-09-01T08:00:00Z', lastScanAt: '2026-09-01T08:00:00Z', nextDue: '2027-01-05', tripCount: 1 },
   // on a truck, no site; scanned 00:10 local today; test due today (due soon, not overdue)
@@ -62,6 +64,13 @@ async function insertBin(spec: BinSpec, n: number) {
     },
   );
   ids[spec.key] = (rows as Array<{ id: number }>)[0]!.id;
+  if (spec.deliveredAt) {
+    const [trip] = await sequelize.query(
+      `INSERT INTO trips (asset_id, customer_id, depot_site_id, dispatched_at, delivered_at, status) VALUES ($1, $2, $3, $4::timestamptz - interval '1 day', $4, 'open') RETURNING id`,
+      { bind: [ids[spec.key], w.customer.id, w.depot.id, spec.deliveredAt] },
+    );
+    await sequelize.query('UPDATE assets SET current_trip_id = $1 WHERE id = $2', { bind: [(trip as Array<{ id: number }>)[0]!.id, ids[spec.key]] });
+  }
 }
 
 beforeAll(async () => {

@@ -4,6 +4,7 @@ import { usePoolWorld, newBin, appErrorOf } from '../support/fixtures';
 import { recordScan, type ScanInput } from '@/lib/scans/scan-service.server';
 import { Asset, ScanEvent, ScanEventKey, Trip } from '@/models';
 import { AppError } from '@/lib/api-errors';
+import { sealState } from '@/lib/trips/seal-check';
 
 const w = usePoolWorld();
 
@@ -181,5 +182,25 @@ describe('missed scans are inferred and flagged', () => {
     expect(out.flags).toContain('seal_mismatch');
     const trip = await Trip.findByPk(out.tripId!);
     expect(trip!.sealMismatch).toBe(true);
+  });
+
+  // The scan and sealState() (src/lib/trips/seal-check.ts) are one rule: equal as multisets, order does not matter.
+  test.each([
+    ['re-ordered numbers match', ['TE200', 'TE201'], ['TE201', 'TE200'], false],
+    ['the same number twice where two were fitted is a mismatch', ['TE200', 'TE201'], ['TE200', 'TE200'], true],
+  ])('%s', async (_name, applied, verified, flagged) => {
+    const bin = await newBin(w);
+    const steps: Array<[typeof w.yard, Omit<ScanInput, 'clientEventId' | 'assetId'>]> = [
+      [w.yard, { action: 'prep_check', prepResult: 'pass', siteId: w.depot.id }],
+      [w.yard, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id }],
+      [w.yard, { action: 'dispatch', hireOrderId: w.order.id, siteId: w.depot.id }],
+      [w.customerUser, { action: 'fill_seal', siteId: w.customerSite.id, fill: { product: 'Oil', seals: applied } }],
+    ];
+    for (const [actor, input] of steps) await recordScan(actor, scan(bin.id, input), NOW);
+    const out = await recordScan(w.customerUser, scan(bin.id, { action: 'discharge', siteId: w.customerSite.id, sealsVerified: verified }), NOW);
+    expect(out.flags.includes('seal_mismatch')).toBe(flagged);
+    const trip = await Trip.findByPk(out.tripId!);
+    expect(trip!.sealMismatch).toBe(flagged);
+    expect(sealState(trip!.sealsApplied, trip!.sealsVerified, false) === 'mismatch').toBe(flagged);
   });
 });

@@ -65,3 +65,35 @@ export async function logEvent(e: { assetId: number; action: string; occurredAt:
 export async function sqlRows<T extends object>(sql: string, bind: unknown[] = []): Promise<T[]> {
   return sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT });
 }
+
+let rawSerial = 0;
+/**
+ * A bin row written straight into `assets` in exactly the given state (no register event), with an optional
+ * current trip: for drift tests that compare an SQL restatement of a rule with the pure rule on many states.
+ */
+export async function rawBin(b: {
+  binTypeId: number; status: string; siteId?: number | null; siteSince?: string | null; customerId?: number | null; leg?: string | null;
+  lastScanAt?: string | null; nextDue?: string | null;
+  trip?: { customerId: number; depotSiteId: number; dispatchedAt: string; deliveredAt?: string | null };
+}): Promise<number> {
+  rawSerial += 1;
+  const serial = `D${String(rawSerial).padStart(5, '0')}`;
+  const [row] = await sequelize.query<{ id: number }>(
+    `INSERT INTO assets (grai, serial, bin_type_id, manufacture_month, status, site_id, site_since, customer_id, leg, last_scan_at,
+                         next_intermediate_due, next_full_due, next_due)
+     VALUES ($1, $2, $3, '2024-01-01', $4, $5, $6, $7, $8, $9, $10, $10, $10) RETURNING id`,
+    {
+      bind: [makeGrai('9529999', '10010', serial), serial, b.binTypeId, b.status, b.siteId ?? null, b.siteSince ?? null, b.customerId ?? null, b.leg ?? null, b.lastScanAt ?? null, b.nextDue ?? null],
+      type: QueryTypes.SELECT,
+    },
+  );
+  const id = row!.id;
+  if (b.trip) {
+    const [trip] = await sequelize.query<{ id: number }>(
+      `INSERT INTO trips (asset_id, customer_id, depot_site_id, dispatched_at, delivered_at, status) VALUES ($1, $2, $3, $4, $5, 'open') RETURNING id`,
+      { bind: [id, b.trip.customerId, b.trip.depotSiteId, b.trip.dispatchedAt, b.trip.deliveredAt ?? null], type: QueryTypes.SELECT },
+    );
+    await sequelize.query('UPDATE assets SET current_trip_id = $1 WHERE id = $2', { bind: [trip!.id, id] });
+  }
+  return id;
+}

@@ -92,7 +92,12 @@ describe('filter model → WHERE fragment with bind values', () => {
     expect(where({ overdue: { filterType: 'boolean', value: true } })).toEqual({ sql: '(a.next_due < $1::date) IS TRUE', bind: ['2026-12-01'] });
     expect(where({ overdue: { filterType: 'boolean', value: false } }).sql).toBe('(a.next_due < $1::date) IS NOT TRUE');
     expect(where({ dueThisMonth: { filterType: 'boolean', value: true } })).toEqual({ sql: '(a.next_due <= $1::date) IS TRUE', bind: ['2026-12-31'] });
-    expect(where({ overFreeDays: { filterType: 'boolean', value: true } }).sql).toContain('o.free_days');
+    // Counted from the delivery (or the dispatch) of the current trip, as overdue-return.ts does; not from site_since.
+    expect(where({ overFreeDays: { filterType: 'boolean', value: true } })).toEqual({
+      sql: "((a.status IN ('on_hire', 'awaiting_collection') AND COALESCE(t.delivered_at, t.dispatched_at) < (($1::date - o.free_days)::timestamp AT TIME ZONE $2::text))) IS TRUE",
+      bind: ['2026-12-01', 'Europe/Amsterdam'],
+    });
+    expect(where({ dueSoon: { filterType: 'boolean', value: true } })).toEqual({ sql: '(a.next_due BETWEEN $1::date AND $1::date + 30) IS TRUE', bind: ['2026-12-01'] });
   });
 
   test('combined conditions join with the given operator; several columns join with AND', () => {
@@ -196,6 +201,8 @@ describe('whole statements', () => {
     expect(inner({ sortModel: [{ colId: 'site', sort: 'asc' }] })).toMatch(/LEFT JOIN sites s ON s\.id = a\.site_id/);
     expect(inner({ sortModel: [{ colId: 'site', sort: 'asc' }] })).not.toMatch(/organisations|liner_lots|bin_types/);
     expect(inner({ filterModel: { overFreeDays: { filterType: 'boolean', value: true } } })).toMatch(/LEFT JOIN organisations o/);
+    expect(inner({ filterModel: { overFreeDays: { filterType: 'boolean', value: true } } })).toMatch(/LEFT JOIN trips t ON t\.id = a\.current_trip_id/);
+    expect(inner({ filterModel: { daysSilent: { filterType: 'number', type: 'greaterThan', filter: 3 } } })).not.toMatch(/trips/);
     expect(inner({ filterModel: { linerLot: { filterType: 'text', type: 'contains', filter: 'x' } } })).toMatch(/LEFT JOIN liner_lots ll/);
   });
 

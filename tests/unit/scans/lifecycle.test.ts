@@ -322,9 +322,23 @@ describe('lifecycle: periodic test lapsed (ADR/RID 4.1.2.2, 49 CFR 180.352)', ()
   });
 
   test('the refusal says when the test lapsed and what to do, and changes nothing (story 6)', () => {
-    const d = decide(checked, 'fit_liner', at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' }));
+    const withDates = { ...checked, inspection: { intermediateDue: LAPSED, fullDue: '2027-09-30', intermediateMonths: 30, fullMonths: 60 } };
+    const d = decide(withDates, 'fit_liner', at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' }));
     expect(d).toEqual({ ok: false, action: 'fit_liner', code: 'inspection_lapsed', reason: expect.stringContaining('test lapsed on 2026-03-14; book a 2.5-year inspection') });
     expect('patch' in d).toBe(false);
+  });
+
+  // The refusal names the inspection inspectionLabel() names (ADR 6.5.4.4: the 5-year one also covers the
+  // 2.5-year checks, so past the 5-year date only it will do). It used to say "2.5-year" whatever was due.
+  test.each([
+    ['the 2.5-year one is due first', { intermediateDue: LAPSED, fullDue: '2027-09-30', intermediateMonths: 30, fullMonths: 60 }, 'book a 2.5-year inspection'],
+    ['the 5-year one falls due with it', { intermediateDue: LAPSED, fullDue: LAPSED, intermediateMonths: 30, fullMonths: 60 }, 'book a 5-year inspection'],
+    ['past both dates', { intermediateDue: LAPSED, fullDue: '2026-04-30', intermediateMonths: 30, fullMonths: 60 }, 'book a 5-year inspection'],
+    ['an own schedule of 18 and 36 months', { intermediateDue: LAPSED, fullDue: '2027-03-31', intermediateMonths: 18, fullMonths: 36 }, 'book an 18-month inspection'],
+    ['no dates known', null, 'book its periodic inspection'],
+  ])('lapse refusal when %s', (_name, inspection, words) => {
+    const d = decide({ ...checked, inspection }, 'fit_liner', at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' }));
+    expect(d.ok ? '' : d.reason).toContain(words);
   });
 
   test('lapsing is checked before the missing prep check (the check would not help)', () => {

@@ -1,31 +1,6 @@
-// Seal checks and fill records as the trip pages show them. Tamper-evident seal numbers recorded at filling
-// and compared at discharge is common practice for sealed bulk loads (no single published source).
+// Fill records as the trip pages show them (seal checks: seal-check.test.ts).
 import { describe, test, expect } from 'vitest';
-import { fillRecordText, sealCheck, sealState } from '@/lib/trips/trip-display.ts';
-
-describe('seal check', () => {
-  test('no seals yet; sealed but not checked; checked and equal (in any order)', () => {
-    expect(sealState([], [], false)).toBe('not_sealed');
-    expect(sealState(['TE1001', 'TE1002'], [], false)).toBe('awaiting_check');
-    expect(sealState(['TE1001', 'TE1002'], ['TE1002', 'TE1001'], false)).toBe('match');
-  });
-
-  test('a replaced, missing or extra seal is a mismatch even when the scan did not flag it', () => {
-    expect(sealState(['TE1001', 'TE1002'], ['TE1001', 'TE9999'], false)).toBe('mismatch');
-    expect(sealState(['TE1001', 'TE1002'], ['TE1001'], false)).toBe('mismatch');
-    expect(sealState(['TE1001'], ['TE1001', 'TE1002'], false)).toBe('mismatch');
-    expect(sealState(['TE1001'], ['te1001'], false)).toBe('mismatch'); // compared exactly, as the discharge scan does
-  });
-
-  test('a flagged scan is a mismatch whatever the lists say', () => {
-    expect(sealState(['TE1001'], ['TE1001'], true)).toBe('mismatch');
-  });
-
-  test('always a word and an icon', () => {
-    expect(sealCheck(['TE1'], ['TE2'], false)).toEqual({ state: 'mismatch', label: 'Seal mismatch', icon: 'alert', tone: 'fault' });
-    expect(sealCheck(['TE1'], ['TE1'], false)).toMatchObject({ label: 'Checked: seals match', icon: 'check' });
-  });
-});
+import { fillRecordText } from '@/lib/trips/trip-display.ts';
 
 describe('fill record', () => {
   test('product, volume, mass and temperature with units (after a no-break space); NUMERIC strings lose a trailing .0', () => {

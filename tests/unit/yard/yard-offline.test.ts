@@ -2,7 +2,9 @@ import { describe, test, expect } from 'vitest';
 import { DateTime } from 'luxon';
 import { differenceInCalendarDays, parseISO } from 'date-fns';
 import { allowedActions } from '@/lib/scans/lifecycle';
-import { binStateOf, dateHint, findInSnapshot, offlineActions, projectBin, todayIn, type ActingContext, type DepotSnapshot, type SnapshotBin } from '@/lib/yard/yard-offline';
+import { binStateOf, findInSnapshot, offlineActions, projectBin, todayIn, type ActingContext, type DepotSnapshot, type SnapshotBin } from '@/lib/yard/yard-offline';
+import { localDate } from '@/lib/calendar';
+import { dateWithHint as dateHint } from '@/lib/dates-display';
 
 const DEPOT = { id: 1, name: 'Test depot', kind: 'depot' as const };
 const ctx: ActingContext = { role: 'yard', today: '2026-12-01', site: { id: DEPOT.id, kind: 'depot' } };
@@ -82,7 +84,8 @@ describe('projecting waiting scans through the rule table', () => {
   });
 });
 
-describe('dates without a date library on the phone', () => {
+// The offline bin card uses the shared calendar and dates-display formatters (no formatter of its own).
+describe('dates on the phone', () => {
   // Luxon (not used by the code under test) as the reference for the zone arithmetic.
   test.each([
     ['2026-03-28T23:30:00Z', 'Europe/Amsterdam'], // before the spring change: +01:00 → next day
@@ -92,6 +95,7 @@ describe('dates without a date library on the phone', () => {
     ['2026-07-01T12:00:00Z', 'UTC'],
   ])('todayIn(%s, %s) matches luxon', (iso, zone) => {
     expect(todayIn(zone, new Date(iso))).toBe(DateTime.fromISO(iso, { zone: 'utc' }).setZone(zone).toISODate());
+    expect(todayIn(zone, new Date(iso))).toBe(localDate(iso, zone));
   });
 
   // date-fns (not used by the code under test) counts the calendar days.

@@ -1,7 +1,6 @@
 import type { APIRoute } from 'astro';
-import { Attachment } from '@/models';
+import { attachmentFor } from '@/lib/attachments.server';
 import { errorResponse } from '@/lib/respond.server';
-import { can } from '@/lib/permissions';
 
 /**
  * Serves a stored file with its sniffed type, only to signed-in users who may
@@ -12,9 +11,8 @@ export const GET: APIRoute = async ({ params, locals }) => {
   if (!user) return errorResponse('unauthenticated', 'Sign in first.');
   const id = Number(params.id);
   if (!Number.isInteger(id) || id <= 0) return errorResponse('bad_request', 'Attachment ids are positive whole numbers.');
-  const row = await Attachment.scope('withContent').findByPk(id);
-  const staff = can(user.role, 'bins.edit') || user.role === 'yard';
-  if (!row || (!staff && row.organisationId !== user.organisationId)) return errorResponse('not_found', 'No such file.');
+  const row = await attachmentFor(user, id);
+  if (!row) return errorResponse('not_found', 'No such file.');
   return new Response(new Uint8Array(row.content), {
     headers: {
       'Content-Type': row.contentType,

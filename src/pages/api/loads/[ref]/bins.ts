@@ -1,8 +1,7 @@
 import { z } from 'zod';
 import { endpoint } from '@/lib/endpoint.server';
-import { addBinToLoad } from '@/lib/loads/load-service.server';
+import { addBinToLoad, loadIdByReference } from '@/lib/loads/load-service.server';
 import { findBin } from '@/lib/bins/bin-lookup.server';
-import { Load } from '@/models';
 import { AppError } from '@/lib/api-errors';
 
 const body = z
@@ -17,13 +16,12 @@ const body = z
 
 /** One bin onto the truck (a dispatch scan on the load's order). */
 export const POST = endpoint({ capability: 'loads.manage', body, status: 201 }, async ({ ctx, user, body }) => {
-  const load = await Load.findOne({ where: { reference: ctx.params.ref ?? '' }, attributes: ['id'] });
-  if (!load) throw new AppError('not_found', 'No such load.');
+  const loadId = await loadIdByReference(ctx.params.ref ?? '');
   let assetId = body.assetId;
   if (assetId === undefined) {
     const found = await findBin(body.grai!, user);
     if (found.kind !== 'found') throw new AppError('not_found', found.kind === 'none' ? found.message : 'Several bins have that serial; scan the label or type the GRAI.');
     assetId = found.assetId;
   }
-  return addBinToLoad(user, load.id, { clientEventId: body.clientEventId, assetId, occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined });
+  return addBinToLoad(user, loadId, { clientEventId: body.clientEventId, assetId, occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined });
 });

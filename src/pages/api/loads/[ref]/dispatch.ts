@@ -1,8 +1,6 @@
 import { z } from 'zod';
 import { endpoint } from '@/lib/endpoint.server';
-import { dispatchLoad } from '@/lib/loads/load-service.server';
-import { Load } from '@/models';
-import { AppError } from '@/lib/api-errors';
+import { dispatchLoad, loadIdByReference } from '@/lib/loads/load-service.server';
 
 const body = z
   .object({
@@ -15,8 +13,6 @@ const body = z
 
 /** The truck leaves: record the carrier's details; the dispatch note can be printed. */
 export const POST = endpoint({ capability: 'loads.manage', body }, async ({ ctx, body }) => {
-  const load = await Load.findOne({ where: { reference: ctx.params.ref ?? '' }, attributes: ['id'] });
-  if (!load) throw new AppError('not_found', 'No such load.');
-  const done = await dispatchLoad(load.id, body);
+  const done = await dispatchLoad(await loadIdByReference(ctx.params.ref ?? ''), body);
   return { reference: done.reference, status: done.status };
 });

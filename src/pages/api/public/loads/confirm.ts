@@ -1,11 +1,10 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { confirmDelivery, loadFromToken } from '@/lib/loads/load-service.server';
+import { confirmDelivery, loadCustomerId, loadFromToken } from '@/lib/loads/load-service.server';
 import { formFile, readForm, storeAttachment } from '@/lib/attachments.server';
 import { publicFormLimit, hit } from '@/lib/rate-limits.server';
 import { dataResponse, errorResponse } from '@/lib/respond.server';
 import { toErrorResponse } from '@/lib/endpoint.server';
-import { HireOrder } from '@/models';
 
 const fields = z.object({
   token: z.string().min(10).max(120),
@@ -26,8 +25,7 @@ export const POST: APIRoute = async ({ request, locals }) => {
     if (!parsed.success) return errorResponse('validation_failed', parsed.error.issues[0]!.message, parsed.error.issues);
     const load = await loadFromToken(parsed.data.token);
     if (!load) return errorResponse('not_found', 'This delivery link is not valid. Check it against the dispatch note.');
-    const order = load.hireOrderId ? await HireOrder.findByPk(load.hireOrderId) : null;
-    const stored = photo ? await storeAttachment({ ...photo, purpose: 'photo', organisationId: order?.customerId ?? null, uploadedBy: locals.user?.id ?? null }) : null;
+    const stored = photo ? await storeAttachment({ ...photo, purpose: 'photo', organisationId: await loadCustomerId(load), uploadedBy: locals.user?.id ?? null }) : null;
     const result = await confirmDelivery(load, { receivedByName: parsed.data.receivedByName, photoId: stored?.id ?? null, userId: locals.user?.id ?? null });
     return dataResponse({ reference: load.reference, ...result });
   } catch (err) {
