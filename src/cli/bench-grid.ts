@@ -287,7 +287,7 @@ async function main() {
     await c.end();
   }
 
-  buildIfStale();
+  await buildIfStale();
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   const server = await startServer(url, port);
