@@ -12,7 +12,7 @@ import { AppError } from '../api-errors';
 import { decide, checkLinerLot, type Action, type Decision, type Leg, type SiteKind, type Status } from '../lifecycle';
 import { assetAfter, binState, logRows, tripChanges, tripOpening, type AssetSnapshot, type FillRecord, type ScanSite } from '../scan/scan-effects';
 import { localDate } from '../calendar';
-import { getSettings } from './settings';
+import { getSettings, type OperatorSettings } from './settings';
 import type { SessionUser } from './session-user';
 
 export type { FillRecord };
@@ -75,7 +75,10 @@ export async function recordScan(actor: Actor, input: ScanInput, opts: Options =
   if (occurredAt.getTime() > now.getTime() + MAX_FUTURE_MS) {
     throw new AppError('validation_failed', 'The scan time is in the future; check the phone clock.');
   }
-  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, t);
+  // Settings are read before the transaction: a read inside it would wait for a second pool
+  // connection while holding one, and with every connection held that way no scan ever finishes.
+  const settings = await getSettings();
+  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, settings, t);
   try {
     return await (opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run));
   } catch (err) {
@@ -103,7 +106,7 @@ async function one<T extends object>(sql: string, bind: unknown[], t: Transactio
   return rows[0];
 }
 
-async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, t: Transaction): Promise<ScanOutcome> {
+async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, settings: OperatorSettings, t: Transaction): Promise<ScanOutcome> {
   // 1. Claim the client event id first: a concurrent replay waits here and then sees the claim.
   const claimed = await one(
     `INSERT INTO scan_event_keys (client_event_id, user_id, outcome) VALUES ($1, $2, '{}'::jsonb)
@@ -127,7 +130,6 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   }
   if (input.expectedVersion !== undefined && input.expectedVersion !== asset.version) throw changedMeanwhile();
   const site = await scanSite(actor, input, t);
-  const settings = await getSettings();
   const today = localDate(occurredAt, settings.timeZone);
 
   // 3. The rule table decides.
