@@ -7,7 +7,6 @@
 //   npm run bench:grid -- --runs 100   samples per scenario (default 50, after 5 warm-up runs)
 //
 // Not part of `npm test`. Uses the worktree's own cluster (LOOPFOLD_PG_PORT) and builds the app when stale.
-import { spawn, type ChildProcess } from 'node:child_process';
 import { freePort } from './free-port.mjs';
 import { randomBytes } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
@@ -16,10 +15,11 @@ import pg from 'pg';
 import bcrypt from 'bcryptjs';
 import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
 import { migrate, buildIfStale, say } from './setup.mjs';
-import { binsCountQuery, binsPageQuery, parseGridRequest, type GridRequest, type QueryContext } from '../lib/fleet/grid-query';
-import { makeGrai } from '../lib/gs1';
-import { localDate } from '../lib/calendar';
-import { OPERATOR, BIN_TYPES } from '../db/seed/scenario';
+import { startServer, signIn } from './bench-support';
+import { binsCountQuery, binsPageQuery, parseGridRequest, type GridRequest, type QueryContext } from '@/lib/fleet/grid-query';
+import { makeGrai } from '@/lib/gs1';
+import { localDate } from '@/lib/calendar';
+import { OPERATOR, BIN_TYPES } from '@/db/seed/scenario';
 
 const BINS = 100_000;
 const EVENTS = 5_000_000;
@@ -167,53 +167,6 @@ async function seed(c: pg.Client) {
 }
 
 // ---------------------------------------------------------------------------------------------------
-// The app server, signed in as the bench planner through the credentials flow.
-
-async function startServer(url: string, port: number): Promise<ChildProcess> {
-  const child = spawn(process.execPath, ['dist/server/entry.mjs'], {
-    cwd: projectRoot,
-    env: { ...process.env, DATABASE_URL: url, HOST: '127.0.0.1', PORT: String(port), AUTH_SECRET: randomBytes(32).toString('base64url'), NODE_ENV: 'production' },
-    stdio: ['ignore', 'ignore', 'inherit'],
-  });
-  const base = `http://127.0.0.1:${port}`;
-  for (let i = 0; i < 200; i++) {
-    try {
-      if ((await fetch(`${base}/api/health`)).ok) return child;
-    } catch {
-      /* starting */
-    }
-    await new Promise((r) => setTimeout(r, 150));
-  }
-  child.kill();
-  throw new Error('the app server did not become healthy');
-}
-
-function cookiesOf(res: Response, jar: Map<string, string>) {
-  for (const c of res.headers.getSetCookie()) {
-    const [pair] = c.split(';');
-    const eq = pair!.indexOf('=');
-    jar.set(pair!.slice(0, eq), pair!.slice(eq + 1));
-  }
-}
-const cookieHeader = (jar: Map<string, string>) => [...jar].map(([k, v]) => `${k}=${v}`).join('; ');
-
-async function signIn(base: string): Promise<string> {
-  const jar = new Map<string, string>();
-  const csrfRes = await fetch(`${base}/api/auth/csrf`);
-  cookiesOf(csrfRes, jar);
-  const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-  const res = await fetch(`${base}/api/auth/callback/credentials`, {
-    method: 'POST',
-    redirect: 'manual',
-    headers: { 'Content-Type': 'application/x-www-form-urlencoded', Origin: base, Cookie: cookieHeader(jar) },
-    body: new URLSearchParams({ csrfToken, email: PLANNER, password: PASSWORD, callbackUrl: `${base}/fleet` }),
-  });
-  cookiesOf(res, jar);
-  if (![...jar.keys()].some((k) => k.endsWith('session-token'))) throw new Error(`sign-in failed (HTTP ${res.status})`);
-  return cookieHeader(jar);
-}
-
-// ---------------------------------------------------------------------------------------------------
 // Measuring
 
 interface Scenario {
@@ -287,13 +240,13 @@ async function main() {
     await c.end();
   }
 
-  buildIfStale();
+  await buildIfStale();
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
   const server = await startServer(url, port);
   const pool = new pg.Pool({ connectionString: url, max: 4 });
   try {
-    const cookie = await signIn(base);
+    const cookie = await signIn(base, PLANNER, PASSWORD);
     const { rows: [setting] } = await pool.query('SELECT time_zone FROM settings');
     const ctx: QueryContext = { timeZone: setting.time_zone, today: localDate(new Date(), setting.time_zone) };
     const { rows: [busy] } = await pool.query(`SELECT site_id FROM assets WHERE status = 'on_hire' GROUP BY site_id ORDER BY count(*) DESC LIMIT 1`);

@@ -1,10 +1,11 @@
 // Shared steps of `npm start` and `npm test`. Node built-ins only at the top
 // level: this runs before dependencies are installed.
 import { spawn, spawnSync, execFileSync } from 'node:child_process';
-import { existsSync, statSync, readdirSync, readFileSync, writeFileSync, mkdirSync } from 'node:fs';
+import { existsSync, readFileSync, writeFileSync, mkdirSync } from 'node:fs';
 import { randomBytes, createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { projectRoot } from './postgres.mjs';
+import { buildIfStale as buildWhenStale } from './build-stamp.mjs';
 
 export function say(msg) {
   process.stdout.write(`\x1b[1m[loopfold]\x1b[0m ${msg}\n`);
@@ -67,23 +68,23 @@ export function seed(databaseUrl) {
   run(bin('sequelize-cli'), ['db:seed:all'], { DATABASE_URL: databaseUrl });
 }
 
-function newestMtime(path) {
-  if (!existsSync(path)) return 0;
-  const st = statSync(path);
-  if (!st.isDirectory()) return st.mtimeMs;
-  let newest = st.mtimeMs;
-  for (const entry of readdirSync(path)) newest = Math.max(newest, newestMtime(join(path, entry)));
-  return newest;
+/**
+ * Builds the server unless the last build finished for these very sources
+ * (a completion stamp, see build-stamp.mjs). Resolves when the build is done,
+ * so callers may do other work meanwhile.
+ */
+export function buildIfStale({ force = false } = {}) {
+  return buildWhenStale(projectRoot, { command: bin('astro'), args: ['build'], env: { ASTRO_TELEMETRY_DISABLED: '1' }, force, say });
 }
 
-/** Builds the server when any source is newer than the last build. */
-export function buildIfStale({ force = false } = {}) {
-  const entry = join(projectRoot, 'dist', 'server', 'entry.mjs');
-  const sources = ['src', 'public', 'astro.config.mjs', 'tailwind.config.mjs', 'auth.config.ts', 'package-lock.json'];
-  const newest = Math.max(...sources.map((s) => newestMtime(join(projectRoot, s))));
-  if (!force && existsSync(entry) && statSync(entry).mtimeMs > newest) return;
-  say('building the app (astro build) …');
-  run(bin('astro'), ['build'], { ASTRO_TELEMETRY_DISABLED: '1' });
+/** Runs `fn` and records how long it took under `name` in `phases` (sync or async). */
+export async function timedPhase(phases, name, fn) {
+  const t0 = Date.now();
+  try {
+    return await fn();
+  } finally {
+    phases.push([name, (Date.now() - t0) / 1000]);
+  }
 }
 
 /** Starts a long-running child that dies with this process. */

@@ -1,21 +1,32 @@
 // `npm start`: from a fresh clone to a seeded, running Loopfold.
 // Installs what is missing, starts PostgreSQL (unless DATABASE_URL points
 // elsewhere) and the local mail server (unless SMTP_HOST does), migrates,
-// seeds the demo scenario when the database is empty, builds and serves.
-import { say, ensureDependencies, authSecret, migrate, seed, buildIfStale, startChild, waitForHttp, shutdown } from './setup.mjs';
+// seeds the demo scenario when the database is empty (building the app
+// meanwhile), serves, and prints how long each phase took.
+import { say, ensureDependencies, authSecret, migrate, seed, buildIfStale, startChild, waitForHttp, shutdown, timedPhase } from './setup.mjs';
 import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
 import { prepareHttps, waitForHttps } from './https.mjs';
 
+const phases = [];
+const started = Date.now();
 try {
-  ensureDependencies();
+  await timedPhase(phases, 'dependencies', ensureDependencies);
+  // The build needs no database: it runs while PostgreSQL starts, migrates and seeds.
+  const buildStarted = Date.now();
+  const building = buildIfStale().then(
+    (r) => ({ ...r, seconds: (Date.now() - buildStarted) / 1000 }),
+    (err) => ({ err }),
+  );
 
   const env = { AUTH_SECRET: authSecret(), ASTRO_TELEMETRY_DISABLED: '1' };
   if (process.env.DATABASE_URL) {
     say('using the PostgreSQL server in DATABASE_URL');
     env.DATABASE_URL = process.env.DATABASE_URL;
   } else {
-    const pgBin = startPostgres();
-    ensureDatabase(pgBin, 'loopfold');
+    await timedPhase(phases, 'database server', () => {
+      const pgBin = startPostgres();
+      ensureDatabase(pgBin, 'loopfold');
+    });
     env.DATABASE_URL = databaseUrl('loopfold');
   }
   Object.assign(process.env, env);
@@ -29,10 +40,12 @@ try {
   }
 
   say('migrating the database …');
-  migrate(env.DATABASE_URL);
-  say('seeding the demo scenario (skipped when data exists) …');
-  seed(env.DATABASE_URL);
-  buildIfStale();
+  await timedPhase(phases, 'migrations', () => migrate(env.DATABASE_URL));
+  say('seeding the demo scenario (skipped when seeded; redone when an earlier seed was interrupted) …');
+  await timedPhase(phases, 'demo seed', () => seed(env.DATABASE_URL));
+  const build = await timedPhase(phases, 'build (wait after seed)', () => building);
+  if (build.err) throw build.err;
+  phases.push([build.built ? 'build (in parallel, whole)' : 'build (up to date, skipped)', build.seconds]);
 
   const port = process.env.PORT ?? '4321';
   // HTTPS=1: phones on the yard LAN get a secure context (camera, offline); see src/cli/https.mjs.
@@ -44,7 +57,9 @@ try {
   startChild('job worker', process.execPath, ['--import', 'tsx', 'src/cli/worker.ts'], env);
   startChild('app server', process.execPath, ['dist/server/entry.mjs'], { ...env, ...tls?.env, HOST: host, PORT: port });
   const waitUp = tls ? waitForHttps : waitForHttp;
-  await waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000));
+  await timedPhase(phases, 'server up', () =>
+    waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000)),
+  );
 
   const { DEMO_LOGINS, DEMO_PASSWORD } = await import('../db/seed/demo-logins.mjs');
   say(`Loopfold is running at ${appUrl}`);
@@ -56,6 +71,9 @@ try {
   for (const l of DEMO_LOGINS) say(`  ${l.role.padEnd(9)} ${l.email}`);
   if (env.MAIL_DEV_INBOX) say('Mail goes to the local mailbox: sign in as admin and open "Sent mail".');
   say('Stop with Ctrl-C; stop PostgreSQL too with `npm run db:stop`.');
+  say('time per phase:');
+  for (const [name, sec] of phases) say(`  ${name.padEnd(28)} ${sec.toFixed(1)} s`);
+  say(`  ${'serving after'.padEnd(28)} ${((Date.now() - started) / 1000).toFixed(1)} s`);
 } catch (err) {
   console.error(`\n[loopfold] start failed: ${err.message}`);
   shutdown(1);

@@ -1,15 +1,27 @@
 import bcrypt from 'bcryptjs';
 import { sequelize, Organisation, Site, User, Setting, BinType, Tariff } from '@/models';
 import { generateHistory } from './history';
+import { finishSeedRun, stallPoint, startSeedRun } from './seed-run';
 import { DEMO_LOGINS, DEMO_PASSWORD } from './demo-logins.mjs';
 import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES } from './scenario';
 
-/** Seeds the invented demo scenario into an empty database: who is who, then the pool's history. */
+/**
+ * Seeds the invented demo scenario into an empty database: who is who, then the
+ * pool's history, in two transactions. A seed_runs row is started first and
+ * finished in the second transaction, so a seed killed in between is detected.
+ */
 export async function seedDemo(opts: { bins?: number; months?: number; now?: Date } = {}) {
+  const run = await startSeedRun();
   const people = await seedPeopleAndPlaces();
-  for (const t of BIN_TYPES) await BinType.create(t);
-  const history = await generateHistory({ bins: opts.bins ?? Number(process.env.DEMO_BINS ?? 600), months: opts.months ?? 18, now: opts.now });
-  return { ...people, ...history };
+  await stallPoint('history');
+  return sequelize.transaction(async (transaction) => {
+    for (const t of BIN_TYPES) await BinType.create(t, { transaction });
+    const history = await generateHistory({ bins: opts.bins ?? Number(process.env.DEMO_BINS ?? 600), months: opts.months ?? 18, now: opts.now, transaction });
+    const summary = { ...people, ...history };
+    await stallPoint('finish');
+    await finishSeedRun(run, summary, transaction);
+    return summary;
+  });
 }
 
 async function seedPeopleAndPlaces() {

@@ -1,17 +1,19 @@
-// Eighteen months of invented pool history, generated through the same scan
-// service the yards use (src/lib/scans/scan-service.server.ts), so the bins' current
-// state and the event log agree by construction. Deterministic: a seeded PRNG.
-import { randomUUID } from 'node:crypto';
-import { Op } from 'sequelize';
-import { sequelize, Asset, BinType, HireOrder, Inspection, LinerLot, Organisation, Site, User } from '@/models';
-import { recordScan, type Actor, type ScanInput } from '@/lib/scans/scan-service.server';
-import { registerBin } from '@/lib/bins/bin-register.server';
+// Eighteen months of invented pool history. Every scan goes through the same
+// checks and the same rule table as the yards' (decide(), applied by PoolSim in
+// pool-sim.ts the way recordScan() applies it), on an in-memory pool; the
+// result is written in bulk (bulk-write.ts), so the bins' current state and the
+// event log agree by construction. Deterministic: a seeded PRNG.
+import type { Transaction } from 'sequelize';
+import { BinType, Organisation, Site, User } from '@/models';
+import type { Actor, ScanInput } from '@/lib/scans/scan-service.server';
+import { checkedOrThrow, newAssetRow, registerEventRow } from '@/lib/bins/bin-register.server';
 import { makeGrai } from '@/lib/gs1';
 import { nextDue } from '@/lib/inspections/inspection-due';
 import { policyForBinType } from '@/lib/bins/bin-policy';
 import { addMonthsToMonth, localDate } from '@/lib/calendar';
 import { seededRandom, type Random } from '@/lib/random';
-import { AppError } from '@/lib/api-errors';
+import { PoolSim, SimRefusal, type SimAsset, type SimLot, type SimOrder } from './pool-sim';
+import { nextIds, writePool, type SimInspection } from './bulk-write';
 import { CUSTOMERS, OPERATOR, PRODUCTS, LINER_SUPPLIERS } from './scenario';
 
 const DAY = 86_400_000;
@@ -27,8 +29,10 @@ interface World {
   depots: Site[];
   customers: Array<{ org: Organisation; filling: Site; receiving: Site; homeDepot: Site; slowPayer: boolean }>;
   types: BinType[];
-  lots: LinerLot[];
-  orders: Map<string, Promise<HireOrder>>;
+  lots: SimLot[];
+  orders: Map<string, SimOrder>;
+  inspections: SimInspection[];
+  pool: PoolSim;
   stats: Record<string, number>;
 }
 
@@ -36,16 +40,21 @@ function actorOf(u: User): Actor {
   return { id: u.id, role: u.role, organisationId: u.organisationId, homeSiteId: u.homeSiteId };
 }
 
-/** Generates the pool, its history and the open orders of the coming weeks. */
-export async function generateHistory(opts: { bins: number; months: number; now?: Date; seed?: number }) {
+/**
+ * Generates the pool, its history and the open orders of the coming weeks, and
+ * writes them inside the caller's transaction.
+ */
+export async function generateHistory(opts: { bins: number; months: number; now?: Date; seed?: number; transaction: Transaction }) {
   const now = opts.now ?? new Date();
   const rnd = seededRandom(opts.seed ?? 20261201);
   const start = new Date(now.getTime() - opts.months * 30.44 * DAY);
-  const world = await loadWorld(now, start, rnd);
-  await createLinerLots(world);
+  const t0 = Date.now();
+  const world = await loadWorld(now, start, rnd, opts.transaction);
+  const { pool } = world;
+  createLinerLots(world);
 
   // Register the pool: most bins were there before the window, a tenth joined during it.
-  const plans: Array<{ asset: Asset; joined: Date; depot: Site }> = [];
+  const plans: Array<{ asset: SimAsset; joined: Date; depot: Site }> = [];
   let serial = 0;
   for (let i = 0; i < opts.bins; i++) {
     const type = rnd.chance(0.7) ? world.types[0]! : world.types[1]!;
@@ -55,33 +64,44 @@ export async function generateHistory(opts: { bins: number; months: number; now?
     const lastTest = testHistoryFor(rnd, made, joined, type);
     serial += 1;
     const grai = makeGrai(OPERATOR.gs1CompanyPrefix, type.graiAssetType, String(100000 + serial));
-    const asset = await registerBin(
-      world.planner,
-      {
-        grai, binTypeId: type.id, siteId: depot.id, manufactureMonth: made,
-        unMarking: type.unCode ? `${type.unCode}/Y/${made.slice(5, 7)} ${made.slice(2, 4)}/NL/NMP 4417/2313/${Number(type.maxGrossKg)}` : null,
-        lastIntermediateTestMonth: lastTest,
-      },
-      { now: joined },
-    );
+    const input = {
+      grai, binTypeId: type.id, siteId: depot.id, manufactureMonth: made,
+      unMarking: type.unCode ? `${type.unCode}/Y/${made.slice(5, 7)} ${made.slice(2, 4)}/NL/NMP 4417/2313/${Number(type.maxGrossKg)}` : null,
+      lastIntermediateTestMonth: lastTest,
+    };
+    // The same row and first log entry registerBin() writes.
+    const row = newAssetRow(checkedOrThrow(input, OPERATOR.gs1PrefixLength), input, type, depot.id, joined);
+    const asset: SimAsset = {
+      id: pool.ids.take('assets'), grai: row.grai, serial: row.serial, binTypeId: row.binTypeId, manufactureMonth: row.manufactureMonth,
+      unMarking: row.unMarking, status: row.status, siteId: row.siteId, siteSince: row.siteSince, customerId: null, currentTripId: null,
+      leg: null, prepChecked: false, linerLotId: null, filled: false, tripCount: 0, lastScanAt: row.lastScanAt,
+      lastInspectionOn: row.lastInspectionOn, lastFullInspectionOn: row.lastFullInspectionOn, nextIntermediateDue: row.nextIntermediateDue,
+      nextFullDue: row.nextFullDue, nextDue: row.nextDue, version: 0,
+    };
+    pool.assets.set(asset.id, asset);
+    const ev = registerEventRow(asset.id, depot.id, world.planner, joined);
+    pool.events.push({
+      id: pool.ids.take('scan_events'), asset_id: asset.id, action: 'register', occurred_at: joined, site_id: depot.id, user_id: ev.userId,
+      client_event_id: null, status_from: null, status_to: 'available', trip_id: null, inferred: false, flagged: false, payload: ev.payload,
+    });
     plans.push({ asset, joined, depot });
   }
 
-  // Each bin lives its own cycles; a few at a time so the two cores stay busy.
-  const queue = [...plans];
-  const workers = Array.from({ length: 4 }, async () => {
-    for (let p = queue.shift(); p; p = queue.shift()) await liveBin(world, p.asset, p.depot, p.joined);
-  });
-  await Promise.all(workers);
+  // Each bin lives its own cycles, one after the other (no I/O, so no reason to interleave).
+  for (const p of plans) liveBin(world, p.asset, p.depot, p.joined);
 
-  await closePastOrders(world);
-  await openComingOrders(world);
+  closePastOrders(world);
+  openComingOrders(world);
+  const t1 = Date.now();
+  const written = await writePool(pool, world.inspections, opts.transaction);
+  count(world, 'events_written', written.events);
+  console.log(`[seed] history: ${written.events} log entries generated in ${((t1 - t0) / 1000).toFixed(1)} s, written in ${((Date.now() - t1) / 1000).toFixed(1)} s`);
   return world.stats;
 }
 
-async function loadWorld(now: Date, start: Date, rnd: Random): Promise<World> {
-  const depots = await Site.findAll({ where: { kind: 'depot' }, order: [['id', 'ASC']] });
-  const users = await User.findAll();
+async function loadWorld(now: Date, start: Date, rnd: Random, transaction: Transaction): Promise<World> {
+  const depots = await Site.findAll({ where: { kind: 'depot' }, order: [['id', 'ASC']], transaction });
+  const users = await User.findAll({ transaction });
   const planner = users.find((u) => u.role === 'planner')!;
   const yardByDepot = new Map<number, Actor>();
   for (const d of depots) {
@@ -90,8 +110,8 @@ async function loadWorld(now: Date, start: Date, rnd: Random): Promise<World> {
   }
   const customerActor = new Map<number, Actor>();
   for (const u of users.filter((u) => u.role === 'customer')) customerActor.set(u.organisationId, actorOf(u));
-  const orgs = await Organisation.findAll({ where: { kind: 'customer' } });
-  const sites = await Site.findAll({ where: { kind: 'customer' } });
+  const orgs = await Organisation.findAll({ where: { kind: 'customer' }, transaction });
+  const sites = await Site.findAll({ where: { kind: 'customer' }, transaction });
   const customers = CUSTOMERS.map((c, i) => {
     const org = orgs.find((o) => o.name === c.name)!;
     const filling = sites.find((s) => s.code === c.sites.find((x) => x.role === 'filling')!.code)!;
@@ -99,8 +119,12 @@ async function loadWorld(now: Date, start: Date, rnd: Random): Promise<World> {
     const receiving = sites.find((s) => s.code === receivingDef.code)!;
     return { org, filling, receiving, homeDepot: depots.find((d) => d.code === c.homeDepot)!, slowPayer: i === 3 || i === 5 };
   });
-  const types = await BinType.findAll({ order: [['id', 'ASC']] });
-  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), stats: {} };
+  const types = await BinType.findAll({ order: [['id', 'ASC']], transaction });
+  const allSites = await Site.findAll({ transaction });
+  const simSites = new Map(allSites.map((s) => [s.id, { id: s.id, kind: s.kind as 'depot', organisationId: s.organisationId, active: s.active }]));
+  const ids = await nextIds(['assets', 'trips', 'scan_events', 'hire_orders', 'liner_lots', 'inspections'], transaction);
+  const pool = new PoolSim(ids, simSites, OPERATOR.timeZone);
+  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), inspections: [], pool, stats: {} };
 }
 
 function count(world: World, key: string, n = 1) {
@@ -135,7 +159,7 @@ function monthsBetween(a: string, b: string): number {
   return (by - ay) * 12 + (bm - am);
 }
 
-async function createLinerLots(world: World) {
+function createLinerLots(world: World) {
   const { rnd } = world;
   let n = 0;
   for (const depot of world.depots) {
@@ -145,65 +169,63 @@ async function createLinerLots(world: World) {
       const supplier = LINER_SUPPLIERS[n % LINER_SUPPLIERS.length]!;
       const received = localDate(new Date(t), OPERATOR.timeZone);
       const expiry = localDate(new Date(t + rnd.int(600, 760) * DAY), OPERATOR.timeZone);
-      world.lots.push(
-        await LinerLot.create({
-          supplier: supplier.name, lotNumber: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-${String(n).padStart(3, '0')}`,
-          spec: supplier.spec, quantityReceived: rnd.pick([300, 400, 500]), receivedOn: received, expiryDate: expiry,
-          siteId: depot.id, certificateId: null, statusReason: null,
-        }),
-      );
+      const lot: SimLot = {
+        id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
+        lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-${String(n).padStart(3, '0')}`,
+        spec: supplier.spec, quantity_received: rnd.pick([300, 400, 500]), received_on: received, expiry_date: expiry, site_id: depot.id, status: 'released',
+      };
+      world.lots.push(lot);
+      world.pool.lots.set(lot.id, lot);
     }
   }
 }
 
 /** First-expiry-first-out among lots received at the depot by that date and usable then. */
-function lotFor(world: World, depotId: number, at: Date): LinerLot | null {
+function lotFor(world: World, depotId: number, at: Date): SimLot | null {
   const day = localDate(at, OPERATOR.timeZone);
-  const usable = world.lots.filter((l) => l.siteId === depotId && l.receivedOn <= day && l.expiryDate >= day && l.status === 'released');
-  usable.sort((a, b) => a.expiryDate.localeCompare(b.expiryDate));
+  const usable = world.lots.filter((l) => l.site_id === depotId && l.received_on <= day && l.expiry_date >= day && l.status === 'released');
+  usable.sort((a, b) => a.expiry_date.localeCompare(b.expiry_date));
   return usable[0] ?? null;
 }
 
-async function orderFor(world: World, customer: World['customers'][number], depot: Site, type: BinType, at: Date): Promise<HireOrder> {
+function orderFor(world: World, customer: World['customers'][number], depot: Site, type: BinType, at: Date): SimOrder {
   const week = Math.floor(at.getTime() / (7 * DAY));
   const key = `${customer.org.id}:${depot.id}:${type.id}:${week}`;
-  let p = world.orders.get(key);
-  if (!p) {
-    const n = world.orders.size + 1;
-    p = HireOrder.create({
-      reference: `HO-${localDate(at, OPERATOR.timeZone).slice(2, 7).replace('-', '')}-${String(n).padStart(4, '0')}`,
-      customerId: customer.org.id, deliverySiteId: customer.filling.id, depotSiteId: depot.id, binTypeId: type.id,
-      quantity: 1, neededBy: localDate(new Date(at.getTime() + 2 * DAY), OPERATOR.timeZone), status: 'loading',
-      product: PRODUCTS[customer.org.name] ?? null, notes: null,
-    });
-    world.orders.set(key, p);
-    return p;
+  const known = world.orders.get(key);
+  if (known) {
+    known.quantity += 1;
+    return known;
   }
-  const order = await p;
-  // The history's orders grow by one bin per dispatch, so each new bin reopens its order for loading
-  // (the scan service marks an order dispatched once every ordered bin has left).
-  await HireOrder.update({ quantity: sequelize.literal('quantity + 1'), status: 'loading' }, { where: { id: order.id } });
+  const n = world.orders.size + 1;
+  const order: SimOrder = {
+    id: world.pool.ids.take('hire_orders'),
+    reference: `HO-${localDate(at, OPERATOR.timeZone).slice(2, 7).replace('-', '')}-${String(n).padStart(4, '0')}`,
+    customer_id: customer.org.id, delivery_site_id: customer.filling.id, depot_site_id: depot.id, bin_type_id: type.id,
+    quantity: 1, needed_by: localDate(new Date(at.getTime() + 2 * DAY), OPERATOR.timeZone), status: 'loading',
+    product: PRODUCTS[customer.org.name] ?? null,
+  };
+  world.orders.set(key, order);
+  world.pool.orders.set(order.id, order);
   return order;
 }
 
 /** One bin's life from `joined` until now. */
-async function liveBin(world: World, bin: Asset, homeDepot: Site, joined: Date) {
+function liveBin(world: World, bin: SimAsset, homeDepot: Site, joined: Date) {
   const { rnd, now } = world;
   const assetId = bin.id;
   const binType = world.types.find((ty) => ty.id === bin.binTypeId)!;
-  const due = { next: bin.nextDue };
   let t = joined.getTime() + rnd.int(1, 8) * HOUR;
   let depot = homeDepot;
 
-  const scan = async (actor: Actor, input: Omit<ScanInput, 'clientEventId' | 'assetId' | 'occurredAt'>, at: number): Promise<boolean> => {
+  const scan = (actor: Actor, input: Omit<ScanInput, 'clientEventId' | 'assetId' | 'occurredAt'>, at: number): boolean => {
     if (at > now.getTime()) return false;
     try {
-      await recordScan(actor, { clientEventId: randomUUID(), assetId, occurredAt: new Date(at), ...input }, { now: new Date(at + 60_000) });
+      world.pool.recordScan(actor, PoolSim.input({ assetId, occurredAt: new Date(at), ...input }));
       count(world, input.action);
       return true;
     } catch (e) {
-      if (e instanceof AppError && e.code === 'transition_refused') {
-        count(world, `refused:${(e.details as { reason?: string })?.reason ?? e.code}`);
+      if (e instanceof SimRefusal && e.code === 'transition_refused') {
+        count(world, `refused:${e.reason}`);
         return false;
       }
       throw e;
@@ -215,74 +237,72 @@ async function liveBin(world: World, bin: Asset, homeDepot: Site, joined: Date) 
     const yard = world.yardByDepot.get(depot.id)!;
     // Waiting folded at the depot until an order needs it (the pool carries some slack).
     later(4, 36);
-    await keepTestInDate(world, assetId, t, yard, due);
+    keepTestInDate(world, bin, t, yard);
     const pass = !rnd.chance(0.04);
-    if (!(await scan(yard, { action: 'prep_check', siteId: depot.id, prepResult: pass ? 'pass' : 'fail', checklist: prepChecklist(pass), faults: pass ? undefined : rnd.pick(FAULTS) }, t))) return;
+    if (!(scan(yard, { action: 'prep_check', siteId: depot.id, prepResult: pass ? 'pass' : 'fail', checklist: prepChecklist(pass), faults: pass ? undefined : rnd.pick(FAULTS) }, t))) return;
     if (!pass) {
       count(world, 'quarantined');
       if (rnd.chance(0.05)) {
         later(3, 10);
-        await scan(world.planner, { action: 'retire', siteId: depot.id, note: 'Beyond economic repair.' }, t);
+        scan(world.planner, { action: 'retire', siteId: depot.id, note: 'Beyond economic repair.' }, t);
         return;
       }
       later(1, 5);
-      if (!(await scan(yard, { action: 'send_to_repair', siteId: depot.id }, t))) return;
+      if (!(scan(yard, { action: 'send_to_repair', siteId: depot.id }, t))) return;
       later(4, 14);
-      if (!(await scan(world.planner, { action: 'release', siteId: null, note: 'Repaired and retested.' }, t))) return;
+      if (!(scan(world.planner, { action: 'release', siteId: null, note: 'Repaired and retested.' }, t))) return;
       continue;
     }
     later(0, 1);
     const lot = lotFor(world, depot.id, new Date(t));
-    if (!lot || !(await scan(yard, { action: 'fit_liner', siteId: depot.id, linerLotId: lot.id }, t))) return;
+    if (!lot || !(scan(yard, { action: 'fit_liner', siteId: depot.id, linerLotId: lot.id }, t))) return;
 
     const customer = rnd.chance(0.75) ? rnd.pick(world.customers.filter((c) => c.homeDepot.id === depot.id).concat(world.customers)) : rnd.pick(world.customers);
     later(0, 4);
-    const order = await orderFor(world, customer, depot, binType, new Date(t));
-    if (!(await scan(yard, { action: 'dispatch', siteId: depot.id, purpose: 'hire', hireOrderId: order.id }, t))) return;
+    const order = orderFor(world, customer, depot, binType, new Date(t));
+    if (!(scan(yard, { action: 'dispatch', siteId: depot.id, purpose: 'hire', hireOrderId: order.id }, t))) return;
 
     const driver = world.yardByDepot.get(customer.homeDepot.id)!;
     const customerActor = world.customerActor.get(customer.org.id) ?? world.planner;
     later(0, 2);
     const skipDeliver = rnd.chance(0.03);
-    if (!skipDeliver && !(await scan(driver, { action: 'deliver', siteId: customer.filling.id }, t))) return;
+    if (!skipDeliver && !(scan(driver, { action: 'deliver', siteId: customer.filling.id }, t))) return;
     later(1, 6);
     const product = PRODUCTS[customer.org.name] ?? 'Vegetable oil';
     const volume = rnd.int(880, 960);
     const fill = { product, volumeL: volume, massKg: Math.round(volume * 0.92), temperatureC: rnd.int(8, 24), seals: [sealNumber(rnd), sealNumber(rnd)] };
-    if (!(await scan(customerActor, { action: 'fill_seal', siteId: customer.filling.id, fill }, t))) return;
+    if (!(scan(customerActor, { action: 'fill_seal', siteId: customer.filling.id, fill }, t))) return;
 
     // With the customer: discharged at the receiving site, folded, waiting for the haulier.
     const slow = customer.slowPayer && rnd.chance(0.35);
     later(4, slow ? 45 : 24);
     if (rnd.chance(0.003)) {
       later(60, 120);
-      await scan(world.planner, { action: 'mark_missing', siteId: null, note: 'Not seen for months; customer cannot find it.' }, t);
+      scan(world.planner, { action: 'mark_missing', siteId: null, note: 'Not seen for months; customer cannot find it.' }, t);
       count(world, 'went_missing');
       return;
     }
     const seals = rnd.chance(0.01) ? [fill.seals[0]!, sealNumber(rnd)] : fill.seals;
-    if (!(await scan(customerActor, { action: 'discharge', siteId: customer.receiving.id, sealsVerified: seals }, t))) return;
+    if (!(scan(customerActor, { action: 'discharge', siteId: customer.receiving.id, sealsVerified: seals }, t))) return;
     later(0, 2);
-    if (!(await scan(customerActor, { action: 'fold', siteId: customer.receiving.id }, t))) return;
+    if (!(scan(customerActor, { action: 'fold', siteId: customer.receiving.id }, t))) return;
     later(3, slow ? 30 : 14);
     const skipCollect = rnd.chance(0.1); // the haulier forgot to scan; the depot infers it
-    if (!skipCollect && !(await scan(driver, { action: 'collect', siteId: customer.receiving.id }, t))) return;
+    if (!skipCollect && !(scan(driver, { action: 'collect', siteId: customer.receiving.id }, t))) return;
     later(1, 3);
     depot = rnd.chance(0.85) ? customer.homeDepot : rnd.pick(world.depots);
-    if (!(await scan(world.yardByDepot.get(depot.id)!, { action: 'receive', siteId: depot.id }, t))) return;
+    if (!(scan(world.yardByDepot.get(depot.id)!, { action: 'receive', siteId: depot.id }, t))) return;
   }
 }
 
 /** Books and passes the periodic test when it falls due within the next three weeks (the yard would). */
-async function keepTestInDate(world: World, assetId: number, at: number, inspector: Actor, known: { next: string | null }) {
+function keepTestInDate(world: World, asset: SimAsset, at: number, inspector: Actor) {
   const today = localDate(new Date(at), OPERATOR.timeZone);
   const soon = localDate(new Date(at + 21 * DAY), OPERATOR.timeZone);
-  if (!known.next || known.next > soon) return;
+  if (!asset.nextDue || asset.nextDue > soon) return;
   // Most are tested in time; a few slip past their date and wait for the booking.
-  if (known.next < today && world.rnd.chance(0.15)) return;
-  const asset = await Asset.findByPk(assetId, { include: [{ model: BinType, as: 'binType' }] });
-  if (!asset?.nextDue) return;
-  const type = (asset as Asset & { binType: BinType }).binType;
+  if (asset.nextDue < today && world.rnd.chance(0.15)) return;
+  const type = world.types.find((ty) => ty.id === asset.binTypeId)!;
   const month = today.slice(0, 7);
   const full = asset.nextFullDue !== null && asset.nextFullDue <= soon;
   const due = nextDue(
@@ -293,23 +313,17 @@ async function keepTestInDate(world: World, assetId: number, at: number, inspect
     },
     policyForBinType(type),
   );
-  await sequelize.transaction(async (transaction) => {
-    await Inspection.create(
-      {
-        assetId, kind: full ? 'full' : 'intermediate', performedOn: today, inspectorId: inspector.id, siteId: asset.siteId,
-        checklist: { external: true, serviceEquipment: true, marks: true, internal: full }, leakTestPressureKpa: '20', leakTestMinutes: '10',
-        leakTestPassed: true, outcome: 'pass', nextIntermediateDue: due.intermediateDue, nextFullDue: due.fullDue, notes: null, scanEventId: null,
-      },
-      { transaction },
-    );
-    asset.lastInspectionOn = today;
-    if (full) asset.lastFullInspectionOn = today;
-    asset.nextIntermediateDue = due.intermediateDue;
-    asset.nextFullDue = due.fullDue;
-    asset.nextDue = due.nextDue;
-    await asset.save({ transaction });
+  world.inspections.push({
+    id: world.pool.ids.take('inspections'), asset_id: asset.id, kind: full ? 'full' : 'intermediate', performed_on: today, inspector_id: inspector.id,
+    site_id: asset.siteId, checklist: { external: true, serviceEquipment: true, marks: true, internal: full }, leak_test_pressure_kpa: '20',
+    leak_test_minutes: '10', leak_test_passed: true, outcome: 'pass', next_intermediate_due: due.intermediateDue, next_full_due: due.fullDue,
   });
-  known.next = due.nextDue;
+  asset.lastInspectionOn = today;
+  if (full) asset.lastFullInspectionOn = today;
+  asset.nextIntermediateDue = due.intermediateDue;
+  asset.nextFullDue = due.fullDue;
+  asset.nextDue = due.nextDue;
+  asset.version += 1;
   count(world, full ? 'full_tests' : 'intermediate_tests');
 }
 
@@ -323,28 +337,30 @@ function sealNumber(rnd: Random): string {
   return `TE${rnd.int(1000000, 9999999)}`;
 }
 
-async function closePastOrders(world: World) {
+function closePastOrders(world: World) {
   const today = localDate(world.now, OPERATOR.timeZone);
-  await HireOrder.update({ status: 'closed' }, { where: { neededBy: { [Op.lt]: today } } });
-  await HireOrder.update({ status: 'dispatched' }, { where: { status: 'loading' } });
+  for (const o of world.pool.orders.values()) {
+    if (o.needed_by < today) o.status = 'closed';
+    else if (o.status === 'loading') o.status = 'dispatched';
+  }
 }
 
 /** Orders for the coming three weeks, so depots have bins to prepare. */
-async function openComingOrders(world: World) {
+function openComingOrders(world: World) {
   const { rnd } = world;
   let n = 0;
   for (const c of world.customers) {
     for (let k = 0; k < 2; k++) {
       n += 1;
       const needed = new Date(world.now.getTime() + rnd.int(2, 21) * DAY);
-      await HireOrder.create({
+      const order: SimOrder = {
+        id: world.pool.ids.take('hire_orders'),
         reference: `HO-${localDate(needed, OPERATOR.timeZone).slice(2, 7).replace('-', '')}-N${String(n).padStart(3, '0')}`,
-        customerId: c.org.id, deliverySiteId: c.filling.id, depotSiteId: c.homeDepot.id, binTypeId: world.types[k % 2]!.id,
-        quantity: rnd.pick([12, 20, 24, 24, 30, 40]), neededBy: localDate(needed, OPERATOR.timeZone), status: 'confirmed',
-        product: PRODUCTS[c.org.name] ?? null, notes: null,
-      });
+        customer_id: c.org.id, delivery_site_id: c.filling.id, depot_site_id: c.homeDepot.id, bin_type_id: world.types[k % 2]!.id,
+        quantity: rnd.pick([12, 20, 24, 24, 30, 40]), needed_by: localDate(needed, OPERATOR.timeZone), status: 'confirmed', product: PRODUCTS[c.org.name] ?? null,
+      };
+      world.pool.orders.set(order.id, order);
     }
   }
   count(world, 'open_orders', n);
 }
-

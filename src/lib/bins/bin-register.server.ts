@@ -13,8 +13,8 @@ import type { Actor } from '@/lib/scans/scan-service.server';
 // The checks themselves are pure (shared with the CSV import and the forms).
 export { checkRegistration, type RegisterBinInput, type RegisterIssue } from './registration-check';
 
-/** The new bin's row: status available at the depot, due dates from its bin type's policy. */
-function newAssetRow(checked: { grai: string; serial: string; manufactureMonth: string }, input: RegisterBinInput, type: BinType, siteId: number, now: Date) {
+/** The new bin's row: status available at the depot, due dates from its bin type's policy (also used by the demo generator). */
+export function newAssetRow(checked: { grai: string; serial: string; manufactureMonth: string }, input: RegisterBinInput, type: BinType, siteId: number, now: Date) {
   const due = nextDue(
     { manufactureMonth: checked.manufactureMonth, lastIntermediateTestMonth: input.lastIntermediateTestMonth, lastFullInspectionMonth: input.lastFullInspectionMonth },
     policyForBinType(type),
@@ -29,7 +29,7 @@ function newAssetRow(checked: { grai: string; serial: string; manufactureMonth: 
 }
 
 /** The bin's first entry in the scan log. */
-function registerEventRow(assetId: number, siteId: number, actor: Actor, now: Date) {
+export function registerEventRow(assetId: number, siteId: number, actor: Actor, now: Date) {
   return {
     assetId, action: 'register' as const, occurredAt: now, siteId, userId: actor.id, clientEventId: null,
     statusFrom: null, statusTo: 'available' as const, tripId: null, voidedAt: null, voidedBy: null, voidReason: null,
@@ -37,7 +37,7 @@ function registerEventRow(assetId: number, siteId: number, actor: Actor, now: Da
   };
 }
 
-function checkedOrThrow(input: RegisterBinInput, prefixLength: number) {
+export function checkedOrThrow(input: RegisterBinInput, prefixLength: number) {
   const checked = checkRegistration(input, prefixLength);
   if (checked.issues.length) throw new AppError('validation_failed', checked.issues[0]!.message, checked.issues);
   return checked as { grai: string; serial: string; manufactureMonth: string };

@@ -9,21 +9,15 @@
 import { Op, OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Asset } from '@/models';
 import { AppError } from '@/lib/api-errors';
-import { decide, checkLinerLot, INFERRED_STATUS, type Action, type BinState, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
+import { decide, checkLinerLot, type Action, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
+import { assetAfter, binState, logRows, tripChanges, tripOpening, type AssetSnapshot, type FillRecord, type ScanSite } from '@/lib/scans/scan-effects';
 import { localDate } from '@/lib/calendar';
-import { sealsMatch } from '@/lib/trips/seal-check';
-import { getSettings } from '@/lib/settings/settings.server';
+import { getSettings, type OperatorSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 
-export interface FillRecord {
-  product: string;
-  volumeL?: number | null;
-  massKg?: number | null;
-  temperatureC?: number | null;
-  seals: string[];
-}
+export type { FillRecord };
 
 export interface ScanInput {
   clientEventId: string;
@@ -83,7 +77,10 @@ export async function recordScan(actor: Actor, input: ScanInput, opts: Options =
   if (occurredAt.getTime() > now.getTime() + MAX_FUTURE_MS) {
     throw new AppError('validation_failed', 'The scan time is in the future; check the phone clock.');
   }
-  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, t);
+  // Settings are read before the transaction: a read inside it would wait for a second pool
+  // connection while holding one, and with every connection held that way no scan ever finishes.
+  const settings = await getSettings();
+  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, settings, t);
   try {
     return await (opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run));
   } catch (err) {
@@ -112,7 +109,7 @@ async function one<T extends object>(sql: string, bind: unknown[], t: Transactio
   return rows[0];
 }
 
-async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, t: Transaction): Promise<ScanOutcome> {
+async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, settings: OperatorSettings, t: Transaction): Promise<ScanOutcome> {
   // 1. Claim the client event id first: a concurrent replay waits here and then sees the claim.
   const claimed = await one(
     `INSERT INTO scan_event_keys (client_event_id, user_id, outcome) VALUES ($1, $2, '{}'::jsonb)
@@ -137,20 +134,13 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   }
   if (input.expectedVersion !== undefined && input.expectedVersion !== asset.version) throw changedMeanwhile();
   const site = await scanSite(actor, input, t);
-  const settings = await getSettings();
   const today = localDate(occurredAt, settings.timeZone);
 
   // 3. The rule table decides.
-  const state: BinState = {
-    status: asset.status,
-    siteId: asset.site_id === null ? null : String(asset.site_id),
-    siteKind: asset.site_kind,
-    leg: asset.leg,
-    prepChecked: asset.prep_checked,
-    linerLotId: asset.liner_lot_id === null ? null : String(asset.liner_lot_id),
-    filled: asset.filled,
-    tripOpen: asset.current_trip_id !== null,
-    nextDue: asset.next_due,
+  const snapshot = snapshotOf(asset);
+  const state = {
+    ...binState(snapshot, asset.site_kind, asset.next_due),
+    // Which test is due, so a lapse refusal names the right one.
     inspection:
       asset.next_intermediate_due && asset.next_full_due
         ? { intermediateDue: asset.next_intermediate_due, fullDue: asset.next_full_due, intermediateMonths: asset.intermediate_months, fullMonths: asset.full_months }
@@ -170,16 +160,15 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
   const flags = [...decision.flags];
-  const tripId = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
+  const trip = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
   // The order follows its bins: the first one loaded makes it loading, the last one dispatched makes it dispatched.
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
-  const eventTripId = tripId ?? asset.current_trip_id;
-  const rows: unknown[][] = decision.inferred.map((step, i) => [
-    step, new Date(occurredAt.getTime() - decision.inferred.length + i), null, null, INFERRED_STATUS[step], true, true,
-    JSON.stringify({ inferredBy: input.clientEventId }),
-  ]);
+  const opened = typeof trip === 'object' ? trip : null;
+  const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
   const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}) };
-  rows.push([input.action, occurredAt, input.clientEventId, asset.status, decision.to, false, flags.length > 0, JSON.stringify({ ...eventPayload(input, decision, flags), ...named })]);
+  const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
+    r.action, r.occurredAt, r.clientEventId, r.statusFrom, r.statusTo, r.inferred, r.flagged, JSON.stringify(r.payload),
+  ]);
   const bind: unknown[] = [asset.id, site?.id ?? null, actor.id, eventTripId];
   const values = rows.map((r) => {
     const base = bind.length;
@@ -194,7 +183,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const eventId = inserted[inserted.length - 1]!.id;
 
   // 5. The bin's current state follows the log, guarded by its version.
-  const version = await applyPatch(asset, decision, tripId, occurredAt, t);
+  const version = await applyPatch(asset, decision, opened, occurredAt, t);
 
   const outcome: ScanOutcome = {
     clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai,
@@ -282,70 +271,46 @@ async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput
   return { order, lotNumber };
 }
 
-/** Opens, updates or closes the bin's trip; returns the id of the trip the event belongs to. */
-async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, input: ScanInput, site: SiteRow | null, order: OrderRow | null, at: Date, t: Transaction, flags: string[]): Promise<number | null> {
+function snapshotOf(a: AssetRow): AssetSnapshot {
+  return {
+    status: a.status, siteId: a.site_id, siteSince: null, customerId: a.customer_id, currentTripId: a.current_trip_id, leg: a.leg,
+    prepChecked: a.prep_checked, linerLotId: a.liner_lot_id, filled: a.filled, tripCount: a.trip_count, lastScanAt: a.last_scan_at,
+  };
+}
+
+const siteOf = (s: SiteRow | null): ScanSite | null => (s ? { id: s.id, kind: s.kind, organisationId: s.organisation_id } : null);
+
+/** Opens, updates or closes the bin's trip (columns from src/lib/scan/scan-effects.ts); returns the id of the trip the event belongs to. */
+async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, input: ScanInput, site: SiteRow | null, order: OrderRow | null, at: Date, t: Transaction, flags: string[]): Promise<{ tripId: number; customerId: number } | number | null> {
   if (d.trip === 'none') return null;
   if (d.trip === 'open') {
-    const customerId = order?.customer_id ?? (site?.kind === 'customer' ? site.organisation_id : null);
-    if (!customerId) throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: input.action });
+    const o = tripOpening(
+      { siteId: asset.site_id, linerLotId: asset.liner_lot_id }, input, siteOf(site),
+      order ? { id: order.id, customerId: order.customer_id, depotSiteId: order.depot_site_id, deliverySiteId: order.delivery_site_id } : null, at,
+    );
+    if (!o.customerId) throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: input.action });
     const created = await one<{ id: number }>(
       `INSERT INTO trips (asset_id, hire_order_id, customer_id, depot_site_id, customer_site_id, liner_lot_id, dispatched_at, delivered_at, load_id)
        VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9) RETURNING id`,
-      [
-        asset.id, order?.id ?? null, customerId, asset.site_id ?? order?.depot_site_id ?? site!.id,
-        site?.kind === 'customer' ? site.id : (order?.delivery_site_id ?? null), asset.liner_lot_id, at, input.action === 'deliver' ? at : null,
-        input.loadId ?? null,
-      ],
+      [asset.id, o.hireOrderId, o.customerId, o.depotSiteId, o.customerSiteId, o.linerLotId, o.dispatchedAt, o.deliveredAt, o.loadId],
       t,
     );
-    return created!.id;
+    return { tripId: created!.id, customerId: o.customerId };
   }
   if (!asset.current_trip_id) return null;
-  const set: string[] = [];
+  let sealsApplied: string[] = [];
+  if (input.action === 'discharge') {
+    const trip = await one<TripRow>('SELECT id, customer_id, seals_applied, delivered_at FROM trips WHERE id = $1', [asset.current_trip_id], t);
+    sealsApplied = trip?.seals_applied ?? [];
+  }
+  const change = tripChanges(input, d, siteOf(site), sealsApplied, at);
+  flags.push(...change.flags);
   const bind: unknown[] = [asset.current_trip_id];
-  const put = (col: string, value: unknown) => {
+  const set = Object.entries(change.set).map(([col, value]) => {
     bind.push(value);
-    set.push(`${col} = $${bind.length}`);
-  };
-  switch (input.action) {
-    case 'deliver':
-      put('delivered_at', at);
-      if (site) put('customer_site_id', site.id);
-      break;
-    case 'fill_seal': {
-      const f = input.fill!;
-      if (d.inferred.includes('deliver') && site) put('customer_site_id', site.id);
-      put('filled_at', at);
-      put('fill_product', f.product);
-      put('fill_volume_l', f.volumeL ?? null);
-      put('fill_mass_kg', f.massKg ?? null);
-      put('fill_temperature_c', f.temperatureC ?? null);
-      put('seals_applied', f.seals);
-      break;
-    }
-    case 'discharge': {
-      const trip = await one<TripRow>('SELECT id, customer_id, seals_applied, delivered_at FROM trips WHERE id = $1', [asset.current_trip_id], t);
-      const verified = input.sealsVerified ?? [];
-      put('discharged_at', at);
-      if (site) put('discharge_site_id', site.id);
-      put('seals_verified', verified);
-      if (verified.length > 0 && !sealsMatch(trip?.seals_applied ?? [], verified)) {
-        put('seal_mismatch', true);
-        flags.push('seal_mismatch');
-      }
-      break;
-    }
-    case 'collect':
-      put('collected_at', at);
-      break;
-    default:
-      break;
-  }
-  if (d.trip === 'close') {
-    put('returned_at', at);
-    put('closing_site_id', site?.id ?? null);
-    set.push(`status = 'closed'`);
-  }
+    return `${col} = $${bind.length}`;
+  });
+  if (change.close) set.push(`status = 'closed'`);
   if (set.length) {
     await sequelize.query(`UPDATE trips SET ${set.join(', ')}, version = version + 1, updated_at = now() WHERE id = $1`, { bind, transaction: t });
   }
@@ -353,47 +318,21 @@ async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, in
 }
 
 /** Writes the decision's patch onto the bin; refuses when someone else changed it first. */
-async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, tripId: number | null, at: Date, t: Transaction): Promise<number> {
-  const p = d.patch;
-  const siteId = 'siteId' in p ? (p.siteId == null ? null : Number(p.siteId)) : asset.site_id;
-  const linerLotId = 'linerLotId' in p ? (p.linerLotId == null ? null : Number(p.linerLotId)) : asset.liner_lot_id;
-  let currentTripId = asset.current_trip_id;
-  let customerId = asset.customer_id;
-  let tripCount = asset.trip_count;
-  if (d.trip === 'open' && tripId) {
-    currentTripId = tripId;
-    customerId = (await one<{ customer_id: number }>('SELECT customer_id FROM trips WHERE id = $1', [tripId], t))!.customer_id;
-  }
-  if (d.trip === 'close') {
-    currentTripId = null;
-    customerId = null;
-    tripCount += 1;
-  }
-  const lastScanAt = asset.last_scan_at && asset.last_scan_at > at ? asset.last_scan_at : at;
+async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, opened: { tripId: number; customerId: number } | null, at: Date, t: Transaction): Promise<number> {
+  const next = assetAfter(snapshotOf(asset), d, opened, at);
   const updated = await one<{ version: number }>(
     `UPDATE assets SET status = $3, site_id = $4, site_since = CASE WHEN site_id IS DISTINCT FROM $4 OR site_since IS NULL THEN $5 ELSE site_since END,
             leg = $6, prep_checked = $7, liner_lot_id = $8, filled = $9, current_trip_id = $10, customer_id = $11, trip_count = $12,
             last_scan_at = $13, version = version + 1, updated_at = now()
       WHERE id = $1 AND version = $2 RETURNING version`,
     [
-      asset.id, asset.version, p.status ?? asset.status, siteId, at, 'leg' in p ? (p.leg ?? null) : asset.leg,
-      'prepChecked' in p ? p.prepChecked : asset.prep_checked, linerLotId, 'filled' in p ? p.filled : asset.filled,
-      currentTripId, customerId, tripCount, lastScanAt,
+      asset.id, asset.version, next.status, next.siteId, at, next.leg, next.prepChecked, next.linerLotId, next.filled,
+      next.currentTripId, next.customerId, next.tripCount, next.lastScanAt,
     ],
     t,
   );
   if (!updated) throw changedMeanwhile();
   return updated.version;
-}
-
-function eventPayload(input: ScanInput, d: Extract<Decision, { ok: true }>, flags: string[]): Record<string, unknown> {
-  const payload: Record<string, unknown> = { patch: d.patch, trip: d.trip };
-  if (d.inferred.length) payload.inferred = d.inferred;
-  if (flags.length) payload.flags = flags;
-  for (const key of ['prepResult', 'checklist', 'faults', 'photoIds', 'linerLotId', 'purpose', 'hireOrderId', 'loadId', 'fill', 'sealsVerified', 'note'] as const) {
-    if (input[key] !== undefined) payload[key] = input[key];
-  }
-  return payload;
 }
 
 /** Finds bins by canonical GRAI values (used by the API and the demo generator). */

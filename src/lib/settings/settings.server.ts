@@ -22,8 +22,18 @@ export interface OperatorSettings {
 let cached: { at: number; value: OperatorSettings } | null = null;
 const TTL_MS = 5_000;
 
+// Requests that find the cache stale at the same moment share one read (one pool connection, not one each).
+let reading: Promise<OperatorSettings> | null = null;
+
 export async function getSettings(): Promise<OperatorSettings> {
   if (cached && Date.now() - cached.at < TTL_MS) return cached.value;
+  reading ??= loadSettings().finally(() => {
+    reading = null;
+  });
+  return reading;
+}
+
+async function loadSettings(): Promise<OperatorSettings> {
   const row = await Setting.findByPk(1);
   if (!row) throw new AppError('unavailable', 'Loopfold has no operator settings yet; run the seed or set them up as admin.');
   const value: OperatorSettings = {
@@ -45,6 +55,7 @@ export async function getSettings(): Promise<OperatorSettings> {
 /** Call after changing settings so this process sees the change at once. */
 export function forgetSettings() {
   cached = null;
+  reading = null;
 }
 
 // Editing (admin settings page)
