@@ -170,7 +170,7 @@ async function seed(c: pg.Client) {
 // The app server, signed in as the bench planner through the credentials flow.
 
 async function startServer(url: string, port: number): Promise<ChildProcess> {
-  const child = spawn(process.execPath, ['dist/server/entry.mjs'], {
+  const child = spawn(process.execPath, ['src/cli/serve.mjs'], {
     cwd: projectRoot,
     env: { ...process.env, DATABASE_URL: url, HOST: '127.0.0.1', PORT: String(port), AUTH_SECRET: randomBytes(32).toString('base64url'), NODE_ENV: 'production' },
     stdio: ['ignore', 'ignore', 'inherit'],

@@ -5,8 +5,9 @@ import { AppError } from '../api-errors';
 import { can, type Capability } from '../permissions';
 import type { SessionUser } from './session-user';
 import { dataResponse, errorResponse } from './respond';
+import { readBodyCapped } from '../http/body.server';
 
-const MAX_JSON_BYTES = 1_000_000;
+export const MAX_JSON_BYTES = 1_000_000;
 
 interface EndpointOptions<B extends ZodTypeAny, Q extends ZodTypeAny> {
   /** Who may call it: a capability from the role table, or 'public'. */
@@ -34,11 +35,11 @@ async function readJson(request: Request): Promise<unknown> {
   if (!type.includes('application/json')) {
     throw new AppError('unsupported_media_type', 'Send the request body as JSON (Content-Type: application/json).');
   }
-  const length = Number(request.headers.get('content-length') ?? 0);
-  if (length > MAX_JSON_BYTES) throw new AppError('payload_too_large', 'The request body is too large.');
-  const text = await request.text();
-  if (text.length > MAX_JSON_BYTES) throw new AppError('payload_too_large', 'The request body is too large.');
+  const bytes = await readBodyCapped(request, MAX_JSON_BYTES, () =>
+    new AppError('payload_too_large', `The request body is too large (at most ${MAX_JSON_BYTES / 1_000_000} MB of JSON).`, { maxBytes: MAX_JSON_BYTES }),
+  );
   try {
+    const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
     return text === '' ? {} : JSON.parse(text);
   } catch {
     throw new AppError('bad_json', 'The request body is not valid JSON.');
