@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '../../../../lib/server/endpoint';
 import { addBinToLoad } from '../../../../lib/server/load-service';
 import { findBin } from '../../../../lib/server/bin-lookup';
@@ -7,10 +8,10 @@ import { AppError } from '../../../../lib/api-errors';
 
 const body = z
   .object({
-    clientEventId: z.string().uuid(),
-    grai: z.string().trim().min(1).max(300).optional(),
+    clientEventId: text().uuid(),
+    grai: text().trim().min(1).max(300).optional(),
     assetId: z.number().int().positive().optional(),
-    occurredAt: z.string().datetime({ offset: true }).optional(),
+    occurredAt: text().datetime({ offset: true }).optional(),
   })
   .strict()
   .refine((b) => b.grai !== undefined || b.assetId !== undefined, { message: 'Say which bin: grai or assetId' });

@@ -1,5 +1,6 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { confirmDelivery, loadFromToken } from '../../../../lib/server/load-service';
 import { formFile, readForm, storeAttachment } from '../../../../lib/server/attachments';
 import { publicFormLimit, hit } from '../../../../lib/server/rate-limits';
@@ -8,8 +9,8 @@ import { toErrorResponse } from '../../../../lib/server/endpoint';
 import { HireOrder } from '../../../../models';
 
 const fields = z.object({
-  token: z.string().min(10).max(120),
-  receivedByName: z.string().trim().min(2, 'Give your name.').max(120),
+  token: text().min(10).max(120),
+  receivedByName: text().trim().min(2, 'Give your name.').max(120),
 });
 
 /**

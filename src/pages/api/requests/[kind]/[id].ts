@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '../../../../lib/server/endpoint';
 import { AppError } from '../../../../lib/api-errors';
 import { actorFrom } from '../../../../lib/server/audit';
@@ -6,7 +7,7 @@ import { changeRequestStatus } from '../../../../lib/server/requests';
 import { isStatusOf, type RequestKind } from '../../../../lib/request-status';
 
 const body = z.object({
-  status: z.string().min(1).max(20),
+  status: text().min(1).max(20),
   version: z.number().int().min(0),
 });
 
