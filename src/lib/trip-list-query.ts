@@ -78,6 +78,9 @@ const schema = z
   })
   .strict();
 
+/** The query's shape, for tests that generate inputs from it; parseTripListQuery() is the way to read a query. */
+export const tripListQuerySchema = schema;
+
 const KNOWN = new Set<string>([...OPTION_KEYS, ...TRIP_FILTER_KEYS]);
 
 function entriesOf(params: URLSearchParams | Record<string, string | undefined>): Array<[string, string]> {

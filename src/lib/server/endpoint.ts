@@ -65,6 +65,13 @@ export function toErrorResponse(err: unknown): Response {
   return errorResponse('internal', 'Something went wrong on our side. Try again; if it keeps happening, tell your administrator.');
 }
 
+/** What endpoint() was told, kept on the route for tests that drive every route from its schemas. */
+export interface EndpointSchemas {
+  capability: Capability | 'public';
+  body?: ZodTypeAny;
+  query?: ZodTypeAny;
+}
+
 /**
  * The one way to write an API route: declare who may call it and the shape of
  * its input; the handler gets validated values and returns plain data.
@@ -72,8 +79,8 @@ export function toErrorResponse(err: unknown): Response {
 export function endpoint<B extends ZodTypeAny = z.ZodUndefined, Q extends ZodTypeAny = z.ZodUndefined, Pub extends boolean = false>(
   opts: EndpointOptions<B, Q> & { capability: Pub extends true ? 'public' : Capability },
   handler: (args: HandlerArgs<B, Q, Pub>) => Promise<unknown>,
-): APIRoute {
-  return async (ctx) => {
+): APIRoute & { schemas: EndpointSchemas } {
+  const route: APIRoute = async (ctx) => {
     try {
       const user = ctx.locals.user;
       if (opts.capability !== 'public') {
@@ -89,4 +96,5 @@ export function endpoint<B extends ZodTypeAny = z.ZodUndefined, Q extends ZodTyp
       return toErrorResponse(err);
     }
   };
+  return Object.assign(route, { schemas: { capability: opts.capability, body: opts.body, query: opts.query } });
 }
