@@ -82,6 +82,24 @@ describe('the client address is the socket, not X-Forwarded-For (TRUST_PROXY uns
   });
 });
 
+describe('a failed sign-in posted as a plain form (no X-Auth-Return-Redirect)', () => {
+  test('answers with a redirect back to the sign-in page, not a 500 (the middleware copies immutable headers)', async () => {
+    const from = ownAddress();
+    const csrf = await send(plain, '/api/auth/csrf', { from });
+    const token = (JSON.parse(csrf.body) as { csrfToken: string }).csrfToken;
+    const cookie = ([] as string[]).concat(csrf.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
+    const res = await send(plain, '/api/auth/callback/credentials', {
+      method: 'POST', from,
+      headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
+      body: new URLSearchParams({ csrfToken: token, email: 'nobody@example.org', password: 'wrong-password-1' }).toString(),
+    });
+    expect(res.status).toBeGreaterThanOrEqual(300);
+    expect(res.status).toBeLessThan(400);
+    expect(res.headers.location).toMatch(/\/login|error=/);
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+  });
+});
+
 describe('behind one trusted proxy (TRUST_PROXY=1)', () => {
   test('the rightmost X-Forwarded-For entry is the client; the leftmost (client-written) one is never used', async () => {
     const bin = await quietBin(4);
