@@ -41,7 +41,8 @@ const csp = {
 
 export default defineConfig({
   output: 'server',
-  adapter: node({ mode: 'standalone' }),
+  // Middleware mode: src/cli/serve.mjs is the server (static files, TLS, the socket's address for the app).
+  adapter: node({ mode: 'middleware' }),
   integrations: [react(), tailwind({ applyBaseStyles: false }), auth({ configFile: './auth.config.ts' }), yardServiceWorker()],
   security: { checkOrigin: true, allowedDomains },
   experimental: { csp },

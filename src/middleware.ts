@@ -1,8 +1,9 @@
 import { defineMiddleware } from 'astro:middleware';
 import { accessFor, can } from '@/lib/permissions';
-import { checkSession } from '@/lib/session/session.server';
-import { CLIENT_IP_HEADER, clientAddress } from '@/lib/client-ip.server';
+import { CLIENT_IP_HEADER } from '@/lib/client-ip.server';
 import { errorResponse } from '@/lib/respond.server';
+import { clientAddressFrom, hstsHeader, trustedHops } from '@/lib/http/forwarded';
+import { checkSession } from '@/lib/session/session.server';
 
 const STATIC_PREFIXES = ['/_astro/', '/fonts/', '/favicon', '/icons/', '/robots.txt', '/sw.js', '/manifest.webmanifest'];
 
@@ -14,6 +15,20 @@ const SECURITY_HEADERS: Record<string, string> = {
 };
 
 /**
+ * A response whose headers may be changed: redirects made with
+ * Response.redirect() (Auth.js answers a failed sign-in so) and fetched
+ * responses have immutable headers, so they are copied first.
+ */
+function mutable(response: Response): Response {
+  try {
+    response.headers.set('X-Content-Type-Options', 'nosniff');
+    return response;
+  } catch {
+    return new Response(response.body, { status: response.status, statusText: response.statusText, headers: new Headers(response.headers) });
+  }
+}
+
+/**
  * Astro sends each rendered page's Content-Security-Policy (astro.config.mjs,
  * experimental.csp): scripts and <style> elements by hash or nonce only. Its
  * directive list has no `style-src-attr`, so it is added here: style="…"
@@ -23,10 +38,16 @@ const SECURITY_HEADERS: Record<string, string> = {
 function allowStyleAttributes(response: Response) {
   const policy = response.headers.get('content-security-policy');
   if (!policy || policy.includes('style-src-attr')) return;
+  response.headers.set('content-security-policy', `${policy.trim().replace(/;?$/, ';')} style-src-attr 'unsafe-inline';`);
+}
+
+/** Under `astro dev` (no server of ours) Vite's socket address; in a build, never Astro's guess. */
+function devSocketAddress(ctx: { clientAddress: string }): string | null {
+  if (!import.meta.env.DEV) return null;
   try {
-    response.headers.set('content-security-policy', `${policy.trim().replace(/;?$/, ';')} style-src-attr 'unsafe-inline';`);
+    return ctx.clientAddress;
   } catch {
-    /* immutable headers (a redirect): nothing to render, nothing to allow */
+    return null;
   }
 }
 
@@ -39,12 +60,15 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   const path = ctx.url.pathname;
   if (STATIC_PREFIXES.some((p) => path.startsWith(p))) return next();
 
-  let address = 'unknown';
-  try {
-    address = clientAddress(ctx.request, ctx.clientAddress);
-  } catch {
-    /* prerendered or no socket */
-  }
+  // The socket's address comes from our server (src/cli/serve.mjs), never from
+  // Astro's clientAddress, which trusts the leftmost X-Forwarded-For entry.
+  const hops = trustedHops(process.env.TRUST_PROXY);
+  const connection = ctx.locals.connection;
+  const address = clientAddressFrom({
+    socketAddress: connection ? connection.remoteAddress : devSocketAddress(ctx),
+    forwardedFor: ctx.request.headers.get('x-forwarded-for'),
+    hops,
+  });
   ctx.locals.clientAddress = address;
   try {
     ctx.request.headers.set(CLIENT_IP_HEADER, address);
@@ -86,10 +110,14 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     }
   }
 
-  const response = await next();
+  const response = mutable(await next());
   for (const [k, v] of Object.entries(SECURITY_HEADERS)) {
     if (!response.headers.has(k)) response.headers.set(k, v);
   }
+  const hsts = connection
+    ? hstsHeader({ encrypted: connection.encrypted, tls: connection.tls, forwardedProto: ctx.request.headers.get('x-forwarded-proto'), hops })
+    : null;
+  if (hsts) response.headers.set('Strict-Transport-Security', hsts);
   allowStyleAttributes(response);
   return response;
 });

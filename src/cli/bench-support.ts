@@ -6,7 +6,7 @@ import { randomBytes } from 'node:crypto';
 import { projectRoot } from './postgres.mjs';
 
 export async function startServer(url: string, port: number, env: Record<string, string> = {}): Promise<ChildProcess> {
-  const child = spawn(process.execPath, ['dist/server/entry.mjs'], {
+  const child = spawn(process.execPath, ['src/cli/serve.mjs'], {
     cwd: projectRoot,
     env: { ...process.env, DATABASE_URL: url, HOST: '127.0.0.1', PORT: String(port), AUTH_SECRET: randomBytes(32).toString('base64url'), NODE_ENV: 'production', ...env },
     stdio: ['ignore', 'ignore', 'inherit'],

@@ -55,7 +55,7 @@ try {
   const appUrl = process.env.APP_URL ?? `${scheme}://${host === '0.0.0.0' ? 'localhost' : host}:${port}`;
   env.APP_URL = appUrl;
   startChild('job worker', process.execPath, ['--import', 'tsx', 'src/cli/worker.ts'], env);
-  startChild('app server', process.execPath, ['dist/server/entry.mjs'], { ...env, ...tls?.env, HOST: host, PORT: port });
+  startChild('app server', process.execPath, ['src/cli/serve.mjs'], { ...env, ...tls?.env, HOST: host, PORT: port });
   const waitUp = tls ? waitForHttps : waitForHttp;
   await timedPhase(phases, 'server up', () =>
     waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000)),

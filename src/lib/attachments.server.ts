@@ -6,6 +6,7 @@ import type { Transaction } from 'sequelize';
 import { fileTypeFromBuffer } from 'file-type';
 import { Attachment } from '@/models';
 import { AppError } from './api-errors';
+import { readFormCapped } from '@/lib/http/body.server';
 import { can, type Role } from './permissions';
 
 export const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
@@ -52,16 +53,23 @@ export async function storeAttachment(input: StoreInput, transaction?: Transacti
   return { id: row.id, contentType, byteSize: row.byteSize };
 }
 
-/** Reads a multipart form, refusing oversize bodies before reading them. */
+/** A multipart upload form's whole body: the largest file and room for the other fields and the part headers. */
+export const MAX_FORM_BYTES = MAX_UPLOAD_BYTES + 64 * 1024;
+
+/**
+ * Reads a multipart form, never more than MAX_FORM_BYTES: refused by its
+ * declared length before reading, or as soon as a chunked body passes it.
+ */
 export async function readForm(request: Request): Promise<FormData> {
-  const length = Number(request.headers.get('content-length') ?? 0);
-  if (length > MAX_UPLOAD_BYTES + 64 * 1024) throw new AppError('payload_too_large', `Files may be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`);
   if (!(request.headers.get('content-type') ?? '').startsWith('multipart/form-data')) {
+    await request.body?.cancel().catch(() => undefined);
     throw new AppError('unsupported_media_type', 'Send the form as multipart/form-data.');
   }
+  const tooLarge = () => new AppError('payload_too_large', `Files may be at most ${MAX_UPLOAD_BYTES / 1024 / 1024} MB.`, { maxBytes: MAX_FORM_BYTES });
   try {
-    return await request.formData();
-  } catch {
+    return await readFormCapped(request, MAX_FORM_BYTES, tooLarge);
+  } catch (err) {
+    if (err instanceof AppError) throw err;
     throw new AppError('bad_request', 'The upload could not be read.');
   }
 }

@@ -5,8 +5,9 @@ import { AppError } from './api-errors';
 import { can, type Capability } from './permissions';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { dataResponse, errorResponse } from './respond.server';
+import { readBodyCapped } from '@/lib/http/body.server';
 
-const MAX_JSON_BYTES = 1_000_000;
+export const MAX_JSON_BYTES = 1_000_000;
 
 interface EndpointOptions<B extends ZodTypeAny, Q extends ZodTypeAny> {
   /** Who may call it: a capability from the role table, or 'public'. */
@@ -34,11 +35,11 @@ async function readJson(request: Request): Promise<unknown> {
   if (!type.includes('application/json')) {
     throw new AppError('unsupported_media_type', 'Send the request body as JSON (Content-Type: application/json).');
   }
-  const length = Number(request.headers.get('content-length') ?? 0);
-  if (length > MAX_JSON_BYTES) throw new AppError('payload_too_large', 'The request body is too large.');
-  const text = await request.text();
-  if (text.length > MAX_JSON_BYTES) throw new AppError('payload_too_large', 'The request body is too large.');
+  const bytes = await readBodyCapped(request, MAX_JSON_BYTES, () =>
+    new AppError('payload_too_large', `The request body is too large (at most ${MAX_JSON_BYTES / 1_000_000} MB of JSON).`, { maxBytes: MAX_JSON_BYTES }),
+  );
   try {
+    const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
     return text === '' ? {} : JSON.parse(text);
   } catch {
     throw new AppError('bad_json', 'The request body is not valid JSON.');
@@ -64,6 +65,13 @@ export function toErrorResponse(err: unknown): Response {
   return errorResponse('internal', 'Something went wrong on our side. Try again; if it keeps happening, tell your administrator.');
 }
 
+/** What endpoint() was told, kept on the route for tests that drive every route from its schemas. */
+export interface EndpointSchemas {
+  capability: Capability | 'public';
+  body?: ZodTypeAny;
+  query?: ZodTypeAny;
+}
+
 /**
  * The one way to write an API route: declare who may call it and the shape of
  * its input; the handler gets validated values and returns plain data.
@@ -71,8 +79,8 @@ export function toErrorResponse(err: unknown): Response {
 export function endpoint<B extends ZodTypeAny = z.ZodUndefined, Q extends ZodTypeAny = z.ZodUndefined, Pub extends boolean = false>(
   opts: EndpointOptions<B, Q> & { capability: Pub extends true ? 'public' : Capability },
   handler: (args: HandlerArgs<B, Q, Pub>) => Promise<unknown>,
-): APIRoute {
-  return async (ctx) => {
+): APIRoute & { schemas: EndpointSchemas } {
+  const route: APIRoute = async (ctx) => {
     try {
       const user = ctx.locals.user;
       if (opts.capability !== 'public') {
@@ -88,4 +96,5 @@ export function endpoint<B extends ZodTypeAny = z.ZodUndefined, Q extends ZodTyp
       return toErrorResponse(err);
     }
   };
+  return Object.assign(route, { schemas: { capability: opts.capability, body: opts.body, query: opts.query } });
 }

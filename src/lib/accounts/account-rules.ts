@@ -2,6 +2,7 @@
 // the passwords people choose with them. Pure: the services in
 // the server modules (`*.server.ts`) apply them to the database.
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 
 export type LinkPurpose = 'invite' | 'reset';
 
@@ -46,9 +47,9 @@ export function passwordProblem(password: string, context: { email?: string } = 
 /** The set-password form: the link's token, the password and its confirmation. */
 export const setPasswordSchema = z
   .object({
-    token: z.string().regex(TOKEN_PATTERN, 'This link is not complete. Open it again from the e-mail.'),
-    password: z.string().max(500),
-    confirm: z.string().max(500),
+    token: text().regex(TOKEN_PATTERN, 'This link is not complete. Open it again from the e-mail.'),
+    password: text().max(500),
+    confirm: text().max(500),
   })
   .superRefine((v, ctx) => {
     const problem = passwordProblem(v.password);
@@ -57,7 +58,7 @@ export const setPasswordSchema = z
   });
 
 export const resetRequestSchema = z.object({
-  email: z.string().trim().toLowerCase().email('Enter an e-mail address, like name@company.example.').max(254),
+  email: text().trim().toLowerCase().email('Enter an e-mail address, like name@company.example.').max(254),
 });
 
 /** The one answer to every reset request, so the page never tells whether an account exists. */

@@ -1,13 +1,14 @@
 // Input shapes of the people API (invite, change), validated in one place.
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { ROLES } from '@/lib/permissions';
 
 const roleSchema = z.enum(ROLES);
 const idSchema = z.number().int().positive();
 
 export const inviteSchema = z.object({
-  name: z.string().trim().min(1, 'Enter the person’s name.').max(160),
-  email: z.string().trim().toLowerCase().email('Enter an e-mail address, like name@company.example.').max(254),
+  name: text().trim().min(1, 'Enter the person’s name.').max(160),
+  email: text().trim().toLowerCase().email('Enter an e-mail address, like name@company.example.').max(254),
   role: roleSchema,
   organisationId: idSchema,
   homeSiteId: idSchema.nullable().default(null),

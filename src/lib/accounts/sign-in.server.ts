@@ -1,6 +1,7 @@
 import bcrypt from 'bcryptjs';
 import { CredentialsSignin } from '@auth/core/errors';
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { User } from '@/models';
 import { signInLimits, secondsBlocked, hit } from '@/lib/rate-limits.server';
 import { CLIENT_IP_HEADER } from '@/lib/client-ip.server';
@@ -14,8 +15,8 @@ class WrongCredentials extends CredentialsSignin {
 }
 
 const credentialsSchema = z.object({
-  email: z.string().trim().toLowerCase().email().max(254),
-  password: z.string().min(1).max(200),
+  email: text().trim().toLowerCase().email().max(254),
+  password: text().min(1).max(200),
 });
 
 // A hash to compare against when the account does not exist, so a wrong e-mail

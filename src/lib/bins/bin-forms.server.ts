@@ -2,6 +2,7 @@
 // the operator's GS1 prefix) and the server side of "Register bin", which
 // reports every problem at once, field by field, before anything is written.
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { Asset, BinType, Site, sequelize } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { groupGrai } from '@/lib/gs1';
@@ -53,16 +54,16 @@ export async function formOptions(): Promise<FormOptions> {
 }
 
 /** An empty month field is "not given". The format is checked with the rest, so its message names the field. */
-const monthField = z.string().trim().max(10).nullish().transform((v) => (v ? v : null));
+const monthField = text().trim().max(10).nullish().transform((v) => (v ? v : null));
 /** A choice from a list by id; 0 (or empty) = nothing chosen. */
 const choiceField = z.preprocess((v) => (v === '' || v == null ? 0 : v), z.coerce.number().int().nonnegative());
-const markField = z.string().trim().max(120, 'A UN mark has at most 120 characters.').nullish().transform((v) => (v ? v : null));
+const markField = text().trim().max(120, 'A UN mark has at most 120 characters.').nullish().transform((v) => (v ? v : null));
 
 export const registerBody = z.object({
   /** 'grai': the full GRAI as typed; 'serial': built from the company prefix, the bin type and the serial. */
   graiMode: z.enum(['grai', 'serial']).default('grai'),
-  grai: z.string().max(300).default(''),
-  serial: z.string().max(40).default(''),
+  grai: text().max(300).default(''),
+  serial: text().max(40).default(''),
   // 0 = not chosen yet: reported with the other fields' problems, not alone.
   binTypeId: choiceField,
   siteId: choiceField,

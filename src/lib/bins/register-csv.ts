@@ -6,6 +6,7 @@
 // Pure: no I/O. The database look-ups (bin types, depots, GRAIs already
 // registered) come in as plain maps; src/lib/bins/register-import.server.ts fills them.
 import Papa from 'papaparse';
+import { csvLines, csvTable } from '@/lib/csv';
 import { parseSerialisedGrai } from '@/lib/gs1';
 import {
   checkBinType, checkDepot, checkMarkAgainstType, checkRegistration, graiFromSerial, normaliseMonth,
@@ -244,7 +245,7 @@ export function templateCsv(example: { companyPrefix: string; binTypes: Array<{ 
     const mark = t.unCode ? `${t.unCode}/Y/${made.slice(5)} ${made.slice(2, 4)}/NL/MAKER 1234/2313/1285` : '';
     return [built.ok ? built.grai : '', t.code, example.depotCode, mark ? '' : made, mark, i === 1 ? '2025-10' : '', ''];
   });
-  return Papa.unparse({ fields: [...COLUMN_NAMES], data: rows }, { newline: '\r\n' }) + '\r\n';
+  return csvTable([...COLUMN_NAMES], rows);
 }
 
 // ---------------------------------------------------------------------------------------------------
@@ -262,8 +263,6 @@ export type ExportRow = Record<(typeof EXPORT_COLUMNS)[number], string | number 
  * spreadsheet would run as a formula (=, +, -, @ …) are escaped.
  */
 export function exportCsvChunk(rows: ExportRow[], withHeader: boolean): string {
-  const data = rows.map((r) => EXPORT_COLUMNS.map((c) => r[c] ?? ''));
-  if (!withHeader && data.length === 0) return '';
-  const csv = Papa.unparse({ fields: [...EXPORT_COLUMNS], data }, { header: withHeader, newline: '\r\n', escapeFormulae: true });
-  return csv === '' ? '' : `${csv}\r\n`;
+  const data = rows.map((r) => EXPORT_COLUMNS.map((c) => r[c] ?? null));
+  return withHeader ? csvTable([...EXPORT_COLUMNS], data) : csvLines(data);
 }

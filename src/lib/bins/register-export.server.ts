@@ -28,7 +28,7 @@ async function page(afterId: number, size: number): Promise<Row[]> {
   );
 }
 
-/** The register as a byte stream of CSV (UTF-8 with a byte-order mark, so spreadsheets read it as UTF-8). */
+/** The register as a byte stream of CSV (UTF-8; csvResponse() adds the byte-order mark). */
 export function registerCsvStream(opts: { pageSize?: number } = {}): ReadableStream<Uint8Array> {
   const size = opts.pageSize ?? PAGE;
   const encoder = new TextEncoder();
@@ -39,7 +39,7 @@ export function registerCsvStream(opts: { pageSize?: number } = {}): ReadableStr
       try {
         const rows = await page(lastId, size);
         const chunk = exportCsvChunk(rows, first);
-        if (chunk) controller.enqueue(encoder.encode(first ? `\uFEFF${chunk}` : chunk));
+        if (chunk) controller.enqueue(encoder.encode(chunk));
         first = false;
         if (rows.length < size) controller.close();
         else lastId = rows[rows.length - 1]!.id;

@@ -8,6 +8,7 @@ import { Attachment, BinType, Site, sequelize } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { groupGrai } from '@/lib/gs1';
 import { decodeCsvUpload } from '@/lib/upload-sniff';
+import { declaredLength, readBodyCapped } from '@/lib/http/body.server';
 import {
   graisInLines, importCounts, parseRegisterCsv, validateImportLines,
   type CsvLine, type ImportLine, type RegisterLookups,
@@ -40,29 +41,9 @@ function tooLarge(size: number | null, max: number): AppError {
  * received (a client may omit or understate the length).
  */
 export async function readUpload(request: Request, maxBytes = MAX_IMPORT_BYTES): Promise<Uint8Array> {
-  const declared = request.headers.get('content-length');
-  if (declared !== null && Number(declared) > maxBytes) throw tooLarge(Number(declared), maxBytes);
+  const declared = declaredLength(request);
   if (!request.body) throw new AppError('bad_request', 'Send the CSV file as the request body.');
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let received = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    received += value.byteLength;
-    if (received > maxBytes) {
-      await reader.cancel().catch(() => undefined);
-      throw tooLarge(null, maxBytes);
-    }
-    chunks.push(value);
-  }
-  const bytes = new Uint8Array(received);
-  let at = 0;
-  for (const c of chunks) {
-    bytes.set(c, at);
-    at += c.byteLength;
-  }
-  return bytes;
+  return readBodyCapped(request, maxBytes, () => tooLarge(declared !== null && declared > maxBytes ? declared : null, maxBytes));
 }
 
 function sha256(bytes: Uint8Array): string {

@@ -1,7 +1,7 @@
 // The fleet grid's data: one page of bins for AG Grid's infinite row model, the filtered set as a CSV
 // stream, and the choices its set filters offer. SQL comes from src/lib/fleet/grid-query.ts (whitelisted
 // columns, bind parameters only); this module runs it.
-import Papa from 'papaparse';
+import { csvLines, csvTable } from '../csv';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -157,21 +157,21 @@ export async function exportBinsCsv(req: Pick<GridRequest, 'sortModel' | 'filter
     await close(false).catch(() => undefined);
     throw err;
   }
-  const header = Papa.unparse([columns.map((c) => BIN_COLUMNS[c].label)], { newline: '\r\n' });
+  const header = csvTable(columns.map((c) => BIN_COLUMNS[c].label), []);
   let wroteHeader = false;
   return new ReadableStream<Uint8Array>({
     async pull(controller) {
       try {
         if (!wroteHeader) {
           wroteHeader = true;
-          controller.enqueue(encoder.encode('\uFEFF' + header + '\r\n')); // BOM: spreadsheets read UTF-8 names right
+          controller.enqueue(encoder.encode(header)); // csvResponse() puts the byte-order mark before it
           return;
         }
         const { rows } = await conn.query(`FETCH ${EXPORT_CHUNK} FROM bins_export`);
         if (rows.length) {
           const data = (rows as unknown as BinRow[]).map((r) => columns.map((c) => csvValue(c, r)));
-          // escapeFormulae: a cell starting with = + - @ is not run as a formula when opened in a spreadsheet.
-          controller.enqueue(encoder.encode(Papa.unparse(data, { newline: '\r\n', escapeFormulae: true }) + '\r\n'));
+          // src/lib/csv.ts: a text cell starting with = + - @ is not run as a formula when opened in a spreadsheet.
+          controller.enqueue(encoder.encode(csvLines(data)));
         }
         if (rows.length < EXPORT_CHUNK) {
           await close(true);

@@ -2,12 +2,12 @@
 // string (a GET stays a GET: cacheable by nobody, bookmarkable, easy to replay when measuring);
 // their content is checked afterwards against the column whitelist (src/lib/fleet/grid-query.ts).
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 
 const MAX_MODEL_CHARS = 20_000;
 
 function jsonParam(name: string) {
-  return z
-    .string()
+  return text()
     .max(MAX_MODEL_CHARS, `${name} is too long`)
     .optional()
     .transform((text, ctx) => {
@@ -33,5 +33,5 @@ export const binsPageQuerySchema = gridModelsQuery
   .strict();
 
 export const binsExportQuerySchema = gridModelsQuery
-  .extend({ columns: z.string().max(1000).optional() })
+  .extend({ columns: text().max(1000).optional() })
   .strict();

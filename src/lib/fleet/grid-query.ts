@@ -20,6 +20,7 @@
  */
 import { STATUSES } from '@/lib/scans/lifecycle';
 import { addDays, endOfMonth, isLocalDate, monthOf, type LocalDate } from '@/lib/calendar';
+import { CONTROL_MESSAGE, DATE_RANGE_MESSAGE, hasControlCharacter, inDateRange } from '@/lib/text-input';
 import { overdueBackSql } from './overdue-return';
 import { DUE_SOON_DAYS, testDueSoonSql } from '@/lib/inspections/inspection-due';
 
@@ -293,6 +294,7 @@ function parseSimple(spec: ColumnSpec, raw: unknown, path: string): SimpleCondit
       if (type === 'blank' || type === 'notBlank') return { filterType: 'text', type };
       if (typeof raw.filter !== 'string' || raw.filter.trim() === '') fail(`${path}.filter`, 'type some text to filter by');
       if (raw.filter.length > MAX_TEXT_LENGTH) fail(`${path}.filter`, `at most ${MAX_TEXT_LENGTH} characters`);
+      if (hasControlCharacter(raw.filter)) fail(`${path}.filter`, CONTROL_MESSAGE);
       return { filterType: 'text', type, filter: raw.filter.trim() };
     }
     case 'number': {
@@ -341,6 +343,7 @@ function dayOf(v: unknown, path: string): LocalDate {
   const text = typeof v === 'string' ? v.trim() : '';
   const day = text.slice(0, 10);
   if (!/^\d{4}-\d{2}-\d{2}( 00:00:00)?$/.test(text) || !isLocalDate(day)) fail(path, 'must be a date, YYYY-MM-DD');
+  if (!inDateRange(day)) fail(path, DATE_RANGE_MESSAGE);
   return day;
 }
 

@@ -8,6 +8,7 @@
  * Pure: no I/O, no framework.
  */
 import { z } from 'zod';
+import { multilineText } from '@/lib/text-input';
 import { isGs1Cs82Char, parseGrai } from '@/lib/gs1';
 import { STATUSES, type Status } from '@/lib/scans/lifecycle';
 import { DEFAULT_LABEL_STOCK, LABEL_STOCKS, LABEL_STOCK_IDS, labelsPerSheet, type LabelStockId } from './label-stock';
@@ -194,7 +195,7 @@ export function resolveRange(from: string, to: string, prefixLength: number): { 
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 const optionalId = (what: string) =>
   z.preprocess(blank, z.coerce.number({ invalid_type_error: `Choose a ${what} from the list.` }).int(`Choose a ${what} from the list.`).positive(`Choose a ${what} from the list.`).max(2_147_483_647, `Choose a ${what} from the list.`).optional());
-const text = (max: number, what: string) => z.string().max(max, `The ${what} is too long (at most ${count(max)} characters).`);
+const text = (max: number, what: string) => multilineText().max(max, `The ${what} is too long (at most ${count(max)} characters).`);
 
 const querySchema = z
   .object({

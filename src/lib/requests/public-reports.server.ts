@@ -83,6 +83,8 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
   try {
     form = await readForm(args.request);
   } catch (err) {
+    // An oversized upload costs the sender one report: a script cannot retry it for free.
+    if (err instanceof AppError && err.code === 'payload_too_large') await hit(publicFormLimit(), addressKey);
     if (err instanceof AppError) return { ok: false, form: args.form ?? null, code: err.code, message: err.message, fields: {}, values: {} };
     throw err;
   }
@@ -116,6 +118,7 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
         await checkUpload(photo.bytes, 'photo');
       } catch (err) {
         if (!(err instanceof AppError)) throw err;
+        if (err.code === 'payload_too_large') await hit(publicFormLimit(), addressKey);
         return { ok: false, form: kind, code: err.code, message: `${err.message} Nothing was sent yet.`, fields: { photo: err.message }, values };
       }
     }

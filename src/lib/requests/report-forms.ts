@@ -4,6 +4,7 @@
 // field means "not given" (null). Limits match the columns of
 // collection_requests and damage_reports.
 import { z } from 'zod';
+import { multilineText, text } from '@/lib/text-input';
 
 /** A field no person fills (it is hidden); bots that fill every field give themselves away. */
 export const HONEYPOT_FIELD = 'website';
@@ -18,10 +19,9 @@ export const MAX_NOTE_CHARS = 1000;
 export const MIN_DESCRIPTION_CHARS = 3; // the column's CHECK
 export const MAX_DESCRIPTION_CHARS = 2000;
 
-/** A trimmed string; '' (or only spaces) becomes null. */
-const optionalText = (max: number, tooLong: string) =>
-  z
-    .string()
+/** A trimmed string; '' (or only spaces) becomes null. Line breaks only where the field is a text area. */
+const optionalText = (max: number, tooLong: string, multiline = false) =>
+  (multiline ? multilineText() : text())
     .trim()
     .max(max, tooLong)
     .optional()
@@ -46,13 +46,12 @@ const phoneField = optionalText(MAX_PHONE_CHARS, `Keep the phone number under ${
 });
 
 const emailField = optionalText(MAX_EMAIL_CHARS, 'That e-mail address is too long.').superRefine((v, ctx) => {
-  if (v && !z.string().email().safeParse(v).success) ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'That does not look like an e-mail address.' });
+  if (v && !text().email().safeParse(v).success) ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'That does not look like an e-mail address.' });
 });
 
 export const collectionRequestFields = z
   .object({
-    quantity: z
-      .string({ required_error: 'Say how many folded bins are waiting.' })
+    quantity: text({ required_error: 'Say how many folded bins are waiting.' })
       .trim()
       .min(1, 'Say how many folded bins are waiting.')
       .regex(/^\d+$/, 'Give the number of bins as a whole number, e.g. 6.')
@@ -64,15 +63,14 @@ export const collectionRequestFields = z
           .min(1, 'At least one bin must be waiting.')
           .max(MAX_BINS_PER_REQUEST, `At most ${MAX_BINS_PER_REQUEST} bins per request; send another for the rest.`),
       ),
-    locationNote: optionalText(MAX_LOCATION_CHARS, `Keep "where exactly" under ${MAX_LOCATION_CHARS} characters.`),
-    contactName: z
-      .string({ required_error: 'Give your name, so the haulier knows whom to ask for.' })
+    locationNote: optionalText(MAX_LOCATION_CHARS, `Keep "where exactly" under ${MAX_LOCATION_CHARS} characters.`, true),
+    contactName: text({ required_error: 'Give your name, so the haulier knows whom to ask for.' })
       .trim()
       .min(2, 'Give your name, so the haulier knows whom to ask for.')
       .max(MAX_NAME_CHARS, `Keep the name under ${MAX_NAME_CHARS} characters.`),
     contactPhone: phoneField,
     contactEmail: emailField,
-    note: optionalText(MAX_NOTE_CHARS, `Keep the note under ${MAX_NOTE_CHARS} characters.`),
+    note: optionalText(MAX_NOTE_CHARS, `Keep the note under ${MAX_NOTE_CHARS} characters.`, true),
   })
   .superRefine((v, ctx) => {
     if (!v.contactPhone && !v.contactEmail) {
@@ -83,8 +81,7 @@ export const collectionRequestFields = z
 export type CollectionRequestFields = z.infer<typeof collectionRequestFields>;
 
 export const damageReportFields = z.object({
-  description: z
-    .string({ required_error: 'Say what is wrong with the bin.' })
+  description: multilineText({ required_error: 'Say what is wrong with the bin.' })
     .trim()
     .min(MIN_DESCRIPTION_CHARS, 'Say what is wrong with the bin, in a few words.')
     .max(MAX_DESCRIPTION_CHARS, `Keep the description under ${MAX_DESCRIPTION_CHARS} characters.`),

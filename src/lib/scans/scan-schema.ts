@@ -1,11 +1,12 @@
 // The shape of a scan as clients send it (yard pages, offline queue, batch
 // sync). One schema, used by the endpoint and by the offline queue's checks.
 import { z } from 'zod';
+import { multilineText, text } from '@/lib/text-input';
 import { ACTIONS } from './lifecycle';
 import { repeatedSeals } from '@/lib/trips/seal-check';
 
 const RECORDABLE = ACTIONS.filter((a) => a !== 'register') as [Exclude<(typeof ACTIONS)[number], 'register'>, ...Array<Exclude<(typeof ACTIONS)[number], 'register'>>];
-const seal = z.string().trim().min(1).max(32).regex(/^[A-Za-z0-9\-/.]+$/, 'Seal numbers use letters, digits, - / and . only');
+const seal = text().trim().min(1).max(32).regex(/^[A-Za-z0-9\-/.]+$/, 'Seal numbers use letters, digits, - / and . only');
 /** Up to six seal numbers, each once: a number written twice is a typing slip or two seals read as one. */
 const sealList = z
   .array(seal)
@@ -18,16 +19,16 @@ const sealList = z
 
 export const scanEventSchema = z
   .object({
-    clientEventId: z.string().uuid('clientEventId must be a UUID made on the device'),
-    grai: z.string().trim().min(1).max(300).optional(),
+    clientEventId: text().uuid('clientEventId must be a UUID made on the device'),
+    grai: text().trim().min(1).max(300).optional(),
     assetId: z.number().int().positive().optional(),
     action: z.enum(RECORDABLE),
-    occurredAt: z.string().datetime({ offset: true }).optional(),
+    occurredAt: text().datetime({ offset: true }).optional(),
     siteId: z.number().int().positive().nullable().optional(),
     expectedVersion: z.number().int().min(0).optional(),
     prepResult: z.enum(['pass', 'fail']).optional(),
-    checklist: z.record(z.string().max(40), z.boolean()).optional(),
-    faults: z.string().trim().max(500).optional(),
+    checklist: z.record(text().max(40), z.boolean()).optional(),
+    faults: multilineText().trim().max(500).optional(),
     photoIds: z.array(z.number().int().positive()).max(10).optional(),
     linerLotId: z.number().int().positive().optional(),
     purpose: z.enum(['hire', 'transfer']).optional(),
@@ -35,7 +36,7 @@ export const scanEventSchema = z
     loadId: z.number().int().positive().optional(),
     fill: z
       .object({
-        product: z.string().trim().min(1).max(120),
+        product: text().trim().min(1).max(120),
         volumeL: z.number().positive().max(3000).nullable().optional(),
         massKg: z.number().positive().max(5000).nullable().optional(),
         temperatureC: z.number().min(-40).max(100).nullable().optional(),
@@ -43,7 +44,7 @@ export const scanEventSchema = z
       })
       .optional(),
     sealsVerified: sealList.optional(),
-    note: z.string().trim().max(500).optional(),
+    note: multilineText().trim().max(500).optional(),
   })
   .strict()
   .refine((e) => e.grai !== undefined || e.assetId !== undefined, { message: 'Say which bin: grai or assetId', path: ['grai'] });

@@ -1,6 +1,7 @@
 // What an admin may set in the operator-wide settings, validated in one place
 // (the API route parses with it; the database's checks are the last line).
 import { z } from 'zod';
+import { multilineText, text } from '@/lib/text-input';
 import { IANAZone } from 'luxon';
 
 /** "Name <address>" or a bare address; null when it is neither. */
@@ -9,7 +10,7 @@ export function parseMailbox(value: string): { name: string | null; address: str
   const named = /^"?([^"<>]*?)"?\s*<([^<>\s]+)>$/.exec(v);
   const name = named ? named[1]!.trim() || null : null;
   const address = named ? named[2]! : v;
-  if (!z.string().email().safeParse(address).success) return null;
+  if (!text().email().safeParse(address).success) return null;
   if (name && /[\r\n]/.test(name)) return null;
   return { name, address };
 }
@@ -29,11 +30,10 @@ const CURRENCIES = new Set(Intl.supportedValuesOf('currency'));
 export const settingsSchema = z
   .object({
     version: z.number().int().min(0),
-    operatorName: z.string().trim().min(1, 'Enter the operator’s name.').max(160),
-    gs1CompanyPrefix: z.string().trim().regex(/^\d{4,12}$/, 'A GS1 company prefix is 4 to 12 digits.'),
+    operatorName: text().trim().min(1, 'Enter the operator’s name.').max(160),
+    gs1CompanyPrefix: text().trim().regex(/^\d{4,12}$/, 'A GS1 company prefix is 4 to 12 digits.'),
     gs1PrefixLength: z.number().int().min(4, 'Between 4 and 12.').max(12, 'Between 4 and 12.'),
-    digitalLinkBase: z
-      .string()
+    digitalLinkBase: text()
       .trim()
       .max(200)
       .refine((v) => {
@@ -45,8 +45,7 @@ export const settingsSchema = z
         }
       }, 'Enter a web address starting with https:// (no ?query or #part), e.g. https://id.pool.example')
       .transform((v) => v.replace(/\/+$/, '')),
-    timeZone: z
-      .string()
+    timeZone: text()
       .transform((v, ctx) => {
         const zone = canonicalTimeZone(v);
         if (!zone) {
@@ -55,18 +54,16 @@ export const settingsSchema = z
         }
         return zone;
       }),
-    currency: z
-      .string()
+    currency: text()
       .trim()
       .toUpperCase()
       .refine((v) => /^[A-Z]{3}$/.test(v) && CURRENCIES.has(v), 'Use a three-letter ISO 4217 currency code, e.g. EUR.'),
-    taxRate: z.string().trim().regex(/^0(\.\d{1,4})?$/, 'A fraction from 0 to 0.9999, e.g. 0.21 for 21 %.'),
-    mailSender: z
-      .string()
+    taxRate: text().trim().regex(/^0(\.\d{1,4})?$/, 'A fraction from 0 to 0.9999, e.g. 0.21 for 21 %.'),
+    mailSender: text()
       .trim()
       .max(254)
       .refine((v) => parseMailbox(v) !== null, 'An e-mail address, optionally with a name: Pool desk <pool@company.example>'),
-    returnInstructions: z.string().trim().max(2000, 'Keep it under 2,000 characters.'),
+    returnInstructions: multilineText().trim().max(2000, 'Keep it under 2,000 characters.'),
   })
   .superRefine((v, ctx) => {
     if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {

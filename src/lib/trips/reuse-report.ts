@@ -25,6 +25,7 @@
 import { daysBetween } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
 import { plainDecimal } from '@/lib/figures';
+import type { CsvCell } from '@/lib/csv';
 
 export interface ReuseBin {
   assetId: number;
@@ -143,7 +144,7 @@ export function reuseByYear(bins: readonly ReuseBin[], today: LocalDate, scope: 
 
 export interface CsvTable {
   fields: string[];
-  rows: string[][];
+  rows: CsvCell[][];
 }
 
 /** One row per bin counted in the period (see `figures`), in serial order; numbers with '.' and no grouping. */
@@ -165,7 +166,8 @@ export function reuseCsv(bins: readonly ReuseBin[], period: Period, today: Local
     return [
       ...(forCustomer ? [scope.name] : []),
       b.grai, b.serial, b.binType, b.commissionedOn, b.leftOn ?? '', period.from, period.to,
-      String(b.rotationsInPeriod), String(b.rotationsTotal), plainDecimal(years, 2), years > 0 ? plainDecimal(b.rotationsTotal / years, 2) : '',
+      // Numbers as numbers (src/lib/csv.ts writes them unquoted), rounded to two decimals.
+      b.rotationsInPeriod, b.rotationsTotal, Number(plainDecimal(years, 2)), years > 0 ? Number(plainDecimal(b.rotationsTotal / years, 2)) : null,
     ];
   });
   return { fields, rows };

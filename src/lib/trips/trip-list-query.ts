@@ -11,6 +11,7 @@
  * every trip and look like an answer. Empty values mean "not set" (a form's empty select).
  */
 import { z } from 'zod';
+import { DATE_RANGE_MESSAGE, inDateRange, text } from '@/lib/text-input';
 import { isLocalDate } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
 
@@ -58,7 +59,7 @@ export type TripListParse = { ok: true; query: TripListQuery } | { ok: false; is
 export const DEFAULT_TRIP_LIST: TripListQuery = { sort: 'dispatched', dir: 'desc', page: 1, size: DEFAULT_PAGE_SIZE, filters: {} };
 
 const id = z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').positive('must be positive').max(2_147_483_647, 'is too large');
-const localDate = z.string().refine(isLocalDate, 'must be a date like 2026-03-14');
+const localDate = text().refine(isLocalDate, 'must be a date like 2026-03-14').refine(inDateRange, DATE_RANGE_MESSAGE);
 
 const schema = z
   .object({
@@ -69,13 +70,16 @@ const schema = z
     status: z.enum(['open', 'closed'], { errorMap: () => ({ message: 'must be open or closed' }) }).optional(),
     customer: id.optional(),
     depot: id.optional(),
-    bin: z.string().trim().min(1).max(80, 'must be at most 80 characters').optional(),
-    lot: z.string().trim().min(1).max(40, 'must be at most 40 characters').optional(),
+    bin: text().trim().min(1).max(80, 'must be at most 80 characters').optional(),
+    lot: text().trim().min(1).max(40, 'must be at most 40 characters').optional(),
     from: localDate.optional(),
     to: localDate.optional(),
     mismatch: z.enum(['1', 'true'], { errorMap: () => ({ message: 'must be 1 (only seal mismatches)' }) }).optional(),
   })
   .strict();
+
+/** The query's shape, for tests that generate inputs from it; parseTripListQuery() is the way to read a query. */
+export const tripListQuerySchema = schema;
 
 const KNOWN = new Set<string>([...OPTION_KEYS, ...TRIP_FILTER_KEYS]);
 

@@ -14,6 +14,8 @@ export const ARTIFACTS = join(ROOT, '.loopfold', 'artifacts');
 export interface RunningApp {
   url: string;
   port: number;
+  /** The server process's id while it runs (to read its memory from /proc). */
+  readonly pid: number | undefined;
   stop(): Promise<void>;
   start(): Promise<void>;
 }
@@ -39,8 +41,11 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<R
   const app: RunningApp = {
     url,
     port,
+    get pid() {
+      return child?.pid;
+    },
     async start() {
-      child = spawn(process.execPath, ['dist/server/entry.mjs'], {
+      child = spawn(process.execPath, ['src/cli/serve.mjs'], {
         cwd: ROOT,
         env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), APP_URL: url, ...extraEnv },
         stdio: ['ignore', 'ignore', 'inherit'],

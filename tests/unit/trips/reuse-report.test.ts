@@ -78,9 +78,10 @@ describe('the pool', () => {
     ]);
     // years: 899/365 = 2.463 → 2.46, 10 / 2.463 = 4.060 → 4.06; 346/365 = 0.948 → 0.95, 4 / 0.948 = 4.220 → 4.22; 11/365 = 0.030 → 0.03
     expect(csv.rows).toEqual([
-      [B1.grai, '100001', 'FX1000', '2024-06-15', '', period.from, today, '4', '10', '2.46', '4.06'],
-      [B2.grai, '100002', 'FX1000', '2025-03-01', '2026-02-10', period.from, today, '1', '4', '0.95', '4.22'],
-      [B3.grai, '100010', 'FX1000', '2026-11-20', '', period.from, today, '0', '0', '0.03', '0.00'],
+      // counts and rates are numbers (the CSV writer leaves them unquoted), not text
+      [B1.grai, '100001', 'FX1000', '2024-06-15', '', period.from, today, 4, 10, 2.46, 4.06],
+      [B2.grai, '100002', 'FX1000', '2025-03-01', '2026-02-10', period.from, today, 1, 4, 0.95, 4.22],
+      [B3.grai, '100010', 'FX1000', '2026-11-20', '', period.from, today, 0, 0, 0.03, 0],
     ]);
   });
 
@@ -109,6 +110,6 @@ describe('one customer', () => {
     const csv = reuseCsv(forCustomer, period, today, customer);
     expect(csv.fields[0]).toBe('customer');
     expect(csv.fields).toContain('rotations_for_customer_in_period');
-    expect(csv.rows).toEqual([['Halden Oils', B1.grai, '100001', 'FX1000', '2024-06-15', '', period.from, today, '2', '3', '2.46', '1.22']]);
+    expect(csv.rows).toEqual([['Halden Oils', B1.grai, '100001', 'FX1000', '2024-06-15', '', period.from, today, 2, 3, 2.46, 1.22]]);
   });
 });

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import Papa from 'papaparse';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { AppError } from '@/lib/api-errors';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -7,11 +7,14 @@ import { reuseData } from '@/lib/trips/reuse-data.server';
 import { reuseCsv } from '@/lib/trips/reuse-report';
 import { parseReportPeriod } from '@/lib/trips/report-period';
 import { localDate } from '@/lib/calendar';
+import { csvTable } from '@/lib/csv';
+import { csvResponse } from '@/lib/http/csv-response';
+import Papa from 'papaparse';
 
 const query = z
   .object({
-    from: z.string().max(10).optional(),
-    to: z.string().max(10).optional(),
+    from: text().max(10).optional(),
+    to: text().max(10).optional(),
     customer: z.union([z.literal(''), z.coerce.number().int().positive().max(2_147_483_647)]).optional(),
   })
   .strict();
@@ -34,14 +37,6 @@ export const GET = endpoint({ capability: 'fleet.view', query }, async ({ query 
   const data = await reuseData(parsed.period, customerId);
   if (!data) throw new AppError('not_found', 'No customer with that id.');
   const table = reuseCsv(data.bins, parsed.period, data.today, data.scope);
-  const csv = Papa.unparse({ fields: table.fields, data: table.rows }, { newline: '\r\n' });
   const who = data.scope.kind === 'customer' ? `-${slug(data.scope.name)}` : '';
-  return new Response(`\uFEFF${csv}\r\n`, {
-    status: 200,
-    headers: {
-      'Content-Type': 'text/csv; charset=utf-8',
-      'Content-Disposition': `attachment; filename="reuse-${parsed.period.from}-to-${parsed.period.to}${who}.csv"`,
-      'Cache-Control': 'no-store',
-    },
-  });
+  return csvResponse(csvTable(table.fields, table.rows), `reuse-${parsed.period.from}-to-${parsed.period.to}${who}.csv`);
 });

@@ -1,10 +1,11 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { commitImport, readUpload } from '@/lib/bins/register-import.server';
 
 const query = z.object({
-  sha256: z.string().regex(/^[0-9a-f]{64}$/, 'Give the sha256 of the previewed file.'),
-  name: z.string().max(200).optional(),
+  sha256: text().regex(/^[0-9a-f]{64}$/, 'Give the sha256 of the previewed file.'),
+  name: text().max(200).optional(),
 });
 
 /**

@@ -4,6 +4,7 @@ import { checkGrid, exportBinsCsv, exportFileName, queryContext, EXPORTABLE_COLU
 import { parseFilterModel, parseSortModel, type BinColumnId } from '@/lib/fleet/grid-query';
 import { DEFAULT_VISIBLE } from '@/lib/fleet/grid-views';
 import { AppError } from '@/lib/api-errors';
+import { csvResponse } from '@/lib/http/csv-response';
 
 function exportColumns(list: string | undefined): BinColumnId[] {
   if (!list) return [...DEFAULT_VISIBLE];
@@ -21,11 +22,5 @@ export const GET = endpoint({ capability: 'fleet.view', query: binsExportQuerySc
   const columns = exportColumns(query.columns);
   const ctx = await queryContext();
   const body = await exportBinsCsv(req, columns, ctx);
-  return new Response(body, {
-    headers: {
-      'Content-Type': 'text/csv; charset=utf-8',
-      'Content-Disposition': `attachment; filename="${exportFileName(ctx.today)}"`,
-      'Cache-Control': 'no-store',
-    },
-  });
+  return csvResponse(body, exportFileName(ctx.today));
 });

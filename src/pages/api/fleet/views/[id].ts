@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { deleteView, updateView } from '@/lib/fleet/saved-views.server';
 import { MAX_VIEW_NAME, isBuiltinViewId } from '@/lib/fleet/grid-views';
@@ -13,7 +14,7 @@ function viewId(raw: string | undefined): number {
 
 const patchSchema = z
   .object({
-    name: z.string().trim().min(1, 'Give the view a name').max(MAX_VIEW_NAME).optional(),
+    name: text().trim().min(1, 'Give the view a name').max(MAX_VIEW_NAME).optional(),
     shared: z.boolean().optional(),
     state: z.unknown().optional(),
     version: z.number().int().min(0),

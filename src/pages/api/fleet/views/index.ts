@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { createView, listViews } from '@/lib/fleet/saved-views.server';
 import { MAX_VIEW_NAME } from '@/lib/fleet/grid-views';
@@ -8,7 +9,7 @@ export const GET = endpoint({ capability: 'fleet.view' }, async ({ user }) => li
 
 const createSchema = z
   .object({
-    name: z.string().trim().min(1, 'Give the view a name').max(MAX_VIEW_NAME),
+    name: text().trim().min(1, 'Give the view a name').max(MAX_VIEW_NAME),
     shared: z.boolean().default(false),
     state: z.unknown(),
   })

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { addBinToLoad, loadIdByReference } from '@/lib/loads/load-service.server';
 import { findBin } from '@/lib/bins/bin-lookup.server';
@@ -6,10 +7,10 @@ import { AppError } from '@/lib/api-errors';
 
 const body = z
   .object({
-    clientEventId: z.string().uuid(),
-    grai: z.string().trim().min(1).max(300).optional(),
+    clientEventId: text().uuid(),
+    grai: text().trim().min(1).max(300).optional(),
     assetId: z.number().int().positive().optional(),
-    occurredAt: z.string().datetime({ offset: true }).optional(),
+    occurredAt: text().datetime({ offset: true }).optional(),
   })
   .strict()
   .refine((b) => b.grai !== undefined || b.assetId !== undefined, { message: 'Say which bin: grai or assetId' });

@@ -1,13 +1,14 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { dispatchLoad, loadIdByReference } from '@/lib/loads/load-service.server';
 
 const body = z
   .object({
-    carrier: z.string().trim().min(2, 'Name the carrier.').max(120),
-    vehicleRegistration: z.string().trim().min(2, 'Give the vehicle registration.').max(20).regex(/^[A-Za-z0-9 \-]+$/, 'Registrations use letters, digits, spaces and hyphens.'),
-    driverName: z.string().trim().max(120).optional(),
-    trailerSeals: z.array(z.string().trim().min(1).max(32)).max(6).default([]),
+    carrier: text().trim().min(2, 'Name the carrier.').max(120),
+    vehicleRegistration: text().trim().min(2, 'Give the vehicle registration.').max(20).regex(/^[A-Za-z0-9 \-]+$/, 'Registrations use letters, digits, spaces and hyphens.'),
+    driverName: text().trim().max(120).optional(),
+    trailerSeals: z.array(text().trim().min(1).max(32)).max(6).default([]),
   })
   .strict();
 

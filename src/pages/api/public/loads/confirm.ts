@@ -1,14 +1,15 @@
 import type { APIRoute } from 'astro';
 import { z } from 'zod';
-import { confirmDelivery, loadCustomerId, loadFromToken } from '@/lib/loads/load-service.server';
+import { text } from '@/lib/text-input';
+import { confirmDelivery, loadFromToken, loadCustomerId } from '@/lib/loads/load-service.server';
 import { formFile, readForm, storeAttachment } from '@/lib/attachments.server';
 import { publicFormLimit, hit } from '@/lib/rate-limits.server';
 import { dataResponse, errorResponse } from '@/lib/respond.server';
 import { toErrorResponse } from '@/lib/endpoint.server';
 
 const fields = z.object({
-  token: z.string().min(10).max(120),
-  receivedByName: z.string().trim().min(2, 'Give your name.').max(120),
+  token: text().min(10).max(120),
+  receivedByName: text().trim().min(2, 'Give your name.').max(120),
 });
 
 /**

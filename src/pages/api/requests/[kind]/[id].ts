@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { AppError } from '@/lib/api-errors';
 import { actorFrom } from '@/lib/audit.server';
@@ -6,7 +7,7 @@ import { changeRequestStatus } from '@/lib/requests/requests.server';
 import { isStatusOf, type RequestKind } from '@/lib/requests/request-status';
 
 const body = z.object({
-  status: z.string().min(1).max(20),
+  status: text().min(1).max(20),
   version: z.number().int().min(0),
 });
 

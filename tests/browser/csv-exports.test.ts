@@ -1,0 +1,99 @@
+// Every CSV route of the app, found from the files under src/pages (names
+// ending .csv.ts), fetched over HTTP from the built server with a bin whose
+// serial is a spreadsheet formula. No cell may run as a formula when opened
+// (OWASP, "CSV Injection": cells starting with = + - @ tab CR), and numeric
+// cells must stay numbers. Read with the tests' own RFC 4180 reader.
+import { describe, test, expect, beforeAll, afterAll } from 'vitest';
+import { readdirSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import type { APIRequestContext, BrowserContext } from 'playwright-core';
+import { newContext, signIn, useApp, ROOT } from './support/app';
+import { one, closeDb } from './support/db';
+import { readCsv, runsAsFormula } from '../unit/support/rfc4180';
+import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
+
+const FORMULA_SERIAL = '=HYPERLINK("a")';
+
+function csvRoutes(dir = join(ROOT, 'src', 'pages')): string[] {
+  const out: string[] = [];
+  for (const name of readdirSync(dir)) {
+    const path = join(dir, name);
+    if (statSync(path).isDirectory()) out.push(...csvRoutes(path));
+    else if (name.endsWith('.csv.ts')) out.push(`/${relative(join(ROOT, 'src', 'pages'), path).replace(/\.ts$/, '')}`);
+  }
+  return out.sort();
+}
+
+/**
+ * What each route is asked and which of its columns hold the test bin's serial
+ * and numbers. A new CSV route fails the sweep until it is described here.
+ */
+const ROUTES: Record<string, { query?: string; serialColumn?: string; numberColumns?: string[] }> = {
+  '/api/fleet/reuse.csv': { serialColumn: 'serial', numberColumns: ['rotations_in_period', 'rotations_since_commissioning', 'years_in_service'] },
+  '/api/fleet/bins/export.csv': {
+    query: `?columns=grai,serial,tripCount,daysAtSite&filterModel=${encodeURIComponent(JSON.stringify({ serial: { filterType: 'text', type: 'equals', filter: FORMULA_SERIAL } }))}`,
+    serialColumn: 'Serial',
+    numberColumns: ['Trips', 'Days at site'],
+  },
+  '/bins/export.csv': { serialColumn: 'serial', numberColumns: ['trip_count'] },
+  '/bins/import/template.csv': {},
+};
+
+let ctx: BrowserContext;
+let api: APIRequestContext;
+const t = useApp();
+
+beforeAll(async () => {
+  ctx = await newContext(t.browser, t.app);
+  const page = await ctx.newPage();
+  await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);
+  await page.waitForURL((u) => !u.pathname.startsWith('/login'));
+  api = ctx.request;
+  const existing = await one<{ id: number } | undefined>('SELECT id FROM assets WHERE serial = $1', [FORMULA_SERIAL]);
+  if (!existing) {
+    const type = await one<{ id: number }>(`SELECT id FROM bin_types ORDER BY id LIMIT 1`);
+    const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
+    const res = await api.post('/api/bins/register', {
+      data: { graiMode: 'serial', serial: FORMULA_SERIAL, binTypeId: type.id, siteId: depot.id, manufactureMonth: '2024-05', unMarking: '', lastIntermediateTestMonth: '', lastFullInspectionMonth: '' },
+    });
+    expect(res.status(), await res.text()).toBe(201);
+  }
+});
+afterAll(async () => {
+  await ctx?.close();
+  await closeDb();
+});
+
+describe('CSV exports', () => {
+  test('the sweep covers every CSV route under src/pages', () => {
+    expect(csvRoutes()).toEqual(Object.keys(ROUTES).sort());
+  });
+
+  for (const route of csvRoutes()) {
+    test(`${route}: no cell runs as a formula, the formula serial is neutralised, numbers stay numbers`, async () => {
+      const spec = ROUTES[route] ?? {};
+      const res = await api.get(route + (spec.query ?? ''));
+      expect(res.status(), await res.text()).toBe(200);
+      expect(res.headers()['content-type']).toBe('text/csv; charset=utf-8');
+      expect(res.headers()['content-disposition']).toMatch(/^attachment; filename="[A-Za-z0-9._-]+\.csv"$/);
+      const bytes = await res.body();
+      expect([...bytes.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]); // UTF-8 byte-order mark
+      const rows = readCsv(bytes.toString('utf8'));
+      expect(rows.length).toBeGreaterThan(1);
+      for (const row of rows) for (const cell of row) expect(runsAsFormula(cell.text), JSON.stringify(cell.text)).toBe(false);
+      if (!spec.serialColumn) return;
+      const header = rows[0]!.map((c) => c.text);
+      const serialAt = header.indexOf(spec.serialColumn);
+      expect(serialAt).toBeGreaterThanOrEqual(0);
+      const ours = rows.filter((r) => r[serialAt]?.text === `'${FORMULA_SERIAL}`);
+      expect(ours.length, 'the bin with the formula serial is in the file, neutralised').toBe(1);
+      for (const name of spec.numberColumns ?? []) {
+        const at = header.indexOf(name);
+        expect(at, name).toBeGreaterThanOrEqual(0);
+        const cell = ours[0]![at]!;
+        expect(cell.quoted, `${name} is not quoted text`).toBe(false);
+        expect(cell.text, name).toMatch(/^-?\d+(\.\d+)?$/);
+      }
+    });
+  }
+});
