@@ -12,13 +12,14 @@ import { loadDepotSnapshot } from '@/lib/yard/depot-snapshot.server';
 const w = usePoolWorld();
 
 describe('open hire orders at a depot', () => {
-  test('open and loading ones, soonest first, with the bins gone out on each; filters by type, day and count', async () => {
+  test('confirmed and loading ones (never drafts), soonest first, with the bins gone out on each; filters by type, day and count', async () => {
     const order = (reference: string, neededBy: string, status: string, depotSiteId = w.depot.id) =>
       HireOrder.create({ reference, customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId, binTypeId: w.binType.id, quantity: 5, neededBy, product: null, notes: null, status } as never);
     const loading = await order('HO-B', '2026-12-05', 'loading');
-    await order('HO-C', '2026-12-20', 'open');
+    await order('HO-C', '2026-12-20', 'confirmed');
+    await order('HO-F', '2026-12-03', 'draft'); // a draft counts nowhere
     await order('HO-D', '2026-12-01', 'dispatched'); // gone: not open
-    await order('HO-E', '2026-12-02', 'open', w.depot2.id); // another depot
+    await order('HO-E', '2026-12-02', 'confirmed', w.depot2.id); // another depot
     const bin = await handBin(w.planner, { serial: '901', binTypeId: w.binType.id, siteId: w.depot.id, registeredAt: '2026-11-01T08:00:00Z' });
     const tripId = await handTrip({ assetId: bin.id, customerId: w.customer.id, depotSiteId: w.depot.id, dispatchedAt: '2026-11-30T08:00:00Z' });
     await HireOrder.sequelize!.query('UPDATE trips SET hire_order_id = $1 WHERE id = $2', { bind: [loading.id, tripId] });
