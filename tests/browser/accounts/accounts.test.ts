@@ -3,6 +3,7 @@ import type { Browser, Page } from 'playwright-core';
 import { newContext, screenshot, signIn, useApp } from '../support/app';
 import { waitForMail, linkIn, freshEmail, createStaff, closeDb } from '../support/accounts';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
+import { hydrated } from '../support/yard';
 
 const t = useApp();
 
@@ -42,6 +43,7 @@ describe('invitations', () => {
     const since = new Date(Date.now() - 1000);
     const page = await adminPage();
     await page.goto('/admin/users');
+    await hydrated(page); // the people list is an island: act once it handles clicks
     await page.click('#invite-open');
     await page.fill('#invite-name', 'Maren Invitee');
     await page.fill('#invite-email', email);
@@ -76,6 +78,7 @@ describe('invitations', () => {
 
     // the admin sees the person active and the mail in the outbox
     await page.goto('/admin/users');
+    await hydrated(page); // the people list is an island: act once it handles clicks
     await expect(page.locator(`#people-table tr[data-person="${email}"] [data-status]`).getAttribute('data-status')).resolves.toBe('active');
     await page.goto('/admin/mail');
     const sent = page.locator(`#outbox li[data-mail-to="${email}"]`).first();
@@ -125,6 +128,7 @@ describe('deactivation', () => {
 
     const page = await adminPage();
     await page.goto('/admin/users');
+    await hydrated(page); // the people list is an island: act once it handles clicks
     await page.fill('#people-search', email);
     await page.getByRole('button', { name: 'Change Lena Leaver' }).click();
     await page.click('#deactivate');
@@ -149,6 +153,7 @@ describe('deactivation', () => {
     await signIn(page, email, 'self-admin-pass');
     await page.waitForURL('**/fleet');
     await page.goto('/admin/users');
+    await hydrated(page); // the people list is an island: act once it handles clicks
     await page.fill('#people-search', email);
     await page.getByRole('button', { name: 'Change Sol Selfadmin' }).click();
     await page.getByText('You cannot deactivate your own account.').waitFor();
@@ -193,6 +198,7 @@ describe('admin pages at desktop and phone width', () => {
     for (const kind of ['desktop', 'phone'] as const) {
       const page = await adminPage(kind);
       await page.goto('/admin/users');
+      await hydrated(page); // the people list is an island: act once it handles clicks
       await page.locator('[data-person]:visible').first().waitFor();
       await screenshot(page, `admin-users-${kind}`);
       await page.getByRole('button', { name: `Change ${admin.name}` }).click();

@@ -45,7 +45,7 @@ beforeAll(async () => {
   const tls = await ensureLocalCertificate(mkdtempSync(join(tmpdir(), 'loopfold-https-session-')), certificateNames({ addresses: [] }));
   ca = readFileSync(tls.caPath);
   port = await freePort();
-  child = spawn(process.execPath, ['dist/server/entry.mjs'], {
+  child = spawn(process.execPath, ['src/cli/serve.mjs'], {
     cwd: ROOT,
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), SERVER_CERT_PATH: tls.certPath, SERVER_KEY_PATH: tls.keyPath },
     stdio: ['ignore', 'ignore', 'inherit'],
