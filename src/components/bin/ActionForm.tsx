@@ -44,7 +44,7 @@ export function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
 }
 
 /** Uploads fault photos; without signal the scan goes ahead and says the photos are missing. */
-async function uploadPhotos(files: File[], note: (msg: string | null) => void): Promise<number[]> {
+export async function uploadPhotos(files: File[], note: (msg: string | null) => void): Promise<number[]> {
   const ids: number[] = [];
   for (const file of files) {
     const form = new FormData();

@@ -157,6 +157,7 @@ export class PoolSim {
       prepResult: input.prepResult,
       linerLotId: input.linerLotId === undefined ? undefined : String(input.linerLotId),
       purpose: input.purpose,
+      inspection: input.inspectionResult,
     });
     if (!decision.ok) throw new SimRefusal('transition_refused', decision.code, decision.reason);
     const { order, lotNumber } = this.checkActionInputs(asset, input, today);
@@ -199,6 +200,8 @@ export class PoolSim {
       });
     }
     Object.assign(asset, assetAfter(asset, decision, opened, occurredAt));
+    const schedule = decision.patch.schedule;
+    if (schedule) Object.assign(asset, schedule); // the same six columns recordScan() writes (scheduleColumns)
     asset.version += 1;
     const outcome: ScanOutcome = {
       clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai, action: input.action,
