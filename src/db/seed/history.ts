@@ -75,7 +75,7 @@ export async function generateHistory(opts: { bins: number; months: number; now?
       id: pool.ids.take('assets'), grai: row.grai, serial: row.serial, binTypeId: row.binTypeId, manufactureMonth: row.manufactureMonth,
       unMarking: row.unMarking, status: row.status, siteId: row.siteId, siteSince: row.siteSince, customerId: null, currentTripId: null,
       leg: null, prepChecked: false, linerLotId: null, filled: false, tripCount: 0, lastScanAt: row.lastScanAt,
-      lastInspectionOn: row.lastInspectionOn, lastFullInspectionOn: row.lastFullInspectionOn, nextIntermediateDue: row.nextIntermediateDue,
+      lastInspectionOn: row.lastInspectionOn, lastLeakTestOn: row.lastLeakTestOn, lastFullInspectionOn: row.lastFullInspectionOn, nextIntermediateDue: row.nextIntermediateDue,
       nextFullDue: row.nextFullDue, nextDue: row.nextDue, version: 0,
     };
     pool.assets.set(asset.id, asset);
@@ -340,6 +340,7 @@ function keepTestInDate(world: World, asset: SimAsset, at: number, inspector: Ac
     leak_test_minutes: '10', leak_test_passed: true, outcome: 'pass', next_intermediate_due: due.intermediateDue, next_full_due: due.fullDue,
   });
   asset.lastInspectionOn = today;
+  asset.lastLeakTestOn = today; // tested with a leakproofness test (20 kPa, 10 min) below
   if (full) asset.lastFullInspectionOn = today;
   asset.nextIntermediateDue = due.intermediateDue;
   asset.nextFullDue = due.fullDue;

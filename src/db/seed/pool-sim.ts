@@ -19,6 +19,7 @@ export interface SimAsset extends AssetSnapshot {
   manufactureMonth: string; // YYYY-MM-01
   unMarking: string | null;
   lastInspectionOn: string | null;
+  lastLeakTestOn: string | null;
   lastFullInspectionOn: string | null;
   nextIntermediateDue: string | null;
   nextFullDue: string | null;
