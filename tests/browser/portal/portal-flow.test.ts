@@ -8,6 +8,7 @@ import type { Page } from 'playwright-core';
 import { newContext, screenshot, signIn, useApp } from '../support/app';
 import { one, rows, closeDb } from '../support/db';
 import { waitForMail, closeDb as closeMailDb } from '../support/accounts';
+import { hydrated } from '../support/yard';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
@@ -80,6 +81,7 @@ describe('the customer portal at phone size', () => {
     // The planner, at a desk: the request is on the requests page; schedule it for a run day.
     const desk = await signedIn(planner.email, 'desktop');
     await desk.goto('/requests');
+    await hydrated(desk); // the run day is the island's state: typed before hydration, it would be lost
     const card = desk.locator(`li[data-request="collection"][data-id="${id}"]`);
     await expect(card.innerText()).resolves.toMatch(/7 folded bins/);
     await expect(card.innerText()).resolves.toMatch(/customer portal/);
