@@ -76,6 +76,7 @@ async function seed(c: pg.Client) {
        SELECT 'Bench Liners', 'BL' || lpad(g::text, 4, '0'), 'PE bag, 2" valve', 2000, current_date - 200 + g, current_date + 500 + g, 1 + g % 8
          FROM generate_series(1, 200) g`,
     );
+    await c.query(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at) SELECT id, site_id, 'receipt', quantity_received, received_on FROM liner_lots`);
     const hash = await bcrypt.hash(PASSWORD, 10);
     await c.query(`INSERT INTO users (email, name, password_hash, role, organisation_id) VALUES ($1, 'Bench Planner', $2, 'planner', 1)`, [PLANNER, hash]);
   });

@@ -108,6 +108,8 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   }
   const eventColumns = ['id', 'asset_id', 'action', 'occurred_at', 'site_id', 'user_id', 'client_event_id', 'status_from', 'status_to', 'trip_id', 'inferred', 'flagged', 'payload'];
   await insertRows('scan_events', eventColumns, pool.events, t);
+  // The liner ledger: receipts first, so every prefix of the rows keeps each lot's stock at 0 or more.
+  await insertRows('liner_moves', ['lot_id', 'site_id', 'kind', 'quantity', 'occurred_at', 'user_id', 'asset_id', 'scan_event_id', 'reason'], pool.moves, t);
   await insertRows('scan_event_keys', ['client_event_id', 'user_id', 'scan_event_id', 'outcome'], pool.keys, t);
   await insertRows(
     'inspections',

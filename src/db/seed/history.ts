@@ -11,7 +11,7 @@ import { makeGrai } from '@/lib/gs1';
 import { scheduleAfterTest } from '@/lib/inspections/schedule-after';
 import { CHECKLIST } from '@/lib/inspections/inspection-form';
 import { policyForBinType } from '@/lib/bins/bin-policy';
-import { addMonthsToMonth, localDate } from '@/lib/calendar';
+import { addDays, addMonthsToMonth, localDate } from '@/lib/calendar';
 import { seededRandom, type Random } from '@/lib/random';
 import { PoolSim, SimRefusal, type SimAsset, type SimLot, type SimOrder } from './pool-sim';
 import { nextIds, writePool, type SimInspection } from './bulk-write';
@@ -176,17 +176,38 @@ function createLinerLots(world: World) {
         spec: supplier.spec, quantity_received: rnd.pick([300, 400, 500]), received_on: received, expiry_date: expiry, site_id: depot.id, status: 'released',
       };
       world.lots.push(lot);
-      world.pool.lots.set(lot.id, lot);
+      world.pool.receiveLot(lot, new Date(t));
     }
   }
 }
 
-/** First-expiry-first-out among lots received at the depot by that date and usable then. */
+/**
+ * First-expiry-first-out among lots received at the depot by that date, usable then and with liners left.
+ * Bins live one after another, so early lots are drained by the first bins' whole lives; when every lot
+ * on hand is used up, the depot takes an urgent delivery that day (no random draw: the rest of the history
+ * stays as it was).
+ */
 function lotFor(world: World, depotId: number, at: Date): SimLot | null {
   const day = localDate(at, OPERATOR.timeZone);
   const usable = world.lots.filter((l) => l.site_id === depotId && l.received_on <= day && l.expiry_date >= day && l.status === 'released');
-  usable.sort((a, b) => a.expiry_date.localeCompare(b.expiry_date));
-  return usable[0] ?? null;
+  if (!usable.length) return null;
+  const inStock = usable.filter((l) => world.pool.onHand(l.id, depotId) > 0);
+  inStock.sort((a, b) => a.expiry_date.localeCompare(b.expiry_date));
+  return inStock[0] ?? urgentLot(world, depotId, at);
+}
+
+function urgentLot(world: World, depotId: number, at: Date): SimLot {
+  const n = world.lots.length + 1;
+  const supplier = LINER_SUPPLIERS[n % LINER_SUPPLIERS.length]!;
+  const received = localDate(at, OPERATOR.timeZone);
+  const lot: SimLot = {
+    id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
+    lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-U${String(n).padStart(3, '0')}`,
+    spec: supplier.spec, quantity_received: 400, received_on: received, expiry_date: addDays(received, 700), site_id: depotId, status: 'released',
+  };
+  world.lots.push(lot);
+  world.pool.receiveLot(lot, at);
+  return lot;
 }
 
 function orderFor(world: World, customer: World['customers'][number], depot: Site, type: BinType, at: Date): SimOrder {
