@@ -151,3 +151,8 @@ function pick<T extends object, K extends keyof T>(o: T, keys: readonly K[]): Pi
 function changed(what: string) {
   return new AppError('changed_meanwhile', `Someone changed this ${what} while you were editing. Reload to see their version, then make your change again.`);
 }
+
+/** Bin types to list a spec against (the spec form's choices). */
+export async function listBinTypeChoices(): Promise<Array<{ id: number; name: string }>> {
+  return sequelize.query<{ id: number; name: string }>('SELECT id, name FROM bin_types ORDER BY active DESC, name', { type: QueryTypes.SELECT });
+}
