@@ -119,13 +119,13 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
         </button>
       </div>
       {flash && <p className="notice-good mt-4" role="status">{flash}</p>}
-      <div className="card mt-4 overflow-x-auto" role="region" aria-label={kind === 'specs' ? 'Liner specs' : 'Liner suppliers'} tabIndex={0}>
+      <div className="card mt-4 max-w-full overflow-x-auto" role="region" aria-label={kind === 'specs' ? 'Liner specs' : 'Liner suppliers'} tabIndex={0}>
         <table className="w-full text-sm [&_th]:px-2 [&_th]:py-2 [&_th]:text-left [&_th]:font-medium [&_td]:px-2 [&_td]:py-2 [&_td]:align-top [&_tbody_tr]:border-t [&_tbody_tr]:border-paper-line/70 [&_.num]:text-right">
           <thead className="bg-paper-deep/60">
             {kind === 'specs' ? (
-              <tr><th>Code</th><th>Spec</th><th className="hidden xl:table-cell">Supplier · article</th><th>Fits</th><th className="num">Lots</th><th>Status</th><th><span className="sr-only">Edit</span></th></tr>
+              <tr><th>Code</th><th>Spec</th><th className="hidden xl:table-cell">Supplier · article</th><th className="hidden md:table-cell">Fits</th><th className="num">Lots</th><th>Status</th><th><span className="sr-only">Edit</span></th></tr>
             ) : (
-              <tr><th>Supplier</th><th className="hidden lg:table-cell">Order e-mail</th><th className="num">Lead time</th><th className="num">Per order</th><th className="num">Carton</th><th className="num">Minimum</th><th className="num">Price</th><th>Status</th><th><span className="sr-only">Edit</span></th></tr>
+              <tr><th>Supplier</th><th className="hidden lg:table-cell">Order e-mail</th><th className="num hidden sm:table-cell">Lead time</th><th className="num">Per order</th><th className="num">Carton</th><th className="num">Minimum</th><th className="num">Price</th><th>Status</th><th><span className="sr-only">Edit</span></th></tr>
             )}
           </thead>
           <tbody>
@@ -135,7 +135,7 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
                   <td className="ident whitespace-nowrap">{String(r.code)}</td>
                   <td><div className="font-medium">{String(r.name)}</div><div className="text-sm text-ink-soft">{describeSpec(r as unknown as SpecRow)}</div></td>
                   <td className="hidden xl:table-cell">{r.supplierName ? `${String(r.supplierName)} · ` : ''}<span className="ident">{String(r.articleNumber ?? '—')}</span></td>
-                  <td>{(r.binTypeIds as number[]).length ? (r.binTypeIds as number[]).map((id) => typeName.get(id) ?? `#${id}`).join(', ') : 'no bin type listed'}</td>
+                  <td className="hidden md:table-cell">{(r.binTypeIds as number[]).length ? (r.binTypeIds as number[]).map((id) => typeName.get(id) ?? `#${id}`).join(', ') : 'no bin type listed'}</td>
                   <td className="num">{n(Number(r.lots))}</td>
                   <td><ActiveBadge active={r.active} /></td>
                   <td><button type="button" className="btn-quiet" onClick={() => setEditing(r)} aria-label={`Edit ${String(r.code)}`}>Edit</button></td>
@@ -144,7 +144,7 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
                 <tr key={r.id}>
                   <td className="font-medium">{String(r.name)}</td>
                   <td className="hidden lg:table-cell">{String(r.orderEmail ?? '—')}</td>
-                  <td className="num">{n(Number(r.leadTimeDays))} days</td>
+                  <td className="num hidden sm:table-cell">{n(Number(r.leadTimeDays))} days</td>
                   <td className="num">{String(r.orderCost)}</td>
                   <td className="num">{n(Number(r.packSize))}</td>
                   <td className="num">{n(Number(r.minOrderQty))}</td>
