@@ -32,7 +32,6 @@ export const CAPABILITIES = {
   'settings.manage': ['admin'],
   'sites.manage': ['admin'],
   'mail.read': ['admin'],
-  'audit.read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;

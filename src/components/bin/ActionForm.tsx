@@ -24,9 +24,9 @@ const CHECKS: Array<[key: string, label: string]> = [
   ['labelLegible', 'Label legible'],
 ];
 
-export const DESTRUCTIVE: Action[] = ['retire', 'mark_missing', 'quarantine'];
+const DESTRUCTIVE: Action[] = ['retire', 'mark_missing', 'quarantine'];
 
-export function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
+function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
   if (!lines.length) return null;
   return (
     <div className="notice-attention" role="note">

@@ -56,7 +56,7 @@ function arrayLiteral(items: readonly string[]): string {
  * `INSERT … SELECT FROM unnest($1::int4[], $2::text[], …)`, 10,000 rows a
  * statement. JSON columns travel as text, array columns as array literals.
  */
-export async function insertRows(table: string, columns: string[], rows: readonly object[], t: Transaction) {
+async function insertRows(table: string, columns: string[], rows: readonly object[], t: Transaction) {
   if (!rows.length) return;
   const types = await columnTypes(table, t);
   const specs = columns.map((c) => {

@@ -331,6 +331,7 @@ function liveBin(world: World, bin: SimAsset, homeDepot: Site, joined: Date) {
 
 /** Books and passes the periodic test when it falls due within the next three weeks (the yard would), through the scan log like any test. */
 function keepTestInDate(world: World, asset: SimAsset, at: number, inspector: Actor) {
+  if (at > world.now.getTime()) return; // the wait ran past today: no test on a day that has not come yet
   const today = localDate(new Date(at), OPERATOR.timeZone);
   const soon = localDate(new Date(at + 21 * DAY), OPERATOR.timeZone);
   if (!asset.nextDue || asset.nextDue > soon || asset.status !== 'available') return;

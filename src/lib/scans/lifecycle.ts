@@ -155,7 +155,7 @@ const SITE_KIND_WORDS: Record<SiteKind, string> = {
 // Who may record what. Customers record only what happens to a bin at their own sites; planners and
 // admins may record anything (they correct and enter scans from a desk).
 
-export const ACTION_ROLES: Record<Action, readonly Role[]> = {
+const ACTION_ROLES: Record<Action, readonly Role[]> = {
   register: ['planner', 'admin'],
   receive: ['yard', 'planner', 'admin'],
   prep_check: ['yard', 'planner', 'admin'],

@@ -58,7 +58,7 @@ export interface ScanSite {
 const PAYLOAD_KEYS = ['prepResult', 'checklist', 'faults', 'photoIds', 'linerLotId', 'purpose', 'hireOrderId', 'loadId', 'fill', 'sealsVerified', 'note', 'inspection'] as const;
 
 /** The scan's own log entry payload: the decided patch and trip effect (what replayState() folds), and the inputs. */
-export function eventPayload(input: ScanFacts, d: Allowed, flags: string[]): Record<string, unknown> {
+function eventPayload(input: ScanFacts, d: Allowed, flags: string[]): Record<string, unknown> {
   const payload: Record<string, unknown> = { patch: d.patch, trip: d.trip };
   if (d.inferred.length) payload.inferred = d.inferred;
   if (flags.length) payload.flags = flags;

@@ -356,8 +356,3 @@ async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, o
   return { version: updated.version, next };
 }
 
-/** Finds bins by canonical GRAI values (used by the API and the demo generator). */
-export async function assetIdsByGrai(grais: string[], t?: Transaction): Promise<Map<string, number>> {
-  const rows = await Asset.findAll({ where: { grai: { [Op.in]: grais } }, attributes: ['id', 'grai'], transaction: t });
-  return new Map(rows.map((r) => [r.grai, r.id]));
-}

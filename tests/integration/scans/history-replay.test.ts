@@ -50,6 +50,16 @@ describe('the generated demo history', () => {
     expect(tested).toBeGreaterThan(0); // the demo history tests bins through the log
   });
 
+  test('nothing in the history happens after the day it was generated on (no test, scan or trip dated ahead)', async () => {
+    const [row] = await sequelize.query<{ events: number; tests: number; assets: number }>(
+      `SELECT (SELECT count(*)::int FROM scan_events WHERE occurred_at > $1) events,
+              (SELECT count(*)::int FROM inspections WHERE performed_on > $2::date) tests,
+              (SELECT count(*)::int FROM assets WHERE last_inspection_on > $2::date OR last_scan_at > $1) assets`,
+      { type: QueryTypes.SELECT, bind: ['2026-12-01T12:00:00Z', '2026-12-01'] },
+    );
+    expect(row).toEqual({ events: 0, tests: 0, assets: 0 });
+  });
+
   test('the history has trips, inferred steps and bins in several states', async () => {
     const [row] = await sequelize.query<{ trips: number; inferred: number; statuses: number }>(
       `SELECT (SELECT count(*)::int FROM trips) trips, (SELECT count(*)::int FROM scan_events WHERE inferred) inferred,
