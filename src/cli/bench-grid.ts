@@ -76,6 +76,7 @@ async function seed(c: pg.Client) {
        SELECT 'Bench Liners', 'BL' || lpad(g::text, 4, '0'), 'PE bag, 2" valve', 2000, current_date - 200 + g, current_date + 500 + g, 1 + g % 8
          FROM generate_series(1, 200) g`,
     );
+    await c.query(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at) SELECT id, site_id, 'receipt', quantity_received, received_on FROM liner_lots`);
     const hash = await bcrypt.hash(PASSWORD, 10);
     await c.query(`INSERT INTO users (email, name, password_hash, role, organisation_id) VALUES ($1, 'Bench Planner', $2, 'planner', 1)`, [PLANNER, hash]);
   });
@@ -111,7 +112,7 @@ async function seed(c: pg.Client) {
                 FROM b
             )
        INSERT INTO assets (grai, serial, bin_type_id, manufacture_month, status, site_id, site_since, customer_id, leg, liner_lot_id,
-                           last_scan_at, trip_count, last_inspection_on, last_full_inspection_on, next_intermediate_due, next_full_due, next_due)
+                           last_scan_at, trip_count, last_inspection_on, last_leak_test_on, last_full_inspection_on, next_intermediate_due, next_full_due, next_due)
        SELECT CASE WHEN g % 5 = 0 THEN $3 ELSE $2 END || lpad(g::text, 7, '0'), lpad(g::text, 7, '0'), 1 + (g % 5 = 0)::int, date_trunc('month', current_date - 400 - (g % 1500))::date, status,
               CASE WHEN status IN ('on_hire', 'awaiting_collection') THEN cs.id WHEN status = 'in_repair' THEN (SELECT id FROM sites WHERE kind = 'repair')
                    WHEN status IN ('in_transit', 'missing') THEN NULL ELSE d.id END,
@@ -121,7 +122,7 @@ async function seed(c: pg.Client) {
               CASE WHEN status IN ('prepared', 'on_hire') THEN 1 + g % 200 END,
               now() - make_interval(days => CASE WHEN status = 'missing' THEN 60 + days_here WHEN status = 'in_transit' THEN 1 ELSE days_here END, mins => (r2 * 1440)::int),
               (r2 * 60)::int,
-              current_date - tested_ago, current_date - tested_ago,
+              current_date - tested_ago, current_date - tested_ago, current_date - tested_ago,
               current_date - tested_ago + interval '30 months', current_date - tested_ago + interval '60 months',
               current_date - tested_ago + interval '30 months'
          FROM s CROSS JOIN n

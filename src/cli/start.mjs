@@ -61,7 +61,7 @@ try {
     waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000)),
   );
 
-  const { DEMO_LOGINS, DEMO_PASSWORD } = await import('../db/seed/demo-logins.mjs');
+  const { DEMO_LOGINS, DEMO_PASSWORD, SECOND_CUSTOMER_LOGIN } = await import('../db/seed/demo-logins.mjs');
   say(`Loopfold is running at ${appUrl}`);
   if (tls) {
     say(`Phones on this network: ${tls.urls.slice(1).join('  ') || '(no LAN address found)'}`);
@@ -69,6 +69,7 @@ try {
   }
   say(`Sign in with one of these demo accounts (password "${DEMO_PASSWORD}"):`);
   for (const l of DEMO_LOGINS) say(`  ${l.role.padEnd(9)} ${l.email}`);
+  say(`  ${'customer'.padEnd(9)} ${SECOND_CUSTOMER_LOGIN.email} (another customer organisation: ${SECOND_CUSTOMER_LOGIN.organisation})`);
   if (env.MAIL_DEV_INBOX) say('Mail goes to the local mailbox: sign in as admin and open "Sent mail".');
   say('Stop with Ctrl-C; stop PostgreSQL too with `npm run db:stop`.');
   say('time per phase:');

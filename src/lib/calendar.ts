@@ -16,6 +16,7 @@
  *   monthOf(date)                          → 'YYYY-MM' of a date
  *   endOfMonth(yyyyMm)                     → last day of that month
  *   daysBetween(fromDate, toDate)          → calendar days from → to (negative when `to` is earlier)
+ *   dayOfWeek(date)                        → 0 = Sunday … 6 = Saturday (as Date.getDay numbers them)
  *   formatRelative(date, today)            → "today" | "in 3 days" | "1 day ago"
  *   formatLongDate(date)                   → "14 Mar 2027"
  */
@@ -222,6 +223,11 @@ export function endOfMonth(yyyyMm: YearMonth): LocalDate {
 /** Calendar days from `fromDate` to `toDate`: 0 for the same day, negative when `toDate` is earlier. */
 export function daysBetween(fromDate: LocalDate, toDate: LocalDate): number {
   return dayNumberOf(parseLocalDate(toDate)) - dayNumberOf(parseLocalDate(fromDate));
+}
+
+/** 0 = Sunday … 6 = Saturday. Day 0 of the count, 1970-01-01, was a Thursday (4). */
+export function dayOfWeek(date: LocalDate): number {
+  return (((dayNumberOf(parseLocalDate(date)) + 4) % 7) + 7) % 7;
 }
 
 /**

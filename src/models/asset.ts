@@ -27,6 +27,8 @@ export class Asset extends Model<InferAttributes<Asset>, InferCreationAttributes
   declare lastScanAt: Date | null;
   declare tripCount: CreationOptional<number>;
   declare lastInspectionOn: string | null;
+  /** Last inspection done with a leakproofness test: the 2.5-year clock runs from it. */
+  declare lastLeakTestOn: string | null;
   declare lastFullInspectionOn: string | null;
   declare nextIntermediateDue: string | null;
   declare nextFullDue: string | null;
@@ -57,6 +59,7 @@ Asset.init(
     lastScanAt: { type: DataTypes.DATE, allowNull: true },
     tripCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     lastInspectionOn: { type: DataTypes.DATEONLY, allowNull: true },
+    lastLeakTestOn: { type: DataTypes.DATEONLY, allowNull: true },
     lastFullInspectionOn: { type: DataTypes.DATEONLY, allowNull: true },
     nextIntermediateDue: { type: DataTypes.DATEONLY, allowNull: true },
     nextFullDue: { type: DataTypes.DATEONLY, allowNull: true },

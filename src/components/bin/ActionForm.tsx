@@ -160,7 +160,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
                 }}
               />
               {lotText.trim() !== '' && !options.lots.some((l) => l.lotNumber.toUpperCase() === lotText.trim().toUpperCase()) && (
-                <p className="notice-attention mt-1" role="status">Lot {lotText.trim()} is not a usable lot at this depot: it may be expired, on hold or recalled, or not received here. Take a liner from a lot listed below.</p>
+                <p className="notice-attention mt-1" role="status">Lot {lotText.trim()} is not a usable lot at this depot: it may be expired, on hold or recalled, used up, or not received here. Take a liner from a lot listed below.</p>
               )}
             </div>
           )}
@@ -168,7 +168,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
             <label key={l.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
               <input type="radio" name="lot" checked={lotId === l.id} onChange={() => setLotId(l.id)} />
               <span className="ident">{l.lotNumber}</span>
-              <span className="text-sm text-ink-soft">{l.supplier} · expires {formatLongDate(l.expiryDate)}</span>
+              <span className="text-sm text-ink-soft">{l.supplier} · expires {formatLongDate(l.expiryDate)} · {l.onHand} on the shelf</span>
               {i === 0 && <span className="ml-auto text-xs font-medium text-kelp">Use first</span>}
             </label>
           ))}

@@ -272,10 +272,10 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
           <input id="f-manufactureMonth" className="field num sm:max-w-xs" type="month" placeholder="2024-05" value={fields.manufactureMonth} onChange={set('manufactureMonth')} {...describedBy('f-manufactureMonth', problems.manufactureMonth)} />
         </FormField>
         <div className="grid gap-4 sm:grid-cols-2">
-          <FormField id="f-lastIntermediateTestMonth" label={labels.intermediate} problem={problems.lastIntermediateTestMonth} hint="Optional. Leave empty when the bin has had none.">
+          <FormField id="f-lastIntermediateTestMonth" label={labels.intermediate} problem={problems.lastIntermediateTestMonth} hint="The last leakproofness test, as marked on the bin (also one done with a 5-year inspection). Leave empty when it has had none.">
             <input id="f-lastIntermediateTestMonth" className="field num" type="month" placeholder="2026-02" value={fields.lastIntermediateTestMonth} onChange={set('lastIntermediateTestMonth')} {...describedBy('f-lastIntermediateTestMonth', problems.lastIntermediateTestMonth)} />
           </FormField>
-          <FormField id="f-lastFullInspectionMonth" label={labels.full} problem={problems.lastFullInspectionMonth} hint="Optional. It also counts as the intermediate test.">
+          <FormField id="f-lastFullInspectionMonth" label={labels.full} problem={problems.lastFullInspectionMonth} hint="Optional. It restarts only this clock; if it was done with a leakproofness test, enter that month above too.">
             <input id="f-lastFullInspectionMonth" className="field num" type="month" placeholder="2025-09" value={fields.lastFullInspectionMonth} onChange={set('lastFullInspectionMonth')} {...describedBy('f-lastFullInspectionMonth', problems.lastFullInspectionMonth)} />
           </FormField>
         </div>

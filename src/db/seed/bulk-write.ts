@@ -90,7 +90,7 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   const assets = [...pool.assets.values()].map((a) => ({
     id: a.id, grai: a.grai, serial: a.serial, bin_type_id: a.binTypeId, manufacture_month: a.manufactureMonth, un_marking: a.unMarking,
     status: a.status, site_id: a.siteId, site_since: a.siteSince, customer_id: a.customerId, leg: a.leg, prep_checked: a.prepChecked,
-    liner_lot_id: a.linerLotId, filled: a.filled, last_scan_at: a.lastScanAt, trip_count: a.tripCount, last_inspection_on: a.lastInspectionOn,
+    liner_lot_id: a.linerLotId, filled: a.filled, last_scan_at: a.lastScanAt, trip_count: a.tripCount, last_inspection_on: a.lastInspectionOn, last_leak_test_on: a.lastLeakTestOn,
     last_full_inspection_on: a.lastFullInspectionOn, next_intermediate_due: a.nextIntermediateDue, next_full_due: a.nextFullDue, next_due: a.nextDue,
     version: a.version,
   }));
@@ -106,6 +106,8 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   }
   const eventColumns = ['id', 'asset_id', 'action', 'occurred_at', 'site_id', 'user_id', 'client_event_id', 'status_from', 'status_to', 'trip_id', 'inferred', 'flagged', 'payload'];
   await insertRows('scan_events', eventColumns, pool.events, t);
+  // The liner ledger: receipts first, so every prefix of the rows keeps each lot's stock at 0 or more.
+  await insertRows('liner_moves', ['lot_id', 'site_id', 'kind', 'quantity', 'occurred_at', 'user_id', 'asset_id', 'scan_event_id', 'reason'], pool.moves, t);
   await insertRows('scan_event_keys', ['client_event_id', 'user_id', 'scan_event_id', 'outcome'], pool.keys, t);
   await insertRows(
     'inspections',

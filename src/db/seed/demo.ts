@@ -2,7 +2,7 @@ import bcrypt from 'bcryptjs';
 import { sequelize, Organisation, Site, User, Setting, BinType, Tariff } from '@/models';
 import { generateHistory } from './history';
 import { finishSeedRun, stallPoint, startSeedRun } from './seed-run';
-import { DEMO_LOGINS, DEMO_PASSWORD } from './demo-logins.mjs';
+import { DEMO_LOGINS, DEMO_PASSWORD, SECOND_CUSTOMER_LOGIN } from './demo-logins.mjs';
 import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES } from './scenario';
 
 /**
@@ -87,12 +87,17 @@ async function seedPeopleAndPlaces() {
         opts,
       );
     }
+    const second = SECOND_CUSTOMER_LOGIN;
+    await User.create(
+      { email: second.email, name: second.name, passwordHash, role: 'customer', organisationId: customers.get(second.organisation)!.id, homeSiteId: null, qualifiedInspector: false, lastSignInAt: null },
+      opts,
+    );
     for (const s of EXTRA_STAFF) {
       await User.create(
         { email: s.email, name: s.name, passwordHash, role: s.role, organisationId: operator.id, homeSiteId: sitesByCode.get(s.homeDepot)!.id, qualifiedInspector: s.qualifiedInspector, lastSignInAt: null },
         opts,
       );
     }
-    return { customers: customers.size, sites: sitesByCode.size, users: DEMO_LOGINS.length + EXTRA_STAFF.length };
+    return { customers: customers.size, sites: sitesByCode.size, users: DEMO_LOGINS.length + 1 + EXTRA_STAFF.length };
   });
 }

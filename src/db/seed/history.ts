@@ -10,7 +10,7 @@ import { checkedOrThrow, newAssetRow, registerEventRow } from '@/lib/bins/bin-re
 import { makeGrai } from '@/lib/gs1';
 import { nextDue } from '@/lib/inspections/inspection-due';
 import { policyForBinType } from '@/lib/bins/bin-policy';
-import { addMonthsToMonth, localDate } from '@/lib/calendar';
+import { addDays, addMonthsToMonth, localDate } from '@/lib/calendar';
 import { seededRandom, type Random } from '@/lib/random';
 import { PoolSim, SimRefusal, type SimAsset, type SimLot, type SimOrder } from './pool-sim';
 import { nextIds, writePool, type SimInspection } from './bulk-write';
@@ -75,7 +75,7 @@ export async function generateHistory(opts: { bins: number; months: number; now?
       id: pool.ids.take('assets'), grai: row.grai, serial: row.serial, binTypeId: row.binTypeId, manufactureMonth: row.manufactureMonth,
       unMarking: row.unMarking, status: row.status, siteId: row.siteId, siteSince: row.siteSince, customerId: null, currentTripId: null,
       leg: null, prepChecked: false, linerLotId: null, filled: false, tripCount: 0, lastScanAt: row.lastScanAt,
-      lastInspectionOn: row.lastInspectionOn, lastFullInspectionOn: row.lastFullInspectionOn, nextIntermediateDue: row.nextIntermediateDue,
+      lastInspectionOn: row.lastInspectionOn, lastLeakTestOn: row.lastLeakTestOn, lastFullInspectionOn: row.lastFullInspectionOn, nextIntermediateDue: row.nextIntermediateDue,
       nextFullDue: row.nextFullDue, nextDue: row.nextDue, version: 0,
     };
     pool.assets.set(asset.id, asset);
@@ -175,17 +175,38 @@ function createLinerLots(world: World) {
         spec: supplier.spec, quantity_received: rnd.pick([300, 400, 500]), received_on: received, expiry_date: expiry, site_id: depot.id, status: 'released',
       };
       world.lots.push(lot);
-      world.pool.lots.set(lot.id, lot);
+      world.pool.receiveLot(lot, new Date(t));
     }
   }
 }
 
-/** First-expiry-first-out among lots received at the depot by that date and usable then. */
+/**
+ * First-expiry-first-out among lots received at the depot by that date, usable then and with liners left.
+ * Bins live one after another, so early lots are drained by the first bins' whole lives; when every lot
+ * on hand is used up, the depot takes an urgent delivery that day (no random draw: the rest of the history
+ * stays as it was).
+ */
 function lotFor(world: World, depotId: number, at: Date): SimLot | null {
   const day = localDate(at, OPERATOR.timeZone);
   const usable = world.lots.filter((l) => l.site_id === depotId && l.received_on <= day && l.expiry_date >= day && l.status === 'released');
-  usable.sort((a, b) => a.expiry_date.localeCompare(b.expiry_date));
-  return usable[0] ?? null;
+  if (!usable.length) return null;
+  const inStock = usable.filter((l) => world.pool.onHand(l.id, depotId) > 0);
+  inStock.sort((a, b) => a.expiry_date.localeCompare(b.expiry_date));
+  return inStock[0] ?? urgentLot(world, depotId, at);
+}
+
+function urgentLot(world: World, depotId: number, at: Date): SimLot {
+  const n = world.lots.length + 1;
+  const supplier = LINER_SUPPLIERS[n % LINER_SUPPLIERS.length]!;
+  const received = localDate(at, OPERATOR.timeZone);
+  const lot: SimLot = {
+    id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
+    lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-U${String(n).padStart(3, '0')}`,
+    spec: supplier.spec, quantity_received: 400, received_on: received, expiry_date: addDays(received, 700), site_id: depotId, status: 'released',
+  };
+  world.lots.push(lot);
+  world.pool.receiveLot(lot, at);
+  return lot;
 }
 
 function orderFor(world: World, customer: World['customers'][number], depot: Site, type: BinType, at: Date): SimOrder {
@@ -319,6 +340,7 @@ function keepTestInDate(world: World, asset: SimAsset, at: number, inspector: Ac
     leak_test_minutes: '10', leak_test_passed: true, outcome: 'pass', next_intermediate_due: due.intermediateDue, next_full_due: due.fullDue,
   });
   asset.lastInspectionOn = today;
+  asset.lastLeakTestOn = today; // tested with a leakproofness test (20 kPa, 10 min) below
   if (full) asset.lastFullInspectionOn = today;
   asset.nextIntermediateDue = due.intermediateDue;
   asset.nextFullDue = due.fullDue;

@@ -9,6 +9,7 @@ import { assetAfter, binState, logRows, tripChanges, tripOpening, type AssetSnap
 import type { ScanInput, Actor, ScanOutcome } from '@/lib/scans/scan-service.server';
 import { localDate } from '@/lib/calendar';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
+import { LedgerBalance, movesForScan, shortOfStock, type MoveDraft } from '@/lib/liners/liner-moves';
 
 export interface SimAsset extends AssetSnapshot {
   id: number;
@@ -18,6 +19,7 @@ export interface SimAsset extends AssetSnapshot {
   manufactureMonth: string; // YYYY-MM-01
   unMarking: string | null;
   lastInspectionOn: string | null;
+  lastLeakTestOn: string | null;
   lastFullInspectionOn: string | null;
   nextIntermediateDue: string | null;
   nextFullDue: string | null;
@@ -130,6 +132,9 @@ export class PoolSim {
   readonly keys: Array<{ client_event_id: string; user_id: number | null; scan_event_id: number; outcome: ScanOutcome }> = [];
   readonly orders = new Map<number, SimOrder>();
   readonly lots = new Map<number, SimLot>();
+  /** The liner ledger (liner_moves rows) and its running balance per lot and depot. */
+  readonly moves: MoveDraft[] = [];
+  readonly ledger = new LedgerBalance();
 
   constructor(
     readonly ids: IdSource,
@@ -158,7 +163,7 @@ export class PoolSim {
       purpose: input.purpose,
     });
     if (!decision.ok) throw new SimRefusal('transition_refused', decision.code, decision.reason);
-    const { order, lotNumber } = this.checkActionInputs(asset, input, today);
+    const { order, lotNumber } = this.checkActionInputs(asset, input, site, today);
 
     const flags = [...decision.flags];
     let opened: { tripId: number; customerId: number } | null = null;
@@ -197,14 +202,34 @@ export class PoolSim {
         flagged: r.flagged, payload: r.payload,
       });
     }
+    const before = { ...asset };
     Object.assign(asset, assetAfter(asset, decision, opened, occurredAt));
     asset.version += 1;
+    for (const m of movesForScan({ action: input.action, before, after: asset, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt })) {
+      this.addMove({ ...m, scan_event_id: eventId });
+    }
     const outcome: ScanOutcome = {
       clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai, action: input.action,
       statusFrom: decision.from, statusTo: decision.to, inferred: decision.inferred, flags, tripId: eventTripId, version: asset.version,
     };
     this.keys.push({ client_event_id: input.clientEventId, user_id: actor.id, scan_event_id: eventId, outcome });
     return outcome;
+  }
+
+  /** A lot arriving at its depot: the lot and its receipt move (liner-ledger.server.ts receiveLot()). */
+  receiveLot(lot: SimLot, at: Date): void {
+    this.lots.set(lot.id, lot);
+    this.addMove({ lot_id: lot.id, site_id: lot.site_id, kind: 'receipt', quantity: lot.quantity_received, occurred_at: at, user_id: null });
+  }
+
+  /** Liners of the lot on the shelf at the depot. */
+  onHand(lotId: number, siteId: number): number {
+    return this.ledger.onHand(lotId, siteId);
+  }
+
+  private addMove(m: MoveDraft): void {
+    this.ledger.apply(m);
+    this.moves.push(m);
   }
 
   /** A scan input with a fresh client event id, as a phone would make it. */
@@ -223,13 +248,15 @@ export class PoolSim {
     return site;
   }
 
-  private checkActionInputs(asset: SimAsset, input: ScanInput, today: string): { order: SimOrder | null; lotNumber: string | null } {
+  private checkActionInputs(asset: SimAsset, input: ScanInput, site: SimSite | null, today: string): { order: SimOrder | null; lotNumber: string | null } {
     let lotNumber: string | null = null;
     if (input.action === 'fit_liner') {
       const lot = input.linerLotId === undefined ? undefined : this.lots.get(input.linerLotId);
       if (!lot) throw new SimRefusal('unprocessable', 'unprocessable', 'That liner lot does not exist.');
       const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiry_date, lotNumber: lot.lot_number }, today);
       if (!ok.ok) throw new SimRefusal('transition_refused', ok.code, ok.reason);
+      const short = shortOfStock(lot.lot_number, this.onHand(lot.id, (site?.id ?? asset.siteId)!), 1);
+      if (short) throw new SimRefusal('transition_refused', 'lot_empty', short);
       lotNumber = lot.lot_number;
     }
     if (input.action === 'fill_seal' && !input.fill) throw new SimRefusal('validation_failed', 'validation_failed', 'Record the product, the quantity and the seal numbers.');

@@ -95,6 +95,7 @@ function snapshot(asset: Asset, binTypeCode: string) {
     manufactureMonth: asset.manufactureMonth.slice(0, 7),
     unMarking: asset.unMarking,
     lastInspectionOn: asset.lastInspectionOn,
+    lastLeakTestOn: asset.lastLeakTestOn,
     lastFullInspectionOn: asset.lastFullInspectionOn,
     nextIntermediateDue: asset.nextIntermediateDue,
     nextFullDue: asset.nextFullDue,

@@ -75,17 +75,17 @@ async function insertChunk(rows: Array<ReturnType<typeof newAssetRow>>, actor: A
   const col = <K extends keyof (typeof rows)[number]>(key: K) => rows.map((r) => r[key]);
   const inserted = await sequelize.query<{ id: number; grai: string; site_id: number }>(
     `INSERT INTO assets (grai, serial, bin_type_id, manufacture_month, un_marking, status, site_id, site_since, last_scan_at,
-                         last_inspection_on, last_full_inspection_on, next_intermediate_due, next_full_due, next_due)
+                         last_inspection_on, last_full_inspection_on, next_intermediate_due, next_full_due, next_due, last_leak_test_on)
      SELECT r.grai, r.serial, r.bin_type_id, r.manufacture_month, r.un_marking, 'available', r.site_id, $12, $12,
-            r.last_inspection_on, r.last_full_inspection_on, r.next_intermediate_due, r.next_full_due, r.next_due
-       FROM unnest($1::text[], $2::text[], $3::int[], $4::date[], $5::text[], $6::int[], $7::date[], $8::date[], $9::date[], $10::date[], $11::date[])
+            r.last_inspection_on, r.last_full_inspection_on, r.next_intermediate_due, r.next_full_due, r.next_due, r.last_leak_test_on
+       FROM unnest($1::text[], $2::text[], $3::int[], $4::date[], $5::text[], $6::int[], $7::date[], $8::date[], $9::date[], $10::date[], $11::date[], $13::date[])
             AS r(grai, serial, bin_type_id, manufacture_month, un_marking, site_id, last_inspection_on, last_full_inspection_on,
-                 next_intermediate_due, next_full_due, next_due)
+                 next_intermediate_due, next_full_due, next_due, last_leak_test_on)
      RETURNING id, grai, site_id`,
     {
       bind: [
         col('grai'), col('serial'), col('binTypeId'), col('manufactureMonth'), col('unMarking'), col('siteId'), col('lastInspectionOn'),
-        col('lastFullInspectionOn'), col('nextIntermediateDue'), col('nextFullDue'), col('nextDue'), now,
+        col('lastFullInspectionOn'), col('nextIntermediateDue'), col('nextFullDue'), col('nextDue'), now, col('lastLeakTestOn'),
       ],
       type: QueryTypes.SELECT,
       transaction: t,

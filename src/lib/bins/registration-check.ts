@@ -131,24 +131,22 @@ export function checkDepot(site: SiteRef | undefined, label: string): RegisterIs
 }
 
 /**
- * The inspection columns a bin keeps from the two test months: the last test
- * of either kind (a 5-year inspection also counts as a 2.5-year one) and the
- * last 5-year one, as the first day of their months.
+ * The inspection columns a bin keeps from the two test months (as marked on
+ * the bin): the last leakproofness test (the 2.5-year clock), the last 5-year
+ * inspection, and the later of the two as the last inspection of any kind,
+ * each as the first day of its month. Each clock restarts only from its own
+ * test (inspection-due.ts).
  */
-export function testColumns(lastIntermediateTestMonth: string | null | undefined, lastFullInspectionMonth: string | null | undefined): { lastInspectionOn: string | null; lastFullInspectionOn: string | null } {
+export function testColumns(lastIntermediateTestMonth: string | null | undefined, lastFullInspectionMonth: string | null | undefined): { lastInspectionOn: string | null; lastLeakTestOn: string | null; lastFullInspectionOn: string | null } {
   const latest = [lastIntermediateTestMonth, lastFullInspectionMonth].filter((m): m is string => !!m).sort().pop();
   return {
     lastInspectionOn: latest ? `${latest}-01` : null,
+    lastLeakTestOn: lastIntermediateTestMonth ? `${lastIntermediateTestMonth}-01` : null,
     lastFullInspectionOn: lastFullInspectionMonth ? `${lastFullInspectionMonth}-01` : null,
   };
 }
 
-/**
- * The two test months as the edit form shows them, read back from a bin's
- * columns: the 2.5-year month only when a later test than the 5-year one exists.
- */
-export function testMonthsOf(bin: { lastInspectionOn: string | null; lastFullInspectionOn: string | null }): { lastIntermediateTestMonth: string | null; lastFullInspectionMonth: string | null } {
-  const full = bin.lastFullInspectionOn?.slice(0, 7) ?? null;
-  const any = bin.lastInspectionOn?.slice(0, 7) ?? null;
-  return { lastIntermediateTestMonth: any && any !== full ? any : null, lastFullInspectionMonth: full };
+/** The two test months as the edit form shows them, read back from a bin's columns. */
+export function testMonthsOf(bin: { lastLeakTestOn: string | null; lastFullInspectionOn: string | null }): { lastIntermediateTestMonth: string | null; lastFullInspectionMonth: string | null } {
+  return { lastIntermediateTestMonth: bin.lastLeakTestOn?.slice(0, 7) ?? null, lastFullInspectionMonth: bin.lastFullInspectionOn?.slice(0, 7) ?? null };
 }

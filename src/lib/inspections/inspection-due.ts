@@ -4,6 +4,9 @@
  *   DEFAULT_UN_POLICY, US_DOT_POLICY             ready-made policies (below)
  *   policyProblems(policy)                       → string[]  (empty when the policy is usable)
  *   nextDue(history, policy)                     → { intermediateDue, fullDue, nextDue, nextKind }
+ *   leakTestProblems(test)                       → [{ field, message }] (empty when the test meets 6.5.6.7.3)
+ *   clocksRestartedBy(record)                    → { intermediate, full }: which clocks a recorded test restarts
+ *   historyAfter(history, record)                → the history with the clocks that record restarts moved on
  *   inspectionLabel(kind, policy)                → "2.5-year" | "5-year" | "18-month" …
  *   testStatus(due, today, soonWithinDays = DUE_SOON_DAYS) → 'ok' | 'due_soon' | 'overdue'
  *   testDueSoonSql(dueColumn, today)             → testStatus(...) = 'due_soon' as SQL (fleet grid, digest)
@@ -24,8 +27,13 @@
  *   day. Due month = month of manufacture or of the test actually done + 30 (or 60) months. A stricter reader
  *   could stop at the end of the month before; this module does not.
  * - Policy: the next due date always runs from the test actually done, even when it was done early; no
- *   provision was found that lets an early test keep the old schedule. A 5-year inspection also counts as a
- *   2.5-year one, so both clocks restart from it.
+ *   provision was found that lets an early test keep the old schedule.
+ * - Each clock restarts only from the test that covers it. The 2.5-year clock of an IBC for liquids is the
+ *   leakproofness test (6.5.4.4.2) with the external inspection: it restarts only from an inspection (of any
+ *   kind) done with a passing leakproofness test at no less than 20 kPa gauge for no less than 10 minutes
+ *   (6.5.6.7.3). The 5-year clock restarts only from a passed 5-year inspection (6.5.4.4.1(a): design type,
+ *   marks, internal condition). A 5-year inspection done without a leakproofness test restarts the 5-year
+ *   clock only; an after-repair test with one restarts the 2.5-year clock only (this module's reading).
  * - Policy: "up to 3 months after expiry" is counted from the due date by calendar months, clamped to the
  *   end of a shorter month (31 Mar + 3 months = 30 Jun; 28 Feb + 3 months = 28 May): the shorter reading.
  * - Not modelled here: an empty IBC travelling to its test after expiry (4.1.2.2 allows it) and the 5-year
@@ -101,7 +109,10 @@ export function policyProblems(policy: InspectionPolicy): string[] {
 export interface InspectionHistory {
   /** Month and year of manufacture, as marked on the IBC. */
   manufactureMonth: YearMonth;
-  /** Month of the last 2.5-year inspection and leakproofness test, if any. */
+  /**
+   * Month of the last inspection done with a passing leakproofness test (a 2.5-year one, or a 5-year or
+   * after-repair one that included the test), if any: the 2.5-year clock runs from it.
+   */
   lastIntermediateTestMonth?: YearMonth | null;
   /** Month of the last 5-year inspection, if any. */
   lastFullInspectionMonth?: YearMonth | null;
@@ -136,13 +147,82 @@ export function nextDue(history: InspectionHistory, policy: InspectionPolicy): D
   const lastIntermediate = checkedTestMonth('Last 2.5-year test', history.lastIntermediateTestMonth, made);
   const lastFull = checkedTestMonth('Last 5-year inspection', history.lastFullInspectionMonth, made);
 
+  // Each clock from the test that covers it (see the top): a 5-year inspection alone leaves the 2.5-year clock.
   const fullClockStart = laterMonth(made, lastFull);
-  // A full inspection covers everything the intermediate one checks, so it restarts that clock too.
-  const intermediateClockStart = laterMonth(fullClockStart, lastIntermediate);
+  const intermediateClockStart = laterMonth(made, lastIntermediate);
 
   const intermediateDue = endOfMonth(addMonthsToMonth(intermediateClockStart, policy.intermediateMonths));
   const fullDue = endOfMonth(addMonthsToMonth(fullClockStart, policy.fullMonths));
   return dueDatesOf(intermediateDue, fullDue);
+}
+
+/** ADR/RID 6.5.6.7.3: the leakproofness test is done at a gauge pressure of at least 20 kPa (0.2 bar) ... */
+export const LEAK_TEST_MIN_KPA = 20;
+/** ... for at least 10 minutes. */
+export const LEAK_TEST_MIN_MINUTES = 10;
+
+export interface LeakTest {
+  /** Gauge pressure held, in kPa. */
+  pressureKpa: number;
+  /** How long it was held, in minutes. */
+  minutes: number;
+  /** No air leakage seen over the whole time. */
+  passed: boolean;
+}
+
+export interface FieldProblem {
+  field: 'leakTestPressureKpa' | 'leakTestMinutes';
+  message: string;
+}
+
+/**
+ * What keeps a leakproofness test from counting (ADR/RID 6.5.6.7.3): less than 20 kPa gauge or less than
+ * 10 minutes. A test below the minimum is not a leakproofness test at all, so the form refuses it rather than
+ * recording it as a fail. Whether it passed is the `passed` flag, checked by clocksRestartedBy().
+ */
+export function leakTestProblems(test: Pick<LeakTest, 'pressureKpa' | 'minutes'>): FieldProblem[] {
+  const problems: FieldProblem[] = [];
+  if (typeof test.pressureKpa !== 'number' || !Number.isFinite(test.pressureKpa)) {
+    problems.push({ field: 'leakTestPressureKpa', message: 'Enter the gauge pressure held, in kPa.' });
+  } else if (test.pressureKpa < LEAK_TEST_MIN_KPA) {
+    problems.push({ field: 'leakTestPressureKpa', message: `The test pressure must be at least ${LEAK_TEST_MIN_KPA} kPa gauge (0.2 bar); ${test.pressureKpa} kPa is not enough.` });
+  }
+  if (typeof test.minutes !== 'number' || !Number.isFinite(test.minutes)) {
+    problems.push({ field: 'leakTestMinutes', message: 'Enter how long the pressure was held, in minutes.' });
+  } else if (test.minutes < LEAK_TEST_MIN_MINUTES) {
+    problems.push({ field: 'leakTestMinutes', message: `The pressure must be held for at least ${LEAK_TEST_MIN_MINUTES} minutes; ${test.minutes} is not enough.` });
+  }
+  return problems;
+}
+
+/** The kinds of record an inspection can be: the prep check before lining, the two periodic ones, and the test after a repair. */
+export type RecordedKind = 'prep_check' | 'intermediate' | 'full' | 'after_repair';
+export type TestOutcome = 'pass' | 'repair' | 'fail';
+
+export interface TestRecord {
+  kind: RecordedKind;
+  outcome: TestOutcome;
+  /** The leakproofness test done with it, or null when none was done. */
+  leakTest: LeakTest | null;
+}
+
+/** Which clocks a recorded test restarts (see the top): only a pass counts, and each clock only from the test covering it. */
+export function clocksRestartedBy(record: TestRecord): { intermediate: boolean; full: boolean } {
+  if (record.outcome !== 'pass' || record.kind === 'prep_check') return { intermediate: false, full: false };
+  const t = record.leakTest;
+  const leakTestCounts = t !== null && t.passed && leakTestProblems(t).length === 0;
+  return { intermediate: leakTestCounts, full: record.kind === 'full' };
+}
+
+/** The history after a test done in `month`: the clocks it restarts move to that month, the others stay. */
+export function historyAfter(history: InspectionHistory, record: TestRecord & { month: YearMonth }): InspectionHistory {
+  if (!isYearMonth(record.month)) throw new RangeError(`Test month is not a month (YYYY-MM): ${JSON.stringify(record.month)}`);
+  const restarted = clocksRestartedBy(record);
+  return {
+    manufactureMonth: history.manufactureMonth,
+    lastIntermediateTestMonth: restarted.intermediate ? record.month : (history.lastIntermediateTestMonth ?? null),
+    lastFullInspectionMonth: restarted.full ? record.month : (history.lastFullInspectionMonth ?? null),
+  };
 }
 
 /** The name of an inspection as the yard says it: 30 months → "2.5-year", 60 → "5-year", 18 → "18-month". */

@@ -8,6 +8,7 @@ import { sequelize } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { replayState, type LoggedEvent } from './event-replay';
 import { recordAudit } from '@/lib/audit.server';
+import { reverseMovesOfEvents } from '@/lib/liners/liner-ledger.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import { UNDO_REASON, undoSecondsLeft } from './undo-window';
@@ -49,11 +50,13 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
     }
     if (latest?.id !== event.id) throw new AppError('conflict', 'Only the latest scan of a bin can be voided. Void the later scans first.');
 
-    await sequelize.query(
+    const voided = await sequelize.query<{ id: number }>(
       `UPDATE scan_events SET voided_at = now(), voided_by = $2, void_reason = $3
-        WHERE id = $1 OR (inferred AND asset_id = $4 AND payload->>'inferredBy' = $5)`,
-      { bind: [event.id, user.id, reason, event.asset_id, event.client_event_id ?? ''], transaction: t },
+        WHERE id = $1 OR (inferred AND asset_id = $4 AND payload->>'inferredBy' = $5) RETURNING id`,
+      { bind: [event.id, user.id, reason, event.asset_id, event.client_event_id ?? ''], type: QueryTypes.SELECT, transaction: t },
     );
+    // Its liner moves are reversed: a voided fit puts the liner back on the shelf (liner-moves.ts).
+    await reverseMovesOfEvents(voided.map((v) => Number(v.id)), user.id, `Scan voided: ${reason}`, new Date(), t);
     await undoTripEffect(event, t);
     const state = await rederiveAsset(event.asset_id, t);
     await recordAudit({ actor: { userId: user.id, ip }, action: 'scan.void', entityType: 'scan_event', entityId: event.id, before: { action: event.action }, after: { action: event.action, voidReason: reason, status: state.status } }, { transaction: t });

@@ -16,6 +16,8 @@ import { getSettings, type OperatorSettings } from '@/lib/settings/settings.serv
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { movesForScan } from '@/lib/liners/liner-moves';
+import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 
 export type { FillRecord };
 
@@ -156,7 +158,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     purpose: input.purpose,
   });
   if (!decision.ok) throw refusal(decision);
-  const { order, lotNumber } = await checkActionInputs(actor, asset, input, today, t);
+  const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
   const flags = [...decision.flags];
@@ -183,7 +185,11 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const eventId = inserted[inserted.length - 1]!.id;
 
   // 5. The bin's current state follows the log, guarded by its version.
-  const version = await applyPatch(asset, decision, opened, occurredAt, t);
+  const { version, next } = await applyPatch(asset, decision, opened, occurredAt, t);
+
+  // 6. The liner ledger: a fit takes its liner off the shelf; a fitted liner taken out unused is recorded.
+  const moves = movesForScan({ action: input.action, before: snapshotOf(asset), after: next, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt });
+  await insertMoves(moves.map((m) => ({ ...m, scan_event_id: eventId })), t);
 
   const outcome: ScanOutcome = {
     clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai,
@@ -223,15 +229,17 @@ async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise
 interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number }
 
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
-async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput, site: SiteRow | null, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
   let lotNumber: string | null = null;
   if (input.action === 'fit_liner') {
-    const lot = await one<{ status: 'released' | 'on_hold' | 'recalled'; expiry_date: string; lot_number: string }>(
-      'SELECT status, expiry_date, lot_number FROM liner_lots WHERE id = $1', [input.linerLotId], t);
+    // The lot's row stays locked until the scan commits: concurrent fits from it queue here, and each
+    // reads the stock the one before it left (liner-ledger.server.ts).
+    const lot = await lockLot(input.linerLotId!, t);
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
-    const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiry_date, lotNumber: lot.lot_number }, today);
+    const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
-    lotNumber = lot.lot_number;
+    await takeFromLot(lot.id, (site?.id ?? asset.site_id)!, 1, t);
+    lotNumber = lot.lotNumber;
   }
   if (input.photoIds?.length) {
     // A scan's photos are its organisation's own uploads, and belong to this
@@ -318,7 +326,7 @@ async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, in
 }
 
 /** Writes the decision's patch onto the bin; refuses when someone else changed it first. */
-async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, opened: { tripId: number; customerId: number } | null, at: Date, t: Transaction): Promise<number> {
+async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, opened: { tripId: number; customerId: number } | null, at: Date, t: Transaction): Promise<{ version: number; next: AssetSnapshot }> {
   const next = assetAfter(snapshotOf(asset), d, opened, at);
   const updated = await one<{ version: number }>(
     `UPDATE assets SET status = $3, site_id = $4, site_since = CASE WHEN site_id IS DISTINCT FROM $4 OR site_since IS NULL THEN $5 ELSE site_since END,
@@ -332,7 +340,7 @@ async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, o
     t,
   );
   if (!updated) throw changedMeanwhile();
-  return updated.version;
+  return { version: updated.version, next };
 }
 
 /** Finds bins by canonical GRAI values (used by the API and the demo generator). */

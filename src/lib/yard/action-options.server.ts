@@ -5,9 +5,10 @@ import { sequelize } from '@/models';
 import type { SiteKind } from '@/lib/scans/lifecycle';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { openOrdersAt } from '@/lib/loads/hire-orders.server';
+import { stockAt } from '@/lib/liners/liner-ledger.server';
 
 export interface SiteOption { id: number; name: string; kind: SiteKind }
-export interface LotOption { id: number; lotNumber: string; supplier: string; expiryDate: string }
+export interface LotOption { id: number; lotNumber: string; supplier: string; expiryDate: string; onHand: number }
 export interface OrderOption { id: number; reference: string; customer: string; neededBy: string; quantity: number; loaded: number }
 
 /** Where this user records from by default: the yard's home depot, otherwise where the bin stands. */
@@ -19,14 +20,13 @@ export async function actingSite(user: SessionUser, binSite: SiteOption | null):
   return binSite;
 }
 
-/** Usable lots at a depot, the one to use first on top (earliest expiry, then oldest receipt). */
+/** Usable lots with liners on the shelf at a depot (the ledger's sum), the one to use first on top (earliest expiry, then oldest receipt). */
 export async function lotsAt(siteId: number, today: string): Promise<LotOption[]> {
-  return sequelize.query<LotOption>(
-    `SELECT id, lot_number AS "lotNumber", supplier, expiry_date AS "expiryDate"
-       FROM liner_lots WHERE site_id = $1 AND status = 'released' AND expiry_date >= $2 AND received_on <= $2
-      ORDER BY expiry_date, received_on, id LIMIT 20`,
-    { bind: [siteId, today], type: QueryTypes.SELECT },
-  );
+  const lots = await stockAt(siteId);
+  return lots
+    .filter((l) => l.status === 'released' && l.expiryDate >= today && l.receivedOn <= today)
+    .slice(0, 20)
+    .map((l) => ({ id: l.lotId, lotNumber: l.lotNumber, supplier: l.supplier, expiryDate: l.expiryDate, onHand: l.onHand }));
 }
 
 /** Hire orders this depot is loading or will load, for the bin's type, soonest first. */

@@ -29,7 +29,7 @@ export interface SnapshotBin {
   where: 'here' | 'expected';
 }
 
-export interface SnapshotLot { id: number; lotNumber: string; supplier: string; expiryDate: string }
+export interface SnapshotLot { id: number; lotNumber: string; supplier: string; expiryDate: string; onHand: number }
 export interface SnapshotOrder { id: number; reference: string; customer: string; neededBy: string; quantity: number; loaded: number; binTypeId: number }
 
 export interface DepotSnapshot {

@@ -184,8 +184,8 @@ describe('editing a registered bin', () => {
     // Own policy of T1250: 24 months from the test in June 2025, 48 from manufacture in January 2024.
     expect([asset.binTypeId, asset.nextIntermediateDue, asset.nextFullDue, asset.nextDue]).toEqual([plainType.id, '2027-06-30', '2028-01-31', '2027-06-30']);
     const audit = (await AuditEntry.findOne({ where: { action: 'bin.update', entityId: String(bin.id) }, order: [['id', 'DESC']] }))!;
-    expect(audit.before).toEqual({ binType: 'T1000', lastInspectionOn: null, nextIntermediateDue: '2026-07-31', nextFullDue: '2029-01-31', nextDue: '2026-07-31' });
-    expect(audit.after).toEqual({ binType: 'T1250', lastInspectionOn: '2025-06-01', nextIntermediateDue: '2027-06-30', nextFullDue: '2028-01-31', nextDue: '2027-06-30' });
+    expect(audit.before).toEqual({ binType: 'T1000', lastInspectionOn: null, lastLeakTestOn: null, nextIntermediateDue: '2026-07-31', nextFullDue: '2029-01-31', nextDue: '2026-07-31' });
+    expect(audit.after).toEqual({ binType: 'T1250', lastInspectionOn: '2025-06-01', lastLeakTestOn: '2025-06-01', nextIntermediateDue: '2027-06-30', nextFullDue: '2028-01-31', nextDue: '2027-06-30' });
     expect(audit.ip).toBe('10.1.1.1');
   });
 

@@ -54,6 +54,28 @@ describe('the generated demo history', () => {
   });
 });
 
+describe('the demo history’s liner ledger', () => {
+  test('every lot has its receipt, every fit its move, no balance below zero, and stock = received − fitted', async () => {
+    const [r] = await sequelize.query<{ lots: number; receipts: number; fits: number; fitted: number; negative: number; drift: number; discarded: number }>(
+      `SELECT (SELECT count(*)::int FROM liner_lots) lots,
+              (SELECT count(*)::int FROM liner_moves WHERE kind = 'receipt') receipts,
+              (SELECT count(*)::int FROM scan_events WHERE action = 'fit_liner' AND voided_at IS NULL) fits,
+              (SELECT count(*)::int FROM liner_moves m JOIN scan_events e ON e.id = m.scan_event_id AND e.action = 'fit_liner' WHERE m.kind = 'fitted') fitted,
+              (SELECT count(*)::int FROM (SELECT 1 FROM liner_moves GROUP BY lot_id, site_id HAVING sum(quantity) < 0) x) negative,
+              (SELECT count(*)::int FROM liner_lots l WHERE (SELECT sum(quantity) FROM liner_moves WHERE lot_id = l.id)
+                 <> l.quantity_received - (SELECT count(*) FROM scan_events e WHERE e.action = 'fit_liner' AND (e.payload->>'linerLotId')::int = l.id)) drift,
+              (SELECT count(*)::int FROM liner_moves WHERE kind = 'fitted_discarded') discarded`,
+      { type: QueryTypes.SELECT },
+    );
+    expect(r!.lots).toBeGreaterThan(0);
+    expect(r!.receipts).toBe(r!.lots);
+    expect(r!.fitted).toBe(r!.fits);
+    expect(r!.fits).toBeGreaterThan(30);
+    expect(r!.negative).toBe(0);
+    expect(r!.drift).toBe(0);
+  });
+});
+
 describe('voiding a wrong scan', () => {
   test('the latest scan is voided with a reason and the bin goes back to its state before it', async () => {
     const planner = await User.findOne({ where: { role: 'planner' } });

@@ -32,6 +32,7 @@ export async function makeUser(role: Role, organisationId: number, extra: Partia
 
 import { BinType, LinerLot, HireOrder } from '@/models';
 import { registerBin } from '@/lib/bins/bin-register.server';
+import { receiveLot } from '@/lib/liners/liner-ledger.server';
 import { makeGrai } from '@/lib/gs1';
 import { forgetSettings } from '@/lib/settings/settings.server';
 import type { Actor } from '@/lib/scans/scan-service.server';
@@ -44,7 +45,8 @@ export async function poolWorld() {
     code: 'T1000', name: 'Test bin 1000 L', graiAssetType: '10010', nominalCapacityL: 1000, tareKg: '86', maxGrossKg: '1285',
     footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1160, heightFoldedMm: 380, unCode: '31HA2',
   });
-  const lot = await LinerLot.create({ supplier: 'Test Liners', lotNumber: 'TL-001', spec: 'PE bag', quantityReceived: 100, receivedOn: '2026-01-01', expiryDate: '2028-01-01', siteId: w.depot.id, certificateId: null, statusReason: null });
+  const received = await receiveLot({ id: null }, { supplier: 'Test Liners', lotNumber: 'TL-001', spec: 'PE bag', quantity: 100, receivedOn: '2026-01-01', expiryDate: '2028-01-01', siteId: w.depot.id }, { now: new Date('2026-01-01T09:00:00Z') });
+  const lot = (await LinerLot.findByPk(received.lotId))!;
   const order = await HireOrder.create({ reference: 'HO-TEST-1', customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, binTypeId: binType.id, quantity: 24, neededBy: '2026-12-10', status: 'confirmed', product: 'Test oil', notes: null });
   const planner = await makeUser('planner', w.operator.id);
   const yard = await makeUser('yard', w.operator.id, { homeSiteId: w.depot.id });

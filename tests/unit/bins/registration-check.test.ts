@@ -71,12 +71,14 @@ describe('months and test columns', () => {
     expect(normaliseMonth('05/2024')).toBe('05/2024');
     expect(normaliseMonth(null)).toBe('');
   });
-  test('a 5-year inspection also counts as the latest test; the form reads the months back', () => {
-    expect(testColumns('2026-02', '2024-08')).toEqual({ lastInspectionOn: '2026-02-01', lastFullInspectionOn: '2024-08-01' });
-    expect(testColumns(null, '2024-08')).toEqual({ lastInspectionOn: '2024-08-01', lastFullInspectionOn: '2024-08-01' });
-    expect(testColumns(null, null)).toEqual({ lastInspectionOn: null, lastFullInspectionOn: null });
+  test('each clock keeps its own month (ADR 6.5.4.4.1–2); the last inspection is the later one; the form reads them back', () => {
+    expect(testColumns('2026-02', '2024-08')).toEqual({ lastInspectionOn: '2026-02-01', lastLeakTestOn: '2026-02-01', lastFullInspectionOn: '2024-08-01' });
+    // A 5-year inspection without a leakproofness test: the 2.5-year clock stays where it was (none here).
+    expect(testColumns(null, '2024-08')).toEqual({ lastInspectionOn: '2024-08-01', lastLeakTestOn: null, lastFullInspectionOn: '2024-08-01' });
+    expect(testColumns(null, null)).toEqual({ lastInspectionOn: null, lastLeakTestOn: null, lastFullInspectionOn: null });
     expect(testMonthsOf(testColumns('2026-02', '2024-08'))).toEqual({ lastIntermediateTestMonth: '2026-02', lastFullInspectionMonth: '2024-08' });
+    expect(testMonthsOf(testColumns('2024-08', '2024-08'))).toEqual({ lastIntermediateTestMonth: '2024-08', lastFullInspectionMonth: '2024-08' });
     expect(testMonthsOf(testColumns(null, '2024-08'))).toEqual({ lastIntermediateTestMonth: null, lastFullInspectionMonth: '2024-08' });
-    expect(testMonthsOf({ lastInspectionOn: '2025-03-14', lastFullInspectionOn: null })).toEqual({ lastIntermediateTestMonth: '2025-03', lastFullInspectionMonth: null });
+    expect(testMonthsOf({ lastLeakTestOn: '2025-03-14', lastFullInspectionOn: null })).toEqual({ lastIntermediateTestMonth: '2025-03', lastFullInspectionMonth: null });
   });
 });

@@ -21,6 +21,11 @@ import {
   nextDue,
   policyProblems,
   testStatus,
+  leakTestProblems,
+  clocksRestartedBy,
+  historyAfter,
+  LEAK_TEST_MIN_KPA,
+  LEAK_TEST_MIN_MINUTES,
 } from '@/lib/inspections/inspection-due.ts';
 import type { InspectionPolicy } from '@/lib/inspections/inspection-due.ts';
 
@@ -91,17 +96,23 @@ describe('nextDue: hand-worked schedules', () => {
     });
   });
 
-  test('a 5-year inspection restarts both clocks', () => {
-    // Full inspection 2029-01: 2.5-year from it 2029-01 + 30 = 2031-07 → 2031-07-31 (the older 2.5-year
-    // record of 2028-10 no longer matters); 5-year 2029-01 + 60 = 2034-01 → 2034-01-31.
+  test('a 5-year inspection restarts only the 5-year clock; the 2.5-year one runs from the last leakproofness test', () => {
+    // ADR 6.5.4.4.1(a) / 6.5.4.4.2: the 5-year inspection is design type, marks and internal condition; the
+    // 2.5-year clock is the leakproofness test. Full inspection 2029-01 without a leakproofness test, last
+    // leakproofness test 2028-10: 2.5-year 2028-10 + 30 = 2031-04 → 2031-04-30; 5-year 2029-01 + 60 = 2034-01 → 2034-01-31.
     expect(
       nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: '2028-10', lastFullInspectionMonth: '2029-01' }, ADR),
-    ).toEqual({ intermediateDue: '2031-07-31', fullDue: '2034-01-31', nextDue: '2031-07-31', nextKind: 'intermediate' });
-    // A full inspection done early, 2024-03, on a bin made 2020-05: 2024-03 + 30 = 2026-09 → 2026-09-30;
-    // 2024-03 + 60 = 2029-03 → 2029-03-31.
+    ).toEqual({ intermediateDue: '2031-04-30', fullDue: '2034-01-31', nextDue: '2031-04-30', nextKind: 'intermediate' });
+    // Done with a leakproofness test, the same inspection counts for both clocks (both months 2029-01):
+    // 2029-01 + 30 = 2031-07 → 2031-07-31.
     expect(
-      nextDue({ manufactureMonth: '2020-05', lastIntermediateTestMonth: '2022-11', lastFullInspectionMonth: '2024-03' }, ADR),
-    ).toEqual({ intermediateDue: '2026-09-30', fullDue: '2029-03-31', nextDue: '2026-09-30', nextKind: 'intermediate' });
+      nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: '2029-01', lastFullInspectionMonth: '2029-01' }, ADR),
+    ).toEqual({ intermediateDue: '2031-07-31', fullDue: '2034-01-31', nextDue: '2031-07-31', nextKind: 'intermediate' });
+    // A 5-year inspection alone on a bin never leak-tested since manufacture 2020-05: the 2.5-year clock still
+    // runs from manufacture, 2020-05 + 30 = 2022-11 → 2022-11-30, and that is what falls due next.
+    expect(nextDue({ manufactureMonth: '2020-05', lastFullInspectionMonth: '2024-03' }, ADR)).toEqual({
+      intermediateDue: '2022-11-30', fullDue: '2029-03-31', nextDue: '2022-11-30', nextKind: 'intermediate',
+    });
   });
 
   test('US 49 CFR 180.352 uses the same 2.5- and 5-year intervals', () => {
@@ -290,5 +301,77 @@ describe('policies and labels', () => {
     const ownPolicy: InspectionPolicy = { ...ADR, kind: 'own', intermediateMonths: 18, fullMonths: 24 };
     expect(inspectionLabel('intermediate', ownPolicy)).toBe('18-month');
     expect(inspectionLabel('full', ownPolicy)).toBe('2-year');
+  });
+});
+
+describe('leakproofness test minimum (ADR/RID 6.5.6.7.3: at least 20 kPa gauge for at least 10 minutes)', () => {
+  test('the published minimum', () => {
+    expect(LEAK_TEST_MIN_KPA).toBe(20); // 6.5.6.7.3: 20 kPa (0.2 bar)
+    expect(LEAK_TEST_MIN_MINUTES).toBe(10);
+  });
+
+  test('exactly the minimum is enough; less of either is refused, each on its own field', () => {
+    expect(leakTestProblems({ pressureKpa: 20, minutes: 10 })).toEqual([]);
+    expect(leakTestProblems({ pressureKpa: 25, minutes: 15 })).toEqual([]);
+    expect(leakTestProblems({ pressureKpa: 19.9, minutes: 10 }).map((p) => p.field)).toEqual(['leakTestPressureKpa']);
+    expect(leakTestProblems({ pressureKpa: 20, minutes: 9.5 }).map((p) => p.field)).toEqual(['leakTestMinutes']);
+    expect(leakTestProblems({ pressureKpa: 10, minutes: 5 }).map((p) => p.field)).toEqual(['leakTestPressureKpa', 'leakTestMinutes']);
+    // 0.2 bar = 20 kPa: a gauge read in bar and typed as 0.2 is far below and says so.
+    expect(leakTestProblems({ pressureKpa: 0.2, minutes: 10 })[0]!.message).toMatch(/at least 20 kPa/);
+    expect(leakTestProblems({ pressureKpa: Number.NaN, minutes: 10 })[0]!.message).toMatch(/Enter the gauge pressure/);
+  });
+});
+
+describe('clocksRestartedBy: each clock only from the test that covers it (6.5.4.4.1, 6.5.4.4.2)', () => {
+  const good = { pressureKpa: 20, minutes: 10, passed: true };
+  test('literal table', () => {
+    const rows: Array<[Parameters<typeof clocksRestartedBy>[0], { intermediate: boolean; full: boolean }]> = [
+      [{ kind: 'intermediate', outcome: 'pass', leakTest: good }, { intermediate: true, full: false }],
+      [{ kind: 'intermediate', outcome: 'pass', leakTest: null }, { intermediate: false, full: false }],
+      [{ kind: 'full', outcome: 'pass', leakTest: good }, { intermediate: true, full: true }],
+      [{ kind: 'full', outcome: 'pass', leakTest: null }, { intermediate: false, full: true }],
+      [{ kind: 'full', outcome: 'pass', leakTest: { ...good, passed: false } }, { intermediate: false, full: true }],
+      [{ kind: 'after_repair', outcome: 'pass', leakTest: good }, { intermediate: true, full: false }],
+      [{ kind: 'intermediate', outcome: 'pass', leakTest: { pressureKpa: 15, minutes: 10, passed: true } }, { intermediate: false, full: false }],
+      [{ kind: 'intermediate', outcome: 'pass', leakTest: { pressureKpa: 20, minutes: 5, passed: true } }, { intermediate: false, full: false }],
+      [{ kind: 'intermediate', outcome: 'fail', leakTest: good }, { intermediate: false, full: false }],
+      [{ kind: 'full', outcome: 'repair', leakTest: good }, { intermediate: false, full: false }],
+      [{ kind: 'prep_check', outcome: 'pass', leakTest: good }, { intermediate: false, full: false }],
+    ];
+    for (const [record, expected] of rows) expect(clocksRestartedBy(record), JSON.stringify(record)).toEqual(expected);
+  });
+
+  test('historyAfter moves only the restarted clocks; due dates follow (hand-worked, month ends and a leap day)', () => {
+    const made = { manufactureMonth: '2021-08', lastIntermediateTestMonth: null, lastFullInspectionMonth: null };
+    // 2.5-year test with a leakproofness test in 2023-08: 2023-08 + 30 = 2026-02 → 2026-02-28 (2026 not a leap year).
+    const after = historyAfter(made, { kind: 'intermediate', outcome: 'pass', leakTest: good, month: '2023-08' });
+    expect(after).toEqual({ manufactureMonth: '2021-08', lastIntermediateTestMonth: '2023-08', lastFullInspectionMonth: null });
+    expect(nextDue(after, ADR).intermediateDue).toBe('2026-02-28');
+    // 5-year inspection alone in 2026-02: the 5-year clock 2026-02 + 60 = 2031-02 → 2031-02-28; 2.5-year unchanged.
+    const full = historyAfter(after, { kind: 'full', outcome: 'pass', leakTest: null, month: '2026-02' });
+    expect(nextDue(full, ADR)).toMatchObject({ intermediateDue: '2026-02-28', fullDue: '2031-02-28' });
+    // The next leakproofness test in 2025-08 (done early): 2025-08 + 30 = 2028-02 → 2028-02-29 (2028 is a leap year).
+    const early = historyAfter(made, { kind: 'intermediate', outcome: 'pass', leakTest: good, month: '2025-08' });
+    expect(nextDue(early, ADR).intermediateDue).toBe('2028-02-29');
+    expect(dfDueDate('2025-08', 30)).toBe('2028-02-29'); // date-fns agrees
+    // A fail restarts nothing.
+    expect(historyAfter(after, { kind: 'intermediate', outcome: 'fail', leakTest: good, month: '2025-01' })).toEqual(after);
+    expect(() => historyAfter(after, { kind: 'full', outcome: 'pass', leakTest: null, month: '2025-1' })).toThrow(RangeError);
+  });
+
+  test('date-fns second opinion: after any passing test month, each restarted clock is 30 / 60 months on', () => {
+    const month = fc
+      .record({ year: fc.integer({ min: 1990, max: 2120 }), month: fc.integer({ min: 1, max: 12 }) })
+      .map(({ year, month }) => `${year}-${String(month).padStart(2, '0')}`);
+    fc.assert(
+      fc.property(month, fc.integer({ min: 0, max: 70 }), fc.boolean(), fc.boolean(), (made, later, full, withLeak) => {
+        const tested = format(addMonths(new Date(`${made}-01T12:00:00`), later), 'yyyy-MM');
+        const h = historyAfter({ manufactureMonth: made }, { kind: full ? 'full' : 'intermediate', outcome: 'pass', leakTest: withLeak ? good : null, month: tested });
+        const due = nextDue(h, ADR);
+        expect(due.intermediateDue).toBe(dfDueDate(withLeak ? tested : made, 30));
+        expect(due.fullDue).toBe(dfDueDate(full ? tested : made, 60));
+      }),
+      { numRuns: 1000 },
+    );
   });
 });
