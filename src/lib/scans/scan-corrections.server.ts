@@ -33,6 +33,8 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
       bind: [eventId], type: QueryTypes.SELECT, transaction: t,
     });
     if (!event) throw new AppError('not_found', 'No such scan.');
+    // Someone else's scan is not there for an undo: the same answer as no scan at all (it may be another organisation's).
+    if (ownWithin && event.user_id !== user.id) throw new AppError('not_found', 'There is no scan of yours with this number. A planner voids other people’s scans with a reason.');
     if (event.voided_at) throw new AppError('conflict', 'This scan is already void.');
     if (event.inferred || event.action === 'register') throw new AppError('unprocessable', 'Inferred steps and registrations are not voided on their own; void the scan that implied them, or retire the bin.');
     // Lock the bin so nothing is recorded on it while its state is rebuilt.
@@ -42,7 +44,6 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
       { bind: [event.asset_id], type: QueryTypes.SELECT, transaction: t },
     );
     if (ownWithin) {
-      if (event.user_id !== user.id) throw new AppError('forbidden', 'Only the person who recorded a scan can undo it. Ask a planner to void it with a reason.');
       if (latest?.id !== event.id) throw new AppError('conflict', 'Something was recorded on this bin after your scan, so it can no longer be undone. Ask a planner to void it with a reason.');
       if (undoSecondsLeft(event.recorded_at, ownWithin.now, ownWithin.seconds) === 0) {
         throw new AppError('unprocessable', 'The time to undo this scan has passed. Ask a planner to void it with a reason.');

@@ -35,7 +35,7 @@ describe('undo by the person who scanned', () => {
   test('someone else’s scan is not theirs to undo', async () => {
     const bin = await newBin(w);
     const out = await prep(bin.id);
-    await expect(undoOwnScan(await sessionOf(w.planner.id!), out.eventId, null)).rejects.toMatchObject({ code: 'forbidden' });
+    await expect(undoOwnScan(await sessionOf(w.planner.id!), out.eventId, null)).rejects.toMatchObject({ code: 'not_found' });
     expect((await ScanEvent.findByPk(out.eventId))!.voidedAt).toBeNull();
   });
 
