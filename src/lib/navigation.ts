@@ -7,6 +7,10 @@ export interface NavItem { href: string; label: string; icon: IconName; capabili
 const NAV: NavItem[] = [
   { href: '/yard', label: 'Yard', icon: 'scan', capability: 'home.yard' },
   { href: '/portal', label: 'My bins', icon: 'home', capability: 'home.portal' },
+  { href: '/portal/orders', label: 'Orders', icon: 'truck', capability: 'home.portal' },
+  { href: '/portal/collections', label: 'Collections', icon: 'folded', capability: 'home.portal' },
+  { href: '/portal/deliveries', label: 'Deliveries', icon: 'handover', capability: 'home.portal' },
+  { href: '/portal/damage', label: 'Report damage', icon: 'alert', capability: 'home.portal' },
   { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
   { href: '/trips', label: 'Trips', icon: 'route', capability: 'trips.view' },
   { href: '/planning/orders', label: 'Hire orders', icon: 'truck', capability: 'orders.view' },

@@ -15,6 +15,10 @@ export class CollectionRequest extends Model<InferAttributes<CollectionRequest>,
   declare contactPhone: string | null;
   declare contactEmail: string | null;
   declare note: string | null;
+  /** The day the empties are ready (asked through the portal). */
+  declare readyOn: CreationOptional<string | null>;
+  /** The day the collection run is planned (set by the planner when scheduling). */
+  declare plannedFor: CreationOptional<string | null>;
   declare status: CreationOptional<'open' | 'scheduled' | 'done' | 'cancelled'>;
   declare requestedBy: number | null;
   declare requesterIp: string | null;
@@ -36,6 +40,8 @@ CollectionRequest.init(
     contactPhone: { type: DataTypes.STRING(40), allowNull: true },
     contactEmail: { type: DataTypes.STRING(254), allowNull: true },
     note: { type: DataTypes.TEXT, allowNull: true },
+    readyOn: { type: DataTypes.DATEONLY, allowNull: true },
+    plannedFor: { type: DataTypes.DATEONLY, allowNull: true },
     status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'open' },
     requestedBy: { type: DataTypes.INTEGER, allowNull: true },
     requesterIp: { type: DataTypes.STRING(64), allowNull: true },

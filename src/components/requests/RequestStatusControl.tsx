@@ -10,10 +10,17 @@ export interface RequestStatusControlProps {
   id: number;
   status: string;
   version: number;
+  /** Collections: the day the empties are ready, and the run day already planned. */
+  readyOn?: string | null;
+  plannedFor?: string | null;
+  /** The operator's local day, the earliest run day offered. */
+  today?: string;
 }
 
 /** The request's status (word and icon) and the planner's next steps, saved with the version the page showed. */
-export default function RequestStatusControl({ kind, id, status: initialStatus, version: initialVersion }: RequestStatusControlProps) {
+export default function RequestStatusControl({ kind, id, status: initialStatus, version: initialVersion, readyOn = null, plannedFor = null, today }: RequestStatusControlProps) {
+  const earliest = [readyOn, today].filter((d): d is string => !!d).sort().at(-1) ?? '';
+  const [runDay, setRunDay] = useState(plannedFor ?? earliest);
   const [status, setStatus] = useState(initialStatus);
   const [version, setVersion] = useState(initialVersion);
   const [busy, setBusy] = useState(false);
@@ -27,7 +34,8 @@ export default function RequestStatusControl({ kind, id, status: initialStatus, 
     setBusy(true);
     setProblem(null);
     try {
-      const saved = await api.patch<{ status: string; version: number }>(`/api/requests/${kind}/${id}`, { status: to, version });
+      const body = kind === 'collection' && to === 'scheduled' && runDay ? { status: to, version, plannedFor: runDay } : { status: to, version };
+      const saved = await api.patch<{ status: string; version: number }>(`/api/requests/${kind}/${id}`, body);
       setStatus(saved.status);
       setVersion(saved.version);
     } catch (err) {
@@ -46,6 +54,12 @@ export default function RequestStatusControl({ kind, id, status: initialStatus, 
         <Icon name={look.icon} size={16} />
         {look.label}
       </span>
+      {kind === 'collection' && steps.includes('scheduled') && (
+        <label className="flex items-center gap-2 text-sm">
+          <span className="text-ink-soft">Run day</span>
+          <input type="date" className="field min-h-touch w-auto" value={runDay} min={earliest || undefined} onChange={(e) => setRunDay(e.target.value)} data-run-day={id} />
+        </label>
+      )}
       {steps.length > 0 && (
         <div className="flex flex-wrap gap-2 sm:justify-end">
           {steps.map((to) => (

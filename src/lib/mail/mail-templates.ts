@@ -2,6 +2,7 @@
 // { subject, text, html } out. Plain text is the message; the HTML part is the
 // same text with clickable links, for mail programs that prefer HTML.
 import { formatMomentAbsolute } from '@/lib/moment-text';
+import { formatLongDate, type LocalDate } from '@/lib/calendar';
 import { textToHtml } from './text-links';
 import { sealDifference } from '@/lib/trips/seal-check';
 import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
@@ -13,7 +14,7 @@ export interface MailContent {
 }
 
 /** What the mailer records as the message's kind (mail_outbox.kind). */
-export type MailKind = 'invite' | 'password_reset' | 'planner_digest' | 'collection_request' | 'damage_report' | 'seal_mismatch';
+export type MailKind = 'invite' | 'password_reset' | 'planner_digest' | 'collection_request' | 'damage_report' | 'seal_mismatch' | 'collection_confirmation';
 
 function compose(subject: string, lines: string[]): MailContent {
   const text = lines.join('\n').replace(/\n{3,}/g, '\n\n').trim() + '\n';
@@ -114,6 +115,8 @@ export interface CollectionRequestMailInput extends RequestMailCommon {
   contactPhone: string | null;
   contactEmail: string | null;
   note: string | null;
+  /** The day the empties are ready (portal requests). */
+  readyOn?: LocalDate | null;
 }
 
 export interface DamageReportMailInput extends RequestMailCommon {
@@ -149,6 +152,7 @@ export function collectionRequestMail(i: CollectionRequestMailInput): MailConten
     `${bins(i.quantity)} ${i.quantity === 1 ? 'is' : 'are'} empty and ready for collection.`,
     '',
     whereLine(i),
+    ...(i.readyOn ? [`Ready from: ${formatLongDate(i.readyOn)}`] : []),
     ...(i.locationNote ? [`Exact spot: ${i.locationNote}`] : []),
     binLine(i.bin),
     contactLine(i.contactName, i.contactPhone, i.contactEmail),
@@ -182,12 +186,38 @@ export function damageReportMail(i: DamageReportMailInput): MailContent {
   ]);
 }
 
+export interface CollectionConfirmationInput {
+  recipientName: string;
+  operatorName: string;
+  siteName: string;
+  quantity: number;
+  readyOn: LocalDate;
+  /** The portal's collections page. */
+  link: string;
+}
+
+/** To the customer user who asked for a collection through the portal: what we received. */
+export function collectionConfirmationMail(i: CollectionConfirmationInput): MailContent {
+  return compose(`We have your collection request: ${bins(i.quantity)} at ${i.siteName}`, [
+    `Hello ${i.recipientName},`,
+    '',
+    `Thank you: we have your request to collect ${bins(i.quantity)} at ${i.siteName}, ready from ${formatLongDate(i.readyOn)}.`,
+    '',
+    'Our planners will plan the run and the day will show beside the request in the portal:',
+    i.link,
+    '',
+    'Keep the folded bins together with their lids and valve caps, out of the way of traffic.',
+    ...signature(i.operatorName),
+  ]);
+}
+
 /** How each kind is named on the "Sent mail" page. */
 export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   invite: 'Invitation',
   password_reset: 'Password reset',
   planner_digest: 'Morning digest',
   collection_request: 'Collection request',
+  collection_confirmation: 'Collection confirmation',
   damage_report: 'Damage report',
   seal_mismatch: 'Seal mismatch alert',
 };

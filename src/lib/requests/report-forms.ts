@@ -100,7 +100,12 @@ export const FORM_FIELDS: Record<ReportForm, readonly string[]> = {
 
 /** The text fields of a submitted form (files and unknown fields left out). */
 export function textFields(form: ReportForm, entries: Iterable<[string, unknown]>): Record<string, string> {
-  const wanted = new Set(FORM_FIELDS[form]);
+  return pickTextFields(FORM_FIELDS[form], entries);
+}
+
+/** The named text fields of a submitted form, the first of each (files and unknown fields left out). */
+export function pickTextFields(fields: readonly string[], entries: Iterable<[string, unknown]>): Record<string, string> {
+  const wanted = new Set(fields);
   const out: Record<string, string> = {};
   for (const [k, v] of entries) if (wanted.has(k) && typeof v === 'string' && !(k in out)) out[k] = v;
   return out;

@@ -25,6 +25,8 @@ interface Placement {
 
 export interface CollectionRequestInput extends Placement, CollectionRequestFields {
   source: CollectionRequest['source'];
+  /** The day the empties are ready (portal requests). */
+  readyOn?: string | null;
   requestedBy: number | null;
   requesterIp: string | null;
 }
@@ -60,7 +62,7 @@ export async function createCollectionRequest(input: CollectionRequestInput): Pr
     return CollectionRequest.create(
       {
         source: input.source, ...where, quantity: input.quantity, locationNote: input.locationNote, contactName: input.contactName,
-        contactPhone: input.contactPhone, contactEmail: input.contactEmail, note: input.note, requestedBy: input.requestedBy,
+        contactPhone: input.contactPhone, contactEmail: input.contactEmail, note: input.note, requestedBy: input.requestedBy, readyOn: input.readyOn ?? null,
         requesterIp: input.requesterIp?.slice(0, 64) ?? null,
       },
       { transaction },
@@ -118,7 +120,7 @@ async function mailFor(kind: RequestKind, id: number): Promise<{ kind: MailKind;
       kind: 'collection_request',
       content: collectionRequestMail({
         ...common, source: row.source, quantity: row.quantity, locationNote: row.locationNote, contactName: row.contactName,
-        contactPhone: row.contactPhone, contactEmail: row.contactEmail, note: row.note,
+        contactPhone: row.contactPhone, contactEmail: row.contactEmail, note: row.note, readyOn: row.readyOn,
       }),
     };
   }
@@ -166,6 +168,8 @@ export interface CollectionRequestRow extends RowCommon {
   locationNote: string | null;
   contactPhone: string | null;
   note: string | null;
+  readyOn: string | null;
+  plannedFor: string | null;
 }
 
 export interface DamageReportRow extends RowCommon {
@@ -187,7 +191,8 @@ export type RequestFilter = 'unfinished' | 'all';
 const UNFINISHED: Record<RequestKind, string[]> = { collection: ['open', 'scheduled'], damage: ['open', 'triaged'] };
 const TABLES: Record<RequestKind, string> = { collection: 'collection_requests', damage: 'damage_reports' };
 const EXTRA_COLUMNS: Record<RequestKind, string> = {
-  collection: `r.quantity, r.location_note AS "locationNote", r.contact_phone AS "contactPhone", r.note`,
+  collection: `r.quantity, r.location_note AS "locationNote", r.contact_phone AS "contactPhone", r.note,
+    to_char(r.ready_on, 'YYYY-MM-DD') AS "readyOn", to_char(r.planned_for, 'YYYY-MM-DD') AS "plannedFor"`,
   damage: `r.description, r.photo_id AS "photoId"`,
 };
 
@@ -255,6 +260,8 @@ export interface StatusChange {
   status: RequestStatus;
   /** The version the planner's page showed: a stale one is refused (409), never merged. */
   version: number;
+  /** A collection being scheduled: the day of the run (shown to the customer in the portal). */
+  plannedFor?: string | null;
 }
 
 export async function changeRequestStatus(kind: RequestKind, id: number, change: StatusChange, actor: AuditActor): Promise<{ id: number; status: string; version: number }> {
@@ -272,10 +279,21 @@ export async function changeRequestStatus(kind: RequestKind, id: number, change:
       );
     }
     if (!canMove(kind, row.status, change.status)) throw new AppError('transition_refused', refusalReason(kind, row.status, change.status));
-    const before = { status: row.status };
+    const before: Record<string, unknown> = { status: row.status };
+    const after: Record<string, unknown> = { status: change.status };
     row.set('status', change.status);
+    if (kind === 'collection' && change.plannedFor !== undefined) {
+      if (change.status !== 'scheduled') throw new AppError('validation_failed', 'A run day goes with scheduling the collection.', [{ path: 'plannedFor', message: 'Only when scheduling.' }]);
+      const readyOn = (row as CollectionRequest).readyOn;
+      if (change.plannedFor && readyOn && change.plannedFor < readyOn) {
+        throw new AppError('validation_failed', `The run cannot be before the empties are ready (${readyOn}).`, [{ path: 'plannedFor', message: 'Before the ready day.' }]);
+      }
+      before.plannedFor = (row as CollectionRequest).plannedFor;
+      after.plannedFor = change.plannedFor;
+      row.set('plannedFor', change.plannedFor);
+    }
     await row.save({ transaction });
-    await recordAudit({ actor, action: `${entityType}.status`, entityType, entityId: row.id, before, after: { status: row.status } }, { transaction });
+    await recordAudit({ actor, action: `${entityType}.status`, entityType, entityId: row.id, before, after }, { transaction });
     return { id: row.id, status: row.status, version: row.version };
   });
 }

@@ -91,7 +91,7 @@ beforeAll(async () => {
   expect(up.status(), await up.text()).toBe(201);
   const photoId = ((await up.json()) as { data: { id: number } }).data.id;
   for (const form of ['collection-request', 'damage-report']) {
-    const multipart = form === 'collection-request'
+    const multipart: Record<string, string> = form === 'collection-request'
       ? { quantity: '3', contactName: b.user_name, contactEmail: SECOND_CUSTOMER_LOGIN.email, note: 'Three folded by dock 2' }
       : { description: 'Bent corner post after a forklift knock', contactName: b.user_name, contactEmail: SECOND_CUSTOMER_LOGIN.email };
     const res = await asB.post(`/api/public/bins/${bin.grai}/${form}`, { multipart, headers: { Origin: t.app.url } });
@@ -179,7 +179,7 @@ function genericBody(o: Other) {
  * Requests a customer may send at all, with bodies that are valid in every other respect: each names one of B's
  * things (or a place of B's) and must be refused with 404 or 403, recording nothing.
  */
-function targetedWrites(o: Other): Array<{ label: string; method: Method; path: string; data?: unknown; multipart?: Record<string, string> }> {
+function targetedWrites(o: Other): Array<{ label: string; method: Method; path: string; data?: unknown; multipart?: Record<string, string>; portal?: boolean }> {
   const scan = (extra: Record<string, unknown>) => ({ clientEventId: randomUUID(), ...extra });
   return [
     { label: "scan B's bin by GRAI", method: 'POST', path: '/api/scan-events', data: scan({ grai: o.grai, action: 'fold' }) },
@@ -187,12 +187,21 @@ function targetedWrites(o: Other): Array<{ label: string; method: Method; path: 
     { label: "scan B's bin by its serial", method: 'POST', path: '/api/scan-events', data: scan({ grai: o.serial, action: 'fold' }) },
     { label: "scan one's own bin at B's site", method: 'POST', path: '/api/scan-events', data: scan({ grai: o.ownGrai, action: 'fold', siteId: o.siteId }) },
     { label: 'confirm a delivery with a guessed token', method: 'POST', path: '/api/public/loads/confirm', multipart: { token: 'A'.repeat(43), receivedByName: 'Someone else' } },
+    { label: "order bins to B's site", method: 'POST', path: '/portal/orders/new', multipart: { binTypeId: '1', quantity: '2', neededBy: 'TODAY', deliverySiteId: String(o.siteId) }, portal: true },
+    { label: "ask for a collection at B's site", method: 'POST', path: '/portal/collections', multipart: { siteId: String(o.siteId), quantity: '2', readyOn: 'TODAY' }, portal: true },
+    { label: "report damage on B's bin", method: 'POST', path: '/portal/damage', multipart: { grai: o.grai, description: 'Bent corner post' }, portal: true },
+    { label: "confirm B's load", method: 'POST', path: '/portal/deliveries', multipart: { reference: o.loadRef, receivedByName: 'Someone else' }, portal: true },
     { label: "B's bin inside a batch", method: 'POST', path: '/api/scan-events', data: { events: [scan({ grai: o.grai, action: 'fold' }), scan({ assetId: o.binId, action: 'discharge' })] } },
   ];
 }
 
-/** Routes that answer anyone by design; A may get an answer, but never one that shows B. */
+/** Routes that answer anyone by design, or answer A with A's own things; never with one that shows B. */
 const OPEN_TO_ALL: Record<string, string> = {
+  '/portal/orders': "A's own orders",
+  '/portal/orders/new': "A's order form (A's sites only); a site of B's: below",
+  '/portal/collections': "A's own collection requests; a site of B's: below",
+  '/portal/damage': "A's own damage reports; a bin of B's: below",
+  '/portal/deliveries': "A's own deliveries; a load of B's: below",
   '/': 'sends each role to its home',
   '/forbidden': 'the 403 page',
   '/login': 'the sign-in page',
@@ -270,14 +279,17 @@ describe("a customer of A asks every route about B's things", () => {
     expect(problems, problems.join('\n')).toEqual([]);
   }, 300_000);
 
-  test("writes naming B's bin, B's site or B's photo are refused and record nothing", async () => {
-    const before = await one<{ events: number; version: number }>(
-      `SELECT (SELECT count(*)::int FROM scan_events WHERE asset_id = $1) AS events, (SELECT version FROM assets WHERE id = $1) AS version`, [other.binId]);
+  test("writes naming B's bin, B's site, B's load or B's photo are refused and record nothing", async () => {
+    const TRACE = `SELECT (SELECT count(*)::int FROM scan_events WHERE asset_id = $1) AS events, (SELECT version FROM assets WHERE id = $1) AS version,
+        (SELECT count(*)::int FROM hire_orders WHERE delivery_site_id = $2) AS orders, (SELECT count(*)::int FROM collection_requests WHERE site_id = $2) AS collections,
+        (SELECT count(*)::int FROM damage_reports WHERE asset_id = $1) AS damage, (SELECT count(*)::int FROM loads WHERE status = 'delivered') AS delivered`;
+    const before = await one<Record<string, number>>(TRACE, [other.binId, other.siteId]);
     const ownBefore = await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [other.ownBinId]);
     const problems: string[] = [];
     for (const w of targetedWrites(other)) {
-      const res = w.multipart
-        ? await asA.fetch(w.path, { method: w.method, multipart: w.multipart, headers: { Origin: t.app.url } })
+      const multipart = w.multipart && Object.fromEntries(Object.entries(w.multipart).map(([k, v]) => [k, v === 'TODAY' ? new Date().toISOString().slice(0, 10) : v]));
+      const res = multipart
+        ? await asA.fetch(w.path, { method: w.method, multipart, headers: { Origin: t.app.url }, maxRedirects: 0 })
         : await send(asA, w.method, w.path, w.data);
       const text = await res.text();
       expectNoMarker(text, w.label);
@@ -287,8 +299,7 @@ describe("a customer of A asks every route about B's things", () => {
       } else if (res.status() !== 403 && res.status() !== 404) problems.push(`${w.label}: ${res.status()} ${text}`);
     }
     expect(problems, problems.join('\n')).toEqual([]);
-    const after = await one<{ events: number; version: number }>(
-      `SELECT (SELECT count(*)::int FROM scan_events WHERE asset_id = $1) AS events, (SELECT version FROM assets WHERE id = $1) AS version`, [other.binId]);
+    const after = await one<Record<string, number>>(TRACE, [other.binId, other.siteId]);
     expect(after).toEqual(before);
     const ownAfter = await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [other.ownBinId]);
     expect(ownAfter).toEqual(ownBefore);

@@ -95,3 +95,15 @@ export async function appErrorOf(p: Promise<unknown>): Promise<AppError> {
   }
   throw new Error('expected a refusal');
 }
+
+/**
+ * A second customer organisation with a site, a confirmed order and a user, beside poolWorld's customer: for the
+ * tests that one customer never sees nor touches another's things.
+ */
+export async function addSecondCustomer(w: PoolWorld) {
+  const customer = await Organisation.create({ name: 'Other Customer', kind: 'customer', contactEmail: 'other@test.example', freeDays: 10 });
+  const site = await Site.create({ organisationId: customer.id, code: 'OTH-T1', name: 'Other site', kind: 'customer', address: null, latitude: '50.9', longitude: '5.7' });
+  const order = await HireOrder.create({ reference: 'HO-OTHER-1', customerId: customer.id, deliverySiteId: site.id, depotSiteId: w.depot.id, binTypeId: w.binType.id, quantity: 4, neededBy: '2026-12-12', status: 'confirmed', product: 'Other syrup', notes: null });
+  const user = await makeUser('customer', customer.id);
+  return { customer, site, order, user };
+}

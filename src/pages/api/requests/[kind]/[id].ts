@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { text } from '@/lib/text-input';
+import { text, inDateRange, DATE_RANGE_MESSAGE } from '@/lib/text-input';
+import { isLocalDate } from '@/lib/calendar';
 import { endpoint } from '@/lib/endpoint.server';
 import { AppError } from '@/lib/api-errors';
 import { actorFrom } from '@/lib/audit.server';
@@ -9,6 +10,8 @@ import { isStatusOf, type RequestKind } from '@/lib/requests/request-status';
 const body = z.object({
   status: text().min(1).max(20),
   version: z.number().int().min(0),
+  /** Scheduling a collection: the day of the run. */
+  plannedFor: text().refine(isLocalDate, 'must be a date like 2027-01-14').refine(inDateRange, DATE_RANGE_MESSAGE).nullish(),
 });
 
 /**
@@ -28,5 +31,5 @@ export const PATCH = endpoint({ capability: 'requests.view', body }, async ({ ct
       { path: 'status', message: 'Unknown status.' },
     ]);
   }
-  return changeRequestStatus(kind, id, { status: change.status, version: change.version }, actorFrom(ctx.locals));
+  return changeRequestStatus(kind, id, { status: change.status, version: change.version, ...(change.plannedFor !== undefined ? { plannedFor: change.plannedFor } : {}) }, actorFrom(ctx.locals));
 });
