@@ -79,7 +79,7 @@ async function moveSequence(table: string, t: Transaction) {
 }
 
 export async function writePool(pool: PoolSim, inspections: SimInspection[], t: Transaction): Promise<{ events: number }> {
-  await insertRows('liner_lots', ['id', 'supplier', 'lot_number', 'spec', 'quantity_received', 'received_on', 'expiry_date', 'site_id', 'status'], [...pool.lots.values()], t);
+  await insertRows('liner_lots', ['id', 'supplier', 'lot_number', 'spec', 'quantity_received', 'received_on', 'expiry_date', 'site_id', 'status', 'liner_spec_id', 'supplier_id'], [...pool.lots.values()], t);
   await insertRows(
     'hire_orders',
     ['id', 'reference', 'customer_id', 'delivery_site_id', 'depot_site_id', 'bin_type_id', 'quantity', 'needed_by', 'status', 'product'],

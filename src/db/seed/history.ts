@@ -15,6 +15,7 @@ import { seededRandom, type Random } from '@/lib/random';
 import { PoolSim, SimRefusal, type SimAsset, type SimLot, type SimOrder } from './pool-sim';
 import { nextIds, writePool, type SimInspection } from './bulk-write';
 import { CUSTOMERS, OPERATOR, PRODUCTS, LINER_SUPPLIERS } from './scenario';
+import { seedLinerRecords, type LinerRecords } from './liner-records';
 
 const DAY = 86_400_000;
 const HOUR = 3_600_000;
@@ -33,6 +34,7 @@ interface World {
   orders: Map<string, SimOrder>;
   inspections: SimInspection[];
   pool: PoolSim;
+  liners: LinerRecords;
   stats: Record<string, number>;
 }
 
@@ -124,7 +126,10 @@ async function loadWorld(now: Date, start: Date, rnd: Random, transaction: Trans
   const simSites = new Map(allSites.map((s) => [s.id, { id: s.id, kind: s.kind as 'depot', organisationId: s.organisationId, active: s.active }]));
   const ids = await nextIds(['assets', 'trips', 'scan_events', 'hire_orders', 'liner_lots', 'inspections'], transaction);
   const pool = new PoolSim(ids, simSites, OPERATOR.timeZone);
-  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), inspections: [], pool, stats: {} };
+  const liners = await seedLinerRecords(types, transaction);
+  for (const [id, f] of liners.specs) pool.specs.set(id, f);
+  for (const t of types) pool.binTypes.set(t.id, { name: t.name, listed: liners.listed.get(t.id) ?? [] });
+  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), inspections: [], pool, liners, stats: {} };
 }
 
 function count(world: World, key: string, n = 1) {
@@ -173,6 +178,7 @@ function createLinerLots(world: World) {
         id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
         lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-${String(n).padStart(3, '0')}`,
         spec: supplier.spec, quantity_received: rnd.pick([300, 400, 500]), received_on: received, expiry_date: expiry, site_id: depot.id, status: 'released',
+        ...linerIds(world, supplier.name),
       };
       world.lots.push(lot);
       world.pool.receiveLot(lot, new Date(t));
@@ -195,6 +201,11 @@ function lotFor(world: World, depotId: number, at: Date): SimLot | null {
   return inStock[0] ?? urgentLot(world, depotId, at);
 }
 
+function linerIds(world: World, supplierName: string): Pick<SimLot, 'liner_spec_id' | 'supplier_id'> {
+  const r = world.liners.bySupplier.get(supplierName)!;
+  return { liner_spec_id: r.specId, supplier_id: r.supplierId };
+}
+
 function urgentLot(world: World, depotId: number, at: Date): SimLot {
   const n = world.lots.length + 1;
   const supplier = LINER_SUPPLIERS[n % LINER_SUPPLIERS.length]!;
@@ -203,6 +214,7 @@ function urgentLot(world: World, depotId: number, at: Date): SimLot {
     id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
     lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-U${String(n).padStart(3, '0')}`,
     spec: supplier.spec, quantity_received: 400, received_on: received, expiry_date: addDays(received, 700), site_id: depotId, status: 'released',
+    ...linerIds(world, supplier.name),
   };
   world.lots.push(lot);
   world.pool.receiveLot(lot, at);

@@ -18,6 +18,7 @@ import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
+import { specFitFor } from '@/lib/liners/liner-specs.server';
 
 export type { FillRecord };
 
@@ -238,6 +239,8 @@ async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
     const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
+    const fit = await specFitFor(lot.linerSpecId, asset.bin_type_id, t);
+    if (!fit.ok) throw new AppError('transition_refused', fit.reason, { reason: fit.code, action: 'fit_liner' });
     await takeFromLot(lot.id, (site?.id ?? asset.site_id)!, 1, t);
     lotNumber = lot.lotNumber;
   }
