@@ -17,6 +17,8 @@ export const CAPABILITIES = {
   'labels.print': ['planner', 'admin'],
   'scan.record': ['yard', 'planner', 'admin', 'customer'],
   'scan.correct': ['planner', 'admin'],
+  'inspections.record': ['yard', 'planner', 'admin'], // the test bench; never customers (records are internal)
+  'inspections.view': ['yard', 'planner', 'admin'],
   'trips.view': ['planner', 'admin'],
   'loads.manage': ['yard', 'planner', 'admin'],
   'requests.view': ['planner', 'admin'],
@@ -30,7 +32,6 @@ export const CAPABILITIES = {
   'settings.manage': ['admin'],
   'sites.manage': ['admin'],
   'mail.read': ['admin'],
-  'audit.read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;
@@ -120,6 +121,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/bins', 'bins.view'],
   ['/api/bins', 'bins.view'],
   ['/api/scan-events', 'scan.record'],
+  ['/inspections', 'inspections.view'], // printable records; /bins/<grai>/inspect checks inspections.record itself
+  ['/api/inspections', 'inspections.record'],
   ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
   ['/api/yard/', 'home.yard'],
 ];

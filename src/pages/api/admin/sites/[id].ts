@@ -1,10 +1,10 @@
 import { endpoint } from '@/lib/endpoint.server';
 import { actorFrom } from '@/lib/audit.server';
-import { idParamSchema } from '@/lib/accounts/people-schemas';
+import { idParams } from '@/lib/route-params';
 import { sitePatchSchema } from '@/lib/pool-setup/setup-schemas';
 import { updateSite } from '@/lib/pool-setup/sites.server';
 
 /** Change a site's code, name, kind, address, coordinates or active flag. Needs the row's current `version`. */
-export const PATCH = endpoint({ capability: 'sites.manage', body: sitePatchSchema }, async ({ ctx, body }) => ({
-  row: await updateSite(idParamSchema.parse(ctx.params.id), body, actorFrom(ctx.locals)),
+export const PATCH = endpoint({ capability: 'sites.manage', body: sitePatchSchema, params: idParams('Site') }, async ({ ctx, body, params }) => ({
+  row: await updateSite(params.id, body, actorFrom(ctx.locals)),
 }));
