@@ -1,13 +1,13 @@
 // `npm test`: sets up everything the tests need on this machine, then runs the
 // suites in order and prints how long each took.
-//   npm test                       all suites (unit, integration, browser)
+//   npm test                       all suites (lint, unit, integration, browser)
 //   npm test -- unit integration   only the named suites
 //   npm test -- browser -- login   extra arguments after a second -- go to vitest (e.g. a file filter)
 import { say, ensureDependencies, ensureDebianPackages, authSecret, migrate, seed, buildIfStale, bin, run, startChild, shutdown } from './setup.mjs';
 import { startPostgres, ensureDatabase, databaseUrl } from './postgres.mjs';
 import { spawnSync } from 'node:child_process';
 
-const SUITES = ['unit', 'integration', 'browser'];
+const SUITES = ['lint', 'unit', 'integration', 'browser'];
 const argv = process.argv.slice(2);
 const sep = argv.indexOf('--');
 const chosen = (sep >= 0 ? argv.slice(0, sep) : argv).filter((a) => SUITES.includes(a));
@@ -28,11 +28,21 @@ function vitest(folder, env) {
   // Words after `--` narrow the run to matching files of the folder; flags pass through.
   const filters = vitestExtra.filter((a) => !a.startsWith("-")); // matched anywhere in the path, inside the project
   const flags = vitestExtra.filter((a) => a.startsWith('-'));
-  const r = spawnSync(bin('vitest'), ['run', '--project', folder, ...filters, ...flags], {
+  // Integration and browser files share one database each: one file at a time (vitest ignores fileParallelism set
+  // inside a project, so it is said here).
+  const serial = folder === 'unit' ? [] : ['--no-file-parallelism'];
+  const r = spawnSync(bin('vitest'), ['run', '--project', folder, ...serial, ...filters, ...flags], {
     stdio: 'inherit',
     env: { ...process.env, ...env },
   });
   return r.status === 0;
+}
+
+/** Formatting and lint rules (biome, biome.json) and the type check of every file, .astro included (astro check). */
+function lint() {
+  const rules = spawnSync(bin('biome'), ['ci', '--reporter=summary', '.'], { stdio: 'inherit' });
+  const types = spawnSync(bin('astro'), ['check', '--minimumSeverity', 'error'], { stdio: 'inherit' });
+  return rules.status === 0 && types.status === 0;
 }
 
 let failed = false;
@@ -77,6 +87,9 @@ try {
     }
   });
 
+  if (suites.includes('lint')) {
+    failed ||= !timed('lint', lint);
+  }
   if (suites.includes('unit')) {
     failed ||= !timed('unit', () => vitest('unit', env));
   }

@@ -8,6 +8,7 @@ export function dateWithHint(date: string | null, today: string): string {
 }
 
 /** An instant as local date and time in the operator's zone ("14 Mar 2027, 08:05"), or a dash. */
-export function instantLabel(iso: string | null, timeZone: string): string {
-  return iso ? formatMomentAbsolute(iso, timeZone) : '—';
+export function instantLabel(iso: string | Date | null, timeZone: string): string {
+  if (!iso) return '—';
+  return formatMomentAbsolute(typeof iso === 'string' ? iso : iso.toISOString(), timeZone);
 }

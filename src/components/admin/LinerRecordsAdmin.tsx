@@ -16,7 +16,7 @@ type Field =
 
 export interface LinerRecordsAdminProps {
   kind: Kind;
-  initialRows: Row[];
+  initialRows: ReadonlyArray<SpecRow> | ReadonlyArray<SupplierRow>;
   /** For specs: the suppliers and bin types to choose from. */
   suppliers?: { id: number; name: string }[];
   binTypes?: { id: number; name: string }[];
@@ -92,7 +92,7 @@ function ActiveBadge({ active }: { active: boolean }) {
 }
 
 export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], binTypes = [] }: LinerRecordsAdminProps) {
-  const [rows, setRows] = useState(initialRows);
+  const [rows, setRows] = useState(initialRows as Row[]);
   const [editing, setEditing] = useState<Row | 'new' | null>(null);
   const [flash, setFlash] = useState<string | null>(null);
   const fields = useMemo(() => fieldsFor(kind, suppliers, binTypes), [kind, suppliers, binTypes]);

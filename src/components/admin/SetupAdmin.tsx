@@ -176,7 +176,8 @@ function changedOnly(body: Record<string, unknown>, row: Row) {
 
 export interface SetupAdminProps {
   kind: SetupKind;
-  initialRows: Row[];
+  /** The page's rows (customers, sites or bin types): each has an id, a version and an active flag. */
+  initialRows: ReadonlyArray<{ id: number; version: number; active: boolean }>;
   owners?: Owner[];
   /** The filter chosen when the page opened (e.g. ?kind=depot). */
   initialFilter?: string;
@@ -185,7 +186,7 @@ export interface SetupAdminProps {
 /** A set-up list (customers, sites, bin types): find, filter, add, change; one dialog for both. */
 export default function SetupAdmin({ kind, initialRows, owners = [], initialFilter = '' }: SetupAdminProps) {
   const spec = SPECS[kind];
-  const [rows, setRows] = useState(initialRows);
+  const [rows, setRows] = useState(initialRows as Row[]);
   const [query, setQuery] = useState('');
   const [filter, setFilter] = useState(initialFilter);
   const [showClosed, setShowClosed] = useState(false);

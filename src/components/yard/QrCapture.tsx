@@ -130,7 +130,7 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
         </p>
       )}
       <div className={mode === 'starting' || mode === 'live' ? 'space-y-2' : 'hidden'} data-camera-view={mode}>
-        <div id={liveId} className="w-full overflow-hidden rounded-md bg-ink min-h-[240px]" aria-label="Camera view: point it at the bin’s QR label" />
+        <div id={liveId} role="region" className="w-full overflow-hidden rounded-md bg-ink min-h-[240px]" aria-label="Camera view: point it at the bin’s QR label" />
         <button type="button" className="btn-quiet w-full" onClick={() => void closeCamera()}>
           Close camera
         </button>

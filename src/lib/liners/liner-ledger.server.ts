@@ -154,7 +154,7 @@ export async function recordCount(who: Mover, input: { lotId: number; siteId: nu
   return within(opts, async (t) => {
     const lot = await lockLot(input.lotId, t);
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
-    let adj;
+    let adj: ReturnType<typeof countAdjustment>;
     try {
       adj = countAdjustment(input.counted, await onHand(input.lotId, input.siteId, t));
     } catch (e) {

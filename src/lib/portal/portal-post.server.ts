@@ -1,7 +1,7 @@
 // One way for the portal's form posts (post/redirect/get, no script needed): read the multipart form within its cap,
 // check the fields with the page's schema, act, and answer with where to go next — or the form again with the note
 // for each field and the status of the refusal (never a 500 for bad input, nothing stored).
-import type { ZodType } from 'zod';
+import type { ZodType, ZodTypeDef } from 'zod';
 import { AppError, ERROR_STATUS } from '@/lib/api-errors';
 import { readForm } from '@/lib/attachments.server';
 import { fieldProblems, pickTextFields } from './portal-forms';
@@ -13,7 +13,7 @@ export type PortalPost =
 export async function portalPost<T>(
   request: Request,
   fields: readonly string[],
-  schema: ZodType<T, any, any>,
+  schema: ZodType<T, ZodTypeDef, unknown>,
   act: (data: T, form: FormData) => Promise<string>,
 ): Promise<PortalPost> {
   let form: FormData;

@@ -41,6 +41,7 @@ function mayOpen(viewer: Viewer, path: string): boolean {
   if (access === 'public') return true;
   if (viewer === 'anonymous') return false;
   if (access === 'signed-in') return true;
+  if (access === 'denied') return false;
   return can(viewer, access);
 }
 

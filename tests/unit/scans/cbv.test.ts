@@ -1,5 +1,5 @@
 import { describe, expect, test } from 'vitest';
-import { ACTIONS } from '@/lib/scans/lifecycle';
+import { ACTIONS, type Action } from '@/lib/scans/lifecycle';
 import { CBV_MAPPING } from '@/lib/scans/cbv';
 
 describe('GS1 CBV 2.0 mapping for the EPCIS export', () => {
