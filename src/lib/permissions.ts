@@ -77,6 +77,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/loads/confirm/', 'public'], // the receiving end confirms delivery through the link on the dispatch note
   ['/loads', 'loads.manage'],
   ['/api/loads', 'loads.manage'],
+  ['/liners', 'liners.view'],
+  ['/api/liners/', 'liners.view'],
   ['/yard', 'home.yard'],
   ['/portal', 'home.portal'],
   ['/api/portal/', 'portal.view'],
