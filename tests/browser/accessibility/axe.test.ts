@@ -44,7 +44,7 @@ function mayOpen(viewer: Viewer, path: string): boolean {
   return can(viewer, access);
 }
 
-interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number }
+interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number; depotId: number }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
   const mine = await one<{ grai: string }>(
@@ -55,7 +55,8 @@ async function examples(): Promise<Examples> {
   const trip = await one<{ id: number }>(`SELECT id FROM trips ORDER BY id DESC LIMIT 1`);
   const order = await one<{ id: number }>(`SELECT id FROM hire_orders ORDER BY id DESC LIMIT 1`);
   for (const [what, v] of Object.entries({ mine, bin, trip, order })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id };
+  const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
+  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, depotId: depot.id };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -72,6 +73,7 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/labels/sheet': `/labels/sheet?ids=${ex.binId}`,
     '/planning/orders/[id]': `/planning/orders/${ex.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${ex.orderId}/fill`,
+    '/liners/stock/[depot]': `/liners/stock/${ex.depotId}`,
   };
   if (route.includes('[')) {
     const url = known[route];
