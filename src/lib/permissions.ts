@@ -17,6 +17,8 @@ export const CAPABILITIES = {
   'labels.print': ['planner', 'admin'],
   'scan.record': ['yard', 'planner', 'admin', 'customer'],
   'scan.correct': ['planner', 'admin'],
+  'inspections.record': ['yard', 'planner', 'admin'], // the test bench; never customers (records are internal)
+  'inspections.view': ['yard', 'planner', 'admin'],
   'trips.view': ['planner', 'admin'],
   'loads.manage': ['yard', 'planner', 'admin'],
   'requests.view': ['planner', 'admin'],
@@ -30,7 +32,6 @@ export const CAPABILITIES = {
   'settings.manage': ['admin'],
   'sites.manage': ['admin'],
   'mail.read': ['admin'],
-  'audit.read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;
@@ -60,6 +61,7 @@ export type Access = 'public' | 'signed-in' | 'denied' | Capability;
 export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access, match?: 'exact']> = [
   ['/', 'signed-in', 'exact'], // sends each role to its home
   ['/forbidden', 'public'], // the 403 page itself (the middleware rewrites to it)
+  ['/404', 'public'], // the page for an address that does not exist (framed for a signed-in visitor)
   ['/login', 'public'],
   ['/account/invite', 'public'],
   ['/account/reset', 'public'],
@@ -92,6 +94,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   // Hire orders: the list, the order page and the form; the API's POSTs check orders.edit themselves.
   ['/planning/orders/new', 'orders.edit'],
   ['/planning/orders', 'orders.view'],
+  ['/planning/repositioning', 'orders.view'],
   ['/api/planning/orders', 'orders.view'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],
@@ -99,7 +102,13 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/admin/users', 'users.manage'],
   ['/admin/settings', 'settings.manage'],
   ['/api/admin/settings', 'settings.manage'],
+  // Setting up the pool: customers, sites (depots, repair shops, recycling points, customers' sites), bin types.
   ['/admin/sites', 'sites.manage'],
+  ['/admin/customers', 'sites.manage'],
+  ['/admin/bin-types', 'sites.manage'],
+  ['/api/admin/sites', 'sites.manage'],
+  ['/api/admin/customers', 'sites.manage'],
+  ['/api/admin/bin-types', 'sites.manage'],
   ['/admin/liner-', 'liners.manage'],
   ['/api/admin/liner-', 'liners.manage'],
   ['/api/admin/tariffs', 'tariffs.manage'],
@@ -115,6 +124,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/bins', 'bins.view'],
   ['/api/bins', 'bins.view'],
   ['/api/scan-events', 'scan.record'],
+  ['/inspections', 'inspections.view'], // printable records; /bins/<grai>/inspect checks inspections.record itself
+  ['/api/inspections', 'inspections.record'],
   ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
   ['/api/yard/', 'home.yard'],
 ];

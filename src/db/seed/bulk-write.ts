@@ -21,6 +21,8 @@ export interface SimInspection {
   outcome: 'pass';
   next_intermediate_due: string | null;
   next_full_due: string | null;
+  scan_event_id: number;
+  recorded_by: number | null;
 }
 
 /** Where each table's id sequence stands: ids are handed out in memory from there. */
@@ -54,7 +56,7 @@ function arrayLiteral(items: readonly string[]): string {
  * `INSERT … SELECT FROM unnest($1::int4[], $2::text[], …)`, 10,000 rows a
  * statement. JSON columns travel as text, array columns as array literals.
  */
-export async function insertRows(table: string, columns: string[], rows: readonly object[], t: Transaction) {
+async function insertRows(table: string, columns: string[], rows: readonly object[], t: Transaction) {
   if (!rows.length) return;
   const types = await columnTypes(table, t);
   const specs = columns.map((c) => {
@@ -111,7 +113,7 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   await insertRows('scan_event_keys', ['client_event_id', 'user_id', 'scan_event_id', 'outcome'], pool.keys, t);
   await insertRows(
     'inspections',
-    ['id', 'asset_id', 'kind', 'performed_on', 'inspector_id', 'site_id', 'checklist', 'leak_test_pressure_kpa', 'leak_test_minutes', 'leak_test_passed', 'outcome', 'next_intermediate_due', 'next_full_due'],
+    ['id', 'asset_id', 'kind', 'performed_on', 'inspector_id', 'site_id', 'checklist', 'leak_test_pressure_kpa', 'leak_test_minutes', 'leak_test_passed', 'outcome', 'next_intermediate_due', 'next_full_due', 'scan_event_id', 'recorded_by'],
     inspections,
     t,
   );

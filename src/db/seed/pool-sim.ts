@@ -167,6 +167,7 @@ export class PoolSim {
       prepResult: input.prepResult,
       linerLotId: input.linerLotId === undefined ? undefined : String(input.linerLotId),
       purpose: input.purpose,
+      inspection: input.inspectionResult,
     });
     if (!decision.ok) throw new SimRefusal('transition_refused', decision.code, decision.reason);
     const { order, lotNumber } = this.checkActionInputs(asset, input, site, today);
@@ -210,6 +211,8 @@ export class PoolSim {
     }
     const before = { ...asset };
     Object.assign(asset, assetAfter(asset, decision, opened, occurredAt));
+    const schedule = decision.patch.schedule;
+    if (schedule) Object.assign(asset, schedule); // the same six columns recordScan() writes (scheduleColumns)
     asset.version += 1;
     for (const m of movesForScan({ action: input.action, before, after: asset, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt })) {
       this.addMove({ ...m, scan_event_id: eventId });
