@@ -129,6 +129,9 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
     '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
     '/liners/stock/[depot]': '/liners/stock/1',
+    // Inspection records are internal (no customer capability): any id will do.
+    '/api/inspections/[id]/amend': '/api/inspections/1/amend',
+    '/inspections/[id]': '/inspections/1',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,
