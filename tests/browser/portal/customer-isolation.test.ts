@@ -148,6 +148,7 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/scan-events/[id]/void': `/api/scan-events/${o.eventId}/void`,
     '/bins/[grai]': `/bins/${o.grai}`,
     '/bins/[grai]/edit': `/bins/${o.grai}/edit`,
+    '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
     '/loads/[ref]': `/loads/${o.loadRef}`,
     '/loads/[ref]/note': `/loads/${o.loadRef}/note`,
     // The delivery link is a capability: whoever holds the token may confirm. A guessed one finds nothing.
