@@ -49,7 +49,7 @@ describe('dispatch refused for a bin whose test runs out (through the API)', () 
     const b2 = await preparedBin(60);
     await setAsset(b2.id, { next_intermediate_due: day(-1), next_due: day(-1) });
     const res = await dispatch('yard', b2.id);
-    expect(res.status).toBe(409);
+    expect(res.status).toBe(422);
     expect((await json(res)).error).toMatchObject({ code: 'transition_refused', details: { reason: 'inspection_lapsed' } });
   });
 
@@ -57,11 +57,11 @@ describe('dispatch refused for a bin whose test runs out (through the API)', () 
     const bin = await preparedBin(3); // due in 3 days, wanted in 7
     const res = await dispatch('yard', bin.id);
     const body = await json(res);
-    expect(res.status).toBe(409);
+    expect(res.status).toBe(422);
     expect(body.error).toMatchObject({ code: 'transition_refused', details: { reason: 'lapses_before_fill', overridable: false, lastDay: day(3) } });
     expect(body.error!.message).toContain(`runs out on ${day(3)}, before the order's wanted date ${day(7)}`);
     const forced = await dispatch('planner', bin.id, { overrideReason: 'Customer insists, it will be fine' });
-    expect(forced.status).toBe(409);
+    expect(forced.status).toBe(422);
     const [{ n }] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM scan_events WHERE asset_id = $1 AND action = 'dispatch'`, { bind: [bin.id], type: QueryTypes.SELECT });
     expect(n).toBe(0);
   });
@@ -70,7 +70,7 @@ describe('dispatch refused for a bin whose test runs out (through the API)', () 
     // Wanted in 7 days + 30 usual days = back in 37 days; due in 20 days.
     const bin = await preparedBin(20);
     const res = await dispatch('yard', bin.id);
-    expect(res.status).toBe(409);
+    expect(res.status).toBe(422);
     expect((await json(res)).error).toMatchObject({ details: { reason: 'lapses_while_out', overridable: true, lastDay: day(20), expectedBackOn: day(37) } });
     const yard = await dispatch('yard', bin.id, { overrideReason: 'Back in a week, agreed' });
     expect((await json(yard)).error!.message).toMatch(/Only a planner may override/);
