@@ -140,6 +140,10 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/scan-events/[id]/void': `/api/scan-events/${o.eventId}/void`,
     '/bins/[grai]': `/bins/${o.grai}`,
     '/bins/[grai]/edit': `/bins/${o.grai}/edit`,
+    '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
+    // Inspection records are the operator's own (customers never hold the capability): any id will do.
+    '/api/inspections/[id]/amend': '/api/inspections/1/amend',
+    '/inspections/[id]': '/inspections/1',
     '/loads/[ref]': `/loads/${o.loadRef}`,
     '/loads/[ref]/note': `/loads/${o.loadRef}/note`,
     // The delivery link is a capability: whoever holds the token may confirm. A guessed one finds nothing.
