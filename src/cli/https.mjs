@@ -23,7 +23,7 @@ const DAY_MS = 86_400_000;
 export const SERVER_CERT_DAYS = 397;
 const CA_YEARS = 10;
 const RENEW_WITHIN_DAYS = 30;
-export const CA_FILE = 'loopfold-local-ca.crt';
+const CA_FILE = 'loopfold-local-ca.crt';
 
 /** IPv4 addresses of this machine that a phone on the same network can reach (no loopback, no link-local). */
 export function lanAddresses(ifaces = networkInterfaces()) {

@@ -16,7 +16,7 @@ import { fileURLToPath } from 'node:url';
 /** Must match PAGE_CACHE in src/lib/yard/service-worker.client.ts. */
 export const PAGE_CACHE = 'loopfold-yard-pages';
 
-export function serviceWorkerConfig(clientDir) {
+function serviceWorkerConfig(clientDir) {
   return {
     globDirectory: clientDir,
     globPatterns: ['_astro/*.{js,css}', '_astro/ibm-plex-*-latin-*-normal.*.woff2', 'favicon.svg'],

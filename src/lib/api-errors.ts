@@ -37,17 +37,17 @@ export type ApiEnvelope<T> = { data: T } | { error: ApiErrorBody };
 export class AppError extends Error {
   readonly code: ErrorCode;
   readonly details?: unknown;
-  constructor(code: ErrorCode, message: string, details?: unknown) {
+  /** Headers the answer carries (Retry-After on a rate limit). */
+  readonly headers?: Record<string, string>;
+  constructor(code: ErrorCode, message: string, details?: unknown, headers?: Record<string, string>) {
     super(message);
     this.name = 'AppError';
     this.code = code;
     this.details = details;
+    this.headers = headers;
   }
   get status(): number {
     return ERROR_STATUS[this.code];
   }
 }
 
-export function isErrorCode(value: unknown): value is ErrorCode {
-  return typeof value === 'string' && value in ERROR_STATUS;
-}

@@ -82,14 +82,6 @@ export async function formFile(form: FormData, field: string): Promise<{ bytes: 
   return { bytes: new Uint8Array(await file.arrayBuffer()), filename: file.name || null };
 }
 
-/** Reads the one required file of an upload form. */
-export async function readUpload(request: Request, field = 'file'): Promise<{ bytes: Uint8Array; filename: string | null; form: FormData }> {
-  const form = await readForm(request);
-  const file = await formFile(form, field);
-  if (!file) throw new AppError('validation_failed', 'Choose a file to upload.');
-  return { ...file, form };
-}
-
 /**
  * A stored file with its bytes, for someone allowed to see it: operator staff (who may edit bins, and the yard)
  * see every file; anyone else only their own organisation's. null when there is no such file for this user.

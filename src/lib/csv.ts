@@ -14,10 +14,10 @@ import Papa from 'papaparse';
 
 export type CsvCell = string | number | boolean | null | undefined;
 
-export const CSV_NEWLINE = '\r\n';
+const CSV_NEWLINE = '\r\n';
 
 /** Starts like a formula, unless the whole text is a plain decimal number. */
-export const FORMULA_START = /^(?!-?\d+(?:\.\d+)?$)[=+\-@\t\r]/;
+const FORMULA_START = /^(?!-?\d+(?:\.\d+)?$)[=+\-@\t\r]/;
 
 function cell(value: CsvCell): string | number | boolean {
   if (value === null || value === undefined) return '';

@@ -11,7 +11,7 @@
  * Pure: no I/O, no clock, no libraries.
  */
 
-export const GRAI_AI = '8003';
+const GRAI_AI = '8003';
 
 /** Filler digit + 12 digits of company prefix and asset type + check digit. */
 const FIXED_LENGTH = 14;
@@ -22,8 +22,8 @@ const MAX_SERIAL_LENGTH = 16;
  * GS1 Company Prefix lengths that an EPC URI can carry: the Tag Data Standard
  * partition tables run from 6 to 12 digits (from memory of the TDS tables).
  */
-export const MIN_COMPANY_PREFIX_LENGTH = 6;
-export const MAX_COMPANY_PREFIX_LENGTH = 12;
+const MIN_COMPANY_PREFIX_LENGTH = 6;
+const MAX_COMPANY_PREFIX_LENGTH = 12;
 
 /**
  * GS1 AI encodable character set 82: `! " % & ' ( ) * + , - . /`, digits,

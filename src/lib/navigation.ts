@@ -19,6 +19,8 @@ const NAV: NavItem[] = [
   { href: '/requests', label: 'Requests', icon: 'inbox', capability: 'requests.view' },
   { href: '/labels', label: 'Label sheets', icon: 'label', capability: 'labels.print' },
   { href: '/bins/new', label: 'Register bins', icon: 'plusBox', capability: 'bins.edit' },
+  { href: '/admin/liner-specs', label: 'Liner specs', icon: 'lined', capability: 'liners.manage' },
+  { href: '/admin/liner-suppliers', label: 'Liner suppliers', icon: 'handover', capability: 'liners.manage' },
   { href: '/admin/users', label: 'People', icon: 'users', capability: 'users.manage' },
   { href: '/admin/settings', label: 'Settings', icon: 'settings', capability: 'settings.manage' },
   { href: '/admin/mail', label: 'Sent mail', icon: 'mail', capability: 'mail.read' },

@@ -17,6 +17,8 @@ export const CAPABILITIES = {
   'labels.print': ['planner', 'admin'],
   'scan.record': ['yard', 'planner', 'admin', 'customer'],
   'scan.correct': ['planner', 'admin'],
+  'inspections.record': ['yard', 'planner', 'admin'], // the test bench; never customers (records are internal)
+  'inspections.view': ['yard', 'planner', 'admin'],
   'trips.view': ['planner', 'admin'],
   'loads.manage': ['yard', 'planner', 'admin'],
   'requests.view': ['planner', 'admin'],
@@ -24,12 +26,12 @@ export const CAPABILITIES = {
   'orders.edit': ['planner', 'admin'],
   'tariffs.manage': ['admin'],
   'liners.view': ['yard', 'planner', 'admin'],
+  'liners.manage': ['planner', 'admin'], // liner specs, suppliers and their terms
   'portal.view': ['customer'],
   'users.manage': ['admin'],
   'settings.manage': ['admin'],
   'sites.manage': ['admin'],
   'mail.read': ['admin'],
-  'audit.read': ['admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Capability = keyof typeof CAPABILITIES;
@@ -97,6 +99,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/admin/settings', 'settings.manage'],
   ['/api/admin/settings', 'settings.manage'],
   ['/admin/sites', 'sites.manage'],
+  ['/admin/liner-', 'liners.manage'],
+  ['/api/admin/liner-', 'liners.manage'],
   ['/api/admin/tariffs', 'tariffs.manage'],
   ['/api/admin/', 'settings.manage'],
   ['/admin', 'users.manage'],
@@ -110,6 +114,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/bins', 'bins.view'],
   ['/api/bins', 'bins.view'],
   ['/api/scan-events', 'scan.record'],
+  ['/inspections', 'inspections.view'], // printable records; /bins/<grai>/inspect checks inspections.record itself
+  ['/api/inspections', 'inspections.record'],
   ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
   ['/api/yard/', 'home.yard'],
 ];

@@ -22,6 +22,12 @@ export const STATUS_LOOK: Record<Status, { label: string; icon: IconName; tone: 
   retired: { label: STATUS_LABELS.retired, icon: 'retired', tone: 'neutral' },
 };
 
+/**
+ * The mark shown beside a status when the bin's periodic test has lapsed (ADR/RID 4.1.2.2: it may not be
+ * filled or dispatched for hire): a word and an icon of its own, so it never rests on colour.
+ */
+export const TEST_LAPSED_LOOK: { label: string; icon: IconName; tone: Tone } = { label: 'Test lapsed', icon: 'alert', tone: 'fault' };
+
 /** Badge classes per tone (tints behind ink text keep AA contrast). */
 export const TONE_CLASSES: Record<Tone, string> = {
   good: 'bg-moss-tint text-ink border-moss',

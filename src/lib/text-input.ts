@@ -7,9 +7,9 @@
 import { z } from 'zod';
 
 /** Any Cc control character. */
-export const CONTROL_CHARACTER = /[\u0000-\u001F\u007F-\u009F]/;
+const CONTROL_CHARACTER = /[\u0000-\u001F\u007F-\u009F]/;
 /** A Cc control character other than tab, line feed and carriage return. */
-export const CONTROL_CHARACTER_EXCEPT_LINE_BREAKS = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F]/;
+const CONTROL_CHARACTER_EXCEPT_LINE_BREAKS = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F]/;
 
 export const CONTROL_MESSAGE = 'Remove the control characters (invisible characters such as NUL) from this text.';
 
@@ -33,8 +33,8 @@ export function multilineText(params?: Parameters<typeof z.string>[0]): z.ZodStr
 // Calendar dates people and filters may name. Outside this range a date is a
 // typing slip or a probe (0000-01-01, 9999-12-31), and PostgreSQL's date
 // arithmetic near its own limits fails; common practice, not a standard.
-export const EARLIEST_DAY = '1900-01-01';
-export const LATEST_DAY = '2200-12-31';
+const EARLIEST_DAY = '1900-01-01';
+const LATEST_DAY = '2200-12-31';
 export const DATE_RANGE_MESSAGE = `must be a date between ${EARLIEST_DAY.slice(0, 4)} and ${LATEST_DAY.slice(0, 4)}`;
 
 /** A YYYY-MM-DD text inside the sane range (string order is date order for this form). */

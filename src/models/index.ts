@@ -11,6 +11,8 @@ import { MailMessage } from './mail-message';
 import { Attachment } from './attachment';
 import { BinType } from './bin-type';
 import { LinerLot } from './liner-lot';
+import { LinerSpec } from './liner-spec';
+import { LinerSupplier } from './liner-supplier';
 import { HireOrder } from './hire-order';
 import { Asset } from './asset';
 import { Trip } from './trip';
@@ -56,6 +58,9 @@ ScanEvent.belongsTo(Trip, { foreignKey: 'tripId', as: 'trip' });
 Inspection.belongsTo(Asset, { foreignKey: 'assetId', as: 'asset' });
 Inspection.belongsTo(User, { foreignKey: 'inspectorId', as: 'inspector' });
 LinerLot.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
+LinerLot.belongsTo(LinerSpec, { foreignKey: 'linerSpecId', as: 'linerSpec' });
+LinerLot.belongsTo(LinerSupplier, { foreignKey: 'supplierId', as: 'linerSupplier' });
+LinerSpec.belongsTo(LinerSupplier, { foreignKey: 'supplierId', as: 'supplier' });
 HireOrder.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
 HireOrder.belongsTo(Site, { foreignKey: 'deliverySiteId', as: 'deliverySite' });
 HireOrder.belongsTo(Site, { foreignKey: 'depotSiteId', as: 'depotSite' });
@@ -79,5 +84,5 @@ Organisation.hasMany(Tariff, { foreignKey: 'customerId', as: 'tariffs' });
 export {
   sequelize, Organisation, Site, User, UserToken, Setting, AuditEntry, MailMessage, Attachment, BinType, LinerLot,
   HireOrder, Asset, Trip, ScanEvent, ScanEventKey, Inspection, CollectionRequest, DamageReport, Load, GridView,
-  Tariff,
+  Tariff, LinerSpec, LinerSupplier,
 };

@@ -4,7 +4,7 @@ import { idColumn } from './columns';
 
 export type InspectionKind = 'prep_check' | 'intermediate' | 'full' | 'after_repair';
 
-/** A recorded check or periodic test of a bin and the due dates it sets. Evidence, not certification. */
+/** A recorded check or periodic test of a bin and the due dates it sets. Evidence, not certification; never edited (a trigger refuses it). */
 export class Inspection extends Model<InferAttributes<Inspection>, InferCreationAttributes<Inspection>> {
   declare id: CreationOptional<number>;
   declare assetId: number;
@@ -22,6 +22,14 @@ export class Inspection extends Model<InferAttributes<Inspection>, InferCreation
   declare photoIds: CreationOptional<number[]>;
   declare notes: string | null;
   declare scanEventId: number | null;
+  /** An outside inspection body named on the record, when no qualified user of the operator inspected. */
+  declare inspectionBody: string | null;
+  declare recordedBy: number | null;
+  /** The mark to apply after a pass: month and year of the test and the inspector's mark. */
+  declare testMark: string | null;
+  /** A correction is a new record pointing at the one it corrects, with the reason. */
+  declare amendsId: number | null;
+  declare amendmentReason: string | null;
   declare createdAt: CreationOptional<Date>;
 }
 
@@ -43,6 +51,11 @@ Inspection.init(
     photoIds: { type: DataTypes.ARRAY(DataTypes.INTEGER), allowNull: false, defaultValue: [] },
     notes: { type: DataTypes.TEXT, allowNull: true },
     scanEventId: { type: DataTypes.BIGINT, allowNull: true },
+    inspectionBody: { type: DataTypes.STRING(160), allowNull: true },
+    recordedBy: { type: DataTypes.INTEGER, allowNull: true },
+    testMark: { type: DataTypes.STRING(60), allowNull: true },
+    amendsId: { type: DataTypes.INTEGER, allowNull: true },
+    amendmentReason: { type: DataTypes.TEXT, allowNull: true },
     createdAt: DataTypes.DATE,
   },
   { sequelize, tableName: 'inspections', updatedAt: false },

@@ -14,6 +14,8 @@ export class LinerLot extends Model<InferAttributes<LinerLot>, InferCreationAttr
   declare status: CreationOptional<'released' | 'on_hold' | 'recalled'>;
   declare siteId: number;
   declare certificateId: number | null;
+  declare linerSpecId: CreationOptional<number | null>;
+  declare supplierId: CreationOptional<number | null>;
   declare statusReason: string | null;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
@@ -32,6 +34,8 @@ LinerLot.init(
     status: { type: DataTypes.STRING(12), allowNull: false, defaultValue: 'released' },
     siteId: { type: DataTypes.INTEGER, allowNull: false },
     certificateId: { type: DataTypes.INTEGER, allowNull: true },
+    linerSpecId: { type: DataTypes.INTEGER, allowNull: true },
+    supplierId: { type: DataTypes.INTEGER, allowNull: true },
     statusReason: { type: DataTypes.TEXT, allowNull: true },
     version: versionColumn,
     ...timestampColumns,

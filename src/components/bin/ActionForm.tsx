@@ -24,9 +24,9 @@ const CHECKS: Array<[key: string, label: string]> = [
   ['labelLegible', 'Label legible'],
 ];
 
-export const DESTRUCTIVE: Action[] = ['retire', 'mark_missing', 'quarantine'];
+const DESTRUCTIVE: Action[] = ['retire', 'mark_missing', 'quarantine'];
 
-export function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
+function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
   if (!lines.length) return null;
   return (
     <div className="notice-attention" role="note">
@@ -44,7 +44,7 @@ export function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
 }
 
 /** Uploads fault photos; without signal the scan goes ahead and says the photos are missing. */
-async function uploadPhotos(files: File[], note: (msg: string | null) => void): Promise<number[]> {
+export async function uploadPhotos(files: File[], note: (msg: string | null) => void): Promise<number[]> {
   const ids: number[] = [];
   for (const file of files) {
     const form = new FormData();

@@ -21,6 +21,8 @@ export interface SimInspection {
   outcome: 'pass';
   next_intermediate_due: string | null;
   next_full_due: string | null;
+  scan_event_id: number;
+  recorded_by: number | null;
 }
 
 /** Where each table's id sequence stands: ids are handed out in memory from there. */
@@ -54,7 +56,7 @@ function arrayLiteral(items: readonly string[]): string {
  * `INSERT … SELECT FROM unnest($1::int4[], $2::text[], …)`, 10,000 rows a
  * statement. JSON columns travel as text, array columns as array literals.
  */
-export async function insertRows(table: string, columns: string[], rows: readonly object[], t: Transaction) {
+async function insertRows(table: string, columns: string[], rows: readonly object[], t: Transaction) {
   if (!rows.length) return;
   const types = await columnTypes(table, t);
   const specs = columns.map((c) => {
@@ -79,7 +81,7 @@ async function moveSequence(table: string, t: Transaction) {
 }
 
 export async function writePool(pool: PoolSim, inspections: SimInspection[], t: Transaction): Promise<{ events: number }> {
-  await insertRows('liner_lots', ['id', 'supplier', 'lot_number', 'spec', 'quantity_received', 'received_on', 'expiry_date', 'site_id', 'status'], [...pool.lots.values()], t);
+  await insertRows('liner_lots', ['id', 'supplier', 'lot_number', 'spec', 'quantity_received', 'received_on', 'expiry_date', 'site_id', 'status', 'liner_spec_id', 'supplier_id'], [...pool.lots.values()], t);
   await insertRows(
     'hire_orders',
     ['id', 'reference', 'customer_id', 'delivery_site_id', 'depot_site_id', 'bin_type_id', 'quantity', 'needed_by', 'status', 'product'],
@@ -111,7 +113,7 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   await insertRows('scan_event_keys', ['client_event_id', 'user_id', 'scan_event_id', 'outcome'], pool.keys, t);
   await insertRows(
     'inspections',
-    ['id', 'asset_id', 'kind', 'performed_on', 'inspector_id', 'site_id', 'checklist', 'leak_test_pressure_kpa', 'leak_test_minutes', 'leak_test_passed', 'outcome', 'next_intermediate_due', 'next_full_due'],
+    ['id', 'asset_id', 'kind', 'performed_on', 'inspector_id', 'site_id', 'checklist', 'leak_test_pressure_kpa', 'leak_test_minutes', 'leak_test_passed', 'outcome', 'next_intermediate_due', 'next_full_due', 'scan_event_id', 'recorded_by'],
     inspections,
     t,
   );

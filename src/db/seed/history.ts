@@ -8,13 +8,15 @@ import { BinType, Organisation, Site, User } from '@/models';
 import type { Actor, ScanInput } from '@/lib/scans/scan-service.server';
 import { checkedOrThrow, newAssetRow, registerEventRow } from '@/lib/bins/bin-register.server';
 import { makeGrai } from '@/lib/gs1';
-import { nextDue } from '@/lib/inspections/inspection-due';
+import { scheduleAfterTest } from '@/lib/inspections/schedule-after';
+import { CHECKLIST } from '@/lib/inspections/inspection-form';
 import { policyForBinType } from '@/lib/bins/bin-policy';
 import { addDays, addMonthsToMonth, localDate } from '@/lib/calendar';
 import { seededRandom, type Random } from '@/lib/random';
 import { PoolSim, SimRefusal, type SimAsset, type SimLot, type SimOrder } from './pool-sim';
 import { nextIds, writePool, type SimInspection } from './bulk-write';
 import { CUSTOMERS, OPERATOR, PRODUCTS, LINER_SUPPLIERS } from './scenario';
+import { seedLinerRecords, type LinerRecords } from './liner-records';
 
 const DAY = 86_400_000;
 const HOUR = 3_600_000;
@@ -33,6 +35,7 @@ interface World {
   orders: Map<string, SimOrder>;
   inspections: SimInspection[];
   pool: PoolSim;
+  liners: LinerRecords;
   stats: Record<string, number>;
 }
 
@@ -124,7 +127,10 @@ async function loadWorld(now: Date, start: Date, rnd: Random, transaction: Trans
   const simSites = new Map(allSites.map((s) => [s.id, { id: s.id, kind: s.kind as 'depot', organisationId: s.organisationId, active: s.active }]));
   const ids = await nextIds(['assets', 'trips', 'scan_events', 'hire_orders', 'liner_lots', 'inspections'], transaction);
   const pool = new PoolSim(ids, simSites, OPERATOR.timeZone);
-  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), inspections: [], pool, stats: {} };
+  const liners = await seedLinerRecords(types, transaction);
+  for (const [id, f] of liners.specs) pool.specs.set(id, f);
+  for (const t of types) pool.binTypes.set(t.id, { name: t.name, listed: liners.listed.get(t.id) ?? [] });
+  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), inspections: [], pool, liners, stats: {} };
 }
 
 function count(world: World, key: string, n = 1) {
@@ -173,6 +179,7 @@ function createLinerLots(world: World) {
         id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
         lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-${String(n).padStart(3, '0')}`,
         spec: supplier.spec, quantity_received: rnd.pick([300, 400, 500]), received_on: received, expiry_date: expiry, site_id: depot.id, status: 'released',
+        ...linerIds(world, supplier.name),
       };
       world.lots.push(lot);
       world.pool.receiveLot(lot, new Date(t));
@@ -195,6 +202,11 @@ function lotFor(world: World, depotId: number, at: Date): SimLot | null {
   return inStock[0] ?? urgentLot(world, depotId, at);
 }
 
+function linerIds(world: World, supplierName: string): Pick<SimLot, 'liner_spec_id' | 'supplier_id'> {
+  const r = world.liners.bySupplier.get(supplierName)!;
+  return { liner_spec_id: r.specId, supplier_id: r.supplierId };
+}
+
 function urgentLot(world: World, depotId: number, at: Date): SimLot {
   const n = world.lots.length + 1;
   const supplier = LINER_SUPPLIERS[n % LINER_SUPPLIERS.length]!;
@@ -203,6 +215,7 @@ function urgentLot(world: World, depotId: number, at: Date): SimLot {
     id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
     lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-U${String(n).padStart(3, '0')}`,
     spec: supplier.spec, quantity_received: 400, received_on: received, expiry_date: addDays(received, 700), site_id: depotId, status: 'released',
+    ...linerIds(world, supplier.name),
   };
   world.lots.push(lot);
   world.pool.receiveLot(lot, at);
@@ -316,36 +329,35 @@ function liveBin(world: World, bin: SimAsset, homeDepot: Site, joined: Date) {
   }
 }
 
-/** Books and passes the periodic test when it falls due within the next three weeks (the yard would). */
+/** Books and passes the periodic test when it falls due within the next three weeks (the yard would), through the scan log like any test. */
 function keepTestInDate(world: World, asset: SimAsset, at: number, inspector: Actor) {
+  if (at > world.now.getTime()) return; // the wait ran past today: no test on a day that has not come yet
   const today = localDate(new Date(at), OPERATOR.timeZone);
   const soon = localDate(new Date(at + 21 * DAY), OPERATOR.timeZone);
-  if (!asset.nextDue || asset.nextDue > soon) return;
+  if (!asset.nextDue || asset.nextDue > soon || asset.status !== 'available') return;
   // Most are tested in time; a few slip past their date and wait for the booking.
   if (asset.nextDue < today && world.rnd.chance(0.15)) return;
   const type = world.types.find((ty) => ty.id === asset.binTypeId)!;
-  const month = today.slice(0, 7);
   const full = asset.nextFullDue !== null && asset.nextFullDue <= soon;
-  const due = nextDue(
-    {
-      manufactureMonth: asset.manufactureMonth.slice(0, 7),
-      lastIntermediateTestMonth: month,
-      lastFullInspectionMonth: full ? month : (asset.lastFullInspectionOn?.slice(0, 7) ?? null),
-    },
-    policyForBinType(type),
-  );
+  const kind = full ? ('full' as const) : ('intermediate' as const);
+  const leakTest = { pressureKpa: 20, minutes: 10, passed: true };
+  const { schedule } = scheduleAfterTest(asset, { kind, outcome: 'pass', leakTest, performedOn: today }, policyForBinType(type));
+  let eventId: number;
+  try {
+    eventId = world.pool.recordScan(inspector, PoolSim.input({
+      assetId: asset.id, action: 'inspect', siteId: asset.siteId, occurredAt: new Date(at),
+      inspection: { kind, outcome: 'pass', leakTest }, inspectionResult: { kind, outcome: 'pass', scheduleAfter: schedule },
+    })).eventId;
+  } catch (e) {
+    if (e instanceof SimRefusal) return;
+    throw e;
+  }
   world.inspections.push({
-    id: world.pool.ids.take('inspections'), asset_id: asset.id, kind: full ? 'full' : 'intermediate', performed_on: today, inspector_id: inspector.id,
-    site_id: asset.siteId, checklist: { external: true, serviceEquipment: true, marks: true, internal: full }, leak_test_pressure_kpa: '20',
-    leak_test_minutes: '10', leak_test_passed: true, outcome: 'pass', next_intermediate_due: due.intermediateDue, next_full_due: due.fullDue,
+    id: world.pool.ids.take('inspections'), asset_id: asset.id, kind, performed_on: today, inspector_id: inspector.id,
+    site_id: asset.siteId, checklist: Object.fromEntries(CHECKLIST[kind].map((i) => [i.key, true])), leak_test_pressure_kpa: '20',
+    leak_test_minutes: '10', leak_test_passed: true, outcome: 'pass', next_intermediate_due: asset.nextIntermediateDue, next_full_due: asset.nextFullDue,
+    scan_event_id: eventId, recorded_by: inspector.id,
   });
-  asset.lastInspectionOn = today;
-  asset.lastLeakTestOn = today; // tested with a leakproofness test (20 kPa, 10 min) below
-  if (full) asset.lastFullInspectionOn = today;
-  asset.nextIntermediateDue = due.intermediateDue;
-  asset.nextFullDue = due.fullDue;
-  asset.nextDue = due.nextDue;
-  asset.version += 1;
   count(world, full ? 'full_tests' : 'intermediate_tests');
 }
 

@@ -10,6 +10,7 @@ import type { ScanInput, Actor, ScanOutcome } from '@/lib/scans/scan-service.ser
 import { localDate } from '@/lib/calendar';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { LedgerBalance, movesForScan, shortOfStock, type MoveDraft } from '@/lib/liners/liner-moves';
+import { specFitsBinType, type SpecFacts } from '@/lib/liners/liner-specs';
 
 export interface SimAsset extends AssetSnapshot {
   id: number;
@@ -95,6 +96,8 @@ export interface SimLot {
   expiry_date: string;
   site_id: number;
   status: 'released' | 'on_hold' | 'recalled';
+  liner_spec_id: number | null;
+  supplier_id: number | null;
 }
 
 export interface SimSite extends ScanSite {
@@ -135,6 +138,9 @@ export class PoolSim {
   /** The liner ledger (liner_moves rows) and its running balance per lot and depot. */
   readonly moves: MoveDraft[] = [];
   readonly ledger = new LedgerBalance();
+  /** Liner specs, and the specs each bin type lists with its name (the fit check's inputs). */
+  readonly specs = new Map<number, SpecFacts>();
+  readonly binTypes = new Map<number, { name: string; listed: SpecFacts[] }>();
 
   constructor(
     readonly ids: IdSource,
@@ -161,6 +167,7 @@ export class PoolSim {
       prepResult: input.prepResult,
       linerLotId: input.linerLotId === undefined ? undefined : String(input.linerLotId),
       purpose: input.purpose,
+      inspection: input.inspectionResult,
     });
     if (!decision.ok) throw new SimRefusal('transition_refused', decision.code, decision.reason);
     const { order, lotNumber } = this.checkActionInputs(asset, input, site, today);
@@ -204,6 +211,8 @@ export class PoolSim {
     }
     const before = { ...asset };
     Object.assign(asset, assetAfter(asset, decision, opened, occurredAt));
+    const schedule = decision.patch.schedule;
+    if (schedule) Object.assign(asset, schedule); // the same six columns recordScan() writes (scheduleColumns)
     asset.version += 1;
     for (const m of movesForScan({ action: input.action, before, after: asset, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt })) {
       this.addMove({ ...m, scan_event_id: eventId });
@@ -255,6 +264,9 @@ export class PoolSim {
       if (!lot) throw new SimRefusal('unprocessable', 'unprocessable', 'That liner lot does not exist.');
       const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiry_date, lotNumber: lot.lot_number }, today);
       if (!ok.ok) throw new SimRefusal('transition_refused', ok.code, ok.reason);
+      const type = this.binTypes.get(asset.binTypeId);
+      const fit = specFitsBinType(lot.liner_spec_id === null ? null : (this.specs.get(lot.liner_spec_id) ?? null), type?.name ?? 'this bin type', type?.listed ?? []);
+      if (!fit.ok) throw new SimRefusal('transition_refused', fit.code, fit.reason);
       const short = shortOfStock(lot.lot_number, this.onHand(lot.id, (site?.id ?? asset.siteId)!), 1);
       if (short) throw new SimRefusal('transition_refused', 'lot_empty', short);
       lotNumber = lot.lot_number;

@@ -106,8 +106,23 @@ export const BIN_TYPES = [
   },
 ];
 
-/** Invented liner suppliers. */
+/**
+ * Invented liner suppliers, their terms and the spec each delivers (article numbers invented). Both specs
+ * are listed for both bin types (a 1,250 L bag sits in the 1,000 L bin too in this scenario); the third
+ * spec, a threaded-valve bag for the 1,250 L bin only, has no lots yet.
+ */
 export const LINER_SUPPLIERS = [
-  { name: 'Polyvale Liners', prefix: 'PV', spec: 'PE/PA 1,000–1,250 L bag with 2" bottom valve, food grade' },
-  { name: 'Carrow Films', prefix: 'CF', spec: 'Multilayer PE 1,000 L bag, EVOH barrier, 2" valve' },
+  {
+    name: 'Polyvale Liners', prefix: 'PV', spec: 'PE/PA 1,000–1,250 L bag with 2" bottom valve, food grade',
+    terms: { orderEmail: 'orders@polyvale.example', leadTimeDays: 10, orderCost: '85.00', packSize: 50, minOrderQty: 200, pricePerLiner: '6.40' },
+    specRecord: { code: 'PV-1250-DN50', name: 'PE/PA food-grade bag, 1,250 L, DN50 butterfly valve', material: 'PE/PA', layers: 2, nominalCapacityL: 1250, valveType: 'butterfly' as const, valveSize: 'DN50', glandSize: 'DN150', foodContact: true, maxFillTempC: 60, articleNumber: 'PVL-1250-50F' },
+  },
+  {
+    name: 'Carrow Films', prefix: 'CF', spec: 'Multilayer PE 1,000 L bag, EVOH barrier, 2" valve',
+    terms: { orderEmail: 'sales@carrowfilms.example', leadTimeDays: 21, orderCost: '120.00', packSize: 40, minOrderQty: 160, pricePerLiner: '7.90' },
+    specRecord: { code: 'CF-1000-DN50', name: 'PE/EVOH/PE barrier bag, 1,000 L, DN50 ball valve', material: 'PE/EVOH/PE', layers: 3, nominalCapacityL: 1000, valveType: 'ball' as const, valveSize: 'DN50', glandSize: 'DN150', foodContact: true, maxFillTempC: 45, articleNumber: 'CF-EV1000-B50' },
+  },
 ];
+
+/** A spec with no lots yet: listed for the 1,250 L bin only. */
+export const EXTRA_LINER_SPEC = { supplier: 'Polyvale Liners', code: 'PV-1250-S60', name: 'PE bag, 1,250 L, S60x6 threaded spout', material: 'PE', layers: 1, nominalCapacityL: 1250, valveType: 'spout' as const, valveSize: 'S60x6', glandSize: 'DN150', foodContact: false, maxFillTempC: null, articleNumber: 'PVL-1250-S60', binTypeCodes: ['FX1250'] };

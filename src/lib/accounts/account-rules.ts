@@ -7,7 +7,7 @@ import { text } from '@/lib/text-input';
 export type LinkPurpose = 'invite' | 'reset';
 
 /** An invitation link lasts a week (people are invited ahead of their first shift). */
-export const INVITE_LINK_DAYS = 7;
+const INVITE_LINK_DAYS = 7;
 /** A reset link lasts an hour: whoever asks is at the keyboard now. */
 export const RESET_LINK_MINUTES = 60;
 
@@ -16,7 +16,7 @@ export function linkLifetimeMs(purpose: LinkPurpose): number {
 }
 
 /** The page each purpose's link opens; both pages show the same set-password form. */
-export const LINK_PATHS: Record<LinkPurpose, string> = { invite: '/account/invite', reset: '/account/reset' };
+const LINK_PATHS: Record<LinkPurpose, string> = { invite: '/account/invite', reset: '/account/reset' };
 
 /** `${APP_URL}/account/invite?token=…`; the base comes from configuration, never from a request's Host. */
 export function accountLinkUrl(appUrl: string, purpose: LinkPurpose, token: string): string {
@@ -29,8 +29,8 @@ export const TOKEN_PATTERN = /^[A-Za-z0-9_-]{43}$/;
 export const PASSWORD_MIN_CHARS = 10;
 // NIST SP 800-63B §5.1.1.2 asks verifiers to accept at least 64 characters;
 // bcrypt reads only the first 72 bytes, so longer input is refused rather than cut silently.
-export const PASSWORD_MAX_CHARS = 64;
-export const PASSWORD_MAX_BYTES = 72;
+const PASSWORD_MAX_CHARS = 64;
+const PASSWORD_MAX_BYTES = 72;
 
 /** Why a chosen password is refused, or null when it is acceptable. */
 export function passwordProblem(password: string, context: { email?: string } = {}): string | null {

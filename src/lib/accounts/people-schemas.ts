@@ -28,6 +28,3 @@ export const personPatchSchema = z
     message: 'Nothing to change.',
   });
 export type PersonPatch = z.infer<typeof personPatchSchema>;
-
-/** `[id]` in a route path. */
-export const idParamSchema = z.coerce.number().int().positive().max(2_147_483_647);

@@ -6,7 +6,7 @@ import { linkLifetimeMs, TOKEN_PATTERN, type LinkPurpose, type LinkState } from 
 // One-time links. The raw token exists only in the e-mail; the table keeps its
 // SHA-256, so someone who reads the database cannot use a pending link.
 
-export function hashToken(raw: string): string {
+function hashToken(raw: string): string {
   return createHash('sha256').update(raw, 'utf8').digest('hex');
 }
 

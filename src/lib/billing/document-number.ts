@@ -22,7 +22,7 @@ export const DOCUMENT_SERIES: Readonly<Record<DocumentSeries, { prefix: string; 
 });
 
 /** Sequences are padded to this many digits and simply grow longer beyond 99 999. */
-export const SEQUENCE_DIGITS = 5;
+const SEQUENCE_DIGITS = 5;
 
 const NUMBER_PATTERN = /^([A-Z]{3})-(\d{4})-(\d{5,})$/;
 

@@ -38,7 +38,7 @@ export type HireStartEvent = 'dispatch' | 'delivery';
 export type HireStopEvent = 'ready_notice' | 'collection' | 'depot_receipt';
 
 /** In the order they happen on a trip; a missing one falls back to the next. */
-export const HIRE_STOP_EVENTS: readonly HireStopEvent[] = ['ready_notice', 'collection', 'depot_receipt'];
+const HIRE_STOP_EVENTS: readonly HireStopEvent[] = ['ready_notice', 'collection', 'depot_receipt'];
 
 export interface TariffVersion extends DayCountTerms {
   /** First local date this version applies to. */
@@ -318,7 +318,7 @@ function taxNoteOf(tax: TaxTreatment): string {
   return `VAT ${(tax.rateBasisPoints / 100).toFixed(2).replace(/\.?0+$/, '')} % on the net total.`;
 }
 
-export function totalsOf(lines: StatementLine[], currency: string, tax: TaxTreatment): StatementTotals {
+function totalsOf(lines: StatementLine[], currency: string, tax: TaxTreatment): StatementTotals {
   const netMinor = lines.reduce((sum, l) => sum + l.amountMinor, 0);
   const taxMinor = tax.kind === 'rate' ? applyRate(netMinor, tax.rateBasisPoints) : 0;
   return { currency, netMinor, taxMinor, grossMinor: netMinor + taxMinor, tax, taxNote: taxNoteOf(tax), rounding: ROUNDING };

@@ -28,7 +28,7 @@ function onTop(m: UnIbcMarking): string {
   return `${n} bin${n === 1 ? '' : 's'} of up to ${kg(m.maxGrossMassKg)} each`;
 }
 
-export function summariseUnMark(marking: UnIbcMarking): UnMarkField[] {
+function summariseUnMark(marking: UnIbcMarking): UnMarkField[] {
   const { typeCode, packingGroup, manufacture } = marking;
   return [
     { key: 'typeCode', label: 'Type code', value: `${typeCode.code}: ${typeCode.meaning}` },

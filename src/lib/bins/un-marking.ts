@@ -38,7 +38,7 @@ const KINDS: Record<IbcKindDigits, IbcKind> = {
 /** 6.5.1.4.1 (b): material letters. */
 export type IbcMaterialLetter = 'A' | 'B' | 'C' | 'D' | 'F' | 'G' | 'H' | 'L' | 'M' | 'N';
 
-export const IBC_MATERIALS: Readonly<Record<IbcMaterialLetter, string>> = {
+const IBC_MATERIALS: Readonly<Record<IbcMaterialLetter, string>> = {
   A: 'steel',
   B: 'aluminium',
   C: 'natural wood',

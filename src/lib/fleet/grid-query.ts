@@ -25,7 +25,7 @@ import { overdueBackSql } from './overdue-return';
 import { DUE_SOON_DAYS, testDueSoonSql } from '@/lib/inspections/inspection-due';
 
 export const MAX_PAGE_ROWS = 500;
-export const MAX_SORT_COLUMNS = 5;
+const MAX_SORT_COLUMNS = 5;
 const MAX_SET_VALUES = 500;
 const MAX_CONDITIONS = 5;
 const MAX_TEXT_LENGTH = 200;

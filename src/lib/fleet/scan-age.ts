@@ -12,8 +12,8 @@
 import { addDays, daysBetween } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
 
-export const DEFAULT_STALE_DAYS = 30;
-export const MAX_STALE_DAYS = 3650;
+const DEFAULT_STALE_DAYS = 30;
+const MAX_STALE_DAYS = 3650;
 
 export type StaleDaysParse = { ok: true; days: number } | { ok: false; days: number; message: string };
 

@@ -11,7 +11,7 @@ export function safeFileName(name: string): string {
   return (cleaned || 'export').slice(0, 120).replace(/(\.csv)?$/i, '.csv');
 }
 
-export function csvHeaders(fileName: string): Record<string, string> {
+function csvHeaders(fileName: string): Record<string, string> {
   return {
     'Content-Type': 'text/csv; charset=utf-8',
     'Content-Disposition': `attachment; filename="${safeFileName(fileName)}"`,

@@ -43,7 +43,7 @@ export function normaliseAddress(raw: string | undefined | null): string | null 
 }
 
 /** The comma-separated entries of one or more X-Forwarded-* header values, in order, trimmed. */
-export function headerList(value: string | null | undefined): string[] {
+function headerList(value: string | null | undefined): string[] {
   return (value ?? '').split(',').map((s) => s.trim()).filter(Boolean);
 }
 

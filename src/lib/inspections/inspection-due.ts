@@ -214,14 +214,18 @@ export function clocksRestartedBy(record: TestRecord): { intermediate: boolean; 
   return { intermediate: leakTestCounts, full: record.kind === 'full' };
 }
 
-/** The history after a test done in `month`: the clocks it restarts move to that month, the others stay. */
+/** The history after a test done in `month`: the clocks it restarts move to that month (never backwards), the others stay. */
 export function historyAfter(history: InspectionHistory, record: TestRecord & { month: YearMonth }): InspectionHistory {
   if (!isYearMonth(record.month)) throw new RangeError(`Test month is not a month (YYYY-MM): ${JSON.stringify(record.month)}`);
   const restarted = clocksRestartedBy(record);
+  // A record entered late, for a test older than the clock's last one, never moves that clock backwards.
+  const moves = (last: YearMonth | null | undefined) => last == null || record.month >= last;
+  const lastIntermediate = history.lastIntermediateTestMonth ?? null;
+  const lastFull = history.lastFullInspectionMonth ?? null;
   return {
     manufactureMonth: history.manufactureMonth,
-    lastIntermediateTestMonth: restarted.intermediate ? record.month : (history.lastIntermediateTestMonth ?? null),
-    lastFullInspectionMonth: restarted.full ? record.month : (history.lastFullInspectionMonth ?? null),
+    lastIntermediateTestMonth: restarted.intermediate && moves(lastIntermediate) ? record.month : lastIntermediate,
+    lastFullInspectionMonth: restarted.full && moves(lastFull) ? record.month : lastFull,
   };
 }
 

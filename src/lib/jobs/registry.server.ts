@@ -23,7 +23,7 @@ export const JOBS: readonly JobDefinition[] = [
   { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];
 
-export function jobByName(name: string): JobDefinition | undefined {
+function jobByName(name: string): JobDefinition | undefined {
   return JOBS.find((j) => j.name === name);
 }
 

@@ -11,8 +11,8 @@ import type { OperatorSettings } from '@/lib/settings/settings.server';
  * (ISO/IEC 18004): labels in a yard get scuffed and splashed. The quiet zone
  * of 4 modules that the standard asks for is kept inside the SVG.
  */
-export const QR_ERROR_CORRECTION = 'Q' as const;
-export const QR_QUIET_ZONE_MODULES = 4;
+const QR_ERROR_CORRECTION = 'Q' as const;
+const QR_QUIET_ZONE_MODULES = 4;
 
 export interface PrintedLabel {
   binId: number;

@@ -91,10 +91,6 @@ export const LABEL_STOCKS: Readonly<Record<LabelStockId, LabelStock>> = {
 export const LABEL_STOCK_IDS = Object.keys(LABEL_STOCKS) as LabelStockId[];
 export const DEFAULT_LABEL_STOCK: LabelStockId = 'a4-3x8';
 
-export function isLabelStockId(value: unknown): value is LabelStockId {
-  return typeof value === 'string' && Object.hasOwn(LABEL_STOCKS, value);
-}
-
 export function labelsPerSheet(stock: LabelStock): number {
   return stock.columns * stock.rows;
 }

@@ -40,12 +40,12 @@ export async function insertMoves(drafts: MoveDraft[], t: Transaction): Promise<
   }
 }
 
-export interface LockedLot { id: number; lotNumber: string; status: 'released' | 'on_hold' | 'recalled'; expiryDate: string; siteId: number }
+export interface LockedLot { id: number; lotNumber: string; status: 'released' | 'on_hold' | 'recalled'; expiryDate: string; siteId: number; linerSpecId: number | null }
 
 /** Locks the lot's row for the rest of the transaction (every taker of its liners queues here). */
 export async function lockLot(lotId: number, t: Transaction): Promise<LockedLot | null> {
   const [lot] = await rows<LockedLot>(
-    `SELECT id, lot_number AS "lotNumber", status, expiry_date AS "expiryDate", site_id AS "siteId" FROM liner_lots WHERE id = $1 FOR UPDATE`,
+    `SELECT id, lot_number AS "lotNumber", status, expiry_date AS "expiryDate", site_id AS "siteId", liner_spec_id AS "linerSpecId" FROM liner_lots WHERE id = $1 FOR UPDATE`,
     [lotId], t);
   return lot ?? null;
 }
@@ -82,6 +82,8 @@ export interface ReceiptInput {
   expiryDate: string;
   siteId: number;
   certificateId?: number | null;
+  linerSpecId?: number | null;
+  supplierId?: number | null;
 }
 
 /** A lot arriving at a depot: the lot row and its receipt move, together. */
@@ -91,9 +93,9 @@ export async function receiveLot(who: Mover, input: ReceiptInput, opts: { transa
     const existing = await rows<{ id: number }>('SELECT id FROM liner_lots WHERE supplier = $1 AND lot_number = $2', [input.supplier, input.lotNumber], t);
     if (existing.length) throw new AppError('duplicate', `Lot ${input.lotNumber} of ${input.supplier} is already received.`);
     const [lot] = await rows<{ id: number }>(
-      `INSERT INTO liner_lots (supplier, lot_number, spec, quantity_received, received_on, expiry_date, site_id, certificate_id)
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8) RETURNING id`,
-      [input.supplier, input.lotNumber, input.spec, input.quantity, input.receivedOn, input.expiryDate, input.siteId, input.certificateId ?? null], t);
+      `INSERT INTO liner_lots (supplier, lot_number, spec, quantity_received, received_on, expiry_date, site_id, certificate_id, liner_spec_id, supplier_id)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id`,
+      [input.supplier, input.lotNumber, input.spec, input.quantity, input.receivedOn, input.expiryDate, input.siteId, input.certificateId ?? null, input.linerSpecId ?? null, input.supplierId ?? null], t);
     const [moveId] = await insertMoves([{ lot_id: lot!.id, site_id: input.siteId, kind: 'receipt', quantity: input.quantity, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
     return { lotId: lot!.id, moveId: moveId! };
   });

@@ -5,7 +5,7 @@ import { sequelize } from '@/db/sequelize';
 // SMTP stand-in is in use — what that stand-in received (table dev_mailbox,
 // created by src/cli/mail-fake.mjs, so it may not exist).
 
-export const MAIL_PAGE_SIZE = 50;
+const MAIL_PAGE_SIZE = 50;
 
 export interface OutboxRow {
   id: number; toAddress: string; subject: string; textBody: string; kind: string;

@@ -24,7 +24,7 @@ export interface OutgoingMail {
 /** What a masked secret looks like in the outbox. */
 export const MASKED_SECRET = '•••';
 
-export function maskSecrets(text: string, secrets: readonly string[] = []): string {
+function maskSecrets(text: string, secrets: readonly string[] = []): string {
   return secrets.filter((s) => s.length >= 8).reduce((t, s) => t.split(s).join(MASKED_SECRET), text);
 }
 

@@ -15,7 +15,7 @@ import { parseUnMarking } from '@/lib/bins/un-marking';
 export type Result<T> = ({ ok: true } & T) | { ok: false; message: string };
 
 /** Never above this at a mean bulk temperature of 50 °C (ADR 4.1.1.4). */
-export const MAX_FILL_AT_50C_PERCENT = 98;
+const MAX_FILL_AT_50C_PERCENT = 98;
 
 export interface FormulaInput {
   /** Relative density (g/mL) at 15 °C and at 50 °C. */
@@ -26,7 +26,7 @@ export interface FormulaInput {
 }
 
 /** Fill temperatures the formula is used for here: colder is outside the product range, hotter than the 50 °C reference is not covered. */
-export const FILL_TEMP_RANGE_C = { min: -40, max: 50 } as const;
+const FILL_TEMP_RANGE_C = { min: -40, max: 50 } as const;
 
 function finite(value: unknown): value is number {
   return typeof value === 'number' && Number.isFinite(value);
@@ -63,7 +63,7 @@ export function maxFillPercentByFormula(input: FormulaInput): Result<{ percent: 
  * ADR 4.1.1.4 (a), for filling at a mean liquid temperature of 15 °C, by the
  * initial boiling point. Each band includes its lower edge.
  */
-export const BOILING_POINT_BANDS: readonly { fromC: number; belowC: number; percent: number }[] = [
+const BOILING_POINT_BANDS: readonly { fromC: number; belowC: number; percent: number }[] = [
   { fromC: -Infinity, belowC: 60, percent: 90 },
   { fromC: 60, belowC: 100, percent: 92 },
   { fromC: 100, belowC: 200, percent: 94 },
@@ -89,7 +89,7 @@ export function volumeFromMass(massKg: number, densityKgPerL: number): number {
   return massKg / densityKgPerL;
 }
 
-export function massFromVolume(volumeL: number, densityKgPerL: number): number {
+function massFromVolume(volumeL: number, densityKgPerL: number): number {
   return volumeL * densityKgPerL;
 }
 

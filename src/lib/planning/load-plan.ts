@@ -42,13 +42,13 @@ export const STANDARD_TRAILER: Readonly<Trailer> = {
  * choice (common practice has "some play", no figure); with it the practice
  * counts of §9 come out (26 of 1200 × 1000, 33 of 1200 × 800).
  */
-export const DEFAULT_FLOOR_PLAY_MM = 10;
+const DEFAULT_FLOOR_PLAY_MM = 10;
 
 /**
  * Head room kept above the top bin so the forks can lift it over the one
  * below: 50 mm is our choice, not a sourced figure.
  */
-export const DEFAULT_HEAD_ROOM_MM = 50;
+const DEFAULT_HEAD_ROOM_MM = 50;
 
 export interface Footprint {
   lengthMm: number;
@@ -304,7 +304,7 @@ export function loadCapacity(
   return capacity;
 }
 
-export const FACTOR_WORDS: Readonly<Record<LimitingFactor, string>> = {
+const FACTOR_WORDS: Readonly<Record<LimitingFactor, string>> = {
   space: 'floor space and inside height',
   'stacking-test-load': 'the stacking test load on the UN mark',
   'level-limit': 'the level limit',

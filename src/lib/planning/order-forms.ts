@@ -14,12 +14,12 @@ import { ORDER_STATUSES, type OrderStatus } from './order-status';
 
 export const ORDER_SORT_KEYS = ['wanted', 'reference', 'customer', 'status', 'quantity', 'created'] as const;
 export type OrderSortKey = (typeof ORDER_SORT_KEYS)[number];
-export const ORDER_FILTER_KEYS = ['status', 'customer', 'depot', 'type', 'from', 'to', 'ref'] as const;
+const ORDER_FILTER_KEYS = ['status', 'customer', 'depot', 'type', 'from', 'to', 'ref'] as const;
 export type OrderFilterKey = (typeof ORDER_FILTER_KEYS)[number];
 const OPTION_KEYS = ['sort', 'dir', 'page', 'size'] as const;
 
-export const DEFAULT_ORDER_PAGE_SIZE = 50;
-export const MAX_ORDER_PAGE_SIZE = 200;
+const DEFAULT_ORDER_PAGE_SIZE = 50;
+const MAX_ORDER_PAGE_SIZE = 200;
 
 /** `status=demand` means confirmed or loading (what the depots are working on). */
 export type OrderStatusFilter = OrderStatus | 'demand';

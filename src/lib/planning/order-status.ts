@@ -16,10 +16,6 @@ export type OrderStatus = (typeof ORDER_STATUSES)[number];
 /** Orders that are demand: counted at the depot, on the yard's list, and loadable. */
 export const DEMAND_STATUSES = ['confirmed', 'loading'] as const satisfies readonly OrderStatus[];
 
-export function isOrderStatus(value: unknown): value is OrderStatus {
-  return typeof value === 'string' && (ORDER_STATUSES as readonly string[]).includes(value);
-}
-
 export function countsAsDemand(status: OrderStatus): boolean {
   return (DEMAND_STATUSES as readonly OrderStatus[]).includes(status);
 }

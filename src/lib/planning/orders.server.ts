@@ -32,7 +32,7 @@ const PROGRESS_SQL = `
     FROM trips t LEFT JOIN loads l ON l.id = t.load_id
    WHERE t.hire_order_id = $1`;
 
-export async function orderProgress(orderId: number, quantity: number, t?: Transaction): Promise<OrderProgress> {
+async function orderProgress(orderId: number, quantity: number, t?: Transaction): Promise<OrderProgress> {
   const [row] = await q<{ loaded: number; dispatched: number }>(PROGRESS_SQL, [orderId], t);
   return { quantity, loaded: row?.loaded ?? 0, dispatched: row?.dispatched ?? 0 };
 }
@@ -109,7 +109,7 @@ const SORT_SQL: Record<OrderSortKey, string> = {
 };
 
 /** WHERE clause and binds for the filters (values always bound, never in the text). */
-export function orderWhere(filters: OrderListQuery['filters']): { where: string; bind: unknown[] } {
+function orderWhere(filters: OrderListQuery['filters']): { where: string; bind: unknown[] } {
   const parts: string[] = [];
   const bind: unknown[] = [];
   const add = (sql: (n: string) => string, value: unknown) => {

@@ -174,7 +174,7 @@ export interface ReturnModel {
 const keyOf = (siteKey: string, binTypeKey: string) => `${siteKey}\u0000${binTypeKey}`;
 
 /** The spell a trip showed on `asOf`, or null when it had not started yet. */
-export function spellAsOf(trip: TripHistoryRecord, asOf: LocalDate): HireSpell | null {
+function spellAsOf(trip: TripHistoryRecord, asOf: LocalDate): HireSpell | null {
   if (trip.dispatchedOn > asOf) return null;
   if (trip.returnedOn !== null && trip.returnedOn <= asOf) {
     return { days: Math.max(0, daysBetween(trip.dispatchedOn, trip.returnedOn)), returned: true };

@@ -124,7 +124,7 @@ export interface TruckPlanResult {
 }
 
 export const DEFAULT_TIME_LIMIT_SECONDS = 10;
-export const DEFAULT_MIP_REL_GAP = 0.001;
+const DEFAULT_MIP_REL_GAP = 0.001;
 const MIN_LP_SECONDS = 30;
 
 let solverLoading: Promise<Highs> | null = null;

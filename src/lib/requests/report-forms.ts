@@ -93,7 +93,7 @@ export type DamageReportFields = z.infer<typeof damageReportFields>;
 
 export type ReportForm = 'collection' | 'damage';
 
-export const FORM_FIELDS: Record<ReportForm, readonly string[]> = {
+const FORM_FIELDS: Record<ReportForm, readonly string[]> = {
   collection: ['quantity', 'locationNote', 'contactName', 'contactPhone', 'contactEmail', 'note'],
   damage: ['description', 'contactName', 'contactEmail'],
 };

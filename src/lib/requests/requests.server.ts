@@ -147,7 +147,7 @@ async function tellPlanners(kind: RequestKind, id: number): Promise<MailOutcome[
 
 // Lists for the planners' page
 
-export const REQUESTS_PAGE_SIZE = 20;
+const REQUESTS_PAGE_SIZE = 20;
 
 interface RowCommon {
   id: number;

@@ -14,7 +14,7 @@ export type CbvDisposition =
 export interface CbvRow {
   bizStep: CbvBizStep;
   disposition: CbvDisposition;
-  dispositionOnFail?: CbvDisposition; // prep_check only: a failed check sends the bin to quarantine
+  dispositionOnFail?: CbvDisposition; // prep_check and inspect: a failed check sends the bin to quarantine
 }
 
 export const CBV_MAPPING: Record<Action, CbvRow> = {
@@ -34,4 +34,5 @@ export const CBV_MAPPING: Record<Action, CbvRow> = {
   retire: { bizStep: 'decommissioning', disposition: 'inactive' },
   mark_missing: { bizStep: 'other', disposition: 'unavailable' }, // not known to be stolen, only unaccounted for
   mark_found: { bizStep: 'other', disposition: 'available' },
+  inspect: { bizStep: 'inspecting', disposition: 'conformant', dispositionOnFail: 'non_conformant' }, // periodic or after-repair test
 };

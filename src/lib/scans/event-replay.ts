@@ -2,7 +2,7 @@
 // carries the patch the rule table decided and its trip effect, so folding the
 // non-voided scans in order gives back the state; inferred entries carry no
 // patch of their own (their effect is part of the scan that implied them).
-import type { BinState, Leg, Status, TripEffect } from './lifecycle';
+import type { BinState, Leg, Schedule, Status, TripEffect } from './lifecycle';
 
 export interface LoggedEvent {
   occurredAt: string | Date;
@@ -21,12 +21,14 @@ export interface DerivedState {
   tripOpen: boolean;
   tripCount: number;
   siteSince: Date | null;
+  /** The test months and due dates the last passed inspection in the log set; null: as registered. */
+  schedule: Schedule | null;
 }
 
 const toId = (v: string | null | undefined) => (v == null ? null : Number(v));
 
 export function replayState(events: readonly LoggedEvent[]): DerivedState {
-  const s: DerivedState = { status: null, siteId: null, leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, tripCount: 0, siteSince: null };
+  const s: DerivedState = { status: null, siteId: null, leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, tripCount: 0, siteSince: null, schedule: null };
   for (const e of events) {
     if (e.voided || e.inferred || !e.payload?.patch) continue;
     const p = e.payload.patch;
@@ -37,6 +39,7 @@ export function replayState(events: readonly LoggedEvent[]): DerivedState {
     if ('prepChecked' in p) s.prepChecked = Boolean(p.prepChecked);
     if ('linerLotId' in p) s.linerLotId = toId(p.linerLotId);
     if ('filled' in p) s.filled = Boolean(p.filled);
+    if (p.schedule) s.schedule = p.schedule;
     if (s.siteId !== siteBefore || s.siteSince === null) s.siteSince = new Date(e.occurredAt);
     if (e.payload.trip === 'open') s.tripOpen = true;
     if (e.payload.trip === 'close') {

@@ -4,7 +4,7 @@
 // A refusal carries a reason a yard hand can act on and changes nothing.
 
 export const STATUSES = ['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair', 'missing', 'retired'] as const;
-export const ACTIONS = ['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found'] as const;
+export const ACTIONS = ['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found', 'inspect'] as const;
 import { ROLES, type Role } from '@/lib/permissions';
 import { dueDatesOf, inspectionLabel, inspectionNeeded } from '@/lib/inspections/inspection-due';
 export { ROLES, type Role };
@@ -29,6 +29,26 @@ export interface BinState {
    * ("2.5-year", "5-year", "18-month" …). Optional: without it the refusal says "its periodic inspection".
    */
   inspection?: { intermediateDue: string; fullDue: string; intermediateMonths: number; fullMonths: number } | null;
+  /** The test months and due dates a passed inspection sets (only ever in a patch; see `inspect`). */
+  schedule?: Schedule | null;
+}
+
+/** A bin's test record as its columns keep it: the last tests done and the due dates they give. */
+export interface Schedule {
+  lastInspectionOn: string;
+  lastLeakTestOn: string | null;
+  lastFullInspectionOn: string | null;
+  nextIntermediateDue: string;
+  nextFullDue: string;
+  nextDue: string;
+}
+
+/** What an inspection at the test bench found (the inspect action's input). */
+export interface InspectionResult {
+  kind: 'intermediate' | 'full' | 'after_repair';
+  outcome: 'pass' | 'repair' | 'fail';
+  /** The schedule after a pass, worked out by the caller from the clocks the test restarts; null when none moves. */
+  scheduleAfter: Schedule | null;
 }
 
 export interface ActionContext {
@@ -39,6 +59,7 @@ export interface ActionContext {
   prepResult?: 'pass' | 'fail'; // prep_check only
   linerLotId?: string; // fit_liner only
   purpose?: 'hire' | 'transfer'; // dispatch only (transfer = move empties between depots, no trip)
+  inspection?: InspectionResult; // inspect only
 }
 
 export type LotRefusalCode = 'lot_on_hold' | 'lot_recalled' | 'lot_expired';
@@ -53,6 +74,7 @@ export type RefusalCode =
   | 'prep_check_needed'
   | 'no_prep_result'
   | 'no_liner_lot'
+  | 'no_inspection_result'
   | 'already_filled'
   | 'not_filled'
   | LotRefusalCode;
@@ -95,6 +117,7 @@ export const ACTION_LABELS: Record<Action, string> = {
   retire: 'Retire',
   mark_missing: 'Mark missing',
   mark_found: 'Mark found',
+  inspect: 'Record inspection',
 };
 
 /**
@@ -118,6 +141,7 @@ export const INFERRED_STATUS: Record<Action, Status> = {
   retire: 'retired',
   mark_missing: 'missing',
   mark_found: 'available',
+  inspect: 'available',
 };
 
 const SITE_KIND_WORDS: Record<SiteKind, string> = {
@@ -131,7 +155,7 @@ const SITE_KIND_WORDS: Record<SiteKind, string> = {
 // Who may record what. Customers record only what happens to a bin at their own sites; planners and
 // admins may record anything (they correct and enter scans from a desk).
 
-export const ACTION_ROLES: Record<Action, readonly Role[]> = {
+const ACTION_ROLES: Record<Action, readonly Role[]> = {
   register: ['planner', 'admin'],
   receive: ['yard', 'planner', 'admin'],
   prep_check: ['yard', 'planner', 'admin'],
@@ -148,6 +172,7 @@ export const ACTION_ROLES: Record<Action, readonly Role[]> = {
   retire: ['planner', 'admin'],
   mark_missing: ['planner', 'admin'],
   mark_found: ['yard', 'planner', 'admin'],
+  inspect: ['yard', 'planner', 'admin'],
 };
 
 // ---------------------------------------------------------------------------------------------------
@@ -206,6 +231,11 @@ const NEXT_STEP_FOR: Partial<Record<`${Action}:${Status}`, string>> = {
   'send_to_repair:available': 'quarantine it first',
   'send_to_repair:prepared': 'quarantine it first',
   'retire:prepared': 'fold it first to take the liner out',
+  'inspect:prepared': 'take the liner out first (fold it), then test it',
+  'inspect:in_transit': 'receive it at a depot first',
+  'inspect:on_hire': 'it is with the customer; test it when it is back at a depot',
+  'inspect:awaiting_collection': 'it is waiting at the customer; test it when it is back at a depot',
+  'inspect:missing': 'mark it found first',
 };
 
 function wrongStatus(action: Action, s: BinState, advice?: string): Refusal {
@@ -272,6 +302,8 @@ function stepsHomeFromLastSeen(s: BinState): Action[] {
 type Rule = (s: Registered, ctx: ActionContext) => Outcome;
 
 const RULES: Record<Exclude<Action, 'register'>, Rule> = {
+  inspect,
+
   // Arrival at a depot, also the return that closes a trip. A bin the yard never saw collected is
   // accepted: the missed steps are inferred in cycle order and flagged for a planner.
   receive(s, ctx) {
@@ -459,6 +491,35 @@ const RULES: Record<Exclude<Action, 'register'>, Rule> = {
   },
 };
 
+// The periodic inspection and test, or the test after a repair, at the test bench (a depot or the repair
+// shop), or entered from a desk by a planner from an outside inspection body's report. Allowed after the
+// test has lapsed: that is when it is needed (an empty IBC may travel to its test, ADR/RID 4.1.2.2).
+// A pass moves the due dates (only the clocks the test covers; the caller works them out); an after-repair
+// pass puts a quarantined or repaired bin back in service. A repair or fail outcome quarantines the bin
+// (a bin already in repair stays there), liner out.
+function inspect(s: Registered, ctx: ActionContext): Outcome {
+  if (!['available', 'quarantine', 'in_repair'].includes(s.status)) return wrongStatus('inspect', s);
+  if (ctx.siteKind === 'customer' || ctx.siteKind === 'recycling') return wrongSiteKind('inspect', ctx, 'a depot or a repair shop');
+  if (ctx.siteKind === null && ctx.role === 'yard') return wrongSiteKind('inspect', ctx, 'a depot or a repair shop');
+  let inferred: Action[] = [];
+  let patch: Partial<BinState> = ctx.siteKind === null ? {} : { siteId: ctx.siteId, siteKind: ctx.siteKind };
+  if (s.status === 'available' && ctx.siteKind === 'depot') {
+    const here = atThisDepot('inspect', s, ctx);
+    if (isRefusal(here)) return here;
+    inferred = here.inferred;
+    patch = here.patch;
+  }
+  const r = ctx.inspection;
+  if (!r) return { code: 'no_inspection_result', reason: 'Record what the inspection found: pass, needs repair or fail.' };
+  if (r.outcome !== 'pass') {
+    const to: Status = s.status === 'in_repair' ? 'in_repair' : 'quarantine';
+    return { to, inferred, patch: { ...patch, prepChecked: false, linerLotId: null }, trip: keepTrip(s) };
+  }
+  const moved = r.scheduleAfter ? { schedule: r.scheduleAfter, nextDue: r.scheduleAfter.nextDue } : {};
+  const backInService = r.kind === 'after_repair' && s.status !== 'available';
+  return { to: backInService ? 'available' : s.status, inferred, patch: { ...patch, ...moved, ...(backInService ? { prepChecked: false } : {}) }, trip: keepTrip(s) };
+}
+
 // Registration puts a new bin into the pool, folded and empty, at a depot.
 function register(s: BinState, ctx: ActionContext): Outcome {
   if (s.status !== null) return { code: 'already_registered', reason: `This bin is already registered (${STATUS_LABELS[s.status].toLowerCase()}).` };
@@ -495,10 +556,11 @@ const BUTTON_PROBES: Partial<Record<Action, Partial<ActionContext>[]>> = {
   prep_check: [{ prepResult: 'pass' }],
   fit_liner: [{ linerLotId: '(chosen on the next screen)' }],
   dispatch: [{ purpose: 'hire' }, { purpose: 'transfer' }],
+  inspect: [{ inspection: { kind: 'intermediate', outcome: 'pass', scheduleAfter: null } }],
 };
 
 /** The actions this user may record on this bin here and now: the bin page's buttons. */
-export function allowedActions(state: BinState, ctx: Omit<ActionContext, 'prepResult' | 'linerLotId' | 'purpose'>): Action[] {
+export function allowedActions(state: BinState, ctx: Omit<ActionContext, 'prepResult' | 'linerLotId' | 'purpose' | 'inspection'>): Action[] {
   return ACTIONS.filter((action) => (BUTTON_PROBES[action] ?? [{}]).some((probe) => decide(state, action, { ...ctx, ...probe }).ok));
 }
 

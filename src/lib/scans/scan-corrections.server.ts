@@ -68,7 +68,7 @@ async function undoTripEffect(event: EventRow, t: Transaction) {
 }
 
 /** Rebuilds the bin's current-state columns from its non-voided scans. */
-export async function rederiveAsset(assetId: number, t: Transaction) {
+async function rederiveAsset(assetId: number, t: Transaction) {
   const events = await sequelize.query<{ occurred_at: Date; inferred: boolean; voided_at: Date | null; payload: LoggedEvent['payload'] }>(
     'SELECT occurred_at, inferred, voided_at, payload FROM scan_events WHERE asset_id = $1 ORDER BY occurred_at, id',
     { bind: [assetId], type: QueryTypes.SELECT, transaction: t },

@@ -3,7 +3,7 @@
 // changes, and the bin's new current-state columns. Pure: the scan service applies these with SQL
 // inside its transaction; the demo generator applies them to its in-memory pool and writes the
 // result in bulk. One place, so both write the same thing.
-import { INFERRED_STATUS, type Action, type BinState, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
+import { INFERRED_STATUS, type Action, type BinState, type Decision, type Leg, type Schedule, type SiteKind, type Status } from './lifecycle';
 import { sealsMatch } from '@/lib/trips/seal-check';
 
 export type Allowed = Extract<Decision, { ok: true }>;
@@ -30,6 +30,8 @@ export interface ScanFacts {
   fill?: FillRecord;
   sealsVerified?: string[];
   note?: string;
+  /** inspect only: what the record says, in brief (the full record is in `inspections`). */
+  inspection?: { kind: string; outcome: string; leakTest: { pressureKpa: number; minutes: number; passed: boolean } | null };
 }
 
 /** The bin's current-state columns the scan service reads and writes. */
@@ -53,10 +55,10 @@ export interface ScanSite {
   organisationId: number;
 }
 
-const PAYLOAD_KEYS = ['prepResult', 'checklist', 'faults', 'photoIds', 'linerLotId', 'purpose', 'hireOrderId', 'loadId', 'fill', 'sealsVerified', 'note'] as const;
+const PAYLOAD_KEYS = ['prepResult', 'checklist', 'faults', 'photoIds', 'linerLotId', 'purpose', 'hireOrderId', 'loadId', 'fill', 'sealsVerified', 'note', 'inspection'] as const;
 
 /** The scan's own log entry payload: the decided patch and trip effect (what replayState() folds), and the inputs. */
-export function eventPayload(input: ScanFacts, d: Allowed, flags: string[]): Record<string, unknown> {
+function eventPayload(input: ScanFacts, d: Allowed, flags: string[]): Record<string, unknown> {
   const payload: Record<string, unknown> = { patch: d.patch, trip: d.trip };
   if (d.inferred.length) payload.inferred = d.inferred;
   if (flags.length) payload.flags = flags;
@@ -192,6 +194,16 @@ export function assetAfter(asset: AssetSnapshot, d: Allowed, opened: { tripId: n
     customerId,
     tripCount,
     lastScanAt: asset.lastScanAt && asset.lastScanAt > at ? asset.lastScanAt : at,
+  };
+}
+
+/** The test columns a passed inspection sets (SQL names), or null when the scan leaves them alone. */
+export function scheduleColumns(d: Allowed): Record<string, string | null> | null {
+  const s: Schedule | null | undefined = d.patch.schedule;
+  if (!s) return null;
+  return {
+    last_inspection_on: s.lastInspectionOn, last_leak_test_on: s.lastLeakTestOn, last_full_inspection_on: s.lastFullInspectionOn,
+    next_intermediate_due: s.nextIntermediateDue, next_full_due: s.nextFullDue, next_due: s.nextDue,
   };
 }
 

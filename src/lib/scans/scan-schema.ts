@@ -5,7 +5,9 @@ import { multilineText, text } from '@/lib/text-input';
 import { ACTIONS } from './lifecycle';
 import { repeatedSeals } from '@/lib/trips/seal-check';
 
-const RECORDABLE = ACTIONS.filter((a) => a !== 'register') as [Exclude<(typeof ACTIONS)[number], 'register'>, ...Array<Exclude<(typeof ACTIONS)[number], 'register'>>];
+// Registration and inspections have their own forms and endpoints (they write a record beside the scan).
+type Recordable = Exclude<(typeof ACTIONS)[number], 'register' | 'inspect'>;
+const RECORDABLE = ACTIONS.filter((a) => a !== 'register' && a !== 'inspect') as [Recordable, ...Recordable[]];
 const seal = text().trim().min(1).max(32).regex(/^[A-Za-z0-9\-/.]+$/, 'Seal numbers use letters, digits, - / and . only');
 /** Up to six seal numbers, each once: a number written twice is a typing slip or two seals read as one. */
 const sealList = z

@@ -10,8 +10,8 @@ import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
 import { Op, OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Asset } from '@/models';
 import { AppError } from '@/lib/api-errors';
-import { decide, checkLinerLot, type Action, type Decision, type Leg, type SiteKind, type Status } from './lifecycle';
-import { assetAfter, binState, logRows, tripChanges, tripOpening, type AssetSnapshot, type FillRecord, type ScanSite } from '@/lib/scans/scan-effects';
+import { decide, checkLinerLot, type Action, type Decision, type InspectionResult, type Leg, type SiteKind, type Status } from './lifecycle';
+import { assetAfter, binState, logRows, scheduleColumns, tripChanges, tripOpening, type AssetSnapshot, type FillRecord, type ScanFacts, type ScanSite } from '@/lib/scans/scan-effects';
 import { localDate } from '@/lib/calendar';
 import { getSettings, type OperatorSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
@@ -19,6 +19,7 @@ import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
+import { specFitFor } from '@/lib/liners/liner-specs.server';
 
 export type { FillRecord };
 
@@ -44,6 +45,10 @@ export interface ScanInput {
   fill?: FillRecord;
   sealsVerified?: string[];
   note?: string;
+  /** inspect only: the record in brief, kept in the log's payload. */
+  inspection?: ScanFacts['inspection'];
+  /** inspect only: the outcome and the schedule it sets, for the rule table (src/lib/inspections/inspection-records.server.ts). */
+  inspectionResult?: InspectionResult;
 }
 
 export interface ScanOutcome {
@@ -160,6 +165,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     prepResult: input.prepResult,
     linerLotId: input.linerLotId === undefined ? undefined : String(input.linerLotId),
     purpose: input.purpose,
+    inspection: input.inspectionResult,
   });
   if (!decision.ok) throw refusal(decision);
   const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
@@ -242,6 +248,8 @@ async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
     const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
+    const fit = await specFitFor(lot.linerSpecId, asset.bin_type_id, t);
+    if (!fit.ok) throw new AppError('transition_refused', fit.reason, { reason: fit.code, action: 'fit_liner' });
     await takeFromLot(lot.id, (site?.id ?? asset.site_id)!, 1, t);
     lotNumber = lot.lotNumber;
   }
@@ -344,11 +352,11 @@ async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, o
     t,
   );
   if (!updated) throw changedMeanwhile();
+  const schedule = scheduleColumns(d);
+  if (schedule) {
+    const cols = Object.keys(schedule);
+    await sequelize.query(`UPDATE assets SET ${cols.map((c, i) => `${c} = $${i + 2}`).join(', ')} WHERE id = $1`, { bind: [asset.id, ...Object.values(schedule)], transaction: t });
+  }
   return { version: updated.version, next };
 }
 
-/** Finds bins by canonical GRAI values (used by the API and the demo generator). */
-export async function assetIdsByGrai(grais: string[], t?: Transaction): Promise<Map<string, number>> {
-  const rows = await Asset.findAll({ where: { grai: { [Op.in]: grais } }, attributes: ['id', 'grai'], transaction: t });
-  return new Map(rows.map((r) => [r.grai, r.id]));
-}

@@ -17,9 +17,9 @@ export interface ReportPeriod {
   to: LocalDate;
 }
 
-export const DEFAULT_PERIOD_DAYS = 365;
+const DEFAULT_PERIOD_DAYS = 365;
 /** Ten years: longer periods are a typo more often than a wish. */
-export const MAX_PERIOD_DAYS = 3660;
+const MAX_PERIOD_DAYS = 3660;
 
 export type PeriodParse = { ok: true; period: ReportPeriod } | { ok: false; issues: QueryIssue[]; period: ReportPeriod };
 

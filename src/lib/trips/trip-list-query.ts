@@ -18,13 +18,13 @@ import type { LocalDate } from '@/lib/calendar';
 export const TRIP_SORT_KEYS = ['dispatched', 'returned', 'bin', 'customer', 'depot', 'dwell', 'cycle', 'lot', 'status', 'id'] as const;
 export type TripSortKey = (typeof TRIP_SORT_KEYS)[number];
 
-export const TRIP_FILTER_KEYS = ['status', 'customer', 'depot', 'bin', 'lot', 'from', 'to', 'mismatch'] as const;
+const TRIP_FILTER_KEYS = ['status', 'customer', 'depot', 'bin', 'lot', 'from', 'to', 'mismatch'] as const;
 export type TripFilterKey = (typeof TRIP_FILTER_KEYS)[number];
 
 const OPTION_KEYS = ['sort', 'dir', 'page', 'size'] as const;
 export const PAGE_SIZES = [25, 50, 100] as const;
-export const DEFAULT_PAGE_SIZE = 50;
-export const MAX_PAGE_SIZE = 200;
+const DEFAULT_PAGE_SIZE = 50;
+const MAX_PAGE_SIZE = 200;
 
 export interface TripFilters {
   status?: 'open' | 'closed';

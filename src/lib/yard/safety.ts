@@ -19,6 +19,10 @@ export const CAUTIONS: Partial<Record<Action, string[]>> = {
   fold: [FOLD],
   receive: ['Forklift zone: unload folded stacks only from a stable vehicle; check stacks for loose panels before lifting.'],
   collect: ['Load folded bins flat and strapped; do not stack above the marked limit.'],
+  inspect: [
+    'Leakproofness test: pressurise with air through a regulator and a relief valve set for the test pressure; never go above the pressure the bin’s design type allows. Stand clear of the lid, valve and closures while it is under pressure, and let the pressure off before loosening any fitting.',
+    'Test only an empty, cleaned and drained bin; check the last product’s safety data sheet for residues before you reach inside. Wear eye protection and cut-resistant gloves.',
+  ],
   quarantine: ['Mark the bin clearly and move it to the quarantine bay; do not stack other bins on it.'],
 };
 

@@ -79,11 +79,6 @@ export function subscribe(fn: (s: QueueStatus) => void): () => void {
   };
 }
 
-export async function pendingCount(): Promise<number> {
-  await reload();
-  return status.pending.length;
-}
-
 export async function refused(): Promise<RefusedScan[]> {
   await reload();
   return status.refused;

@@ -44,7 +44,7 @@ function mayOpen(viewer: Viewer, path: string): boolean {
   return can(viewer, access);
 }
 
-interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number }
+interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number; inspectionId: number }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
   const mine = await one<{ grai: string }>(
@@ -54,8 +54,9 @@ async function examples(): Promise<Examples> {
   const bin = await one<{ grai: string; id: number }>(`SELECT grai, id FROM assets WHERE status = 'available' ORDER BY id LIMIT 1`);
   const trip = await one<{ id: number }>(`SELECT id FROM trips ORDER BY id DESC LIMIT 1`);
   const order = await one<{ id: number }>(`SELECT id FROM hire_orders ORDER BY id DESC LIMIT 1`);
-  for (const [what, v] of Object.entries({ mine, bin, trip, order })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id };
+  const inspection = await one<{ id: number }>(`SELECT id FROM inspections WHERE kind <> 'prep_check' ORDER BY id DESC LIMIT 1`);
+  for (const [what, v] of Object.entries({ mine, bin, trip, order, inspection })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
+  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -65,6 +66,8 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/8003/[...value]': `/8003/${ex.anyGrai}`,
     '/bins/[grai]': `/bins/${grai}`,
     '/bins/[grai]/edit': `/bins/${ex.anyGrai}/edit`,
+    '/bins/[grai]/inspect': `/bins/${ex.anyGrai}/inspect`,
+    '/inspections/[id]': `/inspections/${ex.inspectionId}`,
     '/trips/[id]': `/trips/${ex.tripId}`,
     '/loads/[ref]': `/loads/${ex.loadRef}`,
     '/loads/[ref]/note': `/loads/${ex.loadRef}/note`,

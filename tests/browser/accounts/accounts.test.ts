@@ -1,6 +1,6 @@
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { newContext, screenshot, signIn, useApp } from '../support/app';
+import { newContext, screenshot, signIn, useApp, expectNoPageOverflow } from '../support/app';
 import { waitForMail, linkIn, freshEmail, createStaff, closeDb } from '../support/accounts';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 import { hydrated } from '../support/yard';
@@ -200,6 +200,7 @@ describe('admin pages at desktop and phone width', () => {
       await page.goto('/admin/users');
       await hydrated(page); // the people list is an island: act once it handles clicks
       await page.locator('[data-person]:visible').first().waitFor();
+      await expect(page.locator('[data-person]:visible').count()).resolves.toBeGreaterThanOrEqual(4); // the demo's four logins at least
       await screenshot(page, `admin-users-${kind}`);
       await page.getByRole('button', { name: `Change ${admin.name}` }).click();
       await page.getByText('You cannot change your own role; ask another administrator.').waitFor();
@@ -211,13 +212,19 @@ describe('admin pages at desktop and phone width', () => {
       await page.keyboard.press('Escape');
 
       await page.goto('/admin/mail');
-      await page.locator('#outbox li').first().locator('summary').click();
+      const sent = page.locator('#outbox li').first();
+      await sent.locator('summary').click();
+      await expect(sent.locator('details').getAttribute('open')).resolves.toBe(''); // opened: the message itself shows
+      await expect(sent.locator('details > div').isVisible()).resolves.toBe(true);
       await screenshot(page, `admin-mail-${kind}`);
       await page.goto('/admin/mail?tab=local');
+      await expect(page.locator('#local-mailbox').isVisible()).resolves.toBe(true);
       await screenshot(page, `admin-mail-local-${kind}`);
 
       await page.goto('/admin/settings');
       await page.locator('#settings-form').waitFor();
+      await expect(page.locator('#settings-form input, #settings-form select').count()).resolves.toBeGreaterThan(3);
+      await expectNoPageOverflow(page, `settings at ${kind} width`);
       await screenshot(page, `admin-settings-${kind}`);
       await page.context().close();
     }

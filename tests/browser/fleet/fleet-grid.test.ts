@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import pg from 'pg';
 import Papa from 'papaparse';
 import type { Browser, Page } from 'playwright-core';
-import { newContext, screenshot, signIn, useApp } from '../support/app';
+import { newContext, screenshot, signIn, useApp, expectNoPageOverflow } from '../support/app';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
@@ -147,8 +147,15 @@ describe('the fleet grid', () => {
     const { ctx, page } = await signedIn('planner', 'phone');
     await page.goto('/fleet/bins');
     await rowsLoaded(page);
+    // At phone width the rows still load, each with its GRAI link in view, and the grid scrolls inside itself.
+    const first = gridRows(page).locator('[col-id="grai"] a').first();
+    expect((await first.textContent())!.replace(/[\s·]/g, '')).toMatch(/^\d{14}/); // grouped for reading: 0 9521234 10010 2 · 100002
+    await expect(first.isVisible()).resolves.toBe(true);
+    await expectNoPageOverflow(page, 'fleet grid at phone width');
     await screenshot(page, 'fleet-grid-phone');
     await page.goto('/fleet');
+    await expect(page.locator('h1').first().textContent()).resolves.toMatch(/Pool overview/);
+    await expectNoPageOverflow(page, 'pool overview at phone width');
     await screenshot(page, 'pool-overview-phone');
     await ctx.close();
   });

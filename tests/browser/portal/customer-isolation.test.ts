@@ -122,6 +122,9 @@ function exampleUrl(pattern: string, o: Other): string {
   const known: Record<string, string> = {
     '/8003/[...value]': `/8003/${o.grai}`,
     '/api/admin/users/[id]': `/api/admin/users/${o.userId}`,
+    // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
+    '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
+    '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,

@@ -88,6 +88,12 @@ export async function signIn(page: Page, email: string, password: string) {
   await page.click('#login-submit');
 }
 
+/** The page is no wider than its viewport: anything wider scrolls inside its own region, never the whole page. */
+export async function expectNoPageOverflow(page: Page, what: string) {
+  const { scroll, width } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, width: document.documentElement.clientWidth }));
+  if (scroll > width + 1) throw new Error(`${what}: the page is ${scroll} px wide in a ${width} px viewport`);
+}
+
 export async function screenshot(page: Page, name: string) {
   const dir = join(ARTIFACTS, 'screenshots');
   mkdirSync(dir, { recursive: true });

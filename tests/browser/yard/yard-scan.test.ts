@@ -7,7 +7,7 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
-import { ARTIFACTS, PHONE, newContext, screenshot, signIn, useApp } from '../support/app';
+import { ARTIFACTS, PHONE, newContext, screenshot, signIn, useApp, expectNoPageOverflow } from '../support/app';
 import { availableBinsAtHome, gzipSizeOf, hydrated, labelPng, qrClip, type PickedBin } from '../support/yard';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 import { groupGrai } from '@/lib/gs1';
@@ -75,6 +75,8 @@ describe('identifying a bin on the yard', () => {
     const yard = await yardCtx.newPage();
     await signIn(yard, YARD, DEMO_PASSWORD);
     await yard.waitForURL((u) => u.pathname === '/yard');
+    await expect(yard.locator('h1').first().isVisible()).resolves.toBe(true);
+    await expectNoPageOverflow(yard, 'yard start page at desktop width');
     await screenshot(yard, 'yard-online-desktop');
     await yardCtx.close();
     const ctx = await newContext(t.browser, t.app, 'desktop');
@@ -84,7 +86,11 @@ describe('identifying a bin on the yard', () => {
     await page.goto(`/bins/${bins[0]!.grai}`);
     await hydrated(page);
     await page.locator('button[data-action="quarantine"]').click();
-    await page.locator('[data-form="quarantine"]').waitFor();
+    const form = page.locator('[data-form="quarantine"]');
+    await form.waitFor();
+    // The planner gets the same action form as the yard, with its submit button in view and nothing cut off.
+    await expect(form.locator('button[type="submit"]').isVisible()).resolves.toBe(true);
+    await expectNoPageOverflow(page, 'bin page with an open action form at desktop width');
     await screenshot(page, 'bin-actions-planner-desktop');
     await ctx.close();
   });

@@ -28,7 +28,7 @@ describe('the ledger backfill', () => {
       await scan(bin.id, { action: 'prep_check', prepResult: 'pass', siteId: w.depot.id });
       fits.push(await scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id }));
     }
-    const planner = (await User.findByPk(w.planner.id))!;
+    const planner = (await User.findByPk(w.planner.id!))!;
     await voidScan({ id: planner.id, email: planner.email, name: planner.name, role: 'planner', organisationId: planner.organisationId, organisationName: '', homeSiteId: null, qualifiedInspector: false }, fits[2]!.eventId, 'Wrong bin', null);
     expect(await onHand(w.lot.id, w.depot.id)).toBe(98);
 

@@ -88,7 +88,7 @@ describe('the liner stock ledger', () => {
   });
 
   test('a voided fit puts its liner back on the shelf', async () => {
-    const planner = (await User.findByPk(w.planner.id))!;
+    const planner = (await User.findByPk(w.planner.id!))!;
     const me: SessionUser = { id: planner.id, email: planner.email, name: planner.name, role: planner.role, organisationId: planner.organisationId, organisationName: '', homeSiteId: null, qualifiedInspector: false };
     const bin = await checkedBin();
     const before = await onHand(w.lot.id, w.depot.id);

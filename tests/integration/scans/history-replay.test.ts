@@ -29,10 +29,17 @@ describe('the generated demo history', () => {
     );
     const byAsset = new Map<number, typeof events>();
     for (const e of events) byAsset.set(e.asset_id, [...(byAsset.get(e.asset_id) ?? []), e]);
+    let tested = 0;
     for (const a of assets) {
       const s = replayState((byAsset.get(a.id) ?? []).map((e) => ({ occurredAt: e.occurred_at, inferred: e.inferred, voided: e.voided_at !== null, payload: e.payload })));
       const stored = { status: a.status, siteId: a.siteId, siteSince: a.siteSince, leg: a.leg, prepChecked: a.prepChecked, linerLotId: a.linerLotId, filled: a.filled, tripCount: a.tripCount, tripOpen: a.currentTripId !== null };
       expect({ grai: a.grai, ...stored }).toEqual({ grai: a.grai, status: s.status, siteId: s.siteId, siteSince: s.siteSince, leg: s.leg, prepChecked: s.prepChecked, linerLotId: s.linerLotId, filled: s.filled, tripCount: s.tripCount, tripOpen: s.tripOpen });
+      // the test columns follow the last passed inspection in the log (as registered when there is none)
+      if (s.schedule) {
+        expect({ grai: a.grai, lastInspectionOn: a.lastInspectionOn, lastLeakTestOn: a.lastLeakTestOn, lastFullInspectionOn: a.lastFullInspectionOn, nextIntermediateDue: a.nextIntermediateDue, nextFullDue: a.nextFullDue, nextDue: a.nextDue })
+          .toEqual({ grai: a.grai, ...s.schedule });
+        tested += 1;
+      }
       // the bin's open trip is the one its log opened last and did not close
       const open = await Trip.findOne({ where: { assetId: a.id, status: 'open' } });
       expect(open?.id ?? null).toBe(a.currentTripId);
@@ -40,6 +47,17 @@ describe('the generated demo history', () => {
       const closed = await Trip.count({ where: { assetId: a.id, status: 'closed' } });
       expect(closed).toBe(a.tripCount);
     }
+    expect(tested).toBeGreaterThan(0); // the demo history tests bins through the log
+  });
+
+  test('nothing in the history happens after the day it was generated on (no test, scan or trip dated ahead)', async () => {
+    const [row] = await sequelize.query<{ events: number; tests: number; assets: number }>(
+      `SELECT (SELECT count(*)::int FROM scan_events WHERE occurred_at > $1) events,
+              (SELECT count(*)::int FROM inspections WHERE performed_on > $2::date) tests,
+              (SELECT count(*)::int FROM assets WHERE last_inspection_on > $2::date OR last_scan_at > $1) assets`,
+      { type: QueryTypes.SELECT, bind: ['2026-12-01T12:00:00Z', '2026-12-01'] },
+    );
+    expect(row).toEqual({ events: 0, tests: 0, assets: 0 });
   });
 
   test('the history has trips, inferred steps and bins in several states', async () => {

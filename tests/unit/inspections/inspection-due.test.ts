@@ -354,6 +354,8 @@ describe('clocksRestartedBy: each clock only from the test that covers it (6.5.4
     const early = historyAfter(made, { kind: 'intermediate', outcome: 'pass', leakTest: good, month: '2025-08' });
     expect(nextDue(early, ADR).intermediateDue).toBe('2028-02-29');
     expect(dfDueDate('2025-08', 30)).toBe('2028-02-29'); // date-fns agrees
+    // A record entered late, for a test older than the clock's last one, does not move the clock back.
+    expect(historyAfter(after, { kind: 'intermediate', outcome: 'pass', leakTest: good, month: '2023-02' })).toEqual(after);
     // A fail restarts nothing.
     expect(historyAfter(after, { kind: 'intermediate', outcome: 'fail', leakTest: good, month: '2025-01' })).toEqual(after);
     expect(() => historyAfter(after, { kind: 'full', outcome: 'pass', leakTest: null, month: '2025-1' })).toThrow(RangeError);

@@ -51,8 +51,13 @@ function scanFor(action: Action, state: BinState): ActionContext {
     case 'retire': return DESK();
     case 'mark_missing': return DESK();
     case 'mark_found': return at('yard', 'D1', 'depot');
+    case 'inspect': return at('yard', 'D1', 'depot', { inspection: PASS_2_5 });
   }
 }
+
+// A passed 2.5-year inspection with a leakproofness test, and the schedule the scan service works out for it.
+const SCHEDULE = { lastInspectionOn: TODAY, lastLeakTestOn: TODAY, lastFullInspectionOn: null, nextIntermediateDue: '2028-11-30', nextFullDue: '2029-01-31', nextDue: '2028-11-30' };
+const PASS_2_5 = { kind: 'intermediate' as const, outcome: 'pass' as const, scheduleAfter: SCHEDULE };
 
 type Expect = `REFUSED:${string}` | [to: Status, inferred: Action[], trip: 'open' | 'close' | 'keep' | 'none'];
 type Row = [from: Status | 'unregistered', action: Action, expected: Expect];
@@ -67,6 +72,7 @@ const MAIN_TABLE: Row[] = [
   ['unregistered', 'discharge', NO], ['unregistered', 'fold', NO], ['unregistered', 'collect', NO],
   ['unregistered', 'quarantine', NO], ['unregistered', 'send_to_repair', NO], ['unregistered', 'release', NO],
   ['unregistered', 'retire', NO], ['unregistered', 'mark_missing', NO], ['unregistered', 'mark_found', NO],
+  ['unregistered', 'inspect', NO],
 
   // available: folded at D1, not yet prep-checked
   ['available', 'register', 'REFUSED:already_registered'],
@@ -82,6 +88,7 @@ const MAIN_TABLE: Row[] = [
   ['available', 'retire', ['retired', [], 'none']],
   ['available', 'mark_missing', ['missing', [], 'none']],
   ['available', 'mark_found', NO],
+  ['available', 'inspect', ['available', [], 'none']],
 
   // prepared: lined at D1
   ['prepared', 'register', 'REFUSED:already_registered'],
@@ -94,6 +101,7 @@ const MAIN_TABLE: Row[] = [
   ['prepared', 'quarantine', ['quarantine', [], 'none']],
   ['prepared', 'send_to_repair', NO], ['prepared', 'release', NO], ['prepared', 'retire', NO],
   ['prepared', 'mark_missing', NO], ['prepared', 'mark_found', NO],
+  ['prepared', 'inspect', NO],
 
   // in_transit: outbound to a customer, trip open
   ['in_transit', 'register', 'REFUSED:already_registered'],
@@ -106,6 +114,7 @@ const MAIN_TABLE: Row[] = [
   ['in_transit', 'retire', NO],
   ['in_transit', 'mark_missing', ['missing', [], 'keep']],
   ['in_transit', 'mark_found', NO],
+  ['in_transit', 'inspect', NO],
 
   // on_hire: at customer C1, not filled, trip open
   ['on_hire', 'register', 'REFUSED:already_registered'],
@@ -118,6 +127,7 @@ const MAIN_TABLE: Row[] = [
   ['on_hire', 'quarantine', NO], ['on_hire', 'send_to_repair', NO], ['on_hire', 'release', NO], ['on_hire', 'retire', NO],
   ['on_hire', 'mark_missing', ['missing', [], 'keep']],
   ['on_hire', 'mark_found', NO],
+  ['on_hire', 'inspect', NO],
 
   // awaiting_collection: folded at customer C1, trip open
   ['awaiting_collection', 'register', 'REFUSED:already_registered'],
@@ -130,6 +140,7 @@ const MAIN_TABLE: Row[] = [
   ['awaiting_collection', 'release', NO], ['awaiting_collection', 'retire', NO],
   ['awaiting_collection', 'mark_missing', ['missing', [], 'keep']],
   ['awaiting_collection', 'mark_found', NO],
+  ['awaiting_collection', 'inspect', NO],
 
   // quarantine: held at D1
   ['quarantine', 'register', 'REFUSED:already_registered'],
@@ -140,6 +151,7 @@ const MAIN_TABLE: Row[] = [
   ['quarantine', 'release', ['available', [], 'none']],
   ['quarantine', 'retire', ['retired', [], 'none']],
   ['quarantine', 'mark_missing', NO], ['quarantine', 'mark_found', NO],
+  ['quarantine', 'inspect', ['quarantine', [], 'none']],
 
   // in_repair: at D1 (in-house repair)
   ['in_repair', 'register', 'REFUSED:already_registered'],
@@ -150,6 +162,7 @@ const MAIN_TABLE: Row[] = [
   ['in_repair', 'release', ['available', [], 'none']],
   ['in_repair', 'retire', ['retired', [], 'none']],
   ['in_repair', 'mark_missing', NO], ['in_repair', 'mark_found', NO],
+  ['in_repair', 'inspect', ['in_repair', [], 'none']],
 
   // missing: last seen empty at C1, trip open
   ['missing', 'register', 'REFUSED:already_registered'],
@@ -160,6 +173,7 @@ const MAIN_TABLE: Row[] = [
   ['missing', 'retire', ['retired', [], 'close']],               // written off: the hire settles
   ['missing', 'mark_missing', NO],
   ['missing', 'mark_found', ['available', ['collect'], 'close']], // turned up at depot D1
+  ['missing', 'inspect', NO],
 
   // retired: terminal
   ['retired', 'register', 'REFUSED:already_registered'],
@@ -167,6 +181,7 @@ const MAIN_TABLE: Row[] = [
   ['retired', 'deliver', NO], ['retired', 'fill_seal', NO], ['retired', 'discharge', NO], ['retired', 'fold', NO],
   ['retired', 'collect', NO], ['retired', 'quarantine', NO], ['retired', 'send_to_repair', NO], ['retired', 'release', NO],
   ['retired', 'retire', NO], ['retired', 'mark_missing', NO], ['retired', 'mark_found', NO],
+  ['retired', 'inspect', NO],
 ];
 
 function expectOutcome(state: BinState, action: Action, ctx: ActionContext, expected: Expect) {
@@ -196,7 +211,7 @@ describe('lifecycle: every status × action (main table)', () => {
 describe('lifecycle: names fixed for the rest of the app', () => {
   test('statuses, actions and roles', () => {
     expect([...STATUSES]).toEqual(['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair', 'missing', 'retired']);
-    expect([...ACTIONS]).toEqual(['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found']);
+    expect([...ACTIONS]).toEqual(['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found', 'inspect']);
     expect([...ROLES]).toEqual(['admin', 'planner', 'yard', 'customer']);
   });
 
@@ -233,6 +248,7 @@ describe('lifecycle: roles', () => {
     retire: ['admin', 'planner'],
     mark_missing: ['admin', 'planner'],
     mark_found: ['admin', 'planner', 'yard'],
+    inspect: ['admin', 'planner', 'yard'],
   };
   // A state and a scan site where the action succeeds for an allowed role (customer actions at C1).
   // prettier-ignore
@@ -253,6 +269,7 @@ describe('lifecycle: roles', () => {
     retire: [BASE.available, null, null],
     mark_missing: [BASE.on_hire, null, null],
     mark_found: [BASE.missing, 'D1', 'depot'],
+    inspect: [BASE.available, 'D1', 'depot', { inspection: PASS_2_5 }],
   };
 
   for (const action of ACTIONS) {
@@ -546,16 +563,48 @@ describe('lifecycle: specific refusals', () => {
   });
 });
 
+describe('lifecycle: inspection at the test bench (ADR 6.5.4.4; 4.1.2.2 lets a lapsed empty bin go to its test)', () => {
+  const LAPSED = { ...BASE.available, nextDue: '2026-04-30' };
+  test('a pass moves the schedule the caller worked out, and keeps the status', () => {
+    const d = decide(LAPSED, 'inspect', at('yard', 'D1', 'depot', { inspection: PASS_2_5 }));
+    expect(d.ok && d.patch).toEqual({ status: 'available', schedule: SCHEDULE, nextDue: '2028-11-30' });
+  });
+  test('allowed after the test has lapsed (that is when it is needed); lining is still refused until it passes', () => {
+    expect(decide(LAPSED, 'inspect', at('yard', 'D1', 'depot', { inspection: PASS_2_5 })).ok).toBe(true);
+    expect(decide({ ...LAPSED, prepChecked: true }, 'fit_liner', at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' }))).toMatchObject({ ok: false, code: 'inspection_lapsed' });
+  });
+  test('a fail or a repair finding quarantines the bin, liner out; in repair it stays in repair', () => {
+    for (const outcome of ['fail', 'repair'] as const) {
+      const d = decide(BASE.available, 'inspect', at('yard', 'D1', 'depot', { inspection: { kind: 'full', outcome, scheduleAfter: null } }));
+      expect(d.ok && d.patch).toEqual({ status: 'quarantine', prepChecked: false, linerLotId: null });
+    }
+    const r = decide(BASE.in_repair, 'inspect', at('yard', 'D1', 'depot', { inspection: { kind: 'after_repair', outcome: 'fail', scheduleAfter: null } }));
+    expect(r.ok && r.to).toBe('in_repair');
+  });
+  test('an after-repair pass puts a repaired bin back in service', () => {
+    const d = decide(BASE.in_repair, 'inspect', at('yard', 'R1', 'repair', { inspection: { kind: 'after_repair', outcome: 'pass', scheduleAfter: SCHEDULE } }));
+    expect(d.ok && d.patch).toEqual({ status: 'available', siteId: 'R1', siteKind: 'repair', schedule: SCHEDULE, nextDue: '2028-11-30', prepChecked: false });
+  });
+  test('refusals: no result, a lined bin, a customer site, a yard hand at a desk', () => {
+    expect(decide(BASE.available, 'inspect', at('yard', 'D1', 'depot'))).toMatchObject({ ok: false, code: 'no_inspection_result' });
+    expect(decide(BASE.prepared, 'inspect', at('yard', 'D1', 'depot', { inspection: PASS_2_5 }))).toMatchObject({ ok: false, reason: expect.stringContaining('take the liner out first') });
+    expect(decide(BASE.available, 'inspect', at('yard', 'C1', 'customer', { inspection: PASS_2_5 }))).toMatchObject({ ok: false, code: 'wrong_site_kind' });
+    expect(decide(BASE.available, 'inspect', at('yard', null, null, { inspection: PASS_2_5 }))).toMatchObject({ ok: false, code: 'wrong_site_kind' });
+    expect(decide(BASE.available, 'inspect', DESK()).ok).toBe(false);
+    expect(decide(BASE.available, 'inspect', at('planner', null, null, { inspection: PASS_2_5 })).ok).toBe(true); // an outside body's report entered at a desk
+  });
+});
+
 describe('lifecycle: the bin page buttons', () => {
   // prettier-ignore
   const ROWS: [string, BinState, Omit<ActionContext, 'prepResult' | 'linerLotId' | 'purpose'>, Action[]][] = [
-    ['yard at D1, folded bin not yet checked', BASE.available, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['prep_check', 'dispatch', 'quarantine']],
-    ['yard at D1, checked bin', { ...BASE.available, prepChecked: true }, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['prep_check', 'fit_liner', 'dispatch', 'quarantine']],
+    ['yard at D1, folded bin not yet checked', BASE.available, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['prep_check', 'dispatch', 'quarantine', 'inspect']],
+    ['yard at D1, checked bin', { ...BASE.available, prepChecked: true }, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['prep_check', 'fit_liner', 'dispatch', 'quarantine', 'inspect']],
     ['yard at D1, prepared bin', BASE.prepared, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['dispatch', 'fold', 'quarantine']],
     ['yard at D2, bin on hire elsewhere', BASE.on_hire, { role: 'yard', today: TODAY, siteId: 'D2', siteKind: 'depot' }, ['receive']],
     ['customer at C1, empty bin on hire', BASE.on_hire, { role: 'customer', today: TODAY, siteId: 'C1', siteKind: 'customer' }, ['fill_seal', 'fold']],
     ['customer at C1, filled bin', { ...BASE.on_hire, filled: true }, { role: 'customer', today: TODAY, siteId: 'C1', siteKind: 'customer' }, ['discharge', 'fold']],
-    ['planner at a desk, quarantined bin', BASE.quarantine, { role: 'planner', today: TODAY, siteId: null, siteKind: null }, ['send_to_repair', 'release', 'retire']],
+    ['planner at a desk, quarantined bin', BASE.quarantine, { role: 'planner', today: TODAY, siteId: null, siteKind: null }, ['send_to_repair', 'release', 'retire', 'inspect']],
     ['planner at a desk, bin on hire', BASE.on_hire, { role: 'planner', today: TODAY, siteId: null, siteKind: null }, ['fill_seal', 'fold', 'collect', 'mark_missing']],
     ['planner at a desk, retired bin', BASE.retired, { role: 'planner', today: TODAY, siteId: null, siteKind: null }, []],
   ];

@@ -1,18 +1,17 @@
-import type { APIRoute } from 'astro';
+import { endpoint } from '@/lib/endpoint.server';
+import { AppError } from '@/lib/api-errors';
 import { attachmentFor } from '@/lib/attachments.server';
-import { errorResponse } from '@/lib/respond.server';
+import { idParams } from '@/lib/route-params';
+
+const params = idParams('Attachment');
 
 /**
  * Serves a stored file with its sniffed type, only to signed-in users who may
  * see it: operator staff see all; a customer only their own organisation's.
  */
-export const GET: APIRoute = async ({ params, locals }) => {
-  const user = locals.user;
-  if (!user) return errorResponse('unauthenticated', 'Sign in first.');
-  const id = Number(params.id);
-  if (!Number.isInteger(id) || id <= 0) return errorResponse('bad_request', 'Attachment ids are positive whole numbers.');
-  const row = await attachmentFor(user, id);
-  if (!row) return errorResponse('not_found', 'No such file.');
+export const GET = endpoint({ capability: 'bins.view', params }, async ({ user, params }) => {
+  const row = await attachmentFor(user, params.id);
+  if (!row) throw new AppError('not_found', 'No such file.');
   return new Response(new Uint8Array(row.content), {
     headers: {
       'Content-Type': row.contentType,
@@ -22,4 +21,4 @@ export const GET: APIRoute = async ({ params, locals }) => {
       'X-Content-Type-Options': 'nosniff',
     },
   });
-};
+});

@@ -1,4 +1,4 @@
-import { endpoint, toErrorResponse } from '@/lib/endpoint.server';
+import { endpoint, errorEnvelope } from '@/lib/endpoint.server';
 import { scanRequestSchema } from '@/lib/scans/scan-schema';
 import { recordScanFromClient } from '@/lib/scans/scan-intake.server';
 import { dataResponse } from '@/lib/respond.server';
@@ -15,9 +15,7 @@ export const POST = endpoint({ capability: 'scan.record', body: scanRequestSchem
       try {
         results.push({ clientEventId: e.clientEventId, ok: true, outcome: await recordScanFromClient(user, e) });
       } catch (err) {
-        const res = toErrorResponse(err);
-        const { error } = (await res.json()) as { error: unknown };
-        results.push({ clientEventId: e.clientEventId, ok: false, status: res.status, error });
+        results.push({ clientEventId: e.clientEventId, ok: false, ...errorEnvelope(err) });
       }
     }
     return dataResponse({ results });

@@ -5,7 +5,13 @@ import { endpoint } from '@/lib/endpoint.server';
 import { AppError } from '@/lib/api-errors';
 import { actorFrom } from '@/lib/audit.server';
 import { changeRequestStatus } from '@/lib/requests/requests.server';
-import { isStatusOf, type RequestKind } from '@/lib/requests/request-status';
+import { isStatusOf } from '@/lib/requests/request-status';
+import { recordId } from '@/lib/route-params';
+
+const params = z.object({
+  kind: z.enum(['collection', 'damage'], { errorMap: () => ({ message: 'Requests are either "collection" or "damage".' }) }),
+  id: recordId('Request'),
+});
 
 const body = z.object({
   status: text().min(1).max(20),
@@ -21,12 +27,8 @@ const body = z.object({
  * A stale version gets 409 changed_meanwhile; a step the status table does not
  * allow gets 422 transition_refused with the reason.
  */
-export const PATCH = endpoint({ capability: 'requests.view', body }, async ({ ctx, body: change }) => {
-  const kind = ctx.params.kind;
-  if (kind !== 'collection' && kind !== 'damage') throw new AppError('not_found', 'Requests are either "collection" or "damage".');
-  const id = Number(ctx.params.id);
-  if (!Number.isInteger(id) || id <= 0) throw new AppError('bad_request', 'Request ids are positive whole numbers.');
-  if (!isStatusOf(kind as RequestKind, change.status)) {
+export const PATCH = endpoint({ capability: 'requests.view', body, params }, async ({ ctx, body: change, params: { kind, id } }) => {
+  if (!isStatusOf(kind, change.status)) {
     throw new AppError('validation_failed', `"${change.status}" is not a status of a ${kind === 'collection' ? 'collection request' : 'damage report'}.`, [
       { path: 'status', message: 'Unknown status.' },
     ]);

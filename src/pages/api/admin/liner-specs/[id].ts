@@ -1,0 +1,10 @@
+import { endpoint } from '@/lib/endpoint.server';
+import { actorFrom } from '@/lib/audit.server';
+import { idParamSchema } from '@/lib/accounts/people-schemas';
+import { specSchema } from '@/lib/liners/liner-schemas';
+import { updateSpec } from '@/lib/liners/liner-specs.server';
+
+/** Save the whole spec (and the bin types it fits); `version` must be the one the form was loaded with. */
+export const PUT = endpoint({ capability: 'liners.manage', body: specSchema }, async ({ ctx, body }) => ({
+  row: await updateSpec(idParamSchema.parse(ctx.params.id), body, actorFrom(ctx.locals)),
+}));
