@@ -45,7 +45,7 @@ function routes(): Route[] {
 interface Other {
   orgId: number; userId: number; siteId: number; binId: number; grai: string; serial: string; tripId: number; orderId: number;
   loadRef: string; eventId: number; collectionId: number; damageId: number; photoId: number; viewId: number;
-  markers: string[]; ownGrai: string; ownBinId: number;
+  markers: string[]; ownGrai: string; ownBinId: number; inspectionId: number;
 }
 
 let other: Other;
@@ -105,7 +105,7 @@ beforeAll(async () => {
   other = {
     orgId: b.org_id, userId: b.user_id, siteId: sites[0]!.id, binId: bin.id, grai: bin.grai, serial: bin.serial, tripId: trip.id,
     orderId: order.id, loadRef: load?.reference ?? 'LD-NONE-1', eventId: event.id, collectionId: collection.id, damageId: damage.id,
-    photoId, viewId: view?.id ?? 1,
+    photoId, viewId: view?.id ?? 1, inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [b.org_name, b.contact, SECOND_CUSTOMER_LOGIN.email, b.user_name, order.reference, ...sites.flatMap((s) => [s.name, s.code]), 'Three folded by dock 2', 'forklift knock'],
     ownGrai: own.grai, ownBinId: own.id,
@@ -147,6 +147,9 @@ function exampleUrl(pattern: string, o: Other): string {
     '/planning/orders/[id]': `/planning/orders/${o.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${o.orderId}/fill`,
     '/trips/[id]': `/trips/${o.tripId}`,
+    '/api/inspections/[id]/amend': `/api/inspections/${o.inspectionId}/amend`,
+    '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
+    '/inspections/[id]': `/inspections/${o.inspectionId}`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -369,6 +372,7 @@ describe("a user of A limited to one site asks every route about A's other site"
     sameOrg = {
       orgId: a.org_id, userId: a.admin_id, siteId: x.id, binId: bin.id, grai: bin.grai, serial: bin.serial, tripId: trip.id, orderId: order.id,
       loadRef: 'LD-NONE-1', eventId: event.id, collectionId: collection.id, damageId: 0, photoId, viewId: view?.id ?? 1,
+      inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
       ownGrai: own?.grai ?? bin.grai, ownBinId: own?.id ?? bin.id,
