@@ -26,7 +26,7 @@ const CHECKS: Array<[key: string, label: string]> = [
 
 const DESTRUCTIVE: Action[] = ['retire', 'mark_missing', 'quarantine'];
 
-function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
+export function Cautions({ lines, defer }: { lines: string[]; defer: string }) {
   if (!lines.length) return null;
   return (
     <div className="notice-attention" role="note">
