@@ -28,6 +28,7 @@ export const ICONS = {
   alert: 'M12 4 3 20h18zM12 10v4M12 17v.5',
   camera: 'M4 8h4l2-3h4l2 3h4v11H4zM12 10.5a3 3 0 1 0 0 6a3 3 0 0 0 0-6',
   keyboard: 'M3 7h18v10H3zM7 14h10M7 10h.5M10.5 10h.5M14 10h.5M17 10h.5',
+  lanes: 'M4 7h13M14 4l3 3-3 3M20 17H7M10 14l-3 3 3 3',
   menu: 'M4 7h16M4 12h16M4 17h16',
   plusBox: 'M4 4h16v16H4zM12 8v8M8 12h8',
 } as const;

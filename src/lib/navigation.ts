@@ -15,6 +15,7 @@ const NAV: NavItem[] = [
   { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
   { href: '/trips', label: 'Trips', icon: 'route', capability: 'trips.view' },
   { href: '/planning/orders', label: 'Hire orders', icon: 'truck', capability: 'orders.view' },
+  { href: '/planning/repositioning', label: 'Repositioning', icon: 'lanes', capability: 'orders.view' },
   { href: '/fleet/flags', label: 'Scans to review', icon: 'alert', capability: 'scan.correct' },
   { href: '/requests', label: 'Requests', icon: 'inbox', capability: 'requests.view' },
   { href: '/labels', label: 'Label sheets', icon: 'label', capability: 'labels.print' },

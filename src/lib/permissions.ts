@@ -91,6 +91,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   // Hire orders: the list, the order page and the form; the API's POSTs check orders.edit themselves.
   ['/planning/orders/new', 'orders.edit'],
   ['/planning/orders', 'orders.view'],
+  ['/planning/repositioning', 'orders.view'],
   ['/api/planning/orders', 'orders.view'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],

@@ -21,7 +21,7 @@ export interface Point {
 /** IUGG mean earth radius, km. */
 export const EARTH_RADIUS_KM = 6371.0088;
 /** Common practice figure for regional road networks (no source): road km ≈ 1.3 × great-circle km. */
-const DEFAULT_ROAD_FACTOR = 1.3;
+export const DEFAULT_ROAD_FACTOR = 1.3;
 
 function checkPoint(p: Point, label: string) {
   if (!p || !(Math.abs(p.lat) <= 90) || !(Math.abs(p.lon) <= 180)) {

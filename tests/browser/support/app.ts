@@ -90,8 +90,17 @@ export async function signIn(page: Page, email: string, password: string) {
 
 /** The page is no wider than its viewport: anything wider scrolls inside its own region, never the whole page. */
 export async function expectNoPageOverflow(page: Page, what: string) {
-  const { scroll, width } = await page.evaluate(() => ({ scroll: document.documentElement.scrollWidth, width: document.documentElement.clientWidth }));
-  if (scroll > width + 1) throw new Error(`${what}: the page is ${scroll} px wide in a ${width} px viewport`);
+  const { scroll, width, culprits } = await page.evaluate(() => {
+    const width = document.documentElement.clientWidth;
+    // The outermost elements that stick out, not inside a region that scrolls by itself: what to fix.
+    const scrolls = (el: Element | null): boolean => !!el && el !== document.body && (getComputedStyle(el).overflowX !== 'visible' || scrolls(el.parentElement));
+    const culprits = [...document.querySelectorAll('body *')]
+      .filter((el) => el.getBoundingClientRect().right > width + 1 && !scrolls(el.parentElement) && !(el.parentElement && el.parentElement.getBoundingClientRect().right > width + 1))
+      .slice(0, 5)
+      .map((el) => `${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${[...el.classList].slice(0, 3).join('.')} (${Math.round(el.getBoundingClientRect().right)} px)`);
+    return { scroll: document.documentElement.scrollWidth, width, culprits };
+  });
+  if (scroll > width + 1) throw new Error(`${what}: the page is ${scroll} px wide in a ${width} px viewport; sticking out: ${culprits.join(', ')}`);
 }
 
 export async function screenshot(page: Page, name: string) {
