@@ -121,6 +121,9 @@ afterAll(async () => {
 function exampleUrl(pattern: string, o: Other): string {
   const known: Record<string, string> = {
     '/8003/[...value]': `/8003/${o.grai}`,
+    '/api/admin/bin-types/[id]': `/api/admin/bin-types/1`,
+    '/api/admin/customers/[id]': `/api/admin/customers/${o.orgId}`,
+    '/api/admin/sites/[id]': `/api/admin/sites/${o.siteId}`,
     '/api/admin/users/[id]': `/api/admin/users/${o.userId}`,
     // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
@@ -137,6 +140,7 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/planning/orders/[id]/status': `/api/planning/orders/${o.orderId}/status`,
     '/api/public/bins/[grai]/[form]': `/api/public/bins/${o.grai}/collection-request`,
     '/api/requests/[kind]/[id]': `/api/requests/collection/${o.collectionId}`,
+    '/api/scan-events/[id]/undo': `/api/scan-events/${o.eventId}/undo`,
     '/api/scan-events/[id]/void': `/api/scan-events/${o.eventId}/void`,
     '/bins/[grai]': `/bins/${o.grai}`,
     '/bins/[grai]/edit': `/bins/${o.grai}/edit`,
