@@ -11,6 +11,7 @@ const NAV: NavItem[] = [
   { href: '/portal/collections', label: 'Collections', icon: 'folded', capability: 'home.portal' },
   { href: '/portal/deliveries', label: 'Deliveries', icon: 'handover', capability: 'home.portal' },
   { href: '/portal/damage', label: 'Report damage', icon: 'alert', capability: 'home.portal' },
+  { href: '/portal/people', label: 'People', icon: 'users', capability: 'home.portal' },
   { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
   { href: '/trips', label: 'Trips', icon: 'route', capability: 'trips.view' },
   { href: '/planning/orders', label: 'Hire orders', icon: 'truck', capability: 'orders.view' },
