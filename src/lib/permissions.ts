@@ -61,6 +61,7 @@ export type Access = 'public' | 'signed-in' | 'denied' | Capability;
 export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access, match?: 'exact']> = [
   ['/', 'signed-in', 'exact'], // sends each role to its home
   ['/forbidden', 'public'], // the 403 page itself (the middleware rewrites to it)
+  ['/404', 'public'], // the page for an address that does not exist (framed for a signed-in visitor)
   ['/login', 'public'],
   ['/account/invite', 'public'],
   ['/account/reset', 'public'],
@@ -100,7 +101,13 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/admin/users', 'users.manage'],
   ['/admin/settings', 'settings.manage'],
   ['/api/admin/settings', 'settings.manage'],
+  // Setting up the pool: customers, sites (depots, repair shops, recycling points, customers' sites), bin types.
   ['/admin/sites', 'sites.manage'],
+  ['/admin/customers', 'sites.manage'],
+  ['/admin/bin-types', 'sites.manage'],
+  ['/api/admin/sites', 'sites.manage'],
+  ['/api/admin/customers', 'sites.manage'],
+  ['/api/admin/bin-types', 'sites.manage'],
   ['/admin/liner-', 'liners.manage'],
   ['/api/admin/liner-', 'liners.manage'],
   ['/api/admin/tariffs', 'tariffs.manage'],

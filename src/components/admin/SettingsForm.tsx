@@ -28,7 +28,7 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
   const zones = useMemo(() => Intl.supportedValuesOf('timeZone'), []);
 
   const set = <K extends keyof typeof form>(key: K) => (e: { target: { value: string } }) =>
-    setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' ? Number(e.target.value) : e.target.value }));
+    setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' ? Number(e.target.value) : e.target.value }));
   const aria = (name: string) => ({ 'aria-invalid': Boolean(problems[name]), 'aria-describedby': `s-${name}-hint s-${name}-problem` });
 
   async function submit(e: FormEvent) {
@@ -108,6 +108,13 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
             <input id="s-taxRate" className="field num" inputMode="decimal" value={form.taxPercent} onChange={set('taxPercent')} {...aria('taxRate')} />
           </Field>
         </div>
+      </fieldset>
+
+      <fieldset className="card space-y-4 p-5">
+        <legend className="px-1 text-lg font-semibold">Scanning</legend>
+        <Field id="s-undoSeconds" label="Time to undo a scan (seconds)" hint="After recording, the person who scanned may undo it for this long while nothing later is recorded on the bin; it is kept as a void. 0 turns undo off. Planners void anything else with a reason." problem={problems.undoSeconds}>
+          <input id="s-undoSeconds" className="field num max-w-[10rem]" type="number" min={0} max={600} value={form.undoSeconds} onChange={set('undoSeconds')} {...aria('undoSeconds')} />
+        </Field>
       </fieldset>
 
       <div className="flex flex-wrap items-center justify-between gap-3">

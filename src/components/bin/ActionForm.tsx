@@ -5,6 +5,7 @@
 import { useState, type FormEvent } from 'react';
 import { ACTION_LABELS, type Action, type Status } from '@/lib/scans/lifecycle';
 import { Icon } from '@/components/ui/Icon';
+import { formatLongDate } from '@/lib/calendar';
 import type { LotOption, OrderOption } from '@/lib/yard/action-options.server';
 
 /** What the forms offer: lots in first-expiry-first-out order, orders soonest first. */
@@ -166,8 +167,8 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
           {options.lots.map((l, i) => (
             <label key={l.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
               <input type="radio" name="lot" checked={lotId === l.id} onChange={() => setLotId(l.id)} />
-              <span className="ident">{l.lotNumber}</span>
-              <span className="text-sm text-ink-soft">{l.supplier} · expires {l.expiryDate} · {l.onHand} on the shelf</span>
+              <span className="ident whitespace-nowrap">{l.lotNumber}</span>
+              <span className="text-sm text-ink-soft">{l.supplier} · expires {formatLongDate(l.expiryDate)} · {l.onHand} on the shelf</span>
               {i === 0 && <span className="ml-auto text-xs font-medium text-kelp">Use first</span>}
             </label>
           ))}
@@ -183,7 +184,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
                 <input type="radio" name="order" checked={purpose === 'hire' && orderId === o.id} onChange={() => { setPurpose('hire'); setOrderId(o.id); }} />
                 <span className="ident">{o.reference}</span>
                 <span className="text-sm">{o.customer}</span>
-                <span className="ml-auto text-sm text-ink-soft num">{o.loaded}/{o.quantity} · by {o.neededBy}</span>
+                <span className="ml-auto text-sm text-ink-soft num">{o.loaded}/{o.quantity} · by {formatLongDate(o.neededBy)}</span>
               </label>
             ))}
           {options.status === 'prepared' && options.orders.length === 0 && <p className="notice-attention">No confirmed hire order at this depot for this bin type.</p>}

@@ -13,6 +13,7 @@ import { submitScan, subscribe, type QueueStatus } from '@/lib/yard/scan-queue.c
 import { loadSnapshot, onSnapshot } from '@/lib/yard/depot-snapshot.client';
 import type { StoredSnapshot } from '@/lib/yard/yard-db.client';
 import type { ScanEventBody } from '@/lib/scans/scan-schema';
+import { formatLongDate } from '@/lib/calendar';
 import ActionPanel, { type PanelOutcome } from '@/components/bin/ActionPanel';
 import { StatusBadge } from '@/components/ui/StatusBadge';
 import { Icon } from '@/components/ui/Icon';
@@ -99,7 +100,7 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
           </dl>
           {bin.nextDue && isInspectionLapsed(bin.nextDue, ctx.today) && (
             <p className="notice-fault flex items-center gap-2" role="status">
-              <Icon name="alert" /> Periodic test lapsed on {bin.nextDue}: it may not be lined, filled or dispatched until it passes.
+              <Icon name="alert" /> Periodic test lapsed on {formatLongDate(bin.nextDue)}: it may not be lined, filled or dispatched until it passes.
             </p>
           )}
           {projection.blocked && (

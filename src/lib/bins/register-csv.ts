@@ -15,8 +15,8 @@ import {
 
 export const IMPORT_COLUMNS = [
   { name: 'grai', required: true, meaning: 'The bin\'s GS1 GRAI with its serial, as on the label (spaces allowed; a label link works too).', example: '09521234100102EX-0001' },
-  { name: 'bin_type', required: true, meaning: 'Bin type code, as under Admin → bin types.', example: 'FX1000' },
-  { name: 'depot', required: true, meaning: 'Site code of the depot where the bin is now.', example: 'DEP-RTM' },
+  { name: 'bin_type', required: true, meaning: 'Bin type code, one of the codes in use listed below this table.', example: 'FX1000' },
+  { name: 'depot', required: true, meaning: 'Site code of the depot where the bin is now, one of the open depots listed below this table.', example: 'DEP-RTM' },
   { name: 'manufacture_month', required: true, meaning: 'Month of manufacture, YYYY-MM. May be empty when the UN mark is given (the mark carries it).', example: '2024-05' },
   { name: 'un_marking', required: false, meaning: 'The UN mark as stamped on the bin, fields separated by /. Empty for a bin without one.', example: '31HA2/Y/05 24/NL/NMP 4417/2313/1285' },
   { name: 'last_intermediate_test_month', required: false, meaning: 'Month of the last 2.5-year inspection and leakproofness test, YYYY-MM, if any.', example: '' },

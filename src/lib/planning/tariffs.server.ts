@@ -1,6 +1,6 @@
 // Entering a customer's tariff: where it fits is decided by planNewTariff() (./tariffs); the exclusion
 // constraint on `tariffs` backs it up. Audited.
-import { QueryTypes } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { AppError } from '@/lib/api-errors';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
@@ -11,8 +11,9 @@ import { tariffsOf } from './orders.server';
 
 export { tariffsOf };
 
-export async function addTariff(input: TariffInput, actor: AuditActor): Promise<{ id: number; endedPrevious: { id: number; validTo: string } | null }> {
-  return sequelize.transaction(async (t) => {
+/** `outer`: run inside the caller's transaction (a new customer and its first tariff commit together). */
+export async function addTariff(input: TariffInput, actor: AuditActor, outer?: Transaction): Promise<{ id: number; endedPrevious: { id: number; validTo: string } | null }> {
+  return sequelize.transaction({ transaction: outer }, async (t) => {
     const [customer] = await sequelize.query<{ kind: string }>('SELECT kind FROM organisations WHERE id = $1 FOR UPDATE', {
       bind: [input.customerId], type: QueryTypes.SELECT, transaction: t,
     });

@@ -8,7 +8,7 @@
  * tariffs never overlap (the database enforces it too).
  */
 import { z } from 'zod';
-import { isLocalDate, type LocalDate } from '@/lib/calendar';
+import { formatLongDate, isLocalDate, type LocalDate } from '@/lib/calendar';
 
 export interface TariffTerms {
   freeDays: number;
@@ -42,9 +42,9 @@ export function periodsOverlap(a: Pick<Tariff, 'validFrom' | 'validTo'>, b: Pick
   return !aEndsBeforeB && !bEndsBeforeA;
 }
 
-/** "from 1 Jan 2026 until further notice" style words for a period (ISO dates kept as written). */
+/** "from 1 Jan 2026, until further notice" style words for a period, in the app's one date format. */
 export function periodWords(t: Pick<Tariff, 'validFrom' | 'validTo'>): string {
-  return t.validTo === null ? `from ${t.validFrom}, until further notice` : `${t.validFrom} to ${t.validTo}`;
+  return t.validTo === null ? `from ${formatLongDate(t.validFrom)}, until further notice` : `${formatLongDate(t.validFrom)} to ${formatLongDate(t.validTo)}`;
 }
 
 export type NewTariffPlan =

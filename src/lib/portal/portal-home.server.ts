@@ -8,7 +8,7 @@ import { daysBetween, localDate } from '@/lib/calendar';
 import { overdueBack } from '@/lib/fleet/overdue-return';
 import type { Status } from '@/lib/scans/lifecycle';
 import { getSettings } from '@/lib/settings/settings.server';
-import { scopeSites, type PortalScope } from './portal-scope.server';
+import { SCOPE_SITE_SQL, scopeSites, type PortalScope } from './portal-scope.server';
 
 export interface PortalBin { grai: string; serial: string; status: Status; filled: boolean; product: string | null; since: string; daysOnHire: number; freeDaysLeft: number; overdue: boolean; testLapsed: boolean }
 /** A bin on the road: to one of the customer's sites (outbound) or back from them to the depot (return). */
@@ -25,9 +25,9 @@ export async function loadPortalHome(scope: PortalScope) {
   const bins = await sequelize.query<{ site_id: number | null; grai: string; serial: string; status: Status; filled: boolean; product: string | null; start_day: string; leg: RoadBin['leg']; to_site: string | null; next_due: string | null }>(
     `SELECT a.site_id, a.grai, a.serial, a.status, a.filled, t.fill_product AS product, a.leg, cs.name AS to_site, a.next_due::text,
             to_char((COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS start_day
-       FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN sites cs ON cs.id = t.customer_site_id
+       FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN sites cs ON cs.id = t.customer_site_id LEFT JOIN sites s ON s.id = a.site_id
       WHERE a.customer_id = $1 AND a.status IN ('on_hire', 'awaiting_collection', 'in_transit')
-        AND ($3::int[] IS NULL OR COALESCE(a.site_id, t.customer_site_id) = ANY($3::int[]))
+        AND ($3::int[] IS NULL OR ${SCOPE_SITE_SQL} = ANY($3::int[]))
       ORDER BY start_day, a.serial`,
     { bind: [organisationId, settings.timeZone, scope.siteIds], type: QueryTypes.SELECT },
   );

@@ -10,6 +10,8 @@ import { replayState, type LoggedEvent } from './event-replay';
 import { recordAudit } from '@/lib/audit.server';
 import { reverseMovesOfEvents } from '@/lib/liners/liner-ledger.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
+import { getSettings } from '@/lib/settings/settings.server';
+import { UNDO_REASON, undoSecondsLeft } from './undo-window';
 
 // What each action wrote on its trip, cleared again when the scan is voided.
 const TRIP_FIELDS_BY_ACTION: Record<string, string> = {
@@ -19,14 +21,20 @@ const TRIP_FIELDS_BY_ACTION: Record<string, string> = {
   collect: 'collected_at = NULL',
 };
 
-interface EventRow { id: number; asset_id: number; action: string; client_event_id: string | null; trip_id: number | null; voided_at: Date | null; inferred: boolean; payload: { trip?: string } }
+interface EventRow { id: number; asset_id: number; user_id: number | null; recorded_at: Date; action: string; client_event_id: string | null; trip_id: number | null; voided_at: Date | null; inferred: boolean; payload: { trip?: string } }
 
-export async function voidScan(user: SessionUser, eventId: number, reason: string, ip: string | null) {
+/**
+ * `ownWithin`: the scanner undoing their own scan — only theirs, only within
+ * the operator's undo window, and (as every void) only while it is the bin's latest.
+ */
+export async function voidScan(user: SessionUser, eventId: number, reason: string, ip: string | null, ownWithin?: { seconds: number; now: Date }) {
   return sequelize.transaction(async (t) => {
-    const [event] = await sequelize.query<EventRow>('SELECT id, asset_id, action, client_event_id, trip_id, voided_at, inferred, payload FROM scan_events WHERE id = $1', {
+    const [event] = await sequelize.query<EventRow>('SELECT id, asset_id, user_id, recorded_at, action, client_event_id, trip_id, voided_at, inferred, payload FROM scan_events WHERE id = $1', {
       bind: [eventId], type: QueryTypes.SELECT, transaction: t,
     });
     if (!event) throw new AppError('not_found', 'No such scan.');
+    // Someone else's scan is not there for an undo: the same answer as no scan at all (it may be another organisation's).
+    if (ownWithin && event.user_id !== user.id) throw new AppError('not_found', 'There is no scan of yours with this number. A planner voids other people’s scans with a reason.');
     if (event.voided_at) throw new AppError('conflict', 'This scan is already void.');
     if (event.inferred || event.action === 'register') throw new AppError('unprocessable', 'Inferred steps and registrations are not voided on their own; void the scan that implied them, or retire the bin.');
     // Lock the bin so nothing is recorded on it while its state is rebuilt.
@@ -35,6 +43,12 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
       `SELECT id FROM scan_events WHERE asset_id = $1 AND voided_at IS NULL AND NOT inferred ORDER BY occurred_at DESC, id DESC LIMIT 1`,
       { bind: [event.asset_id], type: QueryTypes.SELECT, transaction: t },
     );
+    if (ownWithin) {
+      if (latest?.id !== event.id) throw new AppError('conflict', 'Something was recorded on this bin after your scan, so it can no longer be undone. Ask a planner to void it with a reason.');
+      if (undoSecondsLeft(event.recorded_at, ownWithin.now, ownWithin.seconds) === 0) {
+        throw new AppError('unprocessable', 'The time to undo this scan has passed. Ask a planner to void it with a reason.');
+      }
+    }
     if (latest?.id !== event.id) throw new AppError('conflict', 'Only the latest scan of a bin can be voided. Void the later scans first.');
 
     const voided = await sequelize.query<{ id: number }>(
@@ -49,6 +63,12 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
     await recordAudit({ actor: { userId: user.id, ip }, action: 'scan.void', entityType: 'scan_event', entityId: event.id, before: { action: event.action }, after: { action: event.action, voidReason: reason, status: state.status } }, { transaction: t });
     return state;
   });
+}
+
+/** The scanner undoes their own scan: recorded as a void with the reason "undone by the person who scanned it". */
+export async function undoOwnScan(user: SessionUser, eventId: number, ip: string | null, now = new Date()) {
+  const { undoSeconds } = await getSettings();
+  return voidScan(user, eventId, UNDO_REASON, ip, { seconds: undoSeconds, now });
 }
 
 async function undoTripEffect(event: EventRow, t: Transaction) {

@@ -6,6 +6,7 @@
 // and the bin's current-state columns (optimistic locking on `version`), and
 // store the answer under the client event id so a replay returns it again.
 // A refusal rolls everything back: it leaves no trace.
+import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
 import { Op, OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Asset } from '@/models';
 import { AppError } from '@/lib/api-errors';
@@ -73,7 +74,7 @@ export interface ScanOutcome {
 }
 
 /** Who is scanning (a SessionUser, or the demo generator acting as one). */
-export type Actor = Omit<Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId'>, 'id'> & {
+export type Actor = Omit<Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId' | 'siteIds'>, 'id'> & {
   /** null when nobody signed in: the receiving end confirming a delivery through its link. */
   id: number | null;
 };
@@ -145,6 +146,9 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   if (!asset) throw new AppError('not_found', 'No bin with that identity is registered.');
   if (actor.role === 'customer' && asset.customer_id !== actor.organisationId) {
     throw new AppError('not_found', 'No bin with that identity is on hire to your organisation.');
+  }
+  if (siteLimited(actor) && !(await reachableBins(actor, [asset.id])).has(asset.id)) {
+    throw new AppError('not_found', 'No bin with that identity is at one of your sites.');
   }
   if (input.expectedVersion !== undefined && input.expectedVersion !== asset.version) throw changedMeanwhile();
   const site = await scanSite(actor, input, t);
@@ -234,7 +238,7 @@ async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise
   if (siteId === null || siteId === undefined) return null;
   const site = await one<SiteRow>('SELECT id, kind, organisation_id, active FROM sites WHERE id = $1', [siteId], t);
   if (!site || !site.active) throw new AppError('unprocessable', 'That site does not exist or is closed.');
-  if (actor.role === 'customer' && site.organisation_id !== actor.organisationId) {
+  if (actor.role === 'customer' && (site.organisation_id !== actor.organisationId || (actor.siteIds && !actor.siteIds.includes(site.id)))) {
     throw new AppError('forbidden', 'You can record scans only at your own sites.');
   }
   return site;

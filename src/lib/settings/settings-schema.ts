@@ -64,6 +64,7 @@ export const settingsSchema = z
       .max(254)
       .refine((v) => parseMailbox(v) !== null, 'An e-mail address, optionally with a name: Pool desk <pool@company.example>'),
     returnInstructions: multilineText().trim().max(2000, 'Keep it under 2,000 characters.'),
+    undoSeconds: z.number({ invalid_type_error: 'A number of seconds.' }).int('Whole seconds.').min(0, 'From 0 (no undo) to 600 seconds.').max(600, 'From 0 (no undo) to 600 seconds.'),
   })
   .superRefine((v, ctx) => {
     if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {

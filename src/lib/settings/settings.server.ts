@@ -14,6 +14,7 @@ export interface OperatorSettings {
   taxRate: number;
   mailSender: string;
   returnInstructions: string;
+  undoSeconds: number;
   version: number;
 }
 
@@ -46,6 +47,7 @@ async function loadSettings(): Promise<OperatorSettings> {
     taxRate: Number(row.taxRate),
     mailSender: row.mailSender,
     returnInstructions: row.returnInstructions,
+    undoSeconds: row.undoSeconds,
     version: row.version,
   };
   cached = { at: Date.now(), value };
@@ -61,7 +63,7 @@ export function forgetSettings() {
 // Editing (admin settings page)
 
 const FIELDS = [
-  'operatorName', 'gs1CompanyPrefix', 'gs1PrefixLength', 'digitalLinkBase', 'timeZone', 'currency', 'taxRate', 'mailSender', 'returnInstructions',
+  'operatorName', 'gs1CompanyPrefix', 'gs1PrefixLength', 'digitalLinkBase', 'timeZone', 'currency', 'taxRate', 'mailSender', 'returnInstructions', 'undoSeconds',
 ] as const;
 
 function snapshot(s: Setting) {

@@ -37,6 +37,8 @@ export interface RecordedOutcome {
   action: Action;
   statusTo: string;
   inferred: Action[];
+  /** The server's id of the recorded scan (undo names it). */
+  eventId?: number;
 }
 
 export type EventResult =

@@ -4,7 +4,7 @@ import { fractionToPercent, percentToFraction } from '@/lib/percent';
 
 const valid = {
   version: 0, operatorName: 'Example Pool', gs1CompanyPrefix: '9521234', gs1PrefixLength: 7, digitalLinkBase: 'https://id.pool.example/',
-  timeZone: 'Europe/Amsterdam', currency: 'eur', taxRate: '0.21', mailSender: 'Pool desk <pool@pool.example>', returnInstructions: ' Fold it. ',
+  timeZone: 'Europe/Amsterdam', currency: 'eur', taxRate: '0.21', mailSender: 'Pool desk <pool@pool.example>', returnInstructions: ' Fold it. ', undoSeconds: 30,
 };
 
 describe('settings form', () => {
@@ -65,5 +65,13 @@ describe('percent ↔ fraction, as decimal strings', () => {
   test('out of range or too precise', () => {
     for (const p of ['100', '-1', '5.555', 'abc', '']) expect(percentToFraction(p)).toBeNull();
     expect(fractionToPercent('1.0')).toBeNull();
+  });
+});
+
+describe('the undo window', () => {
+  test('whole seconds from 0 (no undo) to 600', async () => {
+    const { settingsSchema: s } = await import('@/lib/settings/settings-schema');
+    for (const ok of [0, 30, 600]) expect(s.safeParse({ ...valid, undoSeconds: ok }).success).toBe(true);
+    for (const bad of [-1, 601, 2.5, '30']) expect(s.safeParse({ ...valid, undoSeconds: bad }).success).toBe(false);
   });
 });
