@@ -92,6 +92,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/labels/', 'labels.print'],
   ['/requests', 'requests.view'],
   // Hire orders: the list, the order page and the form; the API's POSTs check orders.edit themselves.
+  ['/planning/test-days', 'inspections.view'],
   ['/planning/orders/new', 'orders.edit'],
   ['/planning/orders', 'orders.view'],
   ['/planning/repositioning', 'orders.view'],
