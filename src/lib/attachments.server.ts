@@ -1,6 +1,7 @@
 // Uploaded files live in PostgreSQL (stateless app servers). The content type
 // is sniffed from the bytes (file-type), never taken from the client, and only
 // a short list of kinds is accepted.
+import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
 import { createHash } from 'node:crypto';
 import type { Transaction } from 'sequelize';
 import { fileTypeFromBuffer } from 'file-type';
@@ -85,8 +86,14 @@ export async function formFile(form: FormData, field: string): Promise<{ bytes: 
  * A stored file with its bytes, for someone allowed to see it: operator staff (who may edit bins, and the yard)
  * see every file; anyone else only their own organisation's. null when there is no such file for this user.
  */
-export async function attachmentFor(user: { role: Role; organisationId: number }, id: number): Promise<Attachment | null> {
+export async function attachmentFor(user: { id?: number; role: Role; organisationId: number; siteIds?: number[] | null }, id: number): Promise<Attachment | null> {
   const row = await Attachment.scope('withContent').findByPk(id);
   const staff = can(user.role, 'bins.edit') || user.role === 'yard';
-  return row && (staff || row.organisationId === user.organisationId) ? row : null;
+  if (!row || !(staff || row.organisationId === user.organisationId)) return null;
+  // A customer user limited to some sites: a bin's photo only when the bin is at (or for) one of them; a loose file only their own.
+  if (siteLimited(user)) {
+    const visible = row.assetId !== null ? (await reachableBins(user, [row.assetId])).has(row.assetId) : row.uploadedBy === user.id;
+    if (!visible) return null;
+  }
+  return row;
 }

@@ -29,6 +29,8 @@ export class Asset extends Model<InferAttributes<Asset>, InferCreationAttributes
   declare lastInspectionOn: string | null;
   /** Last inspection done with a leakproofness test: the 2.5-year clock runs from it. */
   declare lastLeakTestOn: string | null;
+  /** Month the rigid plastics inner receptacle was made (ADR 4.1.1.15), for types the rule applies to. */
+  declare innerMadeMonth: CreationOptional<string | null>;
   declare lastFullInspectionOn: string | null;
   declare nextIntermediateDue: string | null;
   declare nextFullDue: string | null;
@@ -60,6 +62,7 @@ Asset.init(
     tripCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
     lastInspectionOn: { type: DataTypes.DATEONLY, allowNull: true },
     lastLeakTestOn: { type: DataTypes.DATEONLY, allowNull: true },
+    innerMadeMonth: { type: DataTypes.DATEONLY, allowNull: true },
     lastFullInspectionOn: { type: DataTypes.DATEONLY, allowNull: true },
     nextIntermediateDue: { type: DataTypes.DATEONLY, allowNull: true },
     nextFullDue: { type: DataTypes.DATEONLY, allowNull: true },

@@ -19,6 +19,9 @@ export class BinType extends Model<InferAttributes<BinType>, InferCreationAttrib
   declare policyKind: CreationOptional<'un' | 'own'>;
   declare intermediateMonths: CreationOptional<number>;
   declare fullMonths: CreationOptional<number>;
+  /** ADR 4.1.1.15 period of use of a rigid plastics inner receptacle: applies to this type, and its years. */
+  declare serviceLifeApplies: CreationOptional<boolean>;
+  declare serviceLifeYears: CreationOptional<number>;
   declare active: CreationOptional<boolean>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
@@ -42,6 +45,8 @@ BinType.init(
     policyKind: { type: DataTypes.STRING(8), allowNull: false, defaultValue: 'un' },
     intermediateMonths: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30 },
     fullMonths: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 60 },
+    serviceLifeApplies: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    serviceLifeYears: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 5 },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     version: versionColumn,
     ...timestampColumns,

@@ -13,6 +13,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare organisationId: number;
   declare homeSiteId: number | null;
   declare qualifiedInspector: CreationOptional<boolean>;
+  /** A customer user who may invite colleagues and limit them to sites (customers only). */
+  declare portalAdmin: CreationOptional<boolean>;
   declare active: CreationOptional<boolean>;
   declare lastSignInAt: Date | null;
   /** Counted up to end all of this person's sessions at once (src/lib/session/). */
@@ -32,6 +34,7 @@ User.init(
     organisationId: { type: DataTypes.INTEGER, allowNull: false },
     homeSiteId: { type: DataTypes.INTEGER, allowNull: true },
     qualifiedInspector: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
+    portalAdmin: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     lastSignInAt: { type: DataTypes.DATE, allowNull: true },
     sessionEpoch: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },

@@ -37,6 +37,7 @@ const ROUTES: Record<string, { query?: string; serialColumn?: string; numberColu
   },
   '/bins/export.csv': { serialColumn: 'serial', numberColumns: ['trip_count'] },
   '/bins/import/template.csv': {},
+  '/api/liners/moves.csv': { query: '?depot=1' },
 };
 
 let ctx: BrowserContext;

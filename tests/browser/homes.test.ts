@@ -22,7 +22,7 @@ describe('homes show live counts', () => {
     await expect(page.locator('[data-testid="depot-total"]').textContent()).resolves.toBe(String(total));
     const prep = await one<{ n: number }>(
       `SELECT COALESCE(sum(GREATEST(0, quantity - (SELECT count(*) FROM trips t WHERE t.hire_order_id = ho.id))), 0)::int AS n
-         FROM hire_orders ho WHERE depot_site_id = $1 AND status IN ('confirmed','loading') AND needed_by <= (now() AT TIME ZONE 'Europe/Amsterdam')::date + 7`,
+         FROM hire_orders ho WHERE depot_site_id = $1 AND status IN ('confirmed','loading')`,
       [depot.home_site_id],
     );
     await expect(page.locator('[data-testid="to-prepare"]').textContent()).resolves.toBe(`${prep.n} bins to prepare`);

@@ -1,7 +1,7 @@
 // The one status table, written out literally: a change to a word, an icon or a tone shows up here.
 // Every status carries a word and an icon (DESIGN §9: status is never colour alone).
 import { describe, expect, it } from 'vitest';
-import { STATUS_LOOK, TONE_CLASSES, TONE_TEXT } from '@/lib/status-look';
+import { STATUS_LOOK, TEST_LAPSED_LOOK, TONE_CLASSES, TONE_TEXT } from '@/lib/status-look';
 import { STATUSES, STATUS_LABELS } from '@/lib/scans/lifecycle';
 
 describe('STATUS_LOOK', () => {
@@ -18,6 +18,11 @@ describe('STATUS_LOOK', () => {
       missing: 'question/fault',
       retired: 'retired/neutral',
     });
+  });
+
+  it('the "test lapsed" mark beside a status is a word and an icon too (issue 11 §3), not colour alone', () => {
+    expect(TEST_LAPSED_LOOK).toEqual({ label: 'Test lapsed', icon: 'alert', tone: 'fault' });
+    expect(TONE_CLASSES[TEST_LAPSED_LOOK.tone]).toBeDefined();
   });
 
   it('covers every status with its word', () => {

@@ -126,7 +126,7 @@ export default function PeopleAdmin({ initialPeople, choices, currentUserId, tim
         <>
           {/* Desktop: a table */}
           <div className="card mt-2 hidden overflow-x-auto md:block" tabIndex={0} role="region" aria-label="People (the table scrolls sideways)">
-            <table className="w-full text-left text-sm" id="people-table">
+            <table className="table-pin w-full text-left text-sm" id="people-table">
               <thead className="border-b border-paper-line bg-paper text-ink-soft">
                 <tr>
                   <th scope="col" className="px-4 py-2 font-medium">Person</th>

@@ -167,7 +167,7 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
           {options.lots.map((l, i) => (
             <label key={l.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
               <input type="radio" name="lot" checked={lotId === l.id} onChange={() => setLotId(l.id)} />
-              <span className="ident">{l.lotNumber}</span>
+              <span className="ident whitespace-nowrap">{l.lotNumber}</span>
               <span className="text-sm text-ink-soft">{l.supplier} · expires {formatLongDate(l.expiryDate)} · {l.onHand} on the shelf</span>
               {i === 0 && <span className="ml-auto text-xs font-medium text-kelp">Use first</span>}
             </label>

@@ -5,7 +5,8 @@ import { Icon } from '@/components/ui/Icon';
 import { formatDayCount as days, formatLongDate, formatRelative } from '@/lib/calendar';
 import { groupGrai } from '@/lib/gs1';
 import { STATUS_LABELS, type Status } from '@/lib/scans/lifecycle';
-import { STATUS_LOOK, TONE_TEXT } from '@/lib/status-look';
+import { STATUS_LOOK, TEST_LAPSED_LOOK, TONE_TEXT } from '@/lib/status-look';
+import { isInspectionLapsed } from '@/lib/scans/lifecycle';
 import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import type { GridContext, GridRow } from './types';
 
@@ -36,14 +37,23 @@ export function GraiCell({ data, context }: Props) {
   );
 }
 
-export function StatusCell({ data }: Props) {
+export function StatusCell({ data, context }: Props) {
   if (!data) return null;
   const status = data.status as Status;
   const look = STATUS_LOOK[status];
+  const lapsed = status !== 'retired' && isInspectionLapsed(data.nextDue ?? null, context.today);
   return (
-    <span className={`inline-flex items-center gap-1.5 font-medium ${look ? TONE_TEXT[look.tone] : ''}`}>
-      {look && <Icon name={look.icon} size={18} />}
-      <span className="text-ink">{STATUS_LABELS[status] ?? status}</span>
+    <span className="inline-flex items-center gap-3">
+      <span className={`inline-flex items-center gap-1.5 font-medium ${look ? TONE_TEXT[look.tone] : ''}`}>
+        {look && <Icon name={look.icon} size={18} />}
+        <span className="text-ink">{STATUS_LABELS[status] ?? status}</span>
+      </span>
+      {lapsed && (
+        <span className={`inline-flex items-center gap-1 font-medium ${TONE_TEXT[TEST_LAPSED_LOOK.tone]}`} data-test-lapsed>
+          <Icon name={TEST_LAPSED_LOOK.icon} size={16} />
+          <span className="text-ink">{TEST_LAPSED_LOOK.label}</span>
+        </span>
+      )}
     </span>
   );
 }

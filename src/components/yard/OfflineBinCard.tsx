@@ -85,7 +85,7 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
       {bin && projection && ctx && snapshot && (
         <>
           <div className="flex flex-wrap items-center gap-2">
-            <StatusBadge status={bin.status} size="lg" />
+            <StatusBadge status={bin.status} size="lg" testLapsed={isInspectionLapsed(bin.nextDue, ctx.today)} />
             {projection.applied > 0 && <span className="text-sm text-ink-soft">after {projection.applied} scan{projection.applied === 1 ? '' : 's'} waiting on this phone</span>}
           </div>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">

@@ -82,6 +82,7 @@ async function seedPeopleAndPlaces() {
           organisationId: l.role === 'customer' ? firstCustomer.id : operator.id,
           homeSiteId: l.role === 'yard' ? sitesByCode.get('DEP-RTM')!.id : null,
           qualifiedInspector: l.role === 'yard',
+          portalAdmin: l.role === 'customer', // the demo buyer invites and limits colleagues
           lastSignInAt: null,
         },
         opts,

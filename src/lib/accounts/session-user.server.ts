@@ -12,6 +12,10 @@ export interface SessionUser {
   organisationName: string;
   homeSiteId: number | null;
   qualifiedInspector: boolean;
+  /** Customers: may invite colleagues and limit them to sites. */
+  portalAdmin?: boolean;
+  /** Customers: the sites they are limited to; absent or null = every site of their organisation. */
+  siteIds?: number[] | null;
 }
 
 /** The claims a session token carries (src/lib/session/session-cookie.ts). */
@@ -27,7 +31,7 @@ export interface SessionKey {
  * that outlives deactivation, role changes and sign-out, so on every request
  * the row must still exist and be active, still carry the role and the session
  * epoch the token was issued with, and this session must not have been signed
- * out. One query: a primary-key lookup and a primary-key probe.
+ * out. One query: a primary-key lookup, a primary-key probe and the (few) site limits by the user_sites key.
  */
 export async function loadSessionUser(key: SessionKey): Promise<SessionUser | null> {
   const { uid: id, role: tokenRole, sid, epoch } = key;
@@ -35,10 +39,11 @@ export async function loadSessionUser(key: SessionKey): Promise<SessionUser | nu
   const rows = await sequelize.query<{
     id: number; email: string; name: string; role: string; organisation_id: number;
     organisation_name: string; home_site_id: number | null; qualified_inspector: boolean; active: boolean;
-    session_epoch: number; ended: boolean;
+    session_epoch: number; ended: boolean; portal_admin: boolean; site_ids: number[] | null;
   }>(
     `SELECT u.id, u.email, u.name, u.role, u.organisation_id, o.name AS organisation_name,
-            u.home_site_id, u.qualified_inspector, u.active AND o.active AS active, u.session_epoch,
+            u.home_site_id, u.qualified_inspector, u.active AND o.active AS active, u.session_epoch, u.portal_admin,
+            (SELECT array_agg(us.site_id ORDER BY us.site_id) FROM user_sites us WHERE us.user_id = u.id) AS site_ids,
             EXISTS (SELECT 1 FROM ended_sessions e WHERE e.session_id = $2::uuid) AS ended
        FROM users u JOIN organisations o ON o.id = u.organisation_id
       WHERE u.id = $1`,
@@ -55,5 +60,7 @@ export async function loadSessionUser(key: SessionKey): Promise<SessionUser | nu
     organisationName: row.organisation_name,
     homeSiteId: row.home_site_id,
     qualifiedInspector: row.qualified_inspector,
+    portalAdmin: row.portal_admin,
+    siteIds: row.site_ids,
   };
 }

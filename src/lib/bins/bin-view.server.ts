@@ -1,5 +1,6 @@
 // Everything the bin page shows, read in a few queries and returned as plain
 // data (the page renders it; islands get the parts they need as props).
+import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { allowedActions, type Action, type Leg, type SiteKind, type Status } from '@/lib/scans/lifecycle';
@@ -55,6 +56,8 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
   if (!row) return null;
   const isCustomer = user.role === 'customer';
   if (isCustomer && row.customer_id !== user.organisationId) return null;
+  // A customer user limited to some sites sees only the bins at (or for) those sites.
+  if (isCustomer && siteLimited(user) && !(await reachableBins(user, [Number(row.id)])).has(Number(row.id))) return null;
 
   // A customer sees only what happened during their own trips, never other customers' use of the bin.
   const events = isCustomer

@@ -7,6 +7,7 @@
  */
 import { BIN_COLUMN_IDS, GridQueryError, isBinColumnId, parseFilterModel, parseSortModel, type BinColumnId, type FilterModel, type SortItem } from './grid-query';
 import { STATUSES } from '@/lib/scans/lifecycle';
+import { OVERVIEW_CARDS } from './overview-cards';
 
 export const FLEET_GRID = 'fleet-bins';
 export const MAX_VIEW_NAME = 80;
@@ -44,8 +45,8 @@ export const BUILTIN_VIEWS: readonly BuiltinView[] = [
     name: 'Overdue back from customers',
     description: 'On hire or folded and awaiting collection for longer than the customer’s free days.',
     state: {
-      filterModel: { overFreeDays: { filterType: 'boolean', value: true } },
-      sortModel: [{ colId: 'daysAtSite', sort: 'desc' }],
+      filterModel: OVERVIEW_CARDS.overdue.filter(30),
+      sortModel: OVERVIEW_CARDS.overdue.sort,
       columns: [],
     },
   },
@@ -72,10 +73,10 @@ export const BUILTIN_VIEWS: readonly BuiltinView[] = [
   {
     id: 'builtin:silent-30',
     name: 'Silent for 30+ days',
-    description: 'No scan for 30 days or more; retired bins left out.',
+    description: 'No scan for 30 days or more; bins in service only (retired and missing ones left out), as the overview counts them.',
     state: {
-      filterModel: { daysSilent: { filterType: 'number', type: 'greaterThanOrEqual', filter: 30 }, status: { filterType: 'set', values: [...NOT_RETIRED] } },
-      sortModel: [{ colId: 'lastScanAt', sort: 'asc' }],
+      filterModel: OVERVIEW_CARDS.silent.filter(30),
+      sortModel: OVERVIEW_CARDS.silent.sort,
       columns: DEFAULT_VISIBLE.map((colId) => ({ colId, hide: false })).concat([{ colId: 'daysSilent', hide: false }]),
     },
   },

@@ -12,6 +12,8 @@ import { overdueBack, WITH_CUSTOMER_STATUSES } from './overdue-return';
 import { firstRecentDay, notScannedForSql } from './scan-age';
 import { shrinkage, shrinkageWindow, type Shrinkage, type Window } from './shrinkage';
 import { fillMonths, type MonthPoint } from './month-series';
+import { countBins, queryContext } from './fleet-grid.server';
+import { OVERVIEW_CARD_IDS, OVERVIEW_CARDS, type OverviewCardId } from './overview-cards';
 
 export type StatusCounts = Record<Status, number>;
 
@@ -74,6 +76,8 @@ export interface StaleBin {
 }
 
 export interface PoolOverview {
+  /** Each figure card's number: the fleet grid's count of the card's own filter (overview-cards.ts), so it is the length of the list the card opens. */
+  cards: Record<OverviewCardId, number | null>;
   today: LocalDate;
   timeZone: string;
   byStatus: StatusCounts;
@@ -307,7 +311,12 @@ export async function loadPoolOverview(opts: { staleDays: number; now?: Date }):
   const trips = await tripsPerMonth(today, timeZone);
   const tests = await testsDue(today);
   const inService = STATUSES.filter((s) => s !== 'retired' && s !== 'missing').reduce((n, s) => n + sites.byStatus[s], 0);
+  const ctx = await queryContext(opts.now);
+  const cards = Object.fromEntries(
+    await Promise.all(OVERVIEW_CARD_IDS.map(async (id) => [id, await countBins(OVERVIEW_CARDS[id].filter(opts.staleDays), ctx)] as const)),
+  ) as Record<OverviewCardId, number | null>;
   return {
+    cards,
     today, timeZone, byStatus: sites.byStatus, inService, sites: sites.sites, noSite: sites.noSite,
     ...hire, empties: emptiesList, stale, shrinkage: shrink, tripsPerMonth: trips, testsDue: tests,
   };

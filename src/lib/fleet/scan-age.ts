@@ -11,6 +11,10 @@
  */
 import { addDays, daysBetween } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
+import { STATUSES, type Status } from '@/lib/scans/lifecycle';
+
+/** In service: registered and neither retired nor missing (a missing bin's last scan says nothing of where it is). */
+export const IN_SERVICE_STATUSES: readonly Status[] = STATUSES.filter((s) => s !== 'retired' && s !== 'missing');
 
 const DEFAULT_STALE_DAYS = 30;
 const MAX_STALE_DAYS = 3650;
@@ -43,5 +47,6 @@ export function isNotScannedFor(lastScanOn: LocalDate | null, today: LocalDate, 
  * tests/integration/fleet/silent-drift.test.ts.
  */
 export function notScannedForSql(firstRecent: string, timeZone: string): string {
-  return `a.status NOT IN ('retired', 'missing') AND (a.last_scan_at IS NULL OR a.last_scan_at < (${firstRecent}::date::timestamp AT TIME ZONE ${timeZone}))`;
+  const outOfService = STATUSES.filter((s) => !IN_SERVICE_STATUSES.includes(s)).map((s) => `'${s}'`).join(', ');
+  return `a.status NOT IN (${outOfService}) AND (a.last_scan_at IS NULL OR a.last_scan_at < (${firstRecent}::date::timestamp AT TIME ZONE ${timeZone}))`;
 }

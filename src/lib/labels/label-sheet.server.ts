@@ -55,9 +55,10 @@ export async function qrSvg(text: string, title: string): Promise<string> {
     .replace(/^(<svg[^>]*>)/, `$1<title>${escaped}</title>`);
 }
 
+/** The GRAI in two pieces that each stay on one line; the separator ends the first, so no line starts with it. */
 function splitGroups(grouped: string): [string, string] {
   const at = grouped.indexOf(' \u00B7 ');
-  return at < 0 ? [grouped, ''] : [grouped.slice(0, at), grouped.slice(at + 1)];
+  return at < 0 ? [grouped, ''] : [`${grouped.slice(0, at)} \u00B7`, grouped.slice(at + 3)];
 }
 
 export async function buildLabelSheets(

@@ -326,3 +326,46 @@ export function projectFefo(lots: StockLot[], demand: Demand, o: { today: LocalD
     expiresSoon: daysBetween(o.today, l.expiryDate) <= soonDays,
   }));
 }
+
+// ---------------------------------------------------------------------------------------------------
+// Liners at risk: a transfer to a depot that will use them in time
+
+export interface DepotStockPicture {
+  siteId: number;
+  name: string;
+  lots: StockLot[];
+  demand: Demand;
+}
+
+export interface TransferProposal {
+  toSiteId: number;
+  toName: string;
+  quantity: number;
+  /** Liners that would expire across both depots without the transfer, less those with it. */
+  saved: number;
+}
+
+const totalAtRisk = (lots: StockLot[], demand: Demand, today: LocalDate) => projectFefo(lots, demand, { today }).reduce((s, l) => s + l.atRisk, 0);
+
+/**
+ * Where to send `quantity` liners of `lot` that are projected to expire at their depot: each other depot is
+ * projected FEFO with its own lots and demand, with and without the extra liners (usable on arrival,
+ * `transferDays` ahead: the demand of the days before arrival cannot take them, so their expiry is read as
+ * that much sooner). The depot where the fewest of them would still expire wins; the quantity is what it
+ * would use in time. Null when no depot would use any of them in time (order less instead).
+ */
+export function proposeTransfer(lot: StockLot, quantity: number, others: DepotStockPicture[], o: { today: LocalDate; transferDays?: number }): TransferProposal | null {
+  finiteAtLeast('liners at risk', quantity, 0);
+  if (quantity === 0) return null;
+  const lag = o.transferDays ?? 1;
+  let best: TransferProposal | null = null;
+  for (const d of others) {
+    const before = totalAtRisk(d.lots, d.demand, o.today);
+    // Arriving `lag` days later is like expiring `lag` days sooner for the receiving depot's days ahead.
+    const sent: StockLot = { lotId: -lot.lotId, lotNumber: lot.lotNumber, onHand: quantity, expiryDate: addDays(lot.expiryDate, -lag) };
+    const after = totalAtRisk([...d.lots, sent], d.demand, o.today);
+    const used = Math.floor(quantity - (after - before) + 1e-9); // whole liners
+    if (used > 0 && (!best || used > best.saved)) best = { toSiteId: d.siteId, toName: d.name, quantity: used, saved: used };
+  }
+  return best;
+}

@@ -74,7 +74,7 @@ export async function startLoad(user: Actor & { id: number }, input: { hireOrder
 }
 
 /** Adds one bin to a loading load: a dispatch scan on the load's order, refused when the load is full. */
-export async function addBinToLoad(user: Actor, loadId: number, input: { clientEventId: string; assetId: number; occurredAt?: Date }): Promise<ScanOutcome & { loaded: number; target: number }> {
+export async function addBinToLoad(user: Actor, loadId: number, input: { clientEventId: string; assetId: number; occurredAt?: Date; overrideReason?: string }): Promise<ScanOutcome & { loaded: number; target: number }> {
   return sequelize.transaction(async (t) => {
     // Lock the load so two phones loading the same truck cannot overfill it.
     const [load] = await q<{ id: number; status: string; target_count: number; hire_order_id: number | null; depot_site_id: number; purpose: 'hire' | 'transfer' }>(
@@ -90,7 +90,7 @@ export async function addBinToLoad(user: Actor, loadId: number, input: { clientE
     }
     const outcome = await recordScan(
       user,
-      { clientEventId: input.clientEventId, assetId: input.assetId, action: 'dispatch', occurredAt: input.occurredAt, siteId: load.depot_site_id, purpose: load.purpose, hireOrderId: load.hire_order_id ?? undefined, loadId: load.id },
+      { clientEventId: input.clientEventId, assetId: input.assetId, action: 'dispatch', occurredAt: input.occurredAt, siteId: load.depot_site_id, purpose: load.purpose, hireOrderId: load.hire_order_id ?? undefined, loadId: load.id, overrideReason: input.overrideReason },
       { transaction: t },
     );
     return { ...outcome, loaded: outcome.replayed ? loaded : loaded + 1, target: load.target_count };

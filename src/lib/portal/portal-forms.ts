@@ -98,3 +98,28 @@ export const ORDER_FORM_FIELDS = ['binTypeId', 'quantity', 'neededBy', 'delivery
 export const COLLECTION_FORM_FIELDS = ['siteId', 'quantity', 'readyOn', 'note'] as const;
 export const DAMAGE_FORM_FIELDS = ['grai', 'description'] as const;
 export const DELIVERY_FORM_FIELDS = ['reference', 'receivedByName'] as const;
+
+/** Site ids from a form's checkboxes (joined with commas by the form reader); none ticked = every site. */
+const siteIdList = text()
+  .optional()
+  .transform((v) => (v ? v.split(',').filter(Boolean) : []))
+  .refine((ids) => ids.every((i) => /^\d{1,9}$/.test(i)), 'Choose sites from the list.')
+  .transform((ids) => [...new Set(ids.map(Number))].sort((a, b) => a - b));
+
+export const inviteColleagueFields = z
+  .object({
+    name: text({ required_error: 'Give their name.' }).trim().min(2, 'Give their name.').max(160, 'Keep the name under 160 characters.'),
+    email: text({ required_error: 'Give their e-mail address.' }).trim().toLowerCase().email('Give an e-mail address, like name@company.example.').max(254),
+    siteIds: siteIdList,
+    admin: z.literal('yes').optional().transform((v) => v === 'yes'),
+  })
+  .strict();
+export type InviteColleagueInput = z.output<typeof inviteColleagueFields>;
+
+export const colleagueSitesFields = z.object({ userId: id('the person'), siteIds: siteIdList }).strict();
+export type ColleagueSitesInput = z.output<typeof colleagueSitesFields>;
+
+export const INVITE_FORM_FIELDS = ['name', 'email', 'siteIds', 'admin'] as const;
+export const SITES_FORM_FIELDS = ['userId', 'siteIds'] as const;
+/** Fields a form sends more than once (checkboxes), read as one comma-joined value. */
+export const MULTI_FIELDS = ['siteIds'] as const;

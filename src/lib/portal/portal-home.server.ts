@@ -1,15 +1,16 @@
 // The customer's start page: their bins on hire, site by site, with days on
 // hire and free days left (the overdue rule of src/lib/fleet/overdue-return.ts). Every query is scoped to the customer's own
 // organisation here, on the server.
+import { isInspectionLapsed } from '@/lib/scans/lifecycle';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { daysBetween, localDate } from '@/lib/calendar';
 import { overdueBack } from '@/lib/fleet/overdue-return';
 import type { Status } from '@/lib/scans/lifecycle';
 import { getSettings } from '@/lib/settings/settings.server';
-import { scopeSites, type PortalScope } from './portal-scope.server';
+import { SCOPE_SITE_SQL, scopeSites, type PortalScope } from './portal-scope.server';
 
-export interface PortalBin { grai: string; serial: string; status: Status; filled: boolean; product: string | null; since: string; daysOnHire: number; freeDaysLeft: number; overdue: boolean }
+export interface PortalBin { grai: string; serial: string; status: Status; filled: boolean; product: string | null; since: string; daysOnHire: number; freeDaysLeft: number; overdue: boolean; testLapsed: boolean }
 /** A bin on the road: to one of the customer's sites (outbound) or back from them to the depot (return). */
 export interface RoadBin extends PortalBin { leg: 'outbound' | 'return' | 'transfer' | null; toSite: string | null }
 export interface PortalSite { id: number; name: string; address: string | null; bins: PortalBin[]; counts: Partial<Record<Status, number>> }
@@ -21,12 +22,12 @@ export async function loadPortalHome(scope: PortalScope) {
   const [org] = await sequelize.query<{ name: string; free_days: number }>('SELECT name, free_days FROM organisations WHERE id = $1', { bind: [organisationId], type: QueryTypes.SELECT });
   const sites = await scopeSites(scope);
   // A bin counts at the site it stands at; one on the road, at the site its trip serves.
-  const bins = await sequelize.query<{ site_id: number | null; grai: string; serial: string; status: Status; filled: boolean; product: string | null; start_day: string; leg: RoadBin['leg']; to_site: string | null }>(
-    `SELECT a.site_id, a.grai, a.serial, a.status, a.filled, t.fill_product AS product, a.leg, cs.name AS to_site,
+  const bins = await sequelize.query<{ site_id: number | null; grai: string; serial: string; status: Status; filled: boolean; product: string | null; start_day: string; leg: RoadBin['leg']; to_site: string | null; next_due: string | null }>(
+    `SELECT a.site_id, a.grai, a.serial, a.status, a.filled, t.fill_product AS product, a.leg, cs.name AS to_site, a.next_due::text,
             to_char((COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS start_day
-       FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN sites cs ON cs.id = t.customer_site_id
+       FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN sites cs ON cs.id = t.customer_site_id LEFT JOIN sites s ON s.id = a.site_id
       WHERE a.customer_id = $1 AND a.status IN ('on_hire', 'awaiting_collection', 'in_transit')
-        AND ($3::int[] IS NULL OR COALESCE(a.site_id, t.customer_site_id) = ANY($3::int[]))
+        AND ($3::int[] IS NULL OR ${SCOPE_SITE_SQL} = ANY($3::int[]))
       ORDER BY start_day, a.serial`,
     { bind: [organisationId, settings.timeZone, scope.siteIds], type: QueryTypes.SELECT },
   );
@@ -39,7 +40,7 @@ export async function loadPortalHome(scope: PortalScope) {
     const daysOnHire = check.daysWithCustomer ?? Math.max(0, daysBetween(b.start_day, today));
     const days = { daysOnHire, freeDaysLeft: freeDays - daysOnHire, overdue: check.overdue };
     const list = bySite.get(b.site_id) ?? [];
-    const bin = { grai: b.grai, serial: b.serial, status: b.status, filled: b.filled, product: b.product, since: b.start_day, ...days };
+    const bin = { grai: b.grai, serial: b.serial, status: b.status, filled: b.filled, product: b.product, since: b.start_day, ...days, testLapsed: isInspectionLapsed(b.next_due, today) };
     if (b.status === 'in_transit') road.push({ ...bin, leg: b.leg, toSite: b.to_site });
     else list.push(bin);
     bySite.set(b.site_id, list);

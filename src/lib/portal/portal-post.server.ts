@@ -4,7 +4,7 @@
 import type { ZodType, ZodTypeDef } from 'zod';
 import { AppError, ERROR_STATUS } from '@/lib/api-errors';
 import { readForm } from '@/lib/attachments.server';
-import { fieldProblems, pickTextFields } from './portal-forms';
+import { fieldProblems, MULTI_FIELDS, pickTextFields } from './portal-forms';
 
 export type PortalPost =
   | { ok: true; redirect: string }
@@ -24,6 +24,11 @@ export async function portalPost<T>(
     throw err;
   }
   const values = pickTextFields(fields, form.entries());
+  for (const f of MULTI_FIELDS) {
+    if (!fields.includes(f)) continue;
+    const all = form.getAll(f).filter((v): v is string => typeof v === 'string');
+    if (all.length) values[f] = all.join(',');
+  }
   const parsed = schema.safeParse(values);
   if (!parsed.success) {
     return { ok: false, status: 400, message: 'Some answers need another look: see the notes beside them. Nothing was sent yet.', problems: fieldProblems(parsed.error), values };

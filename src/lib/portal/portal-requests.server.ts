@@ -10,7 +10,7 @@ import { sendMail } from '@/lib/mail/mailer.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import { createCollectionRequest, createDamageReport } from '@/lib/requests/requests.server';
 import type { CollectionInput, DamageInput } from './portal-forms';
-import { ownSite, type PortalScope } from './portal-scope.server';
+import { ownSite, SCOPE_SITE_SQL, type PortalScope } from './portal-scope.server';
 
 export interface PortalCollectionRow {
   id: number; source: 'public' | 'portal' | 'planner'; status: 'open' | 'scheduled' | 'done' | 'cancelled'; quantity: number;
@@ -66,7 +66,7 @@ export async function damageableBins(scope: PortalScope): Promise<Array<{ grai: 
     `SELECT a.grai, a.serial, s.name AS site
        FROM assets a LEFT JOIN sites s ON s.id = a.site_id LEFT JOIN trips t ON t.id = a.current_trip_id
       WHERE a.customer_id = $1 AND a.status IN ('on_hire', 'awaiting_collection', 'in_transit')
-        AND ${inScope('COALESCE(a.site_id, t.customer_site_id)', 2)}
+        AND ${inScope(SCOPE_SITE_SQL, 2)}
       ORDER BY a.serial`,
     { bind: [scope.organisationId, scope.siteIds], type: QueryTypes.SELECT },
   );

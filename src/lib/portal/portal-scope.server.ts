@@ -4,6 +4,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { AppError } from '@/lib/api-errors';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
+export { SCOPE_SITE_SQL, reachableBins, siteLimited } from '@/lib/customer-scope.server';
 
 export interface PortalScope {
   userId: number;
@@ -14,10 +15,11 @@ export interface PortalScope {
   siteIds: number[] | null;
 }
 
-export async function portalScope(user: Pick<SessionUser, 'id' | 'name' | 'email' | 'organisationId' | 'role'>): Promise<PortalScope> {
+export async function portalScope(user: Pick<SessionUser, 'id' | 'name' | 'email' | 'organisationId' | 'role' | 'siteIds'>): Promise<PortalScope> {
   if (user.role !== 'customer') throw new AppError('forbidden', 'The portal is for customers.');
-  return { userId: user.id, name: user.name, email: user.email, organisationId: user.organisationId, siteIds: null };
+  return { userId: user.id, name: user.name, email: user.email, organisationId: user.organisationId, siteIds: user.siteIds ?? null };
 }
+
 
 /** The scope's sites: active sites of the organisation, limited to the user's own when limited. */
 export async function scopeSites(scope: PortalScope): Promise<Array<{ id: number; name: string; code: string; address: string | null }>> {

@@ -47,6 +47,7 @@ export const scanEventSchema = z
       .optional(),
     sealsVerified: sealList.optional(),
     note: multilineText().trim().max(500).optional(),
+    overrideReason: multilineText().trim().min(5, 'Say why the bin may go anyway (at least a few words).').max(500).optional(),
   })
   .strict()
   .refine((e) => e.grai !== undefined || e.assetId !== undefined, { message: 'Say which bin: grai or assetId', path: ['grai'] });

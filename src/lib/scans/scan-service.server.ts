@@ -6,6 +6,7 @@
 // and the bin's current-state columns (optimistic locking on `version`), and
 // store the answer under the client event id so a replay returns it again.
 // A refusal rolls everything back: it leaves no trace.
+import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
 import { Op, OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Asset } from '@/models';
 import { AppError } from '@/lib/api-errors';
@@ -19,6 +20,8 @@ import { syncOrderStatus } from '@/lib/planning/orders.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 import { specFitFor } from '@/lib/liners/liner-specs.server';
+import { dispatchLapseCheck } from '@/lib/inspections/dispatch-check.server';
+import { overrideAccepted } from '@/lib/inspections/dispatch-check';
 
 export type { FillRecord };
 
@@ -48,6 +51,11 @@ export interface ScanInput {
   inspection?: ScanFacts['inspection'];
   /** inspect only: the outcome and the schedule it sets, for the rule table (src/lib/inspections/inspection-records.server.ts). */
   inspectionResult?: InspectionResult;
+  /**
+   * dispatch on hire only: a planner's reason to send a bin whose test would run out while it is likely still
+   * out (the operator's margin). Never releases a bin whose test runs out before the order's wanted date.
+   */
+  overrideReason?: string;
 }
 
 export interface ScanOutcome {
@@ -66,7 +74,7 @@ export interface ScanOutcome {
 }
 
 /** Who is scanning (a SessionUser, or the demo generator acting as one). */
-export type Actor = Omit<Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId'>, 'id'> & {
+export type Actor = Omit<Pick<SessionUser, 'id' | 'role' | 'organisationId' | 'homeSiteId' | 'siteIds'>, 'id'> & {
   /** null when nobody signed in: the receiving end confirming a delivery through its link. */
   id: number | null;
 };
@@ -139,6 +147,9 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   if (actor.role === 'customer' && asset.customer_id !== actor.organisationId) {
     throw new AppError('not_found', 'No bin with that identity is on hire to your organisation.');
   }
+  if (siteLimited(actor) && !(await reachableBins(actor, [asset.id])).has(asset.id)) {
+    throw new AppError('not_found', 'No bin with that identity is at one of your sites.');
+  }
   if (input.expectedVersion !== undefined && input.expectedVersion !== asset.version) throw changedMeanwhile();
   const site = await scanSite(actor, input, t);
   const today = localDate(occurredAt, settings.timeZone);
@@ -165,15 +176,16 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   });
   if (!decision.ok) throw refusal(decision);
   const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
+  const override = order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire' ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t) : null;
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
-  const flags = [...decision.flags];
+  const flags = [...decision.flags, ...(override ? ['lapse_margin_overridden'] : [])];
   const trip = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
   // The order follows its bins: the first one loaded makes it loading, the last one dispatched makes it dispatched.
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const opened = typeof trip === 'object' ? trip : null;
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
-  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}) };
+  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}) };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
     r.action, r.occurredAt, r.clientEventId, r.statusFrom, r.statusTo, r.inferred, r.flagged, JSON.stringify(r.payload),
   ]);
@@ -226,13 +238,30 @@ async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise
   if (siteId === null || siteId === undefined) return null;
   const site = await one<SiteRow>('SELECT id, kind, organisation_id, active FROM sites WHERE id = $1', [siteId], t);
   if (!site || !site.active) throw new AppError('unprocessable', 'That site does not exist or is closed.');
-  if (actor.role === 'customer' && site.organisation_id !== actor.organisationId) {
+  if (actor.role === 'customer' && (site.organisation_id !== actor.organisationId || (actor.siteIds && !actor.siteIds.includes(site.id)))) {
     throw new AppError('forbidden', 'You can record scans only at your own sites.');
   }
   return site;
 }
 
-interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number }
+interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number; needed_by: string }
+
+/**
+ * A hire dispatch is refused for a bin whose test (or period of use) runs out before the order's wanted date
+ * — never overridable — or, by the operator's margin, while it is likely still out; a planner may override
+ * the margin only, with a reason, which the dispatch's log entry keeps (and flags for review).
+ */
+async function checkLapseBeforeDispatch(actor: Actor, assetId: number, order: OrderRow, input: ScanInput, today: string, timeZone: string, t: Transaction) {
+  const check = await dispatchLapseCheck(assetId, order, today, timeZone, t);
+  if (check.ok) return null;
+  const details = { reason: check.code, action: 'dispatch', lastDay: check.lastDay, because: check.because, overridable: check.overridable, expectedBackOn: check.expectedBackOn };
+  if (!check.overridable || !input.overrideReason) throw new AppError('transition_refused', check.reason, details);
+  if (actor.role !== 'planner' && actor.role !== 'admin') {
+    throw new AppError('transition_refused', `${check.reason} Only a planner may override it.`, details);
+  }
+  if (!overrideAccepted(check, input.overrideReason)) throw new AppError('validation_failed', 'Say why the bin may go anyway (at least a few words).', [{ path: 'overrideReason', message: 'Give the reason for the override.' }]);
+  return { code: check.code, lastDay: check.lastDay, expectedBackOn: check.expectedBackOn, reason: input.overrideReason.trim(), by: actor.id };
+}
 
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
 async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput, site: SiteRow | null, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
@@ -275,7 +304,7 @@ async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput
     return { order: null, lotNumber };
   }
   const order = await one<OrderRow>(
-    'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id FROM hire_orders WHERE id = $1', [input.hireOrderId], t);
+    'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id, needed_by::text FROM hire_orders WHERE id = $1', [input.hireOrderId], t);
   if (!order || !countsAsDemand(order.status as OrderStatus)) {
     const why = order?.status === 'draft' ? ' it is still a draft; a planner confirms it first' : order ? ` it is ${order.status}` : '';
     throw new AppError('transition_refused', `That hire order is not open for loading${why ? `:${why}` : ''}.`, { reason: 'order_not_open', action: input.action });

@@ -30,11 +30,11 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
   const empty: YardHome = { depot: null, today, counts: [], orders: [], toPrepare: 0, preparedHere: 0, expected: { returning: 0, awaitingCollection: 0, transfersIn: 0 }, testsDue: [], testsDueCount: 0, quarantined: 0, recent: [] };
   if (!depotId) return empty;
   const [depot] = await q<{ id: number; name: string }>('SELECT id, name FROM sites WHERE id = $1', [depotId]);
-  const horizon = addDays(today, 7);
   const [counts, orders, expected, transfers, testsDue, recent] = await Promise.all([
     // Retired bins have left the pool even when their scrap still stands in the yard.
     q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [depotId]),
-    openOrdersAt(depotId, { neededBy: horizon }).then((list) =>
+    // The same list "Start a load" offers (src/pages/loads/new.astro): the card counts what it opens.
+    openOrdersAt(depotId).then((list) =>
       list.map(({ id, reference, customer, neededBy, quantity, loaded, binType }) => ({ id, reference, customer, neededBy, quantity, loaded, binType })),
     ),
     // Bins that left from this depot come back to it, as a rule.

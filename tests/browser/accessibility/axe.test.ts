@@ -45,7 +45,7 @@ function mayOpen(viewer: Viewer, path: string): boolean {
   return can(viewer, access);
 }
 
-interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number; inspectionId: number }
+interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number; inspectionId: number; depotId: number }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
   const mine = await one<{ grai: string }>(
@@ -57,7 +57,8 @@ async function examples(): Promise<Examples> {
   const order = await one<{ id: number }>(`SELECT id FROM hire_orders ORDER BY id DESC LIMIT 1`);
   const inspection = await one<{ id: number }>(`SELECT id FROM inspections WHERE kind <> 'prep_check' ORDER BY id DESC LIMIT 1`);
   for (const [what, v] of Object.entries({ mine, bin, trip, order, inspection })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id };
+  const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
+  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id, depotId: depot.id };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -76,6 +77,7 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/labels/sheet': `/labels/sheet?ids=${ex.binId}`,
     '/planning/orders/[id]': `/planning/orders/${ex.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${ex.orderId}/fill`,
+    '/liners/stock/[depot]': `/liners/stock/${ex.depotId}`,
   };
   if (route.includes('[')) {
     const url = known[route];

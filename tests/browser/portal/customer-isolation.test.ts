@@ -45,7 +45,7 @@ function routes(): Route[] {
 interface Other {
   orgId: number; userId: number; siteId: number; binId: number; grai: string; serial: string; tripId: number; orderId: number;
   loadRef: string; eventId: number; collectionId: number; damageId: number; photoId: number; viewId: number;
-  markers: string[]; ownGrai: string; ownBinId: number;
+  markers: string[]; ownGrai: string; ownBinId: number; inspectionId: number;
 }
 
 let other: Other;
@@ -105,7 +105,7 @@ beforeAll(async () => {
   other = {
     orgId: b.org_id, userId: b.user_id, siteId: sites[0]!.id, binId: bin.id, grai: bin.grai, serial: bin.serial, tripId: trip.id,
     orderId: order.id, loadRef: load?.reference ?? 'LD-NONE-1', eventId: event.id, collectionId: collection.id, damageId: damage.id,
-    photoId, viewId: view?.id ?? 1,
+    photoId, viewId: view?.id ?? 1, inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [b.org_name, b.contact, SECOND_CUSTOMER_LOGIN.email, b.user_name, order.reference, ...sites.flatMap((s) => [s.name, s.code]), 'Three folded by dock 2', 'forklift knock'],
     ownGrai: own.grai, ownBinId: own.id,
@@ -128,6 +128,7 @@ function exampleUrl(pattern: string, o: Other): string {
     // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
     '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
+    '/liners/stock/[depot]': '/liners/stock/1',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,
@@ -144,6 +145,10 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/scan-events/[id]/void': `/api/scan-events/${o.eventId}/void`,
     '/bins/[grai]': `/bins/${o.grai}`,
     '/bins/[grai]/edit': `/bins/${o.grai}/edit`,
+    '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
+    // Inspection records are the operator's own (customers never hold the capability): any id will do.
+    '/api/inspections/[id]/amend': '/api/inspections/1/amend',
+    '/inspections/[id]': '/inspections/1',
     '/loads/[ref]': `/loads/${o.loadRef}`,
     '/loads/[ref]/note': `/loads/${o.loadRef}/note`,
     // The delivery link is a capability: whoever holds the token may confirm. A guessed one finds nothing.
@@ -151,6 +156,9 @@ function exampleUrl(pattern: string, o: Other): string {
     '/planning/orders/[id]': `/planning/orders/${o.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${o.orderId}/fill`,
     '/trips/[id]': `/trips/${o.tripId}`,
+    '/api/inspections/[id]/amend': `/api/inspections/${o.inspectionId}/amend`,
+    '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
+    '/inspections/[id]': `/inspections/${o.inspectionId}`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -194,6 +202,8 @@ function targetedWrites(o: Other): Array<{ label: string; method: Method; path: 
     { label: "ask for a collection at B's site", method: 'POST', path: '/portal/collections', multipart: { siteId: String(o.siteId), quantity: '2', readyOn: 'TODAY' }, portal: true },
     { label: "report damage on B's bin", method: 'POST', path: '/portal/damage', multipart: { grai: o.grai, description: 'Bent corner post' }, portal: true },
     { label: "confirm B's load", method: 'POST', path: '/portal/deliveries', multipart: { reference: o.loadRef, receivedByName: 'Someone else' }, portal: true },
+    { label: "limit B's user to a site", method: 'POST', path: '/portal/people?form=sites', multipart: { userId: String(o.userId), siteIds: String(o.siteId) }, portal: true },
+    { label: "invite a colleague limited to B's site", method: 'POST', path: '/portal/people?form=invite', multipart: { name: 'New Person', email: `new-${Date.now()}@e2e.example`, siteIds: String(o.siteId) }, portal: true },
     { label: "B's bin inside a batch", method: 'POST', path: '/api/scan-events', data: { events: [scan({ grai: o.grai, action: 'fold' }), scan({ assetId: o.binId, action: 'discharge' })] } },
   ];
 }
@@ -205,6 +215,7 @@ const OPEN_TO_ALL: Record<string, string> = {
   '/portal/collections': "A's own collection requests; a site of B's: below",
   '/portal/damage': "A's own damage reports; a bin of B's: below",
   '/portal/deliveries': "A's own deliveries; a load of B's: below",
+  '/portal/people': "A's own people (for its portal admin); B's people and sites: below",
   '/': 'sends each role to its home',
   '/forbidden': 'the 403 page',
   '/login': 'the sign-in page',
@@ -227,12 +238,70 @@ const OPEN_TO_ALL: Record<string, string> = {
 /** Requests that end the caller's own sessions (sent after the rest). */
 const ENDS_OWN_SESSION = ['POST /api/account/sessions'];
 
-function expectNoMarker(body: string, where: string) {
-  for (const m of other.markers) expect(body.includes(m), `${where} shows "${m}" of organisation B`).toBe(false);
+function expectNoMarker(body: string, where: string, o: Other = other) {
+  for (const m of o.markers) expect(body.includes(m), `${where} shows "${m}" of what it may not see`).toBe(false);
 }
 
-async function send(api: APIRequestContext, method: Method, path: string, data?: unknown): Promise<APIResponse> {
-  return api.fetch(path, { method, data: method === 'GET' ? undefined : (data ?? genericBody(other)), headers: { Origin: t.app.url }, maxRedirects: 0 });
+async function send(api: APIRequestContext, method: Method, path: string, data: unknown, o: Other): Promise<APIResponse> {
+  return api.fetch(path, { method, data: method === 'GET' ? undefined : (data ?? genericBody(o)), headers: { Origin: t.app.url }, maxRedirects: 0 });
+}
+
+/** Every route, every method, B's example values and the filters: the problems found (none expected). */
+async function walk(ask: () => APIRequestContext, o: Other): Promise<{ problems: string[]; asked: number }> {
+  const problems: string[] = [];
+  let asked = 0;
+  // A request that ends the asker's own sessions goes last, so the walk runs signed in throughout.
+  const calls = routes().flatMap((r) => r.methods.map((method) => ({ r, method })));
+  const last = (c: { r: Route; method: Method }) => (ENDS_OWN_SESSION.includes(`${c.method} ${c.r.pattern}`) ? 1 : 0);
+  calls.sort((x, y) => last(x) - last(y));
+  for (const { r, method } of calls) {
+    const base = exampleUrl(r.pattern, o);
+    const open = r.pattern in OPEN_TO_ALL;
+    const urls = method === 'GET' ? [base, ...filterQueries(o).map((q) => `${base}${base.includes('?') ? '&' : '?'}${q}`)] : [base];
+    for (const url of urls) {
+      const res = await send(ask(), method, url, undefined, o);
+      asked += 1;
+      const status = res.status();
+      const body = await res.text();
+      const where = `${method} ${url} → ${status}`;
+      if (status >= 500) problems.push(`${where}: server error`);
+      for (const m of o.markers) if (body.includes(m)) problems.push(`${where}: shows "${m}"`);
+      const location = res.headers()['location'] ?? '';
+      if (location.includes(`/bins/${o.grai}`)) problems.push(`${where}: sends the asker to the bin it may not see`);
+      // A body the route's schema refuses (400) names nothing; the targeted writes send valid ones.
+      const refusedUnread = method !== 'GET' && status === 400 && customerMay(url);
+      if (!open && !refusedUnread && status !== 403 && status !== 404) problems.push(`${where}: expected 404 or 403 (access ${accessFor(url.split('?')[0]!)})`);
+      if (!customerMay(url) && status !== 403) problems.push(`${where}: a path the customer role may not open answers other than 403`);
+    }
+  }
+  return { problems, asked };
+}
+
+const TRACE = `SELECT (SELECT count(*)::int FROM scan_events WHERE asset_id = $1) AS events, (SELECT version FROM assets WHERE id = $1) AS version,
+    (SELECT count(*)::int FROM hire_orders WHERE delivery_site_id = $2) AS orders, (SELECT count(*)::int FROM collection_requests WHERE site_id = $2) AS collections,
+    (SELECT count(*)::int FROM damage_reports WHERE asset_id = $1) AS damage, (SELECT count(*)::int FROM loads WHERE status = 'delivered') AS delivered,
+    (SELECT count(*)::int FROM user_sites) AS limits, (SELECT count(*)::int FROM users) AS people`;
+
+/** The targeted writes: each refused with 404 or 403, and nothing of the other's (nor the asker's own bin) changed. */
+async function writes(api: APIRequestContext, o: Other): Promise<void> {
+  const before = await one<Record<string, number>>(TRACE, [o.binId, o.siteId]);
+  const ownBefore = await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [o.ownBinId]);
+  const problems: string[] = [];
+  for (const w of targetedWrites(o)) {
+    const multipart = w.multipart && Object.fromEntries(Object.entries(w.multipart).map(([k, v]) => [k, v === 'TODAY' ? new Date().toISOString().slice(0, 10) : v]));
+    const res = multipart
+      ? await api.fetch(w.path, { method: w.method, multipart, headers: { Origin: t.app.url }, maxRedirects: 0 })
+      : await send(api, w.method, w.path, w.data, o);
+    const text = await res.text();
+    expectNoMarker(text, w.label, o);
+    if (w.data && typeof w.data === 'object' && 'events' in w.data) {
+      const results = (JSON.parse(text) as { data: { results: Array<{ ok: boolean; status?: number }> } }).data.results;
+      for (const x of results) if (x.ok || (x.status !== 403 && x.status !== 404)) problems.push(`${w.label}: ${JSON.stringify(x)}`);
+    } else if (res.status() !== 403 && res.status() !== 404) problems.push(`${w.label}: ${res.status()} ${text.slice(0, 300)}`);
+  }
+  expect(problems, problems.join('\n')).toEqual([]);
+  expect(await one<Record<string, number>>(TRACE, [o.binId, o.siteId])).toEqual(before);
+  expect(await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [o.ownBinId])).toEqual(ownBefore);
 }
 
 function customerMay(path: string): boolean {
@@ -249,63 +318,14 @@ describe("a customer of A asks every route about B's things", () => {
   });
 
   test('every route: 404 or 403, by id, by GRAI, through filters and exports; open routes show nothing of B', async () => {
-    const problems: string[] = [];
-    let asked = 0;
-    // A request that ends A's own sessions goes last, so the walk runs signed in throughout.
-    const calls = routes().flatMap((r) => r.methods.map((method) => ({ r, method })));
-    const last = (c: { r: Route; method: Method }) => (ENDS_OWN_SESSION.includes(`${c.method} ${c.r.pattern}`) ? 1 : 0);
-    calls.sort((x, y) => last(x) - last(y));
-    for (const { r, method } of calls) {
-      const base = exampleUrl(r.pattern, other);
-      const open = r.pattern in OPEN_TO_ALL;
-      {
-        const urls = method === 'GET' ? [base, ...filterQueries(other).map((q) => `${base}${base.includes('?') ? '&' : '?'}${q}`)] : [base];
-        for (const url of urls) {
-          const res = await send(asA, method, url);
-          asked += 1;
-          const status = res.status();
-          const body = await res.text();
-          const where = `${method} ${url} → ${status}`;
-          if (status >= 500) problems.push(`${where}: server error`);
-          for (const m of other.markers) if (body.includes(m)) problems.push(`${where}: shows "${m}" of B`);
-          const location = res.headers()['location'] ?? '';
-          if (location.includes(other.grai) && location.includes(`/bins/${other.grai}`)) problems.push(`${where}: sends A to B's bin`);
-          // A body the route's schema refuses (400) names nothing; the targeted writes below send valid ones.
-          const refusedUnread = method !== 'GET' && status === 400 && customerMay(url);
-          if (!open && !refusedUnread && status !== 403 && status !== 404) problems.push(`${where}: expected 404 or 403 (access ${accessFor(url.split('?')[0]!)})`);
-          if (!customerMay(url) && status !== 403) problems.push(`${where}: a path the customer role may not open answers other than 403`);
-        }
-      }
-    }
+    const { problems, asked } = await walk(() => asA, other);
     asA = await signedIn(DEMO_LOGINS.find((l) => l.role === 'customer')!.email);
     expect(asked).toBeGreaterThan(200);
     expect(problems, problems.join('\n')).toEqual([]);
   }, 300_000);
 
-  test("writes naming B's bin, B's site, B's load or B's photo are refused and record nothing", async () => {
-    const TRACE = `SELECT (SELECT count(*)::int FROM scan_events WHERE asset_id = $1) AS events, (SELECT version FROM assets WHERE id = $1) AS version,
-        (SELECT count(*)::int FROM hire_orders WHERE delivery_site_id = $2) AS orders, (SELECT count(*)::int FROM collection_requests WHERE site_id = $2) AS collections,
-        (SELECT count(*)::int FROM damage_reports WHERE asset_id = $1) AS damage, (SELECT count(*)::int FROM loads WHERE status = 'delivered') AS delivered`;
-    const before = await one<Record<string, number>>(TRACE, [other.binId, other.siteId]);
-    const ownBefore = await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [other.ownBinId]);
-    const problems: string[] = [];
-    for (const w of targetedWrites(other)) {
-      const multipart = w.multipart && Object.fromEntries(Object.entries(w.multipart).map(([k, v]) => [k, v === 'TODAY' ? new Date().toISOString().slice(0, 10) : v]));
-      const res = multipart
-        ? await asA.fetch(w.path, { method: w.method, multipart, headers: { Origin: t.app.url }, maxRedirects: 0 })
-        : await send(asA, w.method, w.path, w.data);
-      const text = await res.text();
-      expectNoMarker(text, w.label);
-      if (w.data && typeof w.data === 'object' && 'events' in w.data) {
-        const results = (JSON.parse(text) as { data: { results: Array<{ ok: boolean; status?: number }> } }).data.results;
-        for (const x of results) if (x.ok || (x.status !== 403 && x.status !== 404)) problems.push(`${w.label}: ${JSON.stringify(x)}`);
-      } else if (res.status() !== 403 && res.status() !== 404) problems.push(`${w.label}: ${res.status()} ${text}`);
-    }
-    expect(problems, problems.join('\n')).toEqual([]);
-    const after = await one<Record<string, number>>(TRACE, [other.binId, other.siteId]);
-    expect(after).toEqual(before);
-    const ownAfter = await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [other.ownBinId]);
-    expect(ownAfter).toEqual(ownBefore);
+  test("writes naming B's bin, B's site, B's load, B's people or B's photo are refused and record nothing", async () => {
+    await writes(asA, other);
   });
 
   test("B's photo answers B and staff, and 404 to A", async () => {
@@ -322,5 +342,68 @@ describe("a customer of A asks every route about B's things", () => {
     const res = await asA.get(`/bins/${other.grai}`);
     expect(res.status()).toBe(404);
     expectNoMarker(await res.text(), `A's view of /bins/${other.grai}`);
+  });
+});
+
+describe("a user of A limited to one site asks every route about A's other site", () => {
+  let asL: APIRequestContext;
+  let sameOrg: Other;
+  beforeAll(async () => {
+    const a = await one<{ org_id: number; admin_id: number; admin_name: string }>(
+      `SELECT organisation_id AS org_id, id AS admin_id, name AS admin_name FROM users WHERE email = $1`, [DEMO_LOGINS.find((l) => l.role === 'customer')!.email]);
+    // The other site: the one of A's with a bin on hire (the demo pool has bins at both).
+    const sites = await rows<{ id: number; name: string; code: string; n: number }>(
+      `SELECT s.id, s.name, s.code, (SELECT count(*)::int FROM assets x WHERE x.site_id = s.id AND x.status = 'on_hire') AS n
+         FROM sites s WHERE s.organisation_id = $1 ORDER BY s.id`, [a.org_id]);
+    expect(sites.length, 'the demo customer has two sites').toBeGreaterThanOrEqual(2);
+    const x = sites.find((s) => s.n > 0)!;
+    const mine = sites.find((s) => s.id !== x.id)!;
+    const email = `limited-${Date.now().toString(36)}@haldenoils.example`;
+    const user = await one<{ id: number }>(
+      `INSERT INTO users (email, name, password_hash, role, organisation_id) SELECT $1, 'Site-limited colleague', password_hash, 'customer', organisation_id FROM users WHERE id = $2 RETURNING id`,
+      [email, a.admin_id]);
+    await one(`INSERT INTO user_sites (user_id, site_id) VALUES ($1, $2)`, [user.id, mine.id]);
+    asL = await signedIn(email);
+    const bin = await one<{ id: number; grai: string; serial: string }>(`SELECT id, grai, serial FROM assets WHERE site_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [x.id]);
+    const own = await one<{ id: number; grai: string } | undefined>(
+      `SELECT a.id, a.grai FROM assets a JOIN trips t ON t.id = a.current_trip_id WHERE a.customer_id = $1 AND a.status = 'on_hire' AND a.site_id = $2 ORDER BY a.id LIMIT 1`, [a.org_id, mine.id]);
+    const trip = await one<{ id: number }>(`SELECT id FROM trips WHERE customer_site_id = $1 ORDER BY id DESC LIMIT 1`, [x.id]);
+    const order = await one<{ id: number; reference: string }>(`SELECT id, reference FROM hire_orders WHERE delivery_site_id = $1 ORDER BY id DESC LIMIT 1`, [x.id]);
+    const event = await one<{ id: number }>(`SELECT id FROM scan_events WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
+    // A photo of the other site's bin, uploaded by the organisation's admin (then belonging to that bin).
+    const up = await asA.post('/api/attachments', { multipart: { purpose: 'photo', file: { name: 'bin.png', mimeType: 'image/png', buffer: PNG } }, headers: { Origin: t.app.url } });
+    const photoId = ((await up.json()) as { data: { id: number } }).data.id;
+    await one(`UPDATE attachments SET asset_id = $1 WHERE id = $2`, [bin.id, photoId]);
+    const request = await asA.post('/portal/collections', { multipart: { siteId: String(x.id), quantity: '4', readyOn: new Date().toISOString().slice(0, 10), note: 'Four behind the other gate' }, headers: { Origin: t.app.url }, maxRedirects: 0 });
+    expect(request.status()).toBe(303);
+    const collection = await one<{ id: number }>(`SELECT id FROM collection_requests WHERE site_id = $1 ORDER BY id DESC LIMIT 1`, [x.id]);
+    const view = await one<{ id: number } | undefined>(`SELECT id FROM grid_views ORDER BY id LIMIT 1`);
+    sameOrg = {
+      orgId: a.org_id, userId: a.admin_id, siteId: x.id, binId: bin.id, grai: bin.grai, serial: bin.serial, tripId: trip.id, orderId: order.id,
+      loadRef: 'LD-NONE-1', eventId: event.id, collectionId: collection.id, damageId: 0, photoId, viewId: view?.id ?? 1,
+      inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
+      // Words only the other site's things contain (the organisation's own name is the limited user's too).
+      markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
+      ownGrai: own?.grai ?? bin.grai, ownBinId: own?.id ?? bin.id,
+    };
+  });
+
+  test('every route: 404 or 403 for the other site, and no word of it', async () => {
+    const { problems } = await walk(() => asL, sameOrg);
+    expect(problems, problems.join('\n')).toEqual([]);
+  }, 300_000);
+
+  test("writes naming the other site's bin, the site itself or its photo are refused and record nothing", async () => {
+    const fresh = await signedIn((await one<{ email: string }>(`SELECT email FROM users WHERE name = 'Site-limited colleague' ORDER BY id DESC LIMIT 1`)).email);
+    await writes(fresh, sameOrg);
+  });
+
+  test("the organisation's admin still sees the other site's bin; the limited user gets 404 for it and its photo", async () => {
+    expect((await asA.get(`/bins/${sameOrg.grai}`)).status()).toBe(200);
+    const fresh = await signedIn((await one<{ email: string }>(`SELECT email FROM users WHERE name = 'Site-limited colleague' ORDER BY id DESC LIMIT 1`)).email);
+    expect((await fresh.get(`/bins/${sameOrg.grai}`)).status()).toBe(404);
+    expect((await fresh.get(`/api/attachments/${sameOrg.photoId}`)).status()).toBe(404);
+    const home = await (await fresh.get('/portal')).text();
+    for (const m of sameOrg.markers) expect(home).not.toContain(m);
   });
 });

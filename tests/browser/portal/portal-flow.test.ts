@@ -130,7 +130,7 @@ describe('the customer portal at phone size', () => {
   test('every portal page fits 390, 1280 and 1920 px', async () => {
     for (const width of [390, 1280, 1920]) {
       const page = await signedIn(customer.email, width === 390 ? 'phone' : 'desktop', width === 390 ? undefined : width);
-      for (const path of ['/portal', '/portal/orders', '/portal/orders/new', '/portal/collections', '/portal/deliveries', '/portal/damage']) {
+      for (const path of ['/portal', '/portal/orders', '/portal/orders/new', '/portal/collections', '/portal/deliveries', '/portal/damage', '/portal/people']) {
         const res = await page.goto(path);
         expect(res?.status(), path).toBe(200);
         await expectFits(page, `${path} at ${width}`);

@@ -130,3 +130,52 @@ describe('deliveries and damage from the portal', () => {
     expect(await listPortalDamage(b)).toEqual([]);
   });
 });
+
+describe('people of the customer', () => {
+  test('a portal admin invites a colleague limited to one site; the limited colleague sees only that site, the admin all', async () => {
+    const { inviteColleague, listColleagues, setColleagueSites } = await import('@/lib/portal/portal-people.server');
+    const { inviteColleagueFields } = await import('@/lib/portal/portal-forms');
+    const { Site } = await import('@/models');
+    const second = await Site.create({ organisationId: w.customer.id, code: 'CUS-T2', name: 'Customer second site', kind: 'customer', address: null, latitude: '51.7', longitude: '4.5' });
+    const adminRow = (await User.findByPk(w.customerUser.id!))!;
+    const plain = { ...(await scopeOf(adminRow.id)), role: 'customer' as const, organisationId: w.customer.id, id: adminRow.id };
+    const inviter = { userId: adminRow.id, ip: null, name: adminRow.name };
+
+    // Only a portal admin may.
+    const input = inviteColleagueFields.parse({ name: 'Site Person', email: 'site.person@test.example', siteIds: String(second.id) });
+    expect((await appErrorOf(inviteColleague({ ...plain, portalAdmin: false }, input, inviter))).code).toBe('forbidden');
+    const admin = { ...plain, portalAdmin: true };
+    // Not with another organisation's site.
+    const foreign = inviteColleagueFields.parse({ name: 'Wrong Site', email: 'wrong.site@test.example', siteIds: String(other.site.id) });
+    expect((await appErrorOf(inviteColleague(admin, foreign, inviter))).code).toBe('not_found');
+    expect(await User.count({ where: { email: 'wrong.site@test.example' } })).toBe(0);
+
+    const { id } = await inviteColleague(admin, input, inviter);
+    const invited = (await User.findByPk(id))!;
+    expect(invited).toMatchObject({ role: 'customer', organisationId: w.customer.id, passwordHash: null, portalAdmin: false });
+    expect(await MailMessage.count({ where: { kind: 'invite', toAddress: 'site.person@test.example' } })).toBe(1);
+    const listed = (await listColleagues(admin)).find((c) => c.id === id)!;
+    expect(listed).toMatchObject({ invited: true, siteIds: [second.id] });
+
+    // The limited colleague's scope: the second site only; the first site's bins, orders and requests are not theirs.
+    const limited = await portalScope({ id, name: invited.name, email: invited.email, organisationId: w.customer.id, role: 'customer', siteIds: [second.id] });
+    expect((await loadPortalHome(limited)).sites.map((s) => s.id)).toEqual([second.id]);
+    expect((await listPortalOrders(limited)).length).toBe(0);
+    expect((await listPortalCollections(limited)).length).toBe(0);
+    expect(await damageableBins(limited)).toEqual([]);
+    const atFirst = collectionFields('2026-12-03').parse({ siteId: String(w.customerSite.id), quantity: '2', readyOn: '2026-12-05' });
+    expect((await appErrorOf(requestCollection(limited, atFirst, null))).code).toBe('not_found');
+    expect((await listPortalOrders(a)).length).toBeGreaterThan(0);
+
+    // Widening: no site ticked = every site; the admin cannot limit themselves; nobody outside the organisation.
+    await setColleagueSites(admin, { userId: id, siteIds: [] }, actor);
+    expect((await listColleagues(admin)).find((c) => c.id === id)!.siteIds).toEqual([]);
+    expect((await appErrorOf(setColleagueSites(admin, { userId: admin.id, siteIds: [second.id] }, actor))).code).toBe('unprocessable');
+    expect((await appErrorOf(setColleagueSites(admin, { userId: other.user.id, siteIds: [] }, actor))).code).toBe('not_found');
+  });
+
+  test('the database refuses a site limit naming another organisation\'s site', async () => {
+    const { sqlErrorCode } = await import('../support/db');
+    expect(await sqlErrorCode('INSERT INTO user_sites (user_id, site_id) VALUES ($1, $2)', [w.customerUser.id, other.site.id])).toBe('23514');
+  });
+});

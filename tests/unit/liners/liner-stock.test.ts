@@ -5,6 +5,7 @@ import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import stdlibQuantile from '@stdlib/stats-base-dists-normal-quantile';
 import {
+  proposeTransfer,
   annualOrderingAndHoldingCost,
   daysOfCover,
   eoq,
@@ -269,5 +270,28 @@ describe('first expiry, first out (hand-worked)', () => {
         },
       ),
     );
+  });
+});
+
+describe('a transfer for liners at risk (hand-worked)', () => {
+  // Lot L: 40 liners at risk, expires 31 Jan 2027; today 1 Jan; they arrive a day later, so the receiver reads
+  // them as expiring 30 Jan. A uses 1 a day and holds nothing: 30 of them in time (1–30 Jan), 10 expire.
+  // B uses 2 a day but holds 100 expiring 1 Mar: without L those last 1 Jan–19 Feb (all used); with L first
+  // (20 days), its own run 21 Jan–1 Mar = 40 days × 2 = 80, so 20 of its own expire: a net saving of 20 only.
+  // E uses 2 a day and holds nothing: all 40 in 20 days.
+  const lot = { lotId: 7, lotNumber: 'L', onHand: 40, expiryDate: '2027-01-31' };
+  const flat = (mean: number) => ({ known: [], forecast: { mean, sd: 0 } });
+  const a = { siteId: 1, name: 'A', lots: [], demand: flat(1) };
+  const b = { siteId: 2, name: 'B', lots: [{ lotId: 9, lotNumber: 'B1', onHand: 100, expiryDate: '2027-03-01' }], demand: flat(2) };
+  const e = { siteId: 4, name: 'E', lots: [], demand: flat(2) };
+  test('the depot where the fewest liners expire across both wins, with what it would use in time', () => {
+    expect(proposeTransfer(lot, 40, [a, b], { today: '2027-01-01' })).toEqual({ toSiteId: 1, toName: 'A', quantity: 30, saved: 30 });
+    expect(proposeTransfer(lot, 40, [a, b, e], { today: '2027-01-01' })).toEqual({ toSiteId: 4, toName: 'E', quantity: 40, saved: 40 });
+  });
+  test('a depot that would only let its own liners expire instead is not proposed; none at risk, none proposed', () => {
+    // C holds 500 expiring 15 Feb at 1 a day: 454 of its own expire anyway; taking L first pushes 40 more past expiry.
+    const c = { siteId: 3, name: 'C', lots: [{ lotId: 10, lotNumber: 'C1', onHand: 500, expiryDate: '2027-02-15' }], demand: flat(1) };
+    expect(proposeTransfer(lot, 40, [c], { today: '2027-01-01' })).toBeNull();
+    expect(proposeTransfer(lot, 0, [c], { today: '2027-01-01' })).toBeNull();
   });
 });

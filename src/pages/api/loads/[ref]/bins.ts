@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { text } from '@/lib/text-input';
+import { multilineText, text } from '@/lib/text-input';
 import { endpoint } from '@/lib/endpoint.server';
 import { addBinToLoad, loadIdByReference } from '@/lib/loads/load-service.server';
 import { findBin } from '@/lib/bins/bin-lookup.server';
@@ -11,6 +11,8 @@ const body = z
     grai: text().trim().min(1).max(300).optional(),
     assetId: z.number().int().positive().optional(),
     occurredAt: text().datetime({ offset: true }).optional(),
+    /** A planner's reason to send a bin whose test would run out while it is likely still out (recorded). */
+    overrideReason: multilineText().trim().min(5).max(500).optional(),
   })
   .strict()
   .refine((b) => b.grai !== undefined || b.assetId !== undefined, { message: 'Say which bin: grai or assetId' });
@@ -24,5 +26,5 @@ export const POST = endpoint({ capability: 'loads.manage', body, status: 201 }, 
     if (found.kind !== 'found') throw new AppError('not_found', found.kind === 'none' ? found.message : 'Several bins have that serial; scan the label or type the GRAI.');
     assetId = found.assetId;
   }
-  return addBinToLoad(user, loadId, { clientEventId: body.clientEventId, assetId, occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined });
+  return addBinToLoad(user, loadId, { clientEventId: body.clientEventId, assetId, occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined, overrideReason: body.overrideReason });
 });
