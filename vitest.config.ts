@@ -8,9 +8,9 @@ export default getViteConfig({
   test: {
     reporters: ['default'],
     projects: [
-      { extends: true, test: { ...shared, name: 'unit', include: ['tests/unit/**/*.test.ts']} },
-      { extends: true, test: { ...shared, name: 'integration', include: ['tests/integration/**/*.test.ts']} },
-      { extends: true, test: { ...shared, name: 'browser', include: ['tests/browser/**/*.test.ts']} },
+      { extends: true, test: { ...shared, name: 'unit', include: ['tests/unit/**/*.test.ts'] } },
+      { extends: true, test: { ...shared, name: 'integration', include: ['tests/integration/**/*.test.ts'] } },
+      { extends: true, test: { ...shared, name: 'browser', include: ['tests/browser/**/*.test.ts'] } },
     ],
   },
 });

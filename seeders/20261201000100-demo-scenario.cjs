@@ -2,8 +2,8 @@
 // Seeds the invented demo scenario by running the TypeScript seeding script
 // (it goes through the app's own models and services, so seeded state and the
 // event log agree). The script does nothing when the database already has data.
-const { execFileSync } = require('child_process');
-const path = require('path');
+const { execFileSync } = require('node:child_process');
+const path = require('node:path');
 
 module.exports = {
   async up() {

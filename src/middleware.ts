@@ -84,7 +84,10 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
     ctx.locals.user = session.user;
     for (const c of session.cookies) {
       ctx.cookies.set(c.name, c.value, {
-        path: '/', httpOnly: true, sameSite: 'lax', secure: session.secure,
+        path: '/',
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: session.secure,
         ...(c.maxAge > 0 ? { expires: new Date(Date.now() + c.maxAge * 1000) } : { maxAge: 0, expires: new Date(0) }),
       });
     }
@@ -114,9 +117,7 @@ export const onRequest = defineMiddleware(async (ctx, next) => {
   for (const [k, v] of Object.entries(SECURITY_HEADERS)) {
     if (!response.headers.has(k)) response.headers.set(k, v);
   }
-  const hsts = connection
-    ? hstsHeader({ encrypted: connection.encrypted, tls: connection.tls, forwardedProto: ctx.request.headers.get('x-forwarded-proto'), hops })
-    : null;
+  const hsts = connection ? hstsHeader({ encrypted: connection.encrypted, tls: connection.tls, forwardedProto: ctx.request.headers.get('x-forwarded-proto'), hops }) : null;
   if (hsts) response.headers.set('Strict-Transport-Security', hsts);
   allowStyleAttributes(response);
   return response;

@@ -13,7 +13,7 @@ import { performance } from 'node:perf_hooks';
 import { loadavg, cpus } from 'node:os';
 import pg from 'pg';
 import bcrypt from 'bcryptjs';
-import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
+import { startPostgres, ensureDatabase, databaseUrl } from './postgres.mjs';
 import { migrate, buildIfStale, say } from './setup.mjs';
 import { startServer, signIn } from './bench-support';
 import { binsCountQuery, binsPageQuery, parseGridRequest, type GridRequest, type QueryContext } from '@/lib/fleet/grid-query';
@@ -55,7 +55,9 @@ async function seed(c: pg.Client) {
       [OPERATOR.gs1CompanyPrefix, OPERATOR.gs1PrefixLength, OPERATOR.timeZone],
     );
     await c.query(`INSERT INTO organisations (name, kind) VALUES ('Bench Pool', 'operator')`);
-    await c.query(`INSERT INTO organisations (name, kind, free_days) SELECT 'Bench customer ' || lpad(g::text, 2, '0'), 'customer', (ARRAY[7, 14, 21, 30])[1 + g % 4] FROM generate_series(1, 40) g`);
+    await c.query(
+      `INSERT INTO organisations (name, kind, free_days) SELECT 'Bench customer ' || lpad(g::text, 2, '0'), 'customer', (ARRAY[7, 14, 21, 30])[1 + g % 4] FROM generate_series(1, 40) g`,
+    );
     await c.query(`INSERT INTO sites (organisation_id, code, name, kind) SELECT 1, 'DEP-' || lpad(g::text, 2, '0'), 'Bench depot ' || g, 'depot' FROM generate_series(1, 8) g`);
     await c.query(`INSERT INTO sites (organisation_id, code, name, kind) VALUES (1, 'REP-01', 'Bench repair shop', 'repair')`);
     await c.query(
@@ -68,7 +70,22 @@ async function seed(c: pg.Client) {
         `INSERT INTO bin_types (code, name, grai_asset_type, nominal_capacity_l, tare_kg, max_gross_kg, footprint_length_mm, footprint_width_mm,
                                 height_erected_mm, height_folded_mm, un_code, policy_kind, intermediate_months, full_months)
          VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14)`,
-        [t.code, t.name, t.graiAssetType, t.nominalCapacityL, t.tareKg, t.maxGrossKg, t.footprintLengthMm, t.footprintWidthMm, t.heightErectedMm, t.heightFoldedMm, t.unCode, t.policyKind, t.intermediateMonths, t.fullMonths],
+        [
+          t.code,
+          t.name,
+          t.graiAssetType,
+          t.nominalCapacityL,
+          t.tareKg,
+          t.maxGrossKg,
+          t.footprintLengthMm,
+          t.footprintWidthMm,
+          t.heightErectedMm,
+          t.heightFoldedMm,
+          t.unCode,
+          t.policyKind,
+          t.intermediateMonths,
+          t.fullMonths,
+        ],
       );
     }
     await c.query(
@@ -132,7 +149,9 @@ async function seed(c: pg.Client) {
     ),
   );
 
-  const { rows: [ids] } = await c.query(
+  const {
+    rows: [ids],
+  } = await c.query(
     `SELECT (SELECT min(id) FROM sites WHERE kind = 'customer') AS "firstCustomerSite", (SELECT count(*)::int FROM sites WHERE kind = 'customer') AS "customerSites",
             (SELECT min(id) FROM sites WHERE kind = 'depot') AS "firstDepot", (SELECT count(*)::int FROM sites WHERE kind = 'depot') AS depots,
             (SELECT id FROM users WHERE email = $1) AS planner`,
@@ -236,7 +255,9 @@ async function main() {
     const s0 = performance.now();
     await seed(c);
     say(`seeding took ${((performance.now() - s0) / 1000).toFixed(1)} s in all`);
-    const sizes = await c.query(`SELECT pg_size_pretty(pg_database_size(current_database())) AS db, (SELECT count(*) FROM scan_events) AS events, (SELECT count(*) FROM assets) AS bins`);
+    const sizes = await c.query(
+      `SELECT pg_size_pretty(pg_database_size(current_database())) AS db, (SELECT count(*) FROM scan_events) AS events, (SELECT count(*) FROM assets) AS bins`,
+    );
     say(`database: ${sizes.rows[0].db}, ${Number(sizes.rows[0].bins).toLocaleString('en')} bins, ${Number(sizes.rows[0].events).toLocaleString('en')} scan events`);
     await c.end();
   }
@@ -248,16 +269,24 @@ async function main() {
   const pool = new pg.Pool({ connectionString: url, max: 4 });
   try {
     const cookie = await signIn(base, PLANNER, PASSWORD);
-    const { rows: [setting] } = await pool.query('SELECT time_zone FROM settings');
+    const {
+      rows: [setting],
+    } = await pool.query('SELECT time_zone FROM settings');
     const ctx: QueryContext = { timeZone: setting.time_zone, today: localDate(new Date(), setting.time_zone) };
-    const { rows: [busy] } = await pool.query(`SELECT site_id FROM assets WHERE status = 'on_hire' GROUP BY site_id ORDER BY count(*) DESC LIMIT 1`);
+    const {
+      rows: [busy],
+    } = await pool.query(`SELECT site_id FROM assets WHERE status = 'on_hire' GROUP BY site_id ORDER BY count(*) DESC LIMIT 1`);
 
     const scenarios: Scenario[] = [
       { name: 'first page (GRAI order)', req: parseGridRequest({ startRow: 0, endRow: 100 }) },
       { name: 'sorted by next test due', req: parseGridRequest({ startRow: 0, endRow: 100, sortModel: [{ colId: 'nextDue', sort: 'asc' }] }) },
       {
         name: 'filtered: on hire at one site',
-        req: parseGridRequest({ startRow: 0, endRow: 100, filterModel: { status: { filterType: 'set', values: ['on_hire'] }, site: { filterType: 'set', values: [busy.site_id] } } }),
+        req: parseGridRequest({
+          startRow: 0,
+          endRow: 100,
+          filterModel: { status: { filterType: 'set', values: ['on_hire'] }, site: { filterType: 'set', values: [busy.site_id] } },
+        }),
       },
       { name: 'deep page (startRow 90,000)', req: parseGridRequest({ startRow: 90_000, endRow: 90_100 }) },
       { name: 'deep page sorted by next due (90,000)', req: parseGridRequest({ startRow: 90_000, endRow: 90_100, sortModel: [{ colId: 'nextDue', sort: 'asc' }] }) },
@@ -270,7 +299,8 @@ async function main() {
       if (res.status !== 200) throw new Error(`${path}: HTTP ${res.status} ${await res.text()}`);
       return ((await res.json()) as { data: T }).data;
     };
-    const qs = (o: Record<string, unknown>) => new URLSearchParams(Object.fromEntries(Object.entries(o).map(([k, v]) => [k, typeof v === 'string' ? v : JSON.stringify(v)]))).toString();
+    const qs = (o: Record<string, unknown>) =>
+      new URLSearchParams(Object.fromEntries(Object.entries(o).map(([k, v]) => [k, typeof v === 'string' ? v : JSON.stringify(v)]))).toString();
 
     for (const s of scenarios) {
       const path = `/api/fleet/bins?${qs({ startRow: String(s.req.startRow), endRow: String(s.req.endRow), sortModel: s.req.sortModel, filterModel: s.req.filterModel })}`;
@@ -305,24 +335,38 @@ async function main() {
 
     // Reference: what any request costs here — no session (health), and a session with a trivial query.
     const reference: Array<{ name: string; t: ReturnType<typeof stats> }> = [];
-    for (const [name, path, auth] of [['GET /api/health (no session)', '/api/health', false], ['GET /api/fleet/views (session)', '/api/fleet/views', true]] as const) {
-      const [t] = await measurePair(async () => {
-        const res = await fetch(base + path, { headers: auth ? { Cookie: cookie } : {} });
-        await res.arrayBuffer();
-      }, async () => undefined);
+    for (const [name, path, auth] of [
+      ['GET /api/health (no session)', '/api/health', false],
+      ['GET /api/fleet/views (session)', '/api/fleet/views', true],
+    ] as const) {
+      const [t] = await measurePair(
+        async () => {
+          const res = await fetch(base + path, { headers: auth ? { Cookie: cookie } : {} });
+          await res.arrayBuffer();
+        },
+        async () => undefined,
+      );
       reference.push({ name, t: stats(t) });
     }
 
     const f = (n: number) => n.toFixed(1).padStart(6);
-    const load = loadavg().map((l) => l.toFixed(2)).join(' ');
-    console.log(`\nfleet grid, ${BINS.toLocaleString('en')} bins / ${EVENTS.toLocaleString('en')} scan events, ${RUNS} runs each after ${WARMUP} warm-up, HTTP and SQL alternating (ms); ${cpus().length} CPUs, load average ${load}`);
-    console.log(`${'scenario'.padEnd(40)} ${'HTTP p50'.padStart(8)} ${'p95'.padStart(6)} ${'SQL p50'.padStart(8)} ${'p95'.padStart(6)}  ${'Δp95'.padStart(6)}  ${'result'.padEnd(12)} verdict`);
+    const load = loadavg()
+      .map((l) => l.toFixed(2))
+      .join(' ');
+    console.log(
+      `\nfleet grid, ${BINS.toLocaleString('en')} bins / ${EVENTS.toLocaleString('en')} scan events, ${RUNS} runs each after ${WARMUP} warm-up, HTTP and SQL alternating (ms); ${cpus().length} CPUs, load average ${load}`,
+    );
+    console.log(
+      `${'scenario'.padEnd(40)} ${'HTTP p50'.padStart(8)} ${'p95'.padStart(6)} ${'SQL p50'.padStart(8)} ${'p95'.padStart(6)}  ${'Δp95'.padStart(6)}  ${'result'.padEnd(12)} verdict`,
+    );
     let ok = true;
     for (const r of results) {
       const delta = r.http.p95 - r.sql.p95;
       const pass = r.http.p95 <= 50 && delta <= 15;
       ok &&= pass;
-      console.log(`${r.name.padEnd(40)} ${f(r.http.p50).padStart(8)} ${f(r.http.p95)} ${f(r.sql.p50).padStart(8)} ${f(r.sql.p95)}  ${f(delta)}  ${r.note.padEnd(12)} ${pass ? 'ok' : 'OVER TARGET'}`);
+      console.log(
+        `${r.name.padEnd(40)} ${f(r.http.p50).padStart(8)} ${f(r.http.p95)} ${f(r.sql.p50).padStart(8)} ${f(r.sql.p95)}  ${f(delta)}  ${r.note.padEnd(12)} ${pass ? 'ok' : 'OVER TARGET'}`,
+      );
     }
     console.log(`targets: HTTP p95 ≤ 50 ms and ≤ bare SQL p95 + 15 ms → ${ok ? 'met' : 'NOT met'}`);
     for (const r of reference) console.log(`reference ${r.name.padEnd(30)} p50 ${f(r.t.p50)}  p95 ${f(r.t.p95)}`);

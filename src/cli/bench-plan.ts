@@ -63,7 +63,11 @@ const pct = (values: number[], p: number) => {
 };
 
 async function main() {
-  console.log(`bench:plan  ${cpus().length} cores, load average ${loadavg().map((l) => l.toFixed(2)).join(' ')}, node ${process.version}`);
+  console.log(
+    `bench:plan  ${cpus().length} cores, load average ${loadavg()
+      .map((l) => l.toFixed(2))
+      .join(' ')}, node ${process.version}`,
+  );
 
   const lp = transportationInstance(50, 500, 14);
   const supply = lp.supplies.reduce((a, b) => a + b, 0);
@@ -76,7 +80,9 @@ async function main() {
     const t0 = performance.now();
     const res = await solveTransportation(lp);
     const wall = performance.now() - t0;
-    console.log(`   in thread run ${r}: ${ms(wall)} wall, HiGHS ${ms(res.solveSeconds * 1000)}, status ${res.status}, cost ${res.totalCost.toFixed(2)}, lanes used ${res.flows.length}, unused supply ${res.unusedSupply.reduce((a, b) => a + b, 0)}  ${wall < 2000 && res.status === 'optimal' ? 'OK (< 2 s)' : 'OVER GOAL'}`);
+    console.log(
+      `   in thread run ${r}: ${ms(wall)} wall, HiGHS ${ms(res.solveSeconds * 1000)}, status ${res.status}, cost ${res.totalCost.toFixed(2)}, lanes used ${res.flows.length}, unused supply ${res.unusedSupply.reduce((a, b) => a + b, 0)}  ${wall < 2000 && res.status === 'optimal' ? 'OK (< 2 s)' : 'OVER GOAL'}`,
+    );
   }
   const start = performance.now();
   await solveTransportationOffThread({ supplies: [1], demands: [1], costs: [[1]] });
@@ -85,33 +91,37 @@ async function main() {
     const t0 = performance.now();
     const res = await solveTransportationOffThread(lp);
     const wall = performance.now() - t0;
-    console.log(`   on worker run ${r}: ${ms(wall)} wall (with copying), HiGHS ${ms(res.solveSeconds * 1000)}, status ${res.status}, cost ${res.totalCost.toFixed(2)}  ${wall < 2000 && res.status === 'optimal' ? 'OK (< 2 s)' : 'OVER GOAL'}`);
+    console.log(
+      `   on worker run ${r}: ${ms(wall)} wall (with copying), HiGHS ${ms(res.solveSeconds * 1000)}, status ${res.status}, cost ${res.totalCost.toFixed(2)}  ${wall < 2000 && res.status === 'optimal' ? 'OK (< 2 s)' : 'OVER GOAL'}`,
+    );
   }
 
   for (const size of ['drops', 'loads'] as const) {
-  const mip = truckInstance(20, 100, 15, size);
-  const totals = (rows: readonly (readonly number[])[]) => [0, 1].map((k) => rows.reduce((s, r) => s + r[k], 0));
-  console.log(`\n2${size === 'drops' ? 'a' : 'b'}. integer trucks 20 × 100, two bin types, '${size}' (capacity ${mip.truckCapacity.join(' / ')} per truck), supply ${totals(mip.supplies).join(' / ')}, demand ${totals(mip.demands).join(' / ')}`);
-  console.log('   options: time_limit 10 s (whole plan), mip_rel_gap 0.01');
-  for (let r = 1; r <= RUNS; r++) {
-    const lags: number[] = [];
-    let last = performance.now();
-    const ticker = setInterval(() => {
-      const now = performance.now();
-      lags.push(now - last - 10);
-      last = now;
-    }, 10);
-    const t0 = performance.now();
-    const res = await solveTruckPlanOffThread(mip, { timeLimit: 10, mipRelGap: 0.01 });
-    const wall = performance.now() - t0;
-    clearInterval(ticker);
-    const gap = res.mipGap === null ? 'none' : `${(res.mipGap * 100).toFixed(3)} %`;
-    const ok = res.hasPlan && res.mipGap !== null && res.mipGap < 0.01 && res.solveSeconds <= 10.5;
+    const mip = truckInstance(20, 100, 15, size);
+    const totals = (rows: readonly (readonly number[])[]) => [0, 1].map((k) => rows.reduce((s, r) => s + r[k], 0));
     console.log(
-      `   run ${r}: ${ms(wall)} wall, HiGHS ${ms(res.solveSeconds * 1000)}, status ${res.status}, gap ${gap}, cost ${res.totalCost} (bound ${res.bound?.toFixed(1)}), trucks ${res.totalTrucks} on ${res.lanes.length} lanes; ` +
-        `this thread's timer lag p50 ${pct(lags, 50).toFixed(1)} ms, p99 ${pct(lags, 99).toFixed(1)} ms, max ${Math.max(0, ...lags).toFixed(1)} ms  ${ok ? 'OK (gap < 1 %)' : 'OVER GOAL'}`,
+      `\n2${size === 'drops' ? 'a' : 'b'}. integer trucks 20 × 100, two bin types, '${size}' (capacity ${mip.truckCapacity.join(' / ')} per truck), supply ${totals(mip.supplies).join(' / ')}, demand ${totals(mip.demands).join(' / ')}`,
     );
-  }
+    console.log('   options: time_limit 10 s (whole plan), mip_rel_gap 0.01');
+    for (let r = 1; r <= RUNS; r++) {
+      const lags: number[] = [];
+      let last = performance.now();
+      const ticker = setInterval(() => {
+        const now = performance.now();
+        lags.push(now - last - 10);
+        last = now;
+      }, 10);
+      const t0 = performance.now();
+      const res = await solveTruckPlanOffThread(mip, { timeLimit: 10, mipRelGap: 0.01 });
+      const wall = performance.now() - t0;
+      clearInterval(ticker);
+      const gap = res.mipGap === null ? 'none' : `${(res.mipGap * 100).toFixed(3)} %`;
+      const ok = res.hasPlan && res.mipGap !== null && res.mipGap < 0.01 && res.solveSeconds <= 10.5;
+      console.log(
+        `   run ${r}: ${ms(wall)} wall, HiGHS ${ms(res.solveSeconds * 1000)}, status ${res.status}, gap ${gap}, cost ${res.totalCost} (bound ${res.bound?.toFixed(1)}), trucks ${res.totalTrucks} on ${res.lanes.length} lanes; ` +
+          `this thread's timer lag p50 ${pct(lags, 50).toFixed(1)} ms, p99 ${pct(lags, 99).toFixed(1)} ms, max ${Math.max(0, ...lags).toFixed(1)} ms  ${ok ? 'OK (gap < 1 %)' : 'OVER GOAL'}`,
+      );
+    }
   }
   await stopPlanSolver();
 }

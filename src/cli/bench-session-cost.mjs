@@ -44,7 +44,14 @@ const csrf = await req('/api/auth/csrf');
 take(csrf);
 const { csrfToken } = JSON.parse(csrf.body);
 const form = new URLSearchParams({ csrfToken, email: 'planner@northmere.example', password: 'fold-and-return', callbackUrl: `${base}/fleet` }).toString();
-take(await req('/api/auth/callback/credentials', { 'Content-Type': 'application/x-www-form-urlencoded', Origin: base, Cookie: cookie(), 'Content-Length': Buffer.byteLength(form) }, 'POST', form));
+take(
+  await req(
+    '/api/auth/callback/credentials',
+    { 'Content-Type': 'application/x-www-form-urlencoded', Origin: base, Cookie: cookie(), 'Content-Length': Buffer.byteLength(form) },
+    'POST',
+    form,
+  ),
+);
 if (![...jar.keys()].some((k) => k.includes('session-token'))) throw new Error('sign-in failed');
 
 async function run(path, auth) {
@@ -54,22 +61,26 @@ async function run(path, auth) {
   const warmUntil = Date.now() + 1500;
   const until = warmUntil + (Number(secs) - 1.5) * 1000;
   let c0 = NaN;
-  await Promise.all(Array.from({ length: Number(conns) }, async () => {
-    while (Date.now() < until) {
-      const t0 = performance.now();
-      const r = await req(path, headers);
-      if (Date.now() < warmUntil) continue;
-      if (Number.isNaN(c0)) c0 = cpuMs();
-      lat.push(performance.now() - t0);
-      if (r.status !== 200) bad += 1;
-    }
-  }));
+  await Promise.all(
+    Array.from({ length: Number(conns) }, async () => {
+      while (Date.now() < until) {
+        const t0 = performance.now();
+        const r = await req(path, headers);
+        if (Date.now() < warmUntil) continue;
+        if (Number.isNaN(c0)) c0 = cpuMs();
+        lat.push(performance.now() - t0);
+        if (r.status !== 200) bad += 1;
+      }
+    }),
+  );
   const cpu = (cpuMs() - c0) / lat.length;
   lat.sort((a, b) => a - b);
   const q = (p) => lat[Math.min(lat.length - 1, Math.floor(p * lat.length))].toFixed(1);
   const rate = lat.length / (Number(secs) - 1.5);
-  console.log(`${path.padEnd(18)} ${auth ? 'signed-in ' : 'no session'} ${rate.toFixed(0).padStart(5)} req/s  p50 ${q(0.5)} ms  p99 ${q(0.99)} ms` +
-    `${pid ? `  server CPU ${cpu.toFixed(2)} ms/request` : ''}  non-200: ${bad}  (n=${lat.length}, c=${conns})`);
+  console.log(
+    `${path.padEnd(18)} ${auth ? 'signed-in ' : 'no session'} ${rate.toFixed(0).padStart(5)} req/s  p50 ${q(0.5)} ms  p99 ${q(0.99)} ms` +
+      `${pid ? `  server CPU ${cpu.toFixed(2)} ms/request` : ''}  non-200: ${bad}  (n=${lat.length}, c=${conns})`,
+  );
   return rate;
 }
 const open = await run('/api/health', false);

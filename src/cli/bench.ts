@@ -84,7 +84,9 @@ async function main() {
     const record = (name: string, connections: number, r: autocannon.Result) => {
       const row = { name, connections, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, ok: r['2xx'], bad: r.non2xx + r.errors + r.timeouts };
       results.push(row);
-      say(`  ${name.padEnd(26)} ${String(connections).padStart(2)} conn  ${row.rps.toFixed(0).padStart(5)} req/s  p50 ${row.p50} ms  p99 ${row.p99} ms  ${row.bad ? `${row.bad} failed` : ''}`);
+      say(
+        `  ${name.padEnd(26)} ${String(connections).padStart(2)} conn  ${row.rps.toFixed(0).padStart(5)} req/s  p50 ${row.p50} ms  p99 ${row.p99} ms  ${row.bad ? `${row.bad} failed` : ''}`,
+      );
     };
     const run = (opts: autocannon.Options) => autocannon({ duration: DURATION, ...opts });
 
@@ -129,22 +131,37 @@ async function main() {
 
     const at = (name: string, c: number) => results.find((r) => r.name === name && r.connections === c)!;
     const pct = (a: number, b: number) => `${((a / b) * 100).toFixed(0)} %`;
-    console.log(`\nHTTP benchmark: ${DURATION} s per row, autocannon; ${cpus().length} CPUs, load average ${loadavg().map((l) => l.toFixed(2)).join(' ')}`);
-    console.log(`${'request'.padEnd(24)} ${'conn'.padStart(4)} ${'req/s'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'2xx'.padStart(7)} ${'failed'.padStart(7)}`);
+    console.log(
+      `\nHTTP benchmark: ${DURATION} s per row, autocannon; ${cpus().length} CPUs, load average ${loadavg()
+        .map((l) => l.toFixed(2))
+        .join(' ')}`,
+    );
+    console.log(
+      `${'request'.padEnd(24)} ${'conn'.padStart(4)} ${'req/s'.padStart(7)} ${'p50 ms'.padStart(7)} ${'p99 ms'.padStart(7)} ${'2xx'.padStart(7)} ${'failed'.padStart(7)}`,
+    );
     for (const r of results) {
-      console.log(`${r.name.padEnd(24)} ${String(r.connections).padStart(4)} ${r.rps.toFixed(0).padStart(7)} ${String(r.p50).padStart(7)} ${String(r.p99).padStart(7)} ${String(r.ok).padStart(7)} ${String(r.bad).padStart(7)}`);
+      console.log(
+        `${r.name.padEnd(24)} ${String(r.connections).padStart(4)} ${r.rps.toFixed(0).padStart(7)} ${String(r.p50).padStart(7)} ${String(r.p99).padStart(7)} ${String(r.ok).padStart(7)} ${String(r.bad).padStart(7)}`,
+      );
     }
     console.log('\nratios against the goals:');
     for (const c of CONNECTIONS) {
-      const h = at('GET /api/health', c), v = at('GET /api/fleet/views', c), s = at('POST /api/scan-events', c);
-      console.log(`  ${String(c).padStart(2)} conn: signed-in GET / health ${pct(v.rps, h.rps).padStart(5)} (goal ≥ 50 %)   scans / signed-in GET ${pct(s.rps, v.rps).padStart(5)} (goal ≥ 30 %)`);
+      const h = at('GET /api/health', c),
+        v = at('GET /api/fleet/views', c),
+        s = at('POST /api/scan-events', c);
+      console.log(
+        `  ${String(c).padStart(2)} conn: signed-in GET / health ${pct(v.rps, h.rps).padStart(5)} (goal ≥ 50 %)   scans / signed-in GET ${pct(s.rps, v.rps).padStart(5)} (goal ≥ 30 %)`,
+      );
     }
-    const s8 = at('POST /api/scan-events', 8), s32 = at('POST /api/scan-events', 32);
+    const s8 = at('POST /api/scan-events', 8),
+      s32 = at('POST /api/scan-events', 32);
     console.log(`  scans p99 at 8 connections ${s8.p99} ms (goal < 100 ms)`);
     console.log(`  scans at 32 / at 8 connections ${pct(s32.rps, s8.rps)} (goal ≥ 100 %)`);
     if (waits.samples) {
       const total = [...waits.counts.values()].reduce((a, b) => a + b, 0);
-      console.log(`\nthe app's PostgreSQL sessions during the 32-connection scan run: ${(total / waits.samples).toFixed(1)} on average (${waits.samples} samples, every 50 ms), by state and wait:`);
+      console.log(
+        `\nthe app's PostgreSQL sessions during the 32-connection scan run: ${(total / waits.samples).toFixed(1)} on average (${waits.samples} samples, every 50 ms), by state and wait:`,
+      );
       for (const [k, n] of [...waits.counts].sort((a, b) => b[1] - a[1]).slice(0, 8)) console.log(`  ${(n / waits.samples).toFixed(1).padStart(5)}  ${k}`);
     }
   } finally {

@@ -21,7 +21,9 @@ export const STAMP = 'dist/.loopfold-build.json';
 function files(path) {
   if (!existsSync(path)) return [];
   if (!statSync(path).isDirectory()) return [path];
-  return readdirSync(path).sort().flatMap((entry) => files(join(path, entry)));
+  return readdirSync(path)
+    .sort()
+    .flatMap((entry) => files(join(path, entry)));
 }
 
 /** SHA-256 over every source file's path and content, in a fixed order. */
@@ -67,7 +69,7 @@ export function buildIfStale(root, { command, args = [], env = {}, force = false
       const missing = outputs.filter((o) => !existsSync(join(root, o)));
       if (missing.length) return reject(new Error(`build finished without ${missing.join(', ')}`));
       mkdirSync(dirname(join(root, STAMP)), { recursive: true });
-      writeFileSync(join(root, STAMP), JSON.stringify({ digest, finishedAt: new Date().toISOString() }) + '\n');
+      writeFileSync(join(root, STAMP), `${JSON.stringify({ digest, finishedAt: new Date().toISOString() })}\n`);
       resolve({ built: true, reason: state.reason });
     });
   });

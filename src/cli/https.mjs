@@ -64,16 +64,22 @@ export async function ensureLocalCertificate(dir, names, now = new Date()) {
   let made = false;
 
   if (!existsSync(paths.caKey) || !existsSync(paths.caCert)) {
-    const ca = await generate([{ name: 'commonName', value: 'Loopfold local CA' }, { name: 'organizationName', value: 'Loopfold (this installation)' }], {
-      keySize: 2048,
-      algorithm: 'sha256',
-      notBeforeDate: new Date(now.getTime() - DAY_MS),
-      notAfterDate: new Date(now.getTime() + CA_YEARS * 365 * DAY_MS),
-      extensions: [
-        { name: 'basicConstraints', cA: true, pathLenConstraint: 0, critical: true },
-        { name: 'keyUsage', keyCertSign: true, cRLSign: true, critical: true },
+    const ca = await generate(
+      [
+        { name: 'commonName', value: 'Loopfold local CA' },
+        { name: 'organizationName', value: 'Loopfold (this installation)' },
       ],
-    });
+      {
+        keySize: 2048,
+        algorithm: 'sha256',
+        notBeforeDate: new Date(now.getTime() - DAY_MS),
+        notAfterDate: new Date(now.getTime() + CA_YEARS * 365 * DAY_MS),
+        extensions: [
+          { name: 'basicConstraints', cA: true, pathLenConstraint: 0, critical: true },
+          { name: 'keyUsage', keyCertSign: true, cRLSign: true, critical: true },
+        ],
+      },
+    );
     writeFileSync(paths.caKey, ca.private, { mode: 0o600 });
     writeFileSync(paths.caCert, ca.cert);
     made = true;
@@ -81,7 +87,11 @@ export async function ensureLocalCertificate(dir, names, now = new Date()) {
 
   const meta = existsSync(paths.meta) ? JSON.parse(readFileSync(paths.meta, 'utf8')) : null;
   const fresh =
-    !made && meta && existsSync(paths.key) && existsSync(paths.cert) && sameNames(meta.names, names) &&
+    !made &&
+    meta &&
+    existsSync(paths.key) &&
+    existsSync(paths.cert) &&
+    sameNames(meta.names, names) &&
     new Date(meta.notAfter).getTime() - now.getTime() > RENEW_WITHIN_DAYS * DAY_MS;
   if (!fresh) {
     const notAfter = new Date(now.getTime() + SERVER_CERT_DAYS * DAY_MS);

@@ -38,17 +38,14 @@ const server = new SMTPServer({
       try {
         const raw = Buffer.concat(chunks).toString('utf8');
         const mail = await simpleParser(raw);
-        await pool.query(
-          'INSERT INTO dev_mailbox (envelope_from, envelope_to, subject, text_body, html_body, raw) VALUES ($1, $2, $3, $4, $5, $6)',
-          [
-            session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
-            session.envelope.rcptTo.map((r) => r.address),
-            mail.subject ?? '',
-            mail.text ?? '',
-            typeof mail.html === 'string' ? mail.html : null,
-            raw,
-          ],
-        );
+        await pool.query('INSERT INTO dev_mailbox (envelope_from, envelope_to, subject, text_body, html_body, raw) VALUES ($1, $2, $3, $4, $5, $6)', [
+          session.envelope.mailFrom ? session.envelope.mailFrom.address : null,
+          session.envelope.rcptTo.map((r) => r.address),
+          mail.subject ?? '',
+          mail.text ?? '',
+          typeof mail.html === 'string' ? mail.html : null,
+          raw,
+        ]);
         callback();
       } catch (err) {
         console.error('[mail] could not store message', err);

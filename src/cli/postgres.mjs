@@ -98,7 +98,7 @@ function psql(binDir, sql, db = 'postgres') {
 function printLog(logFile) {
   if (existsSync(logFile)) {
     process.stderr.write(`--- PostgreSQL server log (${logFile}) ---\n`);
-    process.stderr.write(readFileSync(logFile, 'utf8').split('\n').slice(-40).join('\n') + '\n');
+    process.stderr.write(`${readFileSync(logFile, 'utf8').split('\n').slice(-40).join('\n')}\n`);
   }
 }
 

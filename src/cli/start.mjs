@@ -57,9 +57,7 @@ try {
   startChild('job worker', process.execPath, ['--import', 'tsx', 'src/cli/worker.ts'], env);
   startChild('app server', process.execPath, ['src/cli/serve.mjs'], { ...env, ...tls?.env, HOST: host, PORT: port });
   const waitUp = tls ? waitForHttps : waitForHttp;
-  await timedPhase(phases, 'server up', () =>
-    waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000)),
-  );
+  await timedPhase(phases, 'server up', () => waitUp(`${scheme}://127.0.0.1:${port}/api/health`, 60_000).catch(() => waitUp(`${appUrl}/api/health`, 5_000)));
 
   const { DEMO_LOGINS, DEMO_PASSWORD, SECOND_CUSTOMER_LOGIN } = await import('../db/seed/demo-logins.mjs');
   say(`Loopfold is running at ${appUrl}`);

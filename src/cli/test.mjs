@@ -26,7 +26,7 @@ function timed(name, fn) {
 
 function vitest(folder, env) {
   // Words after `--` narrow the run to matching files of the folder; flags pass through.
-  const filters = vitestExtra.filter((a) => !a.startsWith("-")); // matched anywhere in the path, inside the project
+  const filters = vitestExtra.filter((a) => !a.startsWith('-')); // matched anywhere in the path, inside the project
   const flags = vitestExtra.filter((a) => a.startsWith('-'));
   // Integration and browser files share one database each: one file at a time (vitest ignores fileParallelism set
   // inside a project, so it is said here).
@@ -58,7 +58,12 @@ try {
   });
 
   // The browser suite needs the built app: build while the databases are set up and the other suites run.
-  const building = suites.includes('browser') ? buildIfStale().then(() => null, (err) => err) : null;
+  const building = suites.includes('browser')
+    ? buildIfStale().then(
+        () => null,
+        (err) => err,
+      )
+    : null;
   const env = { AUTH_SECRET: authSecret(), ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
   let testDb, e2eDb;
   timed('databases', () => {
@@ -104,9 +109,7 @@ try {
     const smtpPort = process.env.LOOPFOLD_TEST_SMTP_PORT ?? '2526';
     startChild('test mail server', process.execPath, ['src/cli/mail-fake.mjs'], { LOOPFOLD_SMTP_PORT: smtpPort, DATABASE_URL: e2eDb });
     await new Promise((r) => setTimeout(r, 800));
-    failed ||= !timed('browser', () =>
-      vitest('browser', { ...env, DATABASE_URL: e2eDb, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' }),
-    );
+    failed ||= !timed('browser', () => vitest('browser', { ...env, DATABASE_URL: e2eDb, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' }));
   }
 } catch (err) {
   console.error(`\n[loopfold] test set-up failed: ${err.message}`);

@@ -50,4 +50,3 @@ export class AppError extends Error {
     return ERROR_STATUS[this.code];
   }
 }
-

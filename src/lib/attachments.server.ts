@@ -45,9 +45,14 @@ export async function storeAttachment(input: StoreInput, transaction?: Transacti
   const contentType = await checkUpload(input.bytes, input.purpose);
   const row = await Attachment.create(
     {
-      content: Buffer.from(input.bytes), contentType, byteSize: input.bytes.byteLength,
-      sha256: createHash('sha256').update(input.bytes).digest('hex'), filename: input.filename?.slice(0, 200) ?? null,
-      purpose: input.purpose, organisationId: input.organisationId, uploadedBy: input.uploadedBy,
+      content: Buffer.from(input.bytes),
+      contentType,
+      byteSize: input.bytes.byteLength,
+      sha256: createHash('sha256').update(input.bytes).digest('hex'),
+      filename: input.filename?.slice(0, 200) ?? null,
+      purpose: input.purpose,
+      organisationId: input.organisationId,
+      uploadedBy: input.uploadedBy,
     },
     { transaction },
   );

@@ -198,7 +198,7 @@ export function addMonthsToMonth(yyyyMm: YearMonth, months: number): YearMonth {
   requireWholeNumber(months, 'months');
   const { year, month } = parseYearMonth(yyyyMm);
   const monthIndex = year * 12 + (month - 1) + months;
-  const shifted = { year: Math.floor(monthIndex / 12), month: (monthIndex % 12 + 12) % 12 + 1, day: 1 };
+  const shifted = { year: Math.floor(monthIndex / 12), month: (((monthIndex % 12) + 12) % 12) + 1, day: 1 };
   return formatParts(shifted).slice(0, 7);
 }
 

@@ -1,5 +1,5 @@
 import type { APIContext, APIRoute } from 'astro';
-import { z, ZodError, type ZodTypeAny } from 'zod';
+import { type z, ZodError, type ZodTypeAny } from 'zod';
 import { OptimisticLockError, UniqueConstraintError, ForeignKeyConstraintError, ValidationError, DatabaseError } from 'sequelize';
 import { AppError, type ErrorCode } from './api-errors';
 import { can, type Capability } from './permissions';
@@ -54,8 +54,10 @@ async function readJson(request: Request): Promise<unknown> {
   if (!type.includes('application/json')) {
     throw new AppError('unsupported_media_type', 'Send the request body as JSON (Content-Type: application/json).');
   }
-  const bytes = await readBodyCapped(request, MAX_JSON_BYTES, () =>
-    new AppError('payload_too_large', `The request body is too large (at most ${MAX_JSON_BYTES / 1_000_000} MB of JSON).`, { maxBytes: MAX_JSON_BYTES }),
+  const bytes = await readBodyCapped(
+    request,
+    MAX_JSON_BYTES,
+    () => new AppError('payload_too_large', `The request body is too large (at most ${MAX_JSON_BYTES / 1_000_000} MB of JSON).`, { maxBytes: MAX_JSON_BYTES }),
   );
   try {
     const text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
@@ -70,7 +72,12 @@ function asAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
   if (err instanceof ZodError) return new AppError('validation_failed', 'Some fields are not valid.', zodDetails(err));
   if (err instanceof OptimisticLockError) return new AppError('changed_meanwhile', 'Someone else changed this record meanwhile. Reload and try again.');
-  if (err instanceof UniqueConstraintError) return new AppError('duplicate', 'A record with the same key already exists.', err.errors?.map((e) => e.path));
+  if (err instanceof UniqueConstraintError)
+    return new AppError(
+      'duplicate',
+      'A record with the same key already exists.',
+      err.errors?.map((e) => e.path),
+    );
   if (err instanceof ForeignKeyConstraintError) return new AppError('unprocessable', 'A referenced record does not exist.');
   if (err instanceof ValidationError) return new AppError('validation_failed', err.message);
   if (err instanceof DatabaseError && /violates check constraint|invalid input syntax|out of range/.test(err.message)) {
@@ -117,7 +124,11 @@ function formFields(form: FormData, files: readonly string[]): Record<string, st
   return out;
 }
 
-async function guard(ctx: APIContext, capability: Capability | 'public', throttle: EndpointOptions<ZodTypeAny, ZodTypeAny, ZodTypeAny, ZodTypeAny>['throttle']): Promise<Response | null> {
+async function guard(
+  ctx: APIContext,
+  capability: Capability | 'public',
+  throttle: EndpointOptions<ZodTypeAny, ZodTypeAny, ZodTypeAny, ZodTypeAny>['throttle'],
+): Promise<Response | null> {
   const user = ctx.locals.user;
   if (capability !== 'public') {
     if (!user) return errorResponse('unauthenticated', 'Sign in first.');
@@ -141,18 +152,22 @@ function answer(result: unknown, status: number): Response {
  * The one way to write an API route: declare who may call it and the shape of
  * its input; the handler gets validated values and returns plain data.
  */
-export function endpoint<B extends ZodTypeAny = z.ZodUndefined, Q extends ZodTypeAny = z.ZodUndefined, P extends ZodTypeAny = z.ZodUndefined, F extends ZodTypeAny = z.ZodUndefined>(
-  opts: EndpointOptions<B, Q, P, F> & { capability: Capability },
-  handler: (args: HandlerArgs<B, Q, P, F, SessionUser>) => Promise<unknown>,
-): Route {
+export function endpoint<
+  B extends ZodTypeAny = z.ZodUndefined,
+  Q extends ZodTypeAny = z.ZodUndefined,
+  P extends ZodTypeAny = z.ZodUndefined,
+  F extends ZodTypeAny = z.ZodUndefined,
+>(opts: EndpointOptions<B, Q, P, F> & { capability: Capability }, handler: (args: HandlerArgs<B, Q, P, F, SessionUser>) => Promise<unknown>): Route {
   return build(opts, handler as (args: HandlerArgs<B, Q, P, F, SessionUser | null>) => Promise<unknown>);
 }
 
 /** endpoint() for callers without an account (forms on public pages, sign-in help): the user is there or null. */
-export function publicEndpoint<B extends ZodTypeAny = z.ZodUndefined, Q extends ZodTypeAny = z.ZodUndefined, P extends ZodTypeAny = z.ZodUndefined, F extends ZodTypeAny = z.ZodUndefined>(
-  opts: Omit<EndpointOptions<B, Q, P, F>, 'capability'>,
-  handler: (args: HandlerArgs<B, Q, P, F, SessionUser | null>) => Promise<unknown>,
-): Route {
+export function publicEndpoint<
+  B extends ZodTypeAny = z.ZodUndefined,
+  Q extends ZodTypeAny = z.ZodUndefined,
+  P extends ZodTypeAny = z.ZodUndefined,
+  F extends ZodTypeAny = z.ZodUndefined,
+>(opts: Omit<EndpointOptions<B, Q, P, F>, 'capability'>, handler: (args: HandlerArgs<B, Q, P, F, SessionUser | null>) => Promise<unknown>): Route {
   return build({ ...opts, capability: 'public' }, handler);
 }
 
@@ -198,9 +213,7 @@ export function rawEndpoint(
     try {
       const refused = await guard(ctx, opts.capability, undefined);
       if (refused) return refused;
-      const raw = await readBodyCapped(ctx.request, maxBytes, () =>
-        new AppError('payload_too_large', `The request body is too large (at most ${maxBytes} bytes).`, { maxBytes }),
-      );
+      const raw = await readBodyCapped(ctx.request, maxBytes, () => new AppError('payload_too_large', `The request body is too large (at most ${maxBytes} bytes).`, { maxBytes }));
       return answer(await handler({ ctx, user: ctx.locals.user ?? null, raw }), opts.status ?? 200);
     } catch (err) {
       return toErrorResponse(err);

@@ -77,9 +77,7 @@ export interface GraiParseOptions {
 }
 
 /** Parts to build a GRAI from: prefix and asset type apart, or together as parsed. */
-export type GraiBuildParts =
-  | { companyPrefix: string; assetType: string; serial?: string }
-  | { prefixAndAssetType: string; serial?: string };
+export type GraiBuildParts = { companyPrefix: string; assetType: string; serial?: string } | { prefixAndAssetType: string; serial?: string };
 
 function fail(code: GraiErrorCode, message: string): { ok: false; error: GraiError } {
   return { ok: false, error: { code, message } };
@@ -104,10 +102,7 @@ function isValidPrefixLength(length: number): boolean {
 }
 
 function prefixLengthError(length: number): { ok: false; error: GraiError } {
-  return fail(
-    'bad-company-prefix-length',
-    `A GS1 Company Prefix has ${MIN_COMPANY_PREFIX_LENGTH} to ${MAX_COMPANY_PREFIX_LENGTH} digits, not ${length}`,
-  );
+  return fail('bad-company-prefix-length', `A GS1 Company Prefix has ${MIN_COMPANY_PREFIX_LENGTH} to ${MAX_COMPANY_PREFIX_LENGTH} digits, not ${length}`);
 }
 
 function describeChar(ch: string): string {
@@ -123,10 +118,7 @@ function serialError(serial: string): { ok: false; error: GraiError } | null {
   }
   const bad = chars.findIndex((ch) => !isGs1Cs82Char(ch));
   if (bad >= 0) {
-    return fail(
-      'bad-serial-char',
-      `Serial character ${describeChar(chars[bad] ?? '')} (position ${bad + 1} of the serial) is outside GS1 AI encodable character set 82`,
-    );
+    return fail('bad-serial-char', `Serial character ${describeChar(chars[bad] ?? '')} (position ${bad + 1} of the serial) is outside GS1 AI encodable character set 82`);
   }
   return null;
 }
@@ -287,10 +279,7 @@ function parseEpcUri(text: string): GraiParseResult {
   if (!isValidPrefixLength(prefix.length)) return prefixLengthError(prefix.length);
   if (prefix.length + assetType.length !== BODY_LENGTH) {
     const length = prefix.length + assetType.length;
-    return fail(
-      length < BODY_LENGTH ? 'too-short' : 'too-long',
-      `Company prefix and asset type must have ${BODY_LENGTH} digits together; this EPC URI has ${length}`,
-    );
+    return fail(length < BODY_LENGTH ? 'too-short' : 'too-long', `Company prefix and asset type must have ${BODY_LENGTH} digits together; this EPC URI has ${length}`);
   }
   if (encodedSerial === '') return fail('serial-required', 'A GRAI is an EPC only with a serial; this EPC URI has none');
   const serial = decodeEpcSerial(encodedSerial);
@@ -319,10 +308,7 @@ export function parseGrai(text: string, opts: GraiParseOptions = {}): GraiParseR
 export function parseSerialisedGrai(text: string, opts: GraiParseOptions = {}): GraiParseResult {
   const result = parseGrai(text, opts);
   if (result.ok && result.grai.serial === '') {
-    return fail(
-      'serial-required',
-      'This GRAI has no serial: it names an asset type, not one bin; each bin needs its own serial',
-    );
+    return fail('serial-required', 'This GRAI has no serial: it names an asset type, not one bin; each bin needs its own serial');
   }
   return result;
 }

@@ -1,7 +1,12 @@
 import { can, type Capability, type Role } from './permissions';
 import type { IconName } from './icons';
 
-export interface NavItem { href: string; label: string; icon: IconName; capability: Capability }
+export interface NavItem {
+  href: string;
+  label: string;
+  icon: IconName;
+  capability: Capability;
+}
 
 /** Side navigation of the desktop shell, filtered by the viewer's role. */
 const NAV: NavItem[] = [

@@ -2,7 +2,7 @@
 // one catalogue of codes, statuses as HTTP means them, never a 500 for bad input.
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import type { APIRequestContext, Browser, BrowserContext } from 'playwright-core';
+import type { APIRequestContext, BrowserContext } from 'playwright-core';
 import { newContext, signIn, useApp } from './support/app';
 import { one, closeDb } from './support/db';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
@@ -13,7 +13,11 @@ const contexts: Record<string, BrowserContext> = {};
 const as = (role: string): APIRequestContext => contexts[role]!.request;
 
 beforeAll(async () => {
-  for (const [role, email] of [['yard', 'yard@northmere.example'], ['customer', 'buyer@haldenoils.example'], ['planner', 'planner@northmere.example']]) {
+  for (const [role, email] of [
+    ['yard', 'yard@northmere.example'],
+    ['customer', 'buyer@haldenoils.example'],
+    ['planner', 'planner@northmere.example'],
+  ]) {
     const ctx = await newContext(t.browser, t.app);
     const page = await ctx.newPage();
     await signIn(page, email!, DEMO_PASSWORD);
@@ -60,16 +64,26 @@ describe('API conventions', () => {
     const shape = await expectError(await as('yard').post('/api/scan-events', { data: { clientEventId: 'not-a-uuid', action: 'teleport' } }), 400, 'validation_failed');
     expect(JSON.stringify(shape.details)).toMatch(/clientEventId|action/);
     // a GRAI with a wrong check digit: the message says which digit was expected
-    const err = await expectError(await as('yard').post('/api/scan-events', { data: { clientEventId: randomUUID(), grai: '(8003)09521234100109100028', action: 'receive' } }), 404, 'not_found');
+    const err = await expectError(
+      await as('yard').post('/api/scan-events', { data: { clientEventId: randomUUID(), grai: '(8003)09521234100109100028', action: 'receive' } }),
+      404,
+      'not_found',
+    );
     expect(err.message).toMatch(/check digit/i);
     const types = await as('yard').fetch('/api/scan-events', { method: 'POST', headers: { 'Content-Type': 'text/plain', Origin: t.app.url }, data: Buffer.from('hello') });
     await expectError(types, 415, 'unsupported_media_type');
   });
 
   test('422 for a transition the rules refuse (nothing recorded), 409 for a replayed id from someone else', async () => {
-    const bin = await one<{ grai: string; id: number }>(`SELECT a.grai, a.id FROM assets a JOIN users u ON u.home_site_id = a.site_id WHERE u.email = 'yard@northmere.example' AND a.status = 'available' AND NOT a.prep_checked ORDER BY a.id DESC LIMIT 1`);
+    const bin = await one<{ grai: string; id: number }>(
+      `SELECT a.grai, a.id FROM assets a JOIN users u ON u.home_site_id = a.site_id WHERE u.email = 'yard@northmere.example' AND a.status = 'available' AND NOT a.prep_checked ORDER BY a.id DESC LIMIT 1`,
+    );
     const before = await one<{ n: number }>('SELECT count(*)::int AS n FROM scan_events WHERE asset_id = $1', [bin.id]);
-    const refused = await expectError(await as('yard').post('/api/scan-events', { data: { clientEventId: randomUUID(), grai: bin.grai, action: 'dispatch', purpose: 'hire' } }), 422, 'transition_refused');
+    const refused = await expectError(
+      await as('yard').post('/api/scan-events', { data: { clientEventId: randomUUID(), grai: bin.grai, action: 'dispatch', purpose: 'hire' } }),
+      422,
+      'transition_refused',
+    );
     expect(refused.details.reason).toBe('not_allowed_from_status');
     const after = await one<{ n: number }>('SELECT count(*)::int AS n FROM scan_events WHERE asset_id = $1', [bin.id]);
     expect(after.n).toBe(before.n);

@@ -29,12 +29,17 @@ const METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
 /** Tables whose rows change without a request's own write: counters of refusals, mail queued after an answer. */
 const NOT_COUNTED = new Set(['rate_limits', 'SequelizeMeta', 'SequelizeData', 'dev_mailbox', 'mail_outbox']);
 
-interface Route { file: string; path: string; method: (typeof METHODS)[number]; schemas: EndpointSchemas }
+interface Route {
+  file: string;
+  path: string;
+  method: (typeof METHODS)[number];
+  schemas: EndpointSchemas;
+}
 
 const t = useApp();
 const cookies: Partial<Record<Role, string>> = {};
 let tables: string[] = [];
-let throwawayUsers: number[] = [];
+const throwawayUsers: number[] = [];
 let realGrai = '';
 const from = `127.0.${1 + Math.floor(Math.random() * 250)}.${2 + Math.floor(Math.random() * 250)}`;
 
@@ -109,7 +114,13 @@ async function countRows(): Promise<Record<string, number>> {
   return (await db().query(`SELECT ${sql}`)).rows[0] as Record<string, number>;
 }
 
-function send(method: string, path: string, cookie: string | undefined, body: string | Buffer | undefined, contentType = 'application/json'): Promise<{ status: number; text: string }> {
+function send(
+  method: string,
+  path: string,
+  cookie: string | undefined,
+  body: string | Buffer | undefined,
+  contentType = 'application/json',
+): Promise<{ status: number; text: string }> {
   return new Promise((resolve, reject) => {
     const headers: Record<string, string> = { Origin: `http://127.0.0.1:${t.app.port}` };
     if (cookie) headers.Cookie = cookie;
@@ -155,9 +166,9 @@ function roleFor(capability: Capability | 'public'): Role | null {
 const found = await routes();
 
 beforeAll(async () => {
-  tables = (
-    await rows<{ table_name: string }>(`SELECT table_name FROM information_schema.tables WHERE table_schema = 'public' AND table_type = 'BASE TABLE' ORDER BY 1`)
-  ).map((r) => r.table_name).filter((n) => !NOT_COUNTED.has(n));
+  tables = (await rows<{ table_name: string }>(`SELECT table_name FROM information_schema.tables WHERE table_schema = 'public' AND table_type = 'BASE TABLE' ORDER BY 1`))
+    .map((r) => r.table_name)
+    .filter((n) => !NOT_COUNTED.has(n));
   realGrai = (await rows<{ grai: string }>(`SELECT grai FROM assets ORDER BY id DESC LIMIT 1`))[0]!.grai;
   for (let i = 0; i < 2; i++) throwawayUsers.push(await createStaff(freshEmail('badinput'), `Probe Person ${i}`, 'probe-password-1', 'planner'));
   for (const login of DEMO_LOGINS as Array<{ role: Role; email: string }>) await signInAs(login.role);
@@ -212,7 +223,12 @@ describe('bad input over HTTP', () => {
       );
       // A signed-in route must be reached: all 401 would mean the sweep never got past the session check.
       if (role) expect(statuses.get(401) ?? 0, `${key} answered 401 to every request`).toBeLessThan(RUNS);
-      console.info(`[bad-input] ${key}: ${[...statuses].sort((a, b) => a[0] - b[0]).map(([st, n]) => `${st}×${n}`).join(' ')}`);
+      console.info(
+        `[bad-input] ${key}: ${[...statuses]
+          .sort((a, b) => a[0] - b[0])
+          .map(([st, n]) => `${st}×${n}`)
+          .join(' ')}`,
+      );
     }, 300_000);
   }
 });

@@ -55,7 +55,16 @@ beforeAll(async () => {
     const type = await one<{ id: number }>(`SELECT id FROM bin_types ORDER BY id LIMIT 1`);
     const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
     const res = await api.post('/api/bins/register', {
-      data: { graiMode: 'serial', serial: FORMULA_SERIAL, binTypeId: type.id, siteId: depot.id, manufactureMonth: '2024-05', unMarking: '', lastIntermediateTestMonth: '', lastFullInspectionMonth: '' },
+      data: {
+        graiMode: 'serial',
+        serial: FORMULA_SERIAL,
+        binTypeId: type.id,
+        siteId: depot.id,
+        manufactureMonth: '2024-05',
+        unMarking: '',
+        lastIntermediateTestMonth: '',
+        lastFullInspectionMonth: '',
+      },
     });
     expect(res.status(), await res.text()).toBe(201);
   }

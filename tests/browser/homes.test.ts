@@ -15,8 +15,12 @@ describe('homes show live counts', () => {
     await signIn(page, 'yard@northmere.example', DEMO_PASSWORD);
     await page.waitForURL('**/yard');
     const depot = await one<{ home_site_id: number }>(`SELECT home_site_id FROM users WHERE email = 'yard@northmere.example'`);
-    const expected = await rows<{ status: string; n: number }>(`SELECT status, count(*)::int AS n FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status`, [depot.home_site_id]);
-    const shown = await page.$$eval('[data-testid="depot-counts"] li', (lis) => lis.map((li) => ({ status: li.getAttribute('data-status'), n: Number(li.getAttribute('data-count')) })));
+    const expected = await rows<{ status: string; n: number }>(`SELECT status, count(*)::int AS n FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status`, [
+      depot.home_site_id,
+    ]);
+    const shown = await page.$$eval('[data-testid="depot-counts"] li', (lis) =>
+      lis.map((li) => ({ status: li.getAttribute('data-status'), n: Number(li.getAttribute('data-count')) })),
+    );
     expect(shown.sort((a, b) => a.status!.localeCompare(b.status!))).toEqual(expected.sort((a, b) => a.status.localeCompare(b.status)));
     const total = expected.reduce((s, r) => s + r.n, 0);
     await expect(page.locator('[data-testid="depot-total"]').textContent()).resolves.toBe(String(total));

@@ -29,16 +29,23 @@ function ownAddress(): string {
   return `127.0.${Math.floor(Math.random() * 250) + 1}.${nextHost}`;
 }
 
-interface Answer { status: number; headers: IncomingMessage['headers']; body: string }
+interface Answer {
+  status: number;
+  headers: IncomingMessage['headers'];
+  body: string;
+}
 
 function send(app: RunningApp, path: string, opts: { method?: string; headers?: Record<string, string>; body?: Buffer | string; from: string }): Promise<Answer> {
   return new Promise((resolve, reject) => {
-    const req = httpRequest({ host: '127.0.0.1', port: app.port, path, method: opts.method ?? 'GET', headers: { Origin: `http://127.0.0.1:${app.port}`, ...opts.headers }, localAddress: opts.from }, (res) => {
-      let body = '';
-      res.setEncoding('utf8');
-      res.on('data', (c) => (body += c));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body }));
-    });
+    const req = httpRequest(
+      { host: '127.0.0.1', port: app.port, path, method: opts.method ?? 'GET', headers: { Origin: `http://127.0.0.1:${app.port}`, ...opts.headers }, localAddress: opts.from },
+      (res) => {
+        let body = '';
+        res.setEncoding('utf8');
+        res.on('data', (c) => (body += c));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body }));
+      },
+    );
     req.on('error', reject);
     req.end(opts.body);
   });
@@ -71,7 +78,9 @@ describe('the client address is the socket, not X-Forwarded-For (TRUST_PROXY uns
     for (let n = 1; n <= 7; n++) {
       const form = multipart({ quantity: '2', contactName: 'Probe Tester', contactPhone: '+44 1632 960000' });
       const res = await send(plain, `/api/public/bins/${bin.grai}/collection-request`, {
-        method: 'POST', from, body: form.body,
+        method: 'POST',
+        from,
+        body: form.body,
         headers: { 'Content-Type': form.type, 'X-Forwarded-For': `203.0.113.${n}` },
       });
       statuses.push(res.status);
@@ -94,9 +103,13 @@ describe('a failed sign-in posted as a plain form (no X-Auth-Return-Redirect)', 
     const from = ownAddress();
     const csrf = await send(plain, '/api/auth/csrf', { from });
     const token = (JSON.parse(csrf.body) as { csrfToken: string }).csrfToken;
-    const cookie = ([] as string[]).concat(csrf.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
+    const cookie = ([] as string[])
+      .concat(csrf.headers['set-cookie'] ?? [])
+      .map((c) => c.split(';')[0])
+      .join('; ');
     const res = await send(plain, '/api/auth/callback/credentials', {
-      method: 'POST', from,
+      method: 'POST',
+      from,
       headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: cookie },
       body: new URLSearchParams({ csrfToken: token, email: 'nobody@example.org', password: 'wrong-password-1' }).toString(),
     });
@@ -112,7 +125,9 @@ describe('behind one trusted proxy (TRUST_PROXY=1)', () => {
     const bin = await quietBin(4);
     const form = multipart({ quantity: '1', contactName: 'Proxy Tester', contactEmail: 'proxy@example.org' });
     const res = await send(trusting!, `/api/public/bins/${bin.grai}/collection-request`, {
-      method: 'POST', from: ownAddress(), body: form.body,
+      method: 'POST',
+      from: ownAddress(),
+      body: form.body,
       headers: { 'Content-Type': form.type, 'X-Forwarded-For': '203.0.113.66, 198.51.100.23' },
     });
     expect(res.status).toBe(201);
@@ -141,24 +156,33 @@ function rssBytes(pid: number): number {
  */
 function streamUpload(app: RunningApp, path: string, from: string, total: number): Promise<{ status: number; body: string; writtenBeforeAnswer: number }> {
   const boundary = '----loopfoldhuge';
-  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="description"\r\n\r\nDented side wall\r\n--${boundary}\r\nContent-Disposition: form-data; name="photo"; filename="huge.jpg"\r\nContent-Type: image/jpeg\r\n\r\n`);
+  const head = Buffer.from(
+    `--${boundary}\r\nContent-Disposition: form-data; name="description"\r\n\r\nDented side wall\r\n--${boundary}\r\nContent-Disposition: form-data; name="photo"; filename="huge.jpg"\r\nContent-Type: image/jpeg\r\n\r\n`,
+  );
   const chunk = Buffer.alloc(64 * 1024, 0xff);
   return new Promise((resolve, reject) => {
     let written = 0;
     let answered = false;
     let writtenBeforeAnswer = -1;
-    const req = httpRequest({
-      host: '127.0.0.1', port: app.port, path, method: 'POST', localAddress: from,
-      headers: { 'Content-Type': `multipart/form-data; boundary=${boundary}`, 'Transfer-Encoding': 'chunked', Origin: `http://127.0.0.1:${app.port}` },
-    }, (res) => {
-      answered = true;
-      writtenBeforeAnswer = written;
-      let body = '';
-      res.setEncoding('utf8');
-      res.on('data', (c) => (body += c));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, body, writtenBeforeAnswer }));
-      res.on('error', () => resolve({ status: res.statusCode ?? 0, body, writtenBeforeAnswer }));
-    });
+    const req = httpRequest(
+      {
+        host: '127.0.0.1',
+        port: app.port,
+        path,
+        method: 'POST',
+        localAddress: from,
+        headers: { 'Content-Type': `multipart/form-data; boundary=${boundary}`, 'Transfer-Encoding': 'chunked', Origin: `http://127.0.0.1:${app.port}` },
+      },
+      (res) => {
+        answered = true;
+        writtenBeforeAnswer = written;
+        let body = '';
+        res.setEncoding('utf8');
+        res.on('data', (c) => (body += c));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body, writtenBeforeAnswer }));
+        res.on('error', () => resolve({ status: res.statusCode ?? 0, body, writtenBeforeAnswer }));
+      },
+    );
     req.on('error', (err) => (answered ? undefined : reject(err)));
     req.write(head);
     written += head.length;
@@ -181,7 +205,9 @@ describe('request bodies stop at their limit', () => {
     const before = rssBytes(pid);
     const r = await streamUpload(plain, `/api/public/bins/${bin.grai}/damage-report`, from, 60 * 1024 * 1024);
     const after = rssBytes(pid);
-    console.info(`[measured] chunked 60 MB upload: ${(r.writtenBeforeAnswer / 2 ** 20).toFixed(1)} MB sent before the 413; server RSS ${(before / 2 ** 20).toFixed(0)} → ${(after / 2 ** 20).toFixed(0)} MB`);
+    console.info(
+      `[measured] chunked 60 MB upload: ${(r.writtenBeforeAnswer / 2 ** 20).toFixed(1)} MB sent before the 413; server RSS ${(before / 2 ** 20).toFixed(0)} → ${(after / 2 ** 20).toFixed(0)} MB`,
+    );
     expect(r.status).toBe(413);
     const body = JSON.parse(r.body) as { error: { code: string; message: string } };
     expect(body.error.code).toBe('payload_too_large');
@@ -199,12 +225,21 @@ describe('request bodies stop at their limit', () => {
 
   test('a chunked JSON body over 1 MB is refused with the envelope before it is all read', async () => {
     const r = await new Promise<{ status: number; body: string }>((resolve, reject) => {
-      const req = httpRequest({ host: '127.0.0.1', port: plain.port, path: '/api/account/reset', method: 'POST', localAddress: ownAddress(),
-        headers: { 'Content-Type': 'application/json', 'Transfer-Encoding': 'chunked', Origin: `http://127.0.0.1:${plain.port}` } }, (res) => {
-        let body = '';
-        res.on('data', (c) => (body += c));
-        res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
-      });
+      const req = httpRequest(
+        {
+          host: '127.0.0.1',
+          port: plain.port,
+          path: '/api/account/reset',
+          method: 'POST',
+          localAddress: ownAddress(),
+          headers: { 'Content-Type': 'application/json', 'Transfer-Encoding': 'chunked', Origin: `http://127.0.0.1:${plain.port}` },
+        },
+        (res) => {
+          let body = '';
+          res.on('data', (c) => (body += c));
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+        },
+      );
       req.on('error', reject);
       req.write('{"email":"');
       for (let i = 0; i < 40; i++) req.write('a'.repeat(64 * 1024));

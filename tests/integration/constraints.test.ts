@@ -39,7 +39,11 @@ describe('the database itself refuses bad rows', () => {
     expect(await sqlErrorCode(`INSERT INTO users (email, name, role, organisation_id) VALUES ('dup@b.example', 'E', 'yard', $1)`, [org])).toBe('23505');
   });
   test('settings are a single row and the GS1 prefix matches its length', async () => {
-    expect(await sqlErrorCode(`INSERT INTO settings (id, operator_name, gs1_company_prefix, gs1_prefix_length, digital_link_base, time_zone, currency, tax_rate, mail_sender) VALUES (2, 'x', '9521234', 7, 'http://x', 'UTC', 'EUR', 0.2, 'a@b.example')`)).toBe('23514');
+    expect(
+      await sqlErrorCode(
+        `INSERT INTO settings (id, operator_name, gs1_company_prefix, gs1_prefix_length, digital_link_base, time_zone, currency, tax_rate, mail_sender) VALUES (2, 'x', '9521234', 7, 'http://x', 'UTC', 'EUR', 0.2, 'a@b.example')`,
+      ),
+    ).toBe('23514');
     expect(await sqlErrorCode(`UPDATE settings SET gs1_prefix_length = 8`)).toBe('23514');
     expect(await sqlErrorCode(`UPDATE settings SET tax_rate = 1.5`)).toBe('23514');
   });

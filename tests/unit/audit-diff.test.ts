@@ -4,7 +4,8 @@ import { changedFields } from '@/lib/audit-diff';
 describe('what changed between two snapshots', () => {
   test('only differing fields, on both sides', () => {
     expect(changedFields({ role: 'planner', active: true, name: 'A' }, { role: 'admin', active: true, name: 'A' })).toEqual({
-      before: { role: 'planner' }, after: { role: 'admin' },
+      before: { role: 'planner' },
+      after: { role: 'admin' },
     });
   });
   test('nothing changed → null', () => {

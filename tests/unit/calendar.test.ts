@@ -5,13 +5,7 @@
 // last Sunday of October, both at 01:00 UTC; Berlin is UTC+1 in winter, UTC+2 in summer.
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
-import {
-  addDays as dfAddDays,
-  addMonths as dfAddMonths,
-  differenceInCalendarDays,
-  endOfMonth as dfEndOfMonth,
-  format,
-} from 'date-fns';
+import { addDays as dfAddDays, addMonths as dfAddMonths, differenceInCalendarDays, endOfMonth as dfEndOfMonth, format } from 'date-fns';
 import {
   addDays,
   addMonthsToDate,
@@ -40,9 +34,7 @@ const dfFormat = (date: Date) => format(date, 'yyyy-MM-dd');
 const arbitraryDate = fc
   .record({ year: fc.integer({ min: 1901, max: 2199 }), month: fc.integer({ min: 1, max: 12 }), day: fc.integer({ min: 1, max: 31 }) })
   .map(({ year, month, day }) => `${year}-${pad(month)}-${pad(Math.min(day, new Date(year, month, 0).getDate()))}`);
-const arbitraryMonth = fc
-  .record({ year: fc.integer({ min: 1901, max: 2149 }), month: fc.integer({ min: 1, max: 12 }) })
-  .map(({ year, month }) => `${year}-${pad(month)}`);
+const arbitraryMonth = fc.record({ year: fc.integer({ min: 1901, max: 2149 }), month: fc.integer({ min: 1, max: 12 }) }).map(({ year, month }) => `${year}-${pad(month)}`);
 
 describe('localDate: the calendar date of an instant in a zone', () => {
   test.each([
@@ -103,12 +95,9 @@ describe('localDate: the calendar date of an instant in a zone', () => {
     (zone) => {
       inProcessTimeZone(zone, () => {
         fc.assert(
-          fc.property(
-            fc.date({ min: new Date('1990-01-01T00:00:00Z'), max: new Date('2040-12-31T23:59:59Z'), noInvalidDate: true }),
-            (instant) => {
-              expect(localDate(instant.toISOString(), zone)).toBe(dfFormat(instant));
-            },
-          ),
+          fc.property(fc.date({ min: new Date('1990-01-01T00:00:00Z'), max: new Date('2040-12-31T23:59:59Z'), noInvalidDate: true }), (instant) => {
+            expect(localDate(instant.toISOString(), zone)).toBe(dfFormat(instant));
+          }),
           { numRuns: 300 },
         );
       });
@@ -252,7 +241,14 @@ describe('validation', () => {
 
 describe('formatDayCount: the one day/days wording', () => {
   test.each([
-    [0, '0 days'], [1, '1 day'], [2, '2 days'], [-1, '-1 days'], ['1', '1 day'], ['1.0', '1.0 days'], ['14.3', '14.3 days'], ['1,204', '1,204 days'],
+    [0, '0 days'],
+    [1, '1 day'],
+    [2, '2 days'],
+    [-1, '-1 days'],
+    ['1', '1 day'],
+    ['1.0', '1.0 days'],
+    ['14.3', '14.3 days'],
+    ['1,204', '1,204 days'],
   ] as const)('%s → %s', (n, text) => {
     expect(formatDayCount(n)).toBe(text);
   });

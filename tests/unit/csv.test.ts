@@ -48,10 +48,20 @@ describe('numbers stay numbers', () => {
 
 describe('RFC 4180 framing', () => {
   test('CRLF after every line, quotes doubled, commas and line breaks quoted, null as empty', () => {
-    const text = csvTable(['serial', 'note', 'count'], [['A"1', 'one, two', 3], ['B2', 'line\nbreak', null]]);
+    const text = csvTable(
+      ['serial', 'note', 'count'],
+      [
+        ['A"1', 'one, two', 3],
+        ['B2', 'line\nbreak', null],
+      ],
+    );
     expect(text.endsWith('\r\n')).toBe(true);
     expect(text.split('\r\n').length).toBe(4);
-    expect(readCsv(text).map((r) => r.map((c) => c.text))).toEqual([['serial', 'note', 'count'], ['A"1', 'one, two', '3'], ['B2', 'line\nbreak', '']]);
+    expect(readCsv(text).map((r) => r.map((c) => c.text))).toEqual([
+      ['serial', 'note', 'count'],
+      ['A"1', 'one, two', '3'],
+      ['B2', 'line\nbreak', ''],
+    ]);
     expect(csvLines([])).toBe('');
   });
 });

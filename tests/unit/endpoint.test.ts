@@ -15,7 +15,16 @@ beforeAll(async () => {
 });
 afterAll(() => vi.unstubAllEnvs());
 
-const planner: SessionUser = { id: 7, email: 'p@test.example', name: 'P', role: 'planner', organisationId: 1, organisationName: 'Org', homeSiteId: null, qualifiedInspector: false };
+const planner: SessionUser = {
+  id: 7,
+  email: 'p@test.example',
+  name: 'P',
+  role: 'planner',
+  organisationId: 1,
+  organisationName: 'Org',
+  homeSiteId: null,
+  qualifiedInspector: false,
+};
 
 function ctx(request: Request, { params = {}, user = planner as SessionUser | null } = {}) {
   return { request, url: new URL(request.url), params, locals: { user, clientAddress: '127.0.0.1' }, redirect: () => new Response(null, { status: 303 }) } as unknown as APIContext;
@@ -37,9 +46,14 @@ describe('endpoint() inputs', () => {
   });
 
   test('a multipart form: text fields through the schema, files as bytes or null', async () => {
-    const route = m.endpoint({ capability: 'bins.edit', form: z.object({ name: z.string().min(2), tags: z.array(z.string()).optional() }), files: ['photo', 'other'] }, async ({ form, files }) => ({
-      form, photo: files.photo && { size: files.photo.bytes.byteLength, name: files.photo.filename }, other: files.other,
-    }));
+    const route = m.endpoint(
+      { capability: 'bins.edit', form: z.object({ name: z.string().min(2), tags: z.array(z.string()).optional() }), files: ['photo', 'other'] },
+      async ({ form, files }) => ({
+        form,
+        photo: files.photo && { size: files.photo.bytes.byteLength, name: files.photo.filename },
+        other: files.other,
+      }),
+    );
     const fd = new FormData();
     fd.append('name', 'Quay 4');
     fd.append('tags', 'a');

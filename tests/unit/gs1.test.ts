@@ -1,16 +1,6 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
-import {
-  formatGrai,
-  graiToDigitalLink,
-  graiToEpcUri,
-  groupGrai,
-  gs1CheckDigit,
-  isGs1Cs82Char,
-  makeGrai,
-  parseGrai,
-  parseSerialisedGrai,
-} from '@/lib/gs1.ts';
+import { formatGrai, graiToDigitalLink, graiToEpcUri, groupGrai, gs1CheckDigit, isGs1Cs82Char, makeGrai, parseGrai, parseSerialisedGrai } from '@/lib/gs1.ts';
 import type { GraiParseResult } from '@/lib/gs1.ts';
 
 /** Narrows a parse result for the assertions that follow. */
@@ -132,12 +122,12 @@ describe('parseGrai: refusals say what is wrong', () => {
     expect(!result.ok && result.error.message).toMatch(/14 digits/);
   });
   test('too long: a serial over 16 characters', () => {
-    const result = parseGrai('00614141123452' + 'A'.repeat(17));
+    const result = parseGrai(`00614141123452${'A'.repeat(17)}`);
     expect(errorCode(result)).toBe('too-long');
     expect(!result.ok && result.error.message).toMatch(/17 characters/);
   });
   test('16 serial characters are still fine', () => {
-    expect(errorCode(parseGrai('00614141123452' + 'A'.repeat(16)))).toBe('ok');
+    expect(errorCode(parseGrai(`00614141123452${'A'.repeat(16)}`))).toBe('ok');
   });
   test('non-digit in the fixed part', () => {
     const result = parseGrai('00614141A23452400');
@@ -186,9 +176,7 @@ describe('GS1 Digital Link (AI 8003 value as one path segment)', () => {
 
   test('no double slash when the base ends with /; a path prefix is kept', () => {
     expect(graiToDigitalLink(TDS_ELEMENT_VALUE, 'https://id.gs1.org/')).toBe(PUBLISHED_LINK);
-    expect(graiToDigitalLink(TDS_ELEMENT_VALUE, 'https://bins.example.test/r/')).toBe(
-      'https://bins.example.test/r/8003/00614141123452400',
-    );
+    expect(graiToDigitalLink(TDS_ELEMENT_VALUE, 'https://bins.example.test/r/')).toBe('https://bins.example.test/r/8003/00614141123452400');
   });
 
   test.each([

@@ -13,8 +13,14 @@ describe('which names the certificate covers', () => {
   test('LAN IPv4 addresses only: no loopback, no link-local, no IPv6, no duplicates', () => {
     const ifaces = {
       lo: [{ address: '127.0.0.1', family: 'IPv4', internal: true }],
-      eth0: [{ address: '192.168.1.20', family: 'IPv4', internal: false }, { address: 'fe80::1', family: 'IPv6', internal: false }],
-      wlan0: [{ address: '10.0.0.7', family: 'IPv4', internal: false }, { address: '169.254.3.4', family: 'IPv4', internal: false }],
+      eth0: [
+        { address: '192.168.1.20', family: 'IPv4', internal: false },
+        { address: 'fe80::1', family: 'IPv6', internal: false },
+      ],
+      wlan0: [
+        { address: '10.0.0.7', family: 'IPv4', internal: false },
+        { address: '169.254.3.4', family: 'IPv4', internal: false },
+      ],
       eth1: [{ address: '192.168.1.20', family: 'IPv4', internal: false }],
     };
     expect(lanAddresses(ifaces as never)).toEqual(['10.0.0.7', '192.168.1.20']);

@@ -21,7 +21,11 @@ describe('layers', () => {
   test('no page, route, component or layout imports models, the db or sequelize', () => {
     const offenders = ['src/pages', 'src/components', 'src/layouts']
       .flatMap((d) => filesUnder(join(ROOT, d), /\.(astro|ts|tsx)$/))
-      .flatMap((f) => importsOf(f).filter((i) => !i.typeOnly && (i.from === '@/models' || i.from.startsWith('@/db') || i.from === 'sequelize')).map((i) => `${relative(ROOT, f)} → ${i.from}`));
+      .flatMap((f) =>
+        importsOf(f)
+          .filter((i) => !i.typeOnly && (i.from === '@/models' || i.from.startsWith('@/db') || i.from === 'sequelize'))
+          .map((i) => `${relative(ROOT, f)} → ${i.from}`),
+      );
     expect(offenders).toEqual([]);
   });
 

@@ -20,7 +20,7 @@ export function routeOf(file: string): string {
     .split('/')
     .map((s) => s.replace(/^\[\.\.\.[^\]]+\]$/, 'sample/rest').replace(/\[[^\]]+\]/g, 'sample1'))
     .filter((s, i, all) => !(s === 'index' && i === all.length - 1));
-  return '/' + segments.join('/');
+  return `/${segments.join('/')}`;
 }
 
 const routes = files(PAGES)

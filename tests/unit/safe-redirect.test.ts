@@ -53,7 +53,7 @@ describe('post-sign-in destination: only same-origin paths', () => {
     expect(safeNextPath('//evil.example', '/portal')).toBe('/portal');
   });
   test('an overlong value is refused', () => {
-    expect(safeNextPath('/' + 'a'.repeat(3000))).toBe('/');
+    expect(safeNextPath(`/${'a'.repeat(3000)}`)).toBe('/');
   });
   test('every kept value resolves to this origin in the URL parser (outside check: node:url legacy parser agrees)', async () => {
     const { parse } = await import('node:url');

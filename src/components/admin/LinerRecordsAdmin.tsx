@@ -50,7 +50,13 @@ function fieldsFor(kind: Kind, suppliers: { id: number; name: string }[], binTyp
     { name: 'maxFillTempC', label: 'Highest filling temperature', type: 'int', nullable: true, unit: '°C' },
     { name: 'supplierId', label: 'Supplier', type: 'select', nullable: true, options: suppliers.map((s) => ({ value: String(s.id), label: s.name })) },
     { name: 'articleNumber', label: 'Supplier’s article number', type: 'text', nullable: true },
-    { name: 'binTypeIds', label: 'Fits these bin types', type: 'choices', options: binTypes.map((b) => ({ value: b.id, label: b.name })), hint: 'A fit from a lot of this spec into another bin type is refused. A bin type with no spec listed takes any liner.' },
+    {
+      name: 'binTypeIds',
+      label: 'Fits these bin types',
+      type: 'choices',
+      options: binTypes.map((b) => ({ value: b.id, label: b.name })),
+      hint: 'A fit from a lot of this spec into another bin type is refused. A bin type with no spec listed takes any liner.',
+    },
     { name: 'active', label: 'In use', type: 'checkbox' },
   ];
 }
@@ -118,14 +124,40 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
           <Icon name="plusBox" size={18} /> New {noun}
         </button>
       </div>
-      {flash && <p className="notice-good mt-4" role="status">{flash}</p>}
+      {flash && (
+        <p className="notice-good mt-4" role="status">
+          {flash}
+        </p>
+      )}
       <div className="card mt-4 max-w-full overflow-x-auto" role="region" aria-label={kind === 'specs' ? 'Liner specs' : 'Liner suppliers'} tabIndex={0}>
         <table className="w-full text-sm [&_th]:px-2 [&_th]:py-2 [&_th]:text-left [&_th]:font-medium [&_td]:px-2 [&_td]:py-2 [&_td]:align-top [&_tbody_tr]:border-t [&_tbody_tr]:border-paper-line/70 [&_.num]:text-right">
           <thead className="bg-paper-deep/60">
             {kind === 'specs' ? (
-              <tr><th>Code</th><th>Spec</th><th className="hidden xl:table-cell">Supplier · article</th><th className="hidden md:table-cell">Fits</th><th className="num">Lots</th><th>Status</th><th><span className="sr-only">Edit</span></th></tr>
+              <tr>
+                <th>Code</th>
+                <th>Spec</th>
+                <th className="hidden xl:table-cell">Supplier · article</th>
+                <th className="hidden md:table-cell">Fits</th>
+                <th className="num">Lots</th>
+                <th>Status</th>
+                <th>
+                  <span className="sr-only">Edit</span>
+                </th>
+              </tr>
             ) : (
-              <tr><th>Supplier</th><th className="hidden lg:table-cell">Order e-mail</th><th className="num hidden sm:table-cell">Lead time</th><th className="num">Per order</th><th className="num">Carton</th><th className="num">Minimum</th><th className="num">Price</th><th>Status</th><th><span className="sr-only">Edit</span></th></tr>
+              <tr>
+                <th>Supplier</th>
+                <th className="hidden lg:table-cell">Order e-mail</th>
+                <th className="num hidden sm:table-cell">Lead time</th>
+                <th className="num">Per order</th>
+                <th className="num">Carton</th>
+                <th className="num">Minimum</th>
+                <th className="num">Price</th>
+                <th>Status</th>
+                <th>
+                  <span className="sr-only">Edit</span>
+                </th>
+              </tr>
             )}
           </thead>
           <tbody>
@@ -133,12 +165,26 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
               kind === 'specs' ? (
                 <tr key={r.id}>
                   <td className="ident whitespace-nowrap">{String(r.code)}</td>
-                  <td><div className="font-medium">{String(r.name)}</div><div className="text-sm text-ink-soft">{describeSpec(r as unknown as SpecRow)}</div></td>
-                  <td className="hidden xl:table-cell">{r.supplierName ? `${String(r.supplierName)} · ` : ''}<span className="ident">{String(r.articleNumber ?? '—')}</span></td>
-                  <td className="hidden md:table-cell">{(r.binTypeIds as number[]).length ? (r.binTypeIds as number[]).map((id) => typeName.get(id) ?? `#${id}`).join(', ') : 'no bin type listed'}</td>
+                  <td>
+                    <div className="font-medium">{String(r.name)}</div>
+                    <div className="text-sm text-ink-soft">{describeSpec(r as unknown as SpecRow)}</div>
+                  </td>
+                  <td className="hidden xl:table-cell">
+                    {r.supplierName ? `${String(r.supplierName)} · ` : ''}
+                    <span className="ident">{String(r.articleNumber ?? '—')}</span>
+                  </td>
+                  <td className="hidden md:table-cell">
+                    {(r.binTypeIds as number[]).length ? (r.binTypeIds as number[]).map((id) => typeName.get(id) ?? `#${id}`).join(', ') : 'no bin type listed'}
+                  </td>
                   <td className="num">{n(Number(r.lots))}</td>
-                  <td><ActiveBadge active={r.active} /></td>
-                  <td><button type="button" className="btn-quiet" onClick={() => setEditing(r)} aria-label={`Edit ${String(r.code)}`}>Edit</button></td>
+                  <td>
+                    <ActiveBadge active={r.active} />
+                  </td>
+                  <td>
+                    <button type="button" className="btn-quiet" onClick={() => setEditing(r)} aria-label={`Edit ${String(r.code)}`}>
+                      Edit
+                    </button>
+                  </td>
                 </tr>
               ) : (
                 <tr key={r.id}>
@@ -149,19 +195,33 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
                   <td className="num">{n(Number(r.packSize))}</td>
                   <td className="num">{n(Number(r.minOrderQty))}</td>
                   <td className="num">{String(r.pricePerLiner)}</td>
-                  <td><ActiveBadge active={r.active} /></td>
-                  <td><button type="button" className="btn-quiet" onClick={() => setEditing(r)} aria-label={`Edit ${String(r.name)}`}>Edit</button></td>
+                  <td>
+                    <ActiveBadge active={r.active} />
+                  </td>
+                  <td>
+                    <button type="button" className="btn-quiet" onClick={() => setEditing(r)} aria-label={`Edit ${String(r.name)}`}>
+                      Edit
+                    </button>
+                  </td>
                 </tr>
               ),
             )}
-            {rows.length === 0 && <tr><td colSpan={9} className="text-ink-soft">None yet.</td></tr>}
+            {rows.length === 0 && (
+              <tr>
+                <td colSpan={9} className="text-ink-soft">
+                  None yet.
+                </td>
+              </tr>
+            )}
           </tbody>
         </table>
       </div>
       {editing && (
         <RecordDialog
           title={editing === 'new' ? `New ${noun}` : `Edit ${noun} ${String(editing.code ?? editing.name)}`}
-          fields={fields} row={editing === 'new' ? null : editing} onClose={() => setEditing(null)}
+          fields={fields}
+          row={editing === 'new' ? null : editing}
+          onClose={() => setEditing(null)}
           save={async (body) => {
             const isNew = editing === 'new';
             const out = isNew ? await api.post<{ row: Row }>(base, body) : await api.put<{ row: Row }>(`${base}/${editing.id}`, body);
@@ -173,7 +233,19 @@ export default function LinerRecordsAdmin({ kind, initialRows, suppliers = [], b
   );
 }
 
-function RecordDialog({ title, fields, row, onClose, save }: { title: string; fields: Field[]; row: Row | null; onClose: () => void; save: (body: Record<string, unknown>) => Promise<void> }) {
+function RecordDialog({
+  title,
+  fields,
+  row,
+  onClose,
+  save,
+}: {
+  title: string;
+  fields: Field[];
+  row: Row | null;
+  onClose: () => void;
+  save: (body: Record<string, unknown>) => Promise<void>;
+}) {
   const [values, setValues] = useState<Values>(() => initial(fields, row));
   const [problems, setProblems] = useState<Record<string, string>>({});
   const [problem, setProblem] = useState<string | null>(null);
@@ -200,14 +272,20 @@ function RecordDialog({ title, fields, row, onClose, save }: { title: string; fi
   return (
     <Dialog title={title} onClose={onClose} labelId="liner-record-title">
       <form onSubmit={submit} className="space-y-3" noValidate>
-        {problem && <p className="notice-fault" role="alert">{problem}</p>}
+        {problem && (
+          <p className="notice-fault" role="alert">
+            {problem}
+          </p>
+        )}
         {fields.map((f) => {
           const id = `lr-${f.name}`;
           const described = `${id}-problem`;
           if (f.type === 'checkbox') {
             return (
               <div key={f.name}>
-                <label className="flex items-center gap-2 min-h-touch"><input id={id} type="checkbox" checked={Boolean(values[f.name])} onChange={(e) => set(f.name, e.target.checked)} /> {f.label}</label>
+                <label className="flex items-center gap-2 min-h-touch">
+                  <input id={id} type="checkbox" checked={Boolean(values[f.name])} onChange={(e) => set(f.name, e.target.checked)} /> {f.label}
+                </label>
                 {f.hint && <p className="text-sm text-ink-soft">{f.hint}</p>}
               </div>
             );
@@ -219,7 +297,12 @@ function RecordDialog({ title, fields, row, onClose, save }: { title: string; fi
                 <legend className="label">{f.label}</legend>
                 {f.options.map((o) => (
                   <label key={o.value} className="flex items-center gap-2 min-h-touch">
-                    <input type="checkbox" checked={chosen.includes(o.value)} onChange={(e) => set(f.name, e.target.checked ? [...chosen, o.value] : chosen.filter((x) => x !== o.value))} /> {o.label}
+                    <input
+                      type="checkbox"
+                      checked={chosen.includes(o.value)}
+                      onChange={(e) => set(f.name, e.target.checked ? [...chosen, o.value] : chosen.filter((x) => x !== o.value))}
+                    />{' '}
+                    {o.label}
                   </label>
                 ))}
                 {f.hint && <p className="text-sm text-ink-soft">{f.hint}</p>}
@@ -229,18 +312,37 @@ function RecordDialog({ title, fields, row, onClose, save }: { title: string; fi
           }
           return (
             <div key={f.name}>
-              <label className="label" htmlFor={id}>{f.label}{'unit' in f && f.unit ? ` (${f.unit})` : ''}{f.nullable ? ' (optional)' : ''}</label>
+              <label className="label" htmlFor={id}>
+                {f.label}
+                {'unit' in f && f.unit ? ` (${f.unit})` : ''}
+                {f.nullable ? ' (optional)' : ''}
+              </label>
               {f.type === 'select' ? (
-                <select id={id} className="field" value={String(values[f.name])} onChange={(e) => set(f.name, e.target.value)} aria-invalid={Boolean(problems[f.name])} aria-describedby={described}>
+                <select
+                  id={id}
+                  className="field"
+                  value={String(values[f.name])}
+                  onChange={(e) => set(f.name, e.target.value)}
+                  aria-invalid={Boolean(problems[f.name])}
+                  aria-describedby={described}
+                >
                   {f.nullable && <option value="">— none —</option>}
-                  {f.options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+                  {f.options.map((o) => (
+                    <option key={o.value} value={o.value}>
+                      {o.label}
+                    </option>
+                  ))}
                 </select>
               ) : (
                 <input
-                  id={id} className={`field${f.name === 'code' || f.name.endsWith('Size') || f.name === 'articleNumber' ? ' ident' : ''}`}
-                  type={f.type === 'email' ? 'email' : 'text'} inputMode={f.type === 'int' ? 'numeric' : f.type === 'decimal' ? 'decimal' : undefined}
-                  value={String(values[f.name])} onChange={(e) => set(f.name, e.target.value)}
-                  aria-invalid={Boolean(problems[f.name])} aria-describedby={described}
+                  id={id}
+                  className={`field${f.name === 'code' || f.name.endsWith('Size') || f.name === 'articleNumber' ? ' ident' : ''}`}
+                  type={f.type === 'email' ? 'email' : 'text'}
+                  inputMode={f.type === 'int' ? 'numeric' : f.type === 'decimal' ? 'decimal' : undefined}
+                  value={String(values[f.name])}
+                  onChange={(e) => set(f.name, e.target.value)}
+                  aria-invalid={Boolean(problems[f.name])}
+                  aria-describedby={described}
                 />
               )}
               {f.hint && <p className="text-sm text-ink-soft">{f.hint}</p>}
@@ -249,8 +351,12 @@ function RecordDialog({ title, fields, row, onClose, save }: { title: string; fi
           );
         })}
         <div className="flex justify-end gap-2 pt-2">
-          <button type="button" className="btn-quiet" onClick={onClose}>Cancel</button>
-          <button type="submit" className="btn-primary" disabled={busy}>{busy ? 'Saving…' : 'Save'}</button>
+          <button type="button" className="btn-quiet" onClick={onClose}>
+            Cancel
+          </button>
+          <button type="submit" className="btn-primary" disabled={busy}>
+            {busy ? 'Saving…' : 'Save'}
+          </button>
         </div>
       </form>
     </Dialog>

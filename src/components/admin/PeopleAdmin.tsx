@@ -96,15 +96,21 @@ export default function PeopleAdmin({ initialPeople, choices, currentUserId, tim
 
       <div className="mt-6 flex flex-wrap items-end gap-3" role="search">
         <div className="min-w-[14rem] flex-1">
-          <label className="label" htmlFor="people-search">Find</label>
+          <label className="label" htmlFor="people-search">
+            Find
+          </label>
           <input id="people-search" className="field" type="search" placeholder="Name, e-mail, organisation or depot" value={query} onChange={(e) => setQuery(e.target.value)} />
         </div>
         <div>
-          <label className="label" htmlFor="people-role">Role</label>
+          <label className="label" htmlFor="people-role">
+            Role
+          </label>
           <select id="people-role" className="field" value={roleFilter} onChange={(e) => setRoleFilter(e.target.value as Role | '')}>
             <option value="">All roles</option>
             {ROLES.map((r) => (
-              <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
             ))}
           </select>
         </div>
@@ -129,37 +135,60 @@ export default function PeopleAdmin({ initialPeople, choices, currentUserId, tim
             <table className="table-pin w-full text-left text-sm" id="people-table">
               <thead className="border-b border-paper-line bg-paper text-ink-soft">
                 <tr>
-                  <th scope="col" className="px-4 py-2 font-medium">Person</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Role</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Organisation · home depot</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Status</th>
-                  <th scope="col" className="px-3 py-2 font-medium">Last sign-in</th>
-                  <th scope="col" className="px-3 py-2"><span className="sr-only">Actions</span></th>
+                  <th scope="col" className="px-4 py-2 font-medium">
+                    Person
+                  </th>
+                  <th scope="col" className="px-3 py-2 font-medium">
+                    Role
+                  </th>
+                  <th scope="col" className="px-3 py-2 font-medium">
+                    Organisation · home depot
+                  </th>
+                  <th scope="col" className="px-3 py-2 font-medium">
+                    Status
+                  </th>
+                  <th scope="col" className="px-3 py-2 font-medium">
+                    Last sign-in
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    <span className="sr-only">Actions</span>
+                  </th>
                 </tr>
               </thead>
               <tbody className="divide-y divide-paper-line">
                 {visible.map((p) => (
                   <tr key={p.id} data-person={p.email} className={p.active ? '' : 'bg-paper/60'}>
                     <td className="px-4 py-3">
-                      <div className="font-medium text-ink">{p.name}{p.id === currentUserId && <span className="ml-2 text-xs text-ink-soft">(you)</span>}</div>
+                      <div className="font-medium text-ink">
+                        {p.name}
+                        {p.id === currentUserId && <span className="ml-2 text-xs text-ink-soft">(you)</span>}
+                      </div>
                       <div className="text-ink-soft break-all">{p.email}</div>
                     </td>
                     <td className="px-3 py-3">
                       <div>{ROLE_LABELS[p.role]}</div>
-                      {p.qualifiedInspector && <div className="inline-flex items-center gap-1 text-ink-soft"><Icon name="check" size={16} /> Qualified inspector</div>}
+                      {p.qualifiedInspector && (
+                        <div className="inline-flex items-center gap-1 text-ink-soft">
+                          <Icon name="check" size={16} /> Qualified inspector
+                        </div>
+                      )}
                     </td>
                     <td className="px-3 py-3">
                       <div>{p.organisationName}</div>
                       {p.homeSiteName && <div className="text-ink-soft">{p.homeSiteName}</div>}
                     </td>
-                    <td className="px-3 py-3 whitespace-nowrap"><StatusBadge person={p} now={now} /></td>
+                    <td className="px-3 py-3 whitespace-nowrap">
+                      <StatusBadge person={p} now={now} />
+                    </td>
                     <td className="px-3 py-3 num">
                       {p.lastSignInAt ? (
                         <>
                           <div className="whitespace-nowrap">{formatMomentAbsolute(p.lastSignInAt, timeZone)}</div>
                           <div className="text-ink-soft">{relativeHint(p.lastSignInAt, now)}</div>
                         </>
-                      ) : <span className="text-ink-soft">Never</span>}
+                      ) : (
+                        <span className="text-ink-soft">Never</span>
+                      )}
                     </td>
                     <td className="px-3 py-3 text-right">
                       <button type="button" className="btn-quiet min-h-0 h-9 px-3 text-sm" onClick={() => setDialog({ kind: 'edit', id: p.id })} aria-label={`Change ${p.name}`}>
@@ -178,17 +207,33 @@ export default function PeopleAdmin({ initialPeople, choices, currentUserId, tim
               <li key={p.id} className="card p-4" data-person={p.email}>
                 <div className="flex items-start justify-between gap-3">
                   <div className="min-w-0">
-                    <div className="font-medium">{p.name}{p.id === currentUserId && <span className="ml-2 text-xs text-ink-soft">(you)</span>}</div>
+                    <div className="font-medium">
+                      {p.name}
+                      {p.id === currentUserId && <span className="ml-2 text-xs text-ink-soft">(you)</span>}
+                    </div>
                     <div className="truncate text-sm text-ink-soft">{p.email}</div>
                   </div>
                   <StatusBadge person={p} now={now} />
                 </div>
                 <dl className="mt-3 grid grid-cols-[7rem_1fr] gap-x-3 gap-y-1 text-sm">
-                  <dt className="text-ink-soft">Role</dt><dd>{ROLE_LABELS[p.role]}</dd>
-                  <dt className="text-ink-soft">Organisation</dt><dd>{p.organisationName}</dd>
-                  {p.homeSiteName && (<><dt className="text-ink-soft">Home depot</dt><dd>{p.homeSiteName}</dd></>)}
-                  {p.qualifiedInspector && (<><dt className="text-ink-soft">Inspector</dt><dd>Qualified</dd></>)}
-                  <dt className="text-ink-soft">Last sign-in</dt><dd className="num">{lastSignIn(p)}</dd>
+                  <dt className="text-ink-soft">Role</dt>
+                  <dd>{ROLE_LABELS[p.role]}</dd>
+                  <dt className="text-ink-soft">Organisation</dt>
+                  <dd>{p.organisationName}</dd>
+                  {p.homeSiteName && (
+                    <>
+                      <dt className="text-ink-soft">Home depot</dt>
+                      <dd>{p.homeSiteName}</dd>
+                    </>
+                  )}
+                  {p.qualifiedInspector && (
+                    <>
+                      <dt className="text-ink-soft">Inspector</dt>
+                      <dd>Qualified</dd>
+                    </>
+                  )}
+                  <dt className="text-ink-soft">Last sign-in</dt>
+                  <dd className="num">{lastSignIn(p)}</dd>
                 </dl>
                 <button type="button" className="btn-quiet mt-3 w-full" onClick={() => setDialog({ kind: 'edit', id: p.id })} aria-label={`Change ${p.name}`}>
                   Change

@@ -37,24 +37,44 @@ function problemText(err: unknown): string {
 
 /** Depot choice plus the inspector flag: only operator staff have them. */
 function StaffFields({
-  role, homeSiteId, setHomeSiteId, inspector, setInspector, choices, problems, idPrefix,
+  role,
+  homeSiteId,
+  setHomeSiteId,
+  inspector,
+  setInspector,
+  choices,
+  problems,
+  idPrefix,
 }: {
-  role: Role; homeSiteId: number | null; setHomeSiteId: (v: number | null) => void; inspector: boolean; setInspector: (v: boolean) => void;
-  choices: PeopleChoices; problems: Record<string, string>; idPrefix: string;
+  role: Role;
+  homeSiteId: number | null;
+  setHomeSiteId: (v: number | null) => void;
+  inspector: boolean;
+  setInspector: (v: boolean) => void;
+  choices: PeopleChoices;
+  problems: Record<string, string>;
+  idPrefix: string;
 }) {
   if (!isStaffRole(role)) return null;
   return (
     <>
       <div>
-        <label className="label" htmlFor={`${idPrefix}-depot`}>Home depot{role === 'yard' ? ' (required for yard staff)' : ' (optional)'}</label>
+        <label className="label" htmlFor={`${idPrefix}-depot`}>
+          Home depot{role === 'yard' ? ' (required for yard staff)' : ' (optional)'}
+        </label>
         <select
-          id={`${idPrefix}-depot`} className="field" value={homeSiteId ?? ''}
+          id={`${idPrefix}-depot`}
+          className="field"
+          value={homeSiteId ?? ''}
           onChange={(e) => setHomeSiteId(e.target.value ? Number(e.target.value) : null)}
-          aria-invalid={Boolean(problems.homeSiteId)} aria-describedby={`${idPrefix}-depot-problem`}
+          aria-invalid={Boolean(problems.homeSiteId)}
+          aria-describedby={`${idPrefix}-depot-problem`}
         >
           <option value="">— none —</option>
           {choices.depots.map((d) => (
-            <option key={d.id} value={d.id}>{d.name} ({d.code})</option>
+            <option key={d.id} value={d.id}>
+              {d.name} ({d.code})
+            </option>
           ))}
         </select>
         <FieldProblem id={`${idPrefix}-depot-problem`} message={problems.homeSiteId} />
@@ -71,8 +91,16 @@ function StaffFields({
   );
 }
 
-export function InviteDialog({ choices, timeZone, onClose, onInvited }: {
-  choices: PeopleChoices; timeZone: string; onClose: () => void; onInvited: (p: PersonRow, f: Flash) => void;
+export function InviteDialog({
+  choices,
+  timeZone,
+  onClose,
+  onInvited,
+}: {
+  choices: PeopleChoices;
+  timeZone: string;
+  onClose: () => void;
+  onInvited: (p: PersonRow, f: Flash) => void;
 }) {
   const [name, setName] = useState('');
   const [email, setEmail] = useState('');
@@ -92,8 +120,10 @@ export function InviteDialog({ choices, timeZone, onClose, onInvited }: {
     setProblems({});
     try {
       const res = await api.post<{ person: PersonRow; mail: MailOutcome }>('/api/admin/users', {
-        name, email, role,
-        organisationId: staff ? choices.operator.id : customerId ?? 0,
+        name,
+        email,
+        role,
+        organisationId: staff ? choices.operator.id : (customerId ?? 0),
         homeSiteId: staff ? homeSiteId : null,
         qualifiedInspector: staff ? inspector : false,
       });
@@ -109,22 +139,55 @@ export function InviteDialog({ choices, timeZone, onClose, onInvited }: {
     <Dialog title="Invite someone" labelId="invite-title" onClose={onClose}>
       <form className="space-y-4" onSubmit={submit} noValidate id="invite-form">
         <p className="text-sm text-ink-soft">They get an e-mail with a link to choose their password. The link works once, for 7 days.</p>
-        {error && <p className="notice-fault" role="alert">{error}</p>}
+        {error && (
+          <p className="notice-fault" role="alert">
+            {error}
+          </p>
+        )}
         <div>
-          <label className="label" htmlFor="invite-name">Name</label>
-          <input id="invite-name" className="field" value={name} onChange={(e) => setName(e.target.value)} autoComplete="off" required maxLength={160} aria-invalid={Boolean(problems.name)} aria-describedby="invite-name-problem" />
+          <label className="label" htmlFor="invite-name">
+            Name
+          </label>
+          <input
+            id="invite-name"
+            className="field"
+            value={name}
+            onChange={(e) => setName(e.target.value)}
+            autoComplete="off"
+            required
+            maxLength={160}
+            aria-invalid={Boolean(problems.name)}
+            aria-describedby="invite-name-problem"
+          />
           <FieldProblem id="invite-name-problem" message={problems.name} />
         </div>
         <div>
-          <label className="label" htmlFor="invite-email">E-mail</label>
-          <input id="invite-email" className="field" type="email" value={email} onChange={(e) => setEmail(e.target.value)} autoComplete="off" required maxLength={254} aria-invalid={Boolean(problems.email)} aria-describedby="invite-email-problem" />
+          <label className="label" htmlFor="invite-email">
+            E-mail
+          </label>
+          <input
+            id="invite-email"
+            className="field"
+            type="email"
+            value={email}
+            onChange={(e) => setEmail(e.target.value)}
+            autoComplete="off"
+            required
+            maxLength={254}
+            aria-invalid={Boolean(problems.email)}
+            aria-describedby="invite-email-problem"
+          />
           <FieldProblem id="invite-email-problem" message={problems.email} />
         </div>
         <div>
-          <label className="label" htmlFor="invite-role">Role</label>
+          <label className="label" htmlFor="invite-role">
+            Role
+          </label>
           <select id="invite-role" className="field" value={role} onChange={(e) => setRole(e.target.value as Role)}>
             {ROLES.map((r) => (
-              <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+              <option key={r} value={r}>
+                {ROLE_LABELS[r]}
+              </option>
             ))}
           </select>
         </div>
@@ -134,20 +197,44 @@ export function InviteDialog({ choices, timeZone, onClose, onInvited }: {
           </p>
         ) : (
           <div>
-            <label className="label" htmlFor="invite-org">Customer organisation</label>
-            <select id="invite-org" className="field" value={customerId ?? ''} onChange={(e) => setCustomerId(e.target.value ? Number(e.target.value) : null)} aria-invalid={Boolean(problems.organisationId)} aria-describedby="invite-org-problem">
+            <label className="label" htmlFor="invite-org">
+              Customer organisation
+            </label>
+            <select
+              id="invite-org"
+              className="field"
+              value={customerId ?? ''}
+              onChange={(e) => setCustomerId(e.target.value ? Number(e.target.value) : null)}
+              aria-invalid={Boolean(problems.organisationId)}
+              aria-describedby="invite-org-problem"
+            >
               <option value="">Choose…</option>
               {choices.customers.map((c) => (
-                <option key={c.id} value={c.id}>{c.name}</option>
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                </option>
               ))}
             </select>
             <FieldProblem id="invite-org-problem" message={problems.organisationId} />
           </div>
         )}
-        <StaffFields role={role} homeSiteId={homeSiteId} setHomeSiteId={setHomeSiteId} inspector={inspector} setInspector={setInspector} choices={choices} problems={problems} idPrefix="invite" />
+        <StaffFields
+          role={role}
+          homeSiteId={homeSiteId}
+          setHomeSiteId={setHomeSiteId}
+          inspector={inspector}
+          setInspector={setInspector}
+          choices={choices}
+          problems={problems}
+          idPrefix="invite"
+        />
         <div className="flex flex-wrap justify-end gap-3 pt-2">
-          <button type="button" className="btn-quiet" onClick={onClose}>Cancel</button>
-          <button type="submit" className="btn-primary" disabled={busy} id="invite-submit">{busy ? 'Sending…' : 'Send invitation'}</button>
+          <button type="button" className="btn-quiet" onClick={onClose}>
+            Cancel
+          </button>
+          <button type="submit" className="btn-primary" disabled={busy} id="invite-submit">
+            {busy ? 'Sending…' : 'Send invitation'}
+          </button>
         </div>
       </form>
     </Dialog>
@@ -155,10 +242,23 @@ export function InviteDialog({ choices, timeZone, onClose, onInvited }: {
 }
 
 export function EditPersonDialog({
-  person, choices, isSelf, now, timeZone, onClose, onSaved, onReload,
+  person,
+  choices,
+  isSelf,
+  now,
+  timeZone,
+  onClose,
+  onSaved,
+  onReload,
 }: {
-  person: PersonRow; choices: PeopleChoices; isSelf: boolean; now: Date; timeZone: string;
-  onClose: () => void; onSaved: (p: PersonRow, f: Flash) => void; onReload: () => Promise<void>;
+  person: PersonRow;
+  choices: PeopleChoices;
+  isSelf: boolean;
+  now: Date;
+  timeZone: string;
+  onClose: () => void;
+  onSaved: (p: PersonRow, f: Flash) => void;
+  onReload: () => Promise<void>;
 }) {
   const [role, setRole] = useState<Role>(person.role);
   const [homeSiteId, setHomeSiteId] = useState<number | null>(person.homeSiteId);
@@ -224,12 +324,16 @@ export function EditPersonDialog({
 
   return (
     <Dialog title={`Change ${person.name}`} labelId="edit-title" onClose={onClose}>
-      <p className="-mt-1 text-sm text-ink-soft">{person.email} · {person.organisationName}</p>
+      <p className="-mt-1 text-sm text-ink-soft">
+        {person.email} · {person.organisationName}
+      </p>
       {error && (
         <div className="notice-fault mt-4" role="alert">
           {error.text}
           {error.stale && (
-            <button type="button" className="ml-2 underline" onClick={() => void onReload().then(() => setError(null))}>Reload</button>
+            <button type="button" className="ml-2 underline" onClick={() => void onReload().then(() => setError(null))}>
+              Reload
+            </button>
           )}
         </div>
       )}
@@ -237,10 +341,14 @@ export function EditPersonDialog({
       {person.active && (
         <form className="mt-4 space-y-4" onSubmit={saveDetails} noValidate id="edit-form">
           <div>
-            <label className="label" htmlFor="edit-role">Role</label>
+            <label className="label" htmlFor="edit-role">
+              Role
+            </label>
             <select id="edit-role" className="field" value={role} onChange={(e) => setRole(e.target.value as Role)} disabled={isSelf || !staff} aria-describedby="edit-role-hint">
               {(staff ? STAFF_ROLES : (['customer'] as Role[])).map((r) => (
-                <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
               ))}
             </select>
             <p id="edit-role-hint" className="mt-1 text-sm text-ink-soft">
@@ -251,30 +359,48 @@ export function EditPersonDialog({
                   : 'Customer accounts stay customer accounts. For staff access, invite a new account.'}
             </p>
           </div>
-          <StaffFields role={role} homeSiteId={homeSiteId} setHomeSiteId={setHomeSiteId} inspector={inspector} setInspector={setInspector} choices={choices} problems={problems} idPrefix="edit" />
+          <StaffFields
+            role={role}
+            homeSiteId={homeSiteId}
+            setHomeSiteId={setHomeSiteId}
+            inspector={inspector}
+            setInspector={setInspector}
+            choices={choices}
+            problems={problems}
+            idPrefix="edit"
+          />
           <div className="flex justify-end">
-            <button type="submit" className="btn-primary" disabled={busy} id="edit-save">Save changes</button>
+            <button type="submit" className="btn-primary" disabled={busy} id="edit-save">
+              Save changes
+            </button>
           </div>
         </form>
       )}
 
       <section className="mt-6 border-t border-paper-line pt-4" aria-labelledby="access-title">
-        <h3 id="access-title" className="font-semibold">Access</h3>
+        <h3 id="access-title" className="font-semibold">
+          Access
+        </h3>
         {pendingInvite && (
           <div className="mt-2 flex flex-wrap items-center justify-between gap-3 text-sm">
             <span className="text-ink-soft">
-              {person.inviteExpiresAt && new Date(person.inviteExpiresAt) > now
-                ? 'Has not chosen a password yet.'
-                : 'The invitation has expired without being used.'}
+              {person.inviteExpiresAt && new Date(person.inviteExpiresAt) > now ? 'Has not chosen a password yet.' : 'The invitation has expired without being used.'}
             </span>
-            <button type="button" className="btn-quiet" onClick={() => void resend()} disabled={busy} id="resend-invite">Resend invitation</button>
+            <button type="button" className="btn-quiet" onClick={() => void resend()} disabled={busy} id="resend-invite">
+              Resend invitation
+            </button>
           </div>
         )}
         {!person.active ? (
           <div className="mt-2 flex flex-wrap items-center justify-between gap-3 text-sm">
             <span className="text-ink-soft">Deactivated: cannot sign in. Their records stay.</span>
-            <button type="button" className="btn-primary" disabled={busy} id="reactivate"
-              onClick={() => void patch({ active: true }, (p) => ({ tone: 'good', text: `${p.name} is active again and can sign in.` }))}>
+            <button
+              type="button"
+              className="btn-primary"
+              disabled={busy}
+              id="reactivate"
+              onClick={() => void patch({ active: true }, (p) => ({ tone: 'good', text: `${p.name} is active again and can sign in.` }))}
+            >
               Reactivate
             </button>
           </div>
@@ -282,12 +408,21 @@ export function EditPersonDialog({
           <p className="mt-2 text-sm text-ink-soft">You cannot deactivate your own account.</p>
         ) : confirming ? (
           <div className="notice-attention mt-2" role="alertdialog" aria-labelledby="deactivate-question">
-            <p id="deactivate-question" className="font-medium">Deactivate {person.name}?</p>
+            <p id="deactivate-question" className="font-medium">
+              Deactivate {person.name}?
+            </p>
             <p className="mt-1">They are signed out at once and cannot sign in until an administrator reactivates them. Their records and history stay.</p>
             <div className="mt-3 flex flex-wrap gap-3">
-              <button type="button" className="btn-quiet" onClick={() => setConfirming(false)}>Keep active</button>
-              <button type="button" className="btn-danger" disabled={busy} id="deactivate-confirm"
-                onClick={() => void patch({ active: false }, (p) => ({ tone: 'good', text: `${p.name} is deactivated and signed out.` }))}>
+              <button type="button" className="btn-quiet" onClick={() => setConfirming(false)}>
+                Keep active
+              </button>
+              <button
+                type="button"
+                className="btn-danger"
+                disabled={busy}
+                id="deactivate-confirm"
+                onClick={() => void patch({ active: false }, (p) => ({ tone: 'good', text: `${p.name} is deactivated and signed out.` }))}
+              >
                 Deactivate
               </button>
             </div>
@@ -295,13 +430,17 @@ export function EditPersonDialog({
         ) : (
           <div className="mt-2 flex flex-wrap items-center justify-between gap-3 text-sm">
             <span className="text-ink-soft">Deactivating signs them out everywhere at once.</span>
-            <button type="button" className="btn-quiet text-brick" onClick={() => setConfirming(true)} id="deactivate">Deactivate…</button>
+            <button type="button" className="btn-quiet text-brick" onClick={() => setConfirming(true)} id="deactivate">
+              Deactivate…
+            </button>
           </div>
         )}
         {person.active && person.hasPassword && (
           <div className="mt-3 flex flex-wrap items-center justify-between gap-3 text-sm">
             <span className="text-ink-soft">A lost phone or a shared computer left signed in: end every session they have.</span>
-            <button type="button" className="btn-quiet" disabled={busy} id="end-sessions" onClick={() => void endSessions()}>Sign out everywhere</button>
+            <button type="button" className="btn-quiet" disabled={busy} id="end-sessions" onClick={() => void endSessions()}>
+              Sign out everywhere
+            </button>
           </div>
         )}
       </section>

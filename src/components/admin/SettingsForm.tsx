@@ -10,9 +10,15 @@ type Problems = Record<string, string>;
 function Field({ id, label, hint, problem, children }: { id: string; label: string; hint?: ReactNode; problem?: string; children: ReactNode }) {
   return (
     <div>
-      <label className="label" htmlFor={id}>{label}</label>
+      <label className="label" htmlFor={id}>
+        {label}
+      </label>
       {children}
-      {hint && <p className="mt-1 text-sm text-ink-soft" id={`${id}-hint`}>{hint}</p>}
+      {hint && (
+        <p className="mt-1 text-sm text-ink-soft" id={`${id}-hint`}>
+          {hint}
+        </p>
+      )}
       <FieldProblem id={`${id}-problem`} message={problem} />
     </div>
   );
@@ -27,8 +33,10 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
   const [busy, setBusy] = useState(false);
   const zones = useMemo(() => Intl.supportedValuesOf('timeZone'), []);
 
-  const set = <K extends keyof typeof form>(key: K) => (e: { target: { value: string } }) =>
-    setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' ? Number(e.target.value) : e.target.value }));
+  const set =
+    <K extends keyof typeof form>(key: K) =>
+    (e: { target: { value: string } }) =>
+      setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' ? Number(e.target.value) : e.target.value }));
   const aria = (name: string) => ({ 'aria-invalid': Boolean(problems[name]), 'aria-describedby': `s-${name}-hint s-${name}-problem` });
 
   async function submit(e: FormEvent) {
@@ -62,7 +70,11 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
       {notice && (
         <div className={`notice-${notice.tone}`} role={notice.tone === 'good' ? 'status' : 'alert'} id="settings-notice">
           {notice.text}
-          {notice.stale && <button type="button" className="ml-2 underline" onClick={() => window.location.reload()}>Reload</button>}
+          {notice.stale && (
+            <button type="button" className="ml-2 underline" onClick={() => window.location.reload()}>
+              Reload
+            </button>
+          )}
         </div>
       )}
 
@@ -75,22 +87,64 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
           <input id="s-mailSender" className="field" value={form.mailSender} onChange={set('mailSender')} maxLength={254} {...aria('mailSender')} />
         </Field>
         <Field id="s-returnInstructions" label="Return instructions" hint="Shown to anyone who scans a bin's label: how to return it." problem={problems.returnInstructions}>
-          <textarea id="s-returnInstructions" className="field min-h-[7rem] py-2" value={form.returnInstructions} onChange={set('returnInstructions')} maxLength={2000} {...aria('returnInstructions')} />
+          <textarea
+            id="s-returnInstructions"
+            className="field min-h-[7rem] py-2"
+            value={form.returnInstructions}
+            onChange={set('returnInstructions')}
+            maxLength={2000}
+            {...aria('returnInstructions')}
+          />
         </Field>
       </fieldset>
 
       <fieldset className="card space-y-4 p-5">
         <legend className="px-1 text-lg font-semibold">Bin identity</legend>
         <div className="grid gap-4 sm:grid-cols-[1fr_10rem]">
-          <Field id="s-gs1CompanyPrefix" label="GS1 company prefix" hint={`Digits typed: ${form.gs1CompanyPrefix.length}. New GRAIs start with it.`} problem={problems.gs1CompanyPrefix}>
-            <input id="s-gs1CompanyPrefix" className="field ident" inputMode="numeric" value={form.gs1CompanyPrefix} onChange={set('gs1CompanyPrefix')} maxLength={12} {...aria('gs1CompanyPrefix')} />
+          <Field
+            id="s-gs1CompanyPrefix"
+            label="GS1 company prefix"
+            hint={`Digits typed: ${form.gs1CompanyPrefix.length}. New GRAIs start with it.`}
+            problem={problems.gs1CompanyPrefix}
+          >
+            <input
+              id="s-gs1CompanyPrefix"
+              className="field ident"
+              inputMode="numeric"
+              value={form.gs1CompanyPrefix}
+              onChange={set('gs1CompanyPrefix')}
+              maxLength={12}
+              {...aria('gs1CompanyPrefix')}
+            />
           </Field>
           <Field id="s-gs1PrefixLength" label="Prefix length" problem={problems.gs1PrefixLength}>
-            <input id="s-gs1PrefixLength" className="field num" type="number" min={4} max={12} value={form.gs1PrefixLength} onChange={set('gs1PrefixLength')} {...aria('gs1PrefixLength')} />
+            <input
+              id="s-gs1PrefixLength"
+              className="field num"
+              type="number"
+              min={4}
+              max={12}
+              value={form.gs1PrefixLength}
+              onChange={set('gs1PrefixLength')}
+              {...aria('gs1PrefixLength')}
+            />
           </Field>
         </div>
-        <Field id="s-digitalLinkBase" label="Digital Link base address" hint="QR labels encode this address followed by /8003/ and the bin's GRAI." problem={problems.digitalLinkBase}>
-          <input id="s-digitalLinkBase" className="field ident" type="url" value={form.digitalLinkBase} onChange={set('digitalLinkBase')} maxLength={200} {...aria('digitalLinkBase')} />
+        <Field
+          id="s-digitalLinkBase"
+          label="Digital Link base address"
+          hint="QR labels encode this address followed by /8003/ and the bin's GRAI."
+          problem={problems.digitalLinkBase}
+        >
+          <input
+            id="s-digitalLinkBase"
+            className="field ident"
+            type="url"
+            value={form.digitalLinkBase}
+            onChange={set('digitalLinkBase')}
+            maxLength={200}
+            {...aria('digitalLinkBase')}
+          />
         </Field>
       </fieldset>
 
@@ -98,7 +152,11 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
         <legend className="px-1 text-lg font-semibold">Time and money</legend>
         <Field id="s-timeZone" label="Time zone" hint="Day counts, due dates and hire days use this zone." problem={problems.timeZone}>
           <input id="s-timeZone" className="field" list="time-zones" value={form.timeZone} onChange={set('timeZone')} autoComplete="off" {...aria('timeZone')} />
-          <datalist id="time-zones">{zones.map((z) => <option key={z} value={z} />)}</datalist>
+          <datalist id="time-zones">
+            {zones.map((z) => (
+              <option key={z} value={z} />
+            ))}
+          </datalist>
         </Field>
         <div className="grid gap-4 sm:grid-cols-2">
           <Field id="s-currency" label="Currency" hint="ISO 4217 code, e.g. EUR." problem={problems.currency}>
@@ -112,14 +170,32 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
 
       <fieldset className="card space-y-4 p-5">
         <legend className="px-1 text-lg font-semibold">Scanning</legend>
-        <Field id="s-undoSeconds" label="Time to undo a scan (seconds)" hint="After recording, the person who scanned may undo it for this long while nothing later is recorded on the bin; it is kept as a void. 0 turns undo off. Planners void anything else with a reason." problem={problems.undoSeconds}>
-          <input id="s-undoSeconds" className="field num max-w-[10rem]" type="number" min={0} max={600} value={form.undoSeconds} onChange={set('undoSeconds')} {...aria('undoSeconds')} />
+        <Field
+          id="s-undoSeconds"
+          label="Time to undo a scan (seconds)"
+          hint="After recording, the person who scanned may undo it for this long while nothing later is recorded on the bin; it is kept as a void. 0 turns undo off. Planners void anything else with a reason."
+          problem={problems.undoSeconds}
+        >
+          <input
+            id="s-undoSeconds"
+            className="field num max-w-[10rem]"
+            type="number"
+            min={0}
+            max={600}
+            value={form.undoSeconds}
+            onChange={set('undoSeconds')}
+            {...aria('undoSeconds')}
+          />
         </Field>
       </fieldset>
 
       <div className="flex flex-wrap items-center justify-between gap-3">
-        <p className="text-sm text-ink-soft">Last saved {formatMomentAbsolute(saved.updatedAt, saved.timeZone)} ({saved.timeZone})</p>
-        <button type="submit" className="btn-primary" disabled={busy} id="settings-save">{busy ? 'Saving…' : 'Save settings'}</button>
+        <p className="text-sm text-ink-soft">
+          Last saved {formatMomentAbsolute(saved.updatedAt, saved.timeZone)} ({saved.timeZone})
+        </p>
+        <button type="submit" className="btn-primary" disabled={busy} id="settings-save">
+          {busy ? 'Saving…' : 'Save settings'}
+        </button>
       </div>
     </form>
   );

@@ -30,7 +30,9 @@ function toBody(fields: FieldSpec[], values: Record<string, string | boolean>) {
     if (f.type === 'checkbox') setPath(body, f.name, Boolean(v));
     else if (f.nullable && String(v ?? '').trim() === '') setPath(body, f.name, null);
     else if (NUMERIC.has(f.type)) {
-      const s = String(v ?? '').trim().replace(',', '.');
+      const s = String(v ?? '')
+        .trim()
+        .replace(',', '.');
       setPath(body, f.name, s !== '' && Number.isFinite(Number(s)) ? Number(s) : s);
     } else if (f.name === 'organisationId') setPath(body, f.name, Number(v));
     else setPath(body, f.name, typeof v === 'string' ? v : '');
@@ -61,9 +63,22 @@ function ActiveBadge({ active }: { active: boolean }) {
   );
 }
 
-function RecordDialog({ spec, kind, row, owners, preset, onClose, onSaved }: {
-  spec: SetupSpec<Row>; kind: SetupKind; row: Row | null; owners: Owner[]; preset: Record<string, string>;
-  onClose: () => void; onSaved: (row: Row, text: string) => void;
+function RecordDialog({
+  spec,
+  kind,
+  row,
+  owners,
+  preset,
+  onClose,
+  onSaved,
+}: {
+  spec: SetupSpec<Row>;
+  kind: SetupKind;
+  row: Row | null;
+  owners: Owner[];
+  preset: Record<string, string>;
+  onClose: () => void;
+  onSaved: (row: Row, text: string) => void;
 }) {
   const fields = spec.fields.filter((f) => !f.only || f.only === (row ? 'edit' : 'create'));
   const [values, setValues] = useState<Record<string, string | boolean>>(() => ({ ...initialValues(fields, row, owners, preset), active: row ? row.active : true }));
@@ -110,7 +125,11 @@ function RecordDialog({ spec, kind, row, owners, preset, onClose, onSaved }: {
         {error && (
           <p className={`${error.stale ? 'notice-attention' : 'notice-fault'} sm:col-span-2`} role="alert" id={`${kind}-form-error`}>
             {error.text}
-            {error.stale && <button type="button" className="ml-2 underline" onClick={() => window.location.reload()}>Reload</button>}
+            {error.stale && (
+              <button type="button" className="ml-2 underline" onClick={() => window.location.reload()}>
+                Reload
+              </button>
+            )}
           </p>
         )}
         {fields.map((f, i) => {
@@ -126,10 +145,18 @@ function RecordDialog({ spec, kind, row, owners, preset, onClose, onSaved }: {
           return (
             <div key={f.name} className={wide ? 'sm:col-span-2' : ''}>
               {f.group && <h3 className="mb-2 border-t border-paper-line pt-3 text-base font-semibold sm:col-span-2">{f.group}</h3>}
-              <label className="label" htmlFor={id}>{f.label}{f.unit ? ` (${f.unit})` : ''}{f.nullable ? ' — optional' : ''}</label>
+              <label className="label" htmlFor={id}>
+                {f.label}
+                {f.unit ? ` (${f.unit})` : ''}
+                {f.nullable ? ' — optional' : ''}
+              </label>
               {options ? (
                 <select {...common} className="field" value={value} onChange={(e) => set(f.name, e.target.value)}>
-                  {options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+                  {options.map((o) => (
+                    <option key={o.value} value={o.value}>
+                      {o.label}
+                    </option>
+                  ))}
                 </select>
               ) : f.type === 'textarea' ? (
                 <textarea {...common} className="field min-h-[4.5rem] py-2" value={value} onChange={(e) => set(f.name, e.target.value)} maxLength={500} />
@@ -144,7 +171,11 @@ function RecordDialog({ spec, kind, row, owners, preset, onClose, onSaved }: {
                   autoComplete="off"
                 />
               )}
-              {(f.hint || meaning) && <p className="mt-1 text-sm text-ink-soft" id={`${id}-hint`}>{meaning ?? f.hint}</p>}
+              {(f.hint || meaning) && (
+                <p className="mt-1 text-sm text-ink-soft" id={`${id}-hint`}>
+                  {meaning ?? f.hint}
+                </p>
+              )}
               <FieldProblem id={`${id}-problem`} message={problem} />
             </div>
           );
@@ -153,14 +184,21 @@ function RecordDialog({ spec, kind, row, owners, preset, onClose, onSaved }: {
           <div className="sm:col-span-2">
             <label className="flex min-h-touch items-start gap-3 text-sm">
               <input type="checkbox" className="mt-0.5 h-5 w-5 accent-kelp" id={fid('active')} checked={Boolean(values.active)} onChange={(e) => set('active', e.target.checked)} />
-              <span><span className="font-medium">In use</span><span className="block text-ink-soft">{spec.activeHint}</span></span>
+              <span>
+                <span className="font-medium">In use</span>
+                <span className="block text-ink-soft">{spec.activeHint}</span>
+              </span>
             </label>
             <FieldProblem id={`${fid('active')}-problem`} message={problems.active} />
           </div>
         )}
         <div className="flex flex-wrap justify-end gap-3 sm:col-span-2">
-          <button type="button" className="btn-quiet" onClick={onClose}>Cancel</button>
-          <button type="submit" className="btn-primary" disabled={busy} id={`${kind}-save`}>{busy ? 'Saving…' : row ? 'Save changes' : `Add ${spec.noun}`}</button>
+          <button type="button" className="btn-quiet" onClick={onClose}>
+            Cancel
+          </button>
+          <button type="submit" className="btn-primary" disabled={busy} id={`${kind}-save`}>
+            {busy ? 'Saving…' : row ? 'Save changes' : `Add ${spec.noun}`}
+          </button>
         </div>
       </form>
     </Dialog>
@@ -215,21 +253,31 @@ export default function SetupAdmin({ kind, initialRows, owners = [], initialFilt
       {flash && (
         <div className={`notice-${flash.tone} mt-4 flex items-start justify-between gap-4`} role="status" id={`${kind}-flash`}>
           <span>{flash.text}</span>
-          <button type="button" className="shrink-0 underline" onClick={() => setFlash(null)}>Dismiss</button>
+          <button type="button" className="shrink-0 underline" onClick={() => setFlash(null)}>
+            Dismiss
+          </button>
         </div>
       )}
 
       <div className="mt-6 flex flex-wrap items-end gap-3" role="search">
         <div className="min-w-[14rem] flex-1">
-          <label className="label" htmlFor={`${kind}-search`}>Find</label>
+          <label className="label" htmlFor={`${kind}-search`}>
+            Find
+          </label>
           <input id={`${kind}-search`} className="field" type="search" value={query} onChange={(e) => setQuery(e.target.value)} />
         </div>
         {spec.filter && (
           <div>
-            <label className="label" htmlFor={`${kind}-filter`}>{spec.filter.label}</label>
+            <label className="label" htmlFor={`${kind}-filter`}>
+              {spec.filter.label}
+            </label>
             <select id={`${kind}-filter`} className="field" value={filter} onChange={(e) => setFilter(e.target.value)}>
               <option value="">All</option>
-              {spec.filter.options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+              {spec.filter.options.map((o) => (
+                <option key={o.value} value={o.value}>
+                  {o.label}
+                </option>
+              ))}
             </select>
           </div>
         )}
@@ -239,7 +287,9 @@ export default function SetupAdmin({ kind, initialRows, owners = [], initialFilt
         </label>
       </div>
 
-      <p className="mt-4 text-sm text-ink-soft" aria-live="polite" id={`${kind}-count`}>{visible.length} of {rows.length}</p>
+      <p className="mt-4 text-sm text-ink-soft" aria-live="polite" id={`${kind}-count`}>
+        {visible.length} of {rows.length}
+      </p>
 
       {visible.length === 0 ? (
         <div className="card mt-2 p-6 text-ink-soft">Nothing matches. Clear the search or the filter, or add a new {spec.noun}.</div>
@@ -250,21 +300,40 @@ export default function SetupAdmin({ kind, initialRows, owners = [], initialFilt
               <thead className="border-b border-paper-line bg-paper text-ink-soft">
                 <tr>
                   {spec.columns.map((c, i) => (
-                    <th key={c.label} scope="col" className={`px-3 py-2 font-medium ${c.num ? 'text-right' : ''} ${c.from ? FROM_CLASS[c.from] : ''} ${i === 0 ? 'sticky left-0 bg-paper' : ''}`}>{c.label}</th>
+                    <th
+                      key={c.label}
+                      scope="col"
+                      className={`px-3 py-2 font-medium ${c.num ? 'text-right' : ''} ${c.from ? FROM_CLASS[c.from] : ''} ${i === 0 ? 'sticky left-0 bg-paper' : ''}`}
+                    >
+                      {c.label}
+                    </th>
                   ))}
-                  <th scope="col" className="px-3 py-2 font-medium">Status</th>
-                  <th scope="col" className="px-3 py-2"><span className="sr-only">Actions</span></th>
+                  <th scope="col" className="px-3 py-2 font-medium">
+                    Status
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    <span className="sr-only">Actions</span>
+                  </th>
                 </tr>
               </thead>
               <tbody className="divide-y divide-paper-line">
                 {visible.map((r) => (
                   <tr key={r.id} data-row={spec.label(r)} className={r.active ? '' : 'bg-paper/60'}>
                     {spec.columns.map((c, i) => (
-                      <td key={c.label} className={`px-3 py-2.5 ${c.ident ? 'ident whitespace-nowrap' : ''} ${c.num ? 'num text-right whitespace-nowrap' : ''} ${c.from ? FROM_CLASS[c.from] : ''} ${i === 0 ? 'sticky left-0 bg-card font-medium' : ''}`}>{c.value(r)}</td>
+                      <td
+                        key={c.label}
+                        className={`px-3 py-2.5 ${c.ident ? 'ident whitespace-nowrap' : ''} ${c.num ? 'num text-right whitespace-nowrap' : ''} ${c.from ? FROM_CLASS[c.from] : ''} ${i === 0 ? 'sticky left-0 bg-card font-medium' : ''}`}
+                      >
+                        {c.value(r)}
+                      </td>
                     ))}
-                    <td className="px-3 py-2.5"><ActiveBadge active={r.active} /></td>
+                    <td className="px-3 py-2.5">
+                      <ActiveBadge active={r.active} />
+                    </td>
                     <td className="px-3 py-2.5 text-right">
-                      <button type="button" className="btn-quiet h-9 min-h-0 px-3 text-sm" onClick={() => setDialog({ row: r })} aria-label={`Change ${spec.label(r)}`}>Change</button>
+                      <button type="button" className="btn-quiet h-9 min-h-0 px-3 text-sm" onClick={() => setDialog({ row: r })} aria-label={`Change ${spec.label(r)}`}>
+                        Change
+                      </button>
                     </td>
                   </tr>
                 ))}
@@ -281,10 +350,15 @@ export default function SetupAdmin({ kind, initialRows, owners = [], initialFilt
                 </div>
                 <dl className="mt-3 grid grid-cols-[8rem_1fr] gap-x-3 gap-y-1 text-sm">
                   {spec.columns.slice(1).map((c) => (
-                    <div key={c.label} className="contents"><dt className="text-ink-soft">{c.label}</dt><dd className={c.num ? 'num' : ''}>{c.value(r)}</dd></div>
+                    <div key={c.label} className="contents">
+                      <dt className="text-ink-soft">{c.label}</dt>
+                      <dd className={c.num ? 'num' : ''}>{c.value(r)}</dd>
+                    </div>
                   ))}
                 </dl>
-                <button type="button" className="btn-quiet mt-3 w-full" onClick={() => setDialog({ row: r })} aria-label={`Change ${spec.label(r)}`}>Change</button>
+                <button type="button" className="btn-quiet mt-3 w-full" onClick={() => setDialog({ row: r })} aria-label={`Change ${spec.label(r)}`}>
+                  Change
+                </button>
               </li>
             ))}
           </ul>
@@ -293,7 +367,11 @@ export default function SetupAdmin({ kind, initialRows, owners = [], initialFilt
 
       {dialog && (
         <RecordDialog
-          spec={spec} kind={kind} row={dialog.row} owners={owners} preset={preset}
+          spec={spec}
+          kind={kind}
+          row={dialog.row}
+          owners={owners}
+          preset={preset}
           onClose={() => setDialog(null)}
           onSaved={(row, text) => {
             setRows((list) => (list.some((x) => x.id === row.id) ? list.map((x) => (x.id === row.id ? row : x)) : [...list, row]));

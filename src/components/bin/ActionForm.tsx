@@ -67,7 +67,19 @@ export async function uploadPhotos(files: File[], note: (msg: string | null) => 
   return ids;
 }
 
-export default function ActionForm({ action, options, busy, onCancel, onSubmit }: { action: Action; options: ActionOptions; busy: boolean; onCancel: () => void; onSubmit: (extra: Record<string, unknown>) => void }) {
+export default function ActionForm({
+  action,
+  options,
+  busy,
+  onCancel,
+  onSubmit,
+}: {
+  action: Action;
+  options: ActionOptions;
+  busy: boolean;
+  onCancel: () => void;
+  onSubmit: (extra: Record<string, unknown>) => void;
+}) {
   const [checks, setChecks] = useState<Record<string, boolean>>(Object.fromEntries(CHECKS.map(([k]) => [k, true])));
   const [faults, setFaults] = useState('');
   const [photos, setPhotos] = useState<File[]>([]);
@@ -82,7 +94,11 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
   const [sealsVerified, setSealsVerified] = useState('');
   const failed = CHECKS.filter(([k]) => !checks[k]);
   const num = (s: string) => (s.trim() === '' ? null : Number(s));
-  const seals = (s: string) => s.split(/[\s,;]+/).map((x) => x.trim()).filter(Boolean);
+  const seals = (s: string) =>
+    s
+      .split(/[\s,;]+/)
+      .map((x) => x.trim())
+      .filter(Boolean);
 
   async function handle(e: FormEvent) {
     e.preventDefault();
@@ -118,10 +134,21 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
             <div key={k} className="flex items-center justify-between gap-3 rounded-md border border-paper-line px-3 py-2">
               <span>{label}</span>
               <div className="flex gap-1" role="group" aria-label={label}>
-                <button type="button" className={checks[k] ? 'btn-primary min-h-[44px] px-3' : 'btn-quiet min-h-[44px] px-3'} aria-pressed={checks[k]} onClick={() => setChecks({ ...checks, [k]: true })}>
+                <button
+                  type="button"
+                  className={checks[k] ? 'btn-primary min-h-[44px] px-3' : 'btn-quiet min-h-[44px] px-3'}
+                  aria-pressed={checks[k]}
+                  onClick={() => setChecks({ ...checks, [k]: true })}
+                >
                   OK
                 </button>
-                <button type="button" data-fault={k} className={!checks[k] ? 'btn-danger min-h-[44px] px-3' : 'btn-quiet min-h-[44px] px-3'} aria-pressed={!checks[k]} onClick={() => setChecks({ ...checks, [k]: false })}>
+                <button
+                  type="button"
+                  data-fault={k}
+                  className={!checks[k] ? 'btn-danger min-h-[44px] px-3' : 'btn-quiet min-h-[44px] px-3'}
+                  aria-pressed={!checks[k]}
+                  onClick={() => setChecks({ ...checks, [k]: false })}
+                >
                   Fault
                 </button>
               </div>
@@ -129,11 +156,20 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
           ))}
           {failed.length > 0 && (
             <>
-              <label className="label" htmlFor="faults">What is wrong (the bin goes to quarantine)</label>
+              <label className="label" htmlFor="faults">
+                What is wrong (the bin goes to quarantine)
+              </label>
               <textarea id="faults" className="field min-h-[80px] py-2" required minLength={3} maxLength={500} value={faults} onChange={(e) => setFaults(e.target.value)} />
-              <label className="label" htmlFor="fault-photos">Photos of the fault (up to 4)</label>
+              <label className="label" htmlFor="fault-photos">
+                Photos of the fault (up to 4)
+              </label>
               <input
-                id="fault-photos" type="file" accept="image/*" capture="environment" multiple className="block w-full text-sm"
+                id="fault-photos"
+                type="file"
+                accept="image/*"
+                capture="environment"
+                multiple
+                className="block w-full text-sm"
                 onChange={(e) => setPhotos(Array.from(e.target.files ?? []).slice(0, 4))}
               />
               {photoNote && <p className="notice-attention">{photoNote}</p>}
@@ -148,9 +184,15 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
           {options.lots.length === 0 && <p className="notice-fault">No usable liner lot at this depot. Receive a lot or ask the planner.</p>}
           {options.lots.length > 0 && (
             <div>
-              <label className="label" htmlFor="lot-number">Or type / scan the lot number on the liner box</label>
+              <label className="label" htmlFor="lot-number">
+                Or type / scan the lot number on the liner box
+              </label>
               <input
-                id="lot-number" className="field ident" autoComplete="off" autoCapitalize="characters" spellCheck={false}
+                id="lot-number"
+                className="field ident"
+                autoComplete="off"
+                autoCapitalize="characters"
+                spellCheck={false}
                 value={lotText}
                 onChange={(e) => {
                   const typed = e.target.value;
@@ -160,7 +202,10 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
                 }}
               />
               {lotText.trim() !== '' && !options.lots.some((l) => l.lotNumber.toUpperCase() === lotText.trim().toUpperCase()) && (
-                <p className="notice-attention mt-1" role="status">Lot {lotText.trim()} is not a usable lot at this depot: it may be expired, on hold or recalled, used up, or not received here. Take a liner from a lot listed below.</p>
+                <p className="notice-attention mt-1" role="status">
+                  Lot {lotText.trim()} is not a usable lot at this depot: it may be expired, on hold or recalled, used up, or not received here. Take a liner from a lot listed
+                  below.
+                </p>
               )}
             </div>
           )}
@@ -168,7 +213,9 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
             <label key={l.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
               <input type="radio" name="lot" checked={lotId === l.id} onChange={() => setLotId(l.id)} />
               <span className="ident whitespace-nowrap">{l.lotNumber}</span>
-              <span className="text-sm text-ink-soft">{l.supplier} · expires {formatLongDate(l.expiryDate)} · {l.onHand} on the shelf</span>
+              <span className="text-sm text-ink-soft">
+                {l.supplier} · expires {formatLongDate(l.expiryDate)} · {l.onHand} on the shelf
+              </span>
               {i === 0 && <span className="ml-auto text-xs font-medium text-kelp">Use first</span>}
             </label>
           ))}
@@ -181,10 +228,20 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
           {options.status === 'prepared' &&
             options.orders.map((o) => (
               <label key={o.id} className="flex items-center gap-3 rounded-md border border-paper-line px-3 min-h-touch">
-                <input type="radio" name="order" checked={purpose === 'hire' && orderId === o.id} onChange={() => { setPurpose('hire'); setOrderId(o.id); }} />
+                <input
+                  type="radio"
+                  name="order"
+                  checked={purpose === 'hire' && orderId === o.id}
+                  onChange={() => {
+                    setPurpose('hire');
+                    setOrderId(o.id);
+                  }}
+                />
                 <span className="ident">{o.reference}</span>
                 <span className="text-sm">{o.customer}</span>
-                <span className="ml-auto text-sm text-ink-soft num">{o.loaded}/{o.quantity} · by {formatLongDate(o.neededBy)}</span>
+                <span className="ml-auto text-sm text-ink-soft num">
+                  {o.loaded}/{o.quantity} · by {formatLongDate(o.neededBy)}
+                </span>
               </label>
             ))}
           {options.status === 'prepared' && options.orders.length === 0 && <p className="notice-attention">No confirmed hire order at this depot for this bin type.</p>}
@@ -195,23 +252,33 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
       {action === 'fill_seal' && (
         <div className="grid gap-3 sm:grid-cols-2">
           <div className="sm:col-span-2">
-            <label className="label" htmlFor="product">Product</label>
+            <label className="label" htmlFor="product">
+              Product
+            </label>
             <input id="product" className="field" required maxLength={120} value={fill.product} onChange={(e) => setFill({ ...fill, product: e.target.value })} />
           </div>
           <div>
-            <label className="label" htmlFor="volume">Volume (L)</label>
+            <label className="label" htmlFor="volume">
+              Volume (L)
+            </label>
             <input id="volume" className="field num" inputMode="decimal" value={fill.volumeL} onChange={(e) => setFill({ ...fill, volumeL: e.target.value })} />
           </div>
           <div>
-            <label className="label" htmlFor="mass">Mass (kg)</label>
+            <label className="label" htmlFor="mass">
+              Mass (kg)
+            </label>
             <input id="mass" className="field num" inputMode="decimal" value={fill.massKg} onChange={(e) => setFill({ ...fill, massKg: e.target.value })} />
           </div>
           <div>
-            <label className="label" htmlFor="temp">Temperature (°C)</label>
+            <label className="label" htmlFor="temp">
+              Temperature (°C)
+            </label>
             <input id="temp" className="field num" inputMode="decimal" value={fill.temperatureC} onChange={(e) => setFill({ ...fill, temperatureC: e.target.value })} />
           </div>
           <div>
-            <label className="label" htmlFor="seals">Seal numbers</label>
+            <label className="label" htmlFor="seals">
+              Seal numbers
+            </label>
             <input id="seals" className="field ident" placeholder="TE1234567, TE1234568" value={fill.seals} onChange={(e) => setFill({ ...fill, seals: e.target.value })} />
           </div>
         </div>
@@ -219,14 +286,18 @@ export default function ActionForm({ action, options, busy, onCancel, onSubmit }
 
       {action === 'discharge' && (
         <div>
-          <label className="label" htmlFor="sealsVerified">Seal numbers found on the bin</label>
+          <label className="label" htmlFor="sealsVerified">
+            Seal numbers found on the bin
+          </label>
           <input id="sealsVerified" className="field ident" value={sealsVerified} onChange={(e) => setSealsVerified(e.target.value)} placeholder="as printed on each seal" />
         </div>
       )}
 
       {!['prep_check', 'fit_liner', 'dispatch', 'fill_seal', 'discharge'].includes(action) && (
         <div>
-          <label className="label" htmlFor="note">Note (optional)</label>
+          <label className="label" htmlFor="note">
+            Note (optional)
+          </label>
           <input id="note" className="field" maxLength={500} value={note} onChange={(e) => setNote(e.target.value)} />
         </div>
       )}

@@ -6,10 +6,7 @@ import { useState } from 'react';
 import { ACTION_LABELS, STATUS_LABELS, type Action, type Status } from '@/lib/scans/lifecycle';
 import ActionForm, { type ActionOptions } from './ActionForm';
 
-export type PanelOutcome =
-  | { kind: 'recorded'; statusTo: Status; inferred: Action[] }
-  | { kind: 'queued'; waiting: number }
-  | { kind: 'refused'; message: string };
+export type PanelOutcome = { kind: 'recorded'; statusTo: Status; inferred: Action[] } | { kind: 'queued'; waiting: number } | { kind: 'refused'; message: string };
 
 interface Props extends ActionOptions {
   actions: Action[];

@@ -113,7 +113,11 @@ function Confirmation({ carried, grai, undoSeconds }: { carried: Carried; grai: 
       <span>
         <strong>{recordedWords(ACTION_LABELS[carried.action], STATUS_LABELS[carried.statusTo])}</strong>
         {carried.inferred.length > 0 && <> Missed steps were inferred and flagged for a planner: {carried.inferred.map((a) => ACTION_LABELS[a]).join(', ')}.</>}
-        {problem && <span className="mt-1 block" role="alert">{problem}</span>}
+        {problem && (
+          <span className="mt-1 block" role="alert">
+            {problem}
+          </span>
+        )}
       </span>
       {left > 0 && (
         <button type="button" className="btn-quiet" onClick={() => void undo()} disabled={busy} id="scan-undo">

@@ -28,8 +28,14 @@ interface Fields {
 type Problems = Record<string, string>;
 
 const FIELD_NAMES: Record<string, string> = {
-  grai: 'GRAI', serial: 'Serial', binTypeId: 'Bin type', siteId: 'Depot', manufactureMonth: 'Month of manufacture',
-  unMarking: 'UN mark', lastIntermediateTestMonth: 'Last intermediate test', lastFullInspectionMonth: 'Last full inspection',
+  grai: 'GRAI',
+  serial: 'Serial',
+  binTypeId: 'Bin type',
+  siteId: 'Depot',
+  manufactureMonth: 'Month of manufacture',
+  unMarking: 'UN mark',
+  lastIntermediateTestMonth: 'Last intermediate test',
+  lastFullInspectionMonth: 'Last full inspection',
 };
 
 function initialFields(options: FormOptions, bin?: EditableBin): Fields {
@@ -94,7 +100,7 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
   const type = options.binTypes.find((t) => String(t.id) === fields.binTypeId);
   const mark = useMemo(() => (fields.unMarking.trim() ? decodeUnMark(fields.unMarking) : null), [fields.unMarking]);
   const markMonth = mark?.ok ? mark.manufactureMonth : null;
-  const typeWarning = type && mark?.ok ? checkMarkAgainstType(fields.unMarking, type)?.message ?? null : null;
+  const typeWarning = type && mark?.ok ? (checkMarkAgainstType(fields.unMarking, type)?.message ?? null) : null;
   const due = duePreview(type, fields);
   const labels = testLabels(type);
 
@@ -128,19 +134,27 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
     setProblems({});
     const common = {
       binTypeId: fields.binTypeId === '' ? 0 : Number(fields.binTypeId),
-      manufactureMonth: fields.manufactureMonth, unMarking: fields.unMarking,
-      lastIntermediateTestMonth: fields.lastIntermediateTestMonth, lastFullInspectionMonth: fields.lastFullInspectionMonth,
+      manufactureMonth: fields.manufactureMonth,
+      unMarking: fields.unMarking,
+      lastIntermediateTestMonth: fields.lastIntermediateTestMonth,
+      lastFullInspectionMonth: fields.lastFullInspectionMonth,
     };
     try {
       if (bin) {
         const result = await api.patch<{ changed: boolean; version: number; nextDue: string | null }>(`/api/bins/${encodeURIComponent(bin.grai)}/edit`, { ...common, version });
         setVersion(result.version);
-        setNotice(result.changed
-          ? { tone: 'good', text: `Saved.${result.nextDue ? ` Next test due ${formatLongDate(result.nextDue)}.` : ''}` }
-          : { tone: 'good', text: 'Nothing had changed, so nothing was saved.' });
+        setNotice(
+          result.changed
+            ? { tone: 'good', text: `Saved.${result.nextDue ? ` Next test due ${formatLongDate(result.nextDue)}.` : ''}` }
+            : { tone: 'good', text: 'Nothing had changed, so nothing was saved.' },
+        );
       } else {
         const result = await api.post<Registered>('/api/bins/register', {
-          ...common, graiMode: fields.graiMode, grai: fields.grai, serial: fields.serial, siteId: fields.siteId === '' ? 0 : Number(fields.siteId),
+          ...common,
+          graiMode: fields.graiMode,
+          grai: fields.grai,
+          serial: fields.serial,
+          siteId: fields.siteId === '' ? 0 : Number(fields.siteId),
         });
         setRegistered(result);
       }
@@ -169,13 +183,23 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
     const href = `/bins/${encodeURIComponent(registered.grai)}`;
     return (
       <div className="card p-6" id="register-done" role="status">
-        <p className="flex items-center gap-2 text-lg font-semibold text-moss"><Icon name="check" /> Bin registered</p>
-        <p className="mt-2 ident text-xl" id="registered-grai">{registered.groupedGrai}</p>
+        <p className="flex items-center gap-2 text-lg font-semibold text-moss">
+          <Icon name="check" /> Bin registered
+        </p>
+        <p className="mt-2 ident text-xl" id="registered-grai">
+          {registered.groupedGrai}
+        </p>
         <p className="mt-1 text-ink-soft">Available at its depot.{registered.nextDue ? ` Next periodic test due ${formatLongDate(registered.nextDue)}.` : ''}</p>
         <div className="mt-5 flex flex-wrap gap-3">
-          <a className="btn-primary" href={href}>Open the bin page</a>
-          <a className="btn-quiet" href={`${href}/edit`}>Correct it</a>
-          <button type="button" className="btn-quiet" onClick={registerAnother} id="register-another">Register another bin</button>
+          <a className="btn-primary" href={href}>
+            Open the bin page
+          </a>
+          <a className="btn-quiet" href={`${href}/edit`}>
+            Correct it
+          </a>
+          <button type="button" className="btn-quiet" onClick={registerAnother} id="register-another">
+            Register another bin
+          </button>
         </div>
       </div>
     );
@@ -189,10 +213,21 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
           <p>{notice.text}</p>
           {problemList.length > 0 && (
             <ul className="mt-1 list-disc pl-5">
-              {problemList.map(([k, m]) => <li key={k}><a href={`#f-${k}`} className="text-ink underline">{FIELD_NAMES[k]}</a>: {m}</li>)}
+              {problemList.map(([k, m]) => (
+                <li key={k}>
+                  <a href={`#f-${k}`} className="text-ink underline">
+                    {FIELD_NAMES[k]}
+                  </a>
+                  : {m}
+                </li>
+              ))}
             </ul>
           )}
-          {notice.stale && <button type="button" className="btn-quiet mt-2" onClick={() => window.location.reload()} id="reload-form">Reload the form</button>}
+          {notice.stale && (
+            <button type="button" className="btn-quiet mt-2" onClick={() => window.location.reload()} id="reload-form">
+              Reload the form
+            </button>
+          )}
         </div>
       )}
 
@@ -202,12 +237,19 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
           <div className="space-y-3">
             <div>
               <p className="label">GRAI</p>
-              <p className="ident text-lg" id="fixed-grai">{bin.groupedGrai}</p>
-              <p className="text-sm text-ink-soft">Not editable: the GRAI is the bin's identity on its label and in every recorded event. A bin registered under a wrong GRAI is retired and registered again.</p>
+              <p className="ident text-lg" id="fixed-grai">
+                {bin.groupedGrai}
+              </p>
+              <p className="text-sm text-ink-soft">
+                Not editable: the GRAI is the bin's identity on its label and in every recorded event. A bin registered under a wrong GRAI is retired and registered again.
+              </p>
             </div>
             <div>
               <p className="label">Status</p>
-              <p className="font-medium" id="fixed-status">{STATUS_LABELS[bin.status]}{bin.siteName ? ` · ${bin.siteName}` : ''}</p>
+              <p className="font-medium" id="fixed-status">
+                {STATUS_LABELS[bin.status]}
+                {bin.siteName ? ` · ${bin.siteName}` : ''}
+              </p>
               <p className="text-sm text-ink-soft">Not editable here: status and place follow the scan log. Record a scan (receive, quarantine, retire…) to change them.</p>
             </div>
           </div>
@@ -222,37 +264,94 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
               </label>
             </div>
             {fields.graiMode === 'grai' ? (
-              <FormField id="f-grai" label="GRAI" problem={problems.grai}
-                hint={graiCheck == null ? 'As printed under the QR label, with or without spaces; a scanned label link works too.'
-                  : graiCheck.ok ? <span className="text-moss" id="grai-ok">✓ Check digit {graiCheck.grai.checkDigit} is right · <span className="ident">{groupGrai(graiCheck.grai.value, options.prefixLength)}</span></span>
-                  : problems.grai ? undefined : <span className="text-brick" id="grai-live-problem">{graiCheck.error.message}</span>}>
-                <input id="f-grai" className="field ident" value={fields.grai} onChange={set('grai')} autoComplete="off" spellCheck={false} maxLength={300} {...describedBy('f-grai', problems.grai)} />
+              <FormField
+                id="f-grai"
+                label="GRAI"
+                problem={problems.grai}
+                hint={
+                  graiCheck == null ? (
+                    'As printed under the QR label, with or without spaces; a scanned label link works too.'
+                  ) : graiCheck.ok ? (
+                    <span className="text-moss" id="grai-ok">
+                      ✓ Check digit {graiCheck.grai.checkDigit} is right · <span className="ident">{groupGrai(graiCheck.grai.value, options.prefixLength)}</span>
+                    </span>
+                  ) : problems.grai ? undefined : (
+                    <span className="text-brick" id="grai-live-problem">
+                      {graiCheck.error.message}
+                    </span>
+                  )
+                }
+              >
+                <input
+                  id="f-grai"
+                  className="field ident"
+                  value={fields.grai}
+                  onChange={set('grai')}
+                  autoComplete="off"
+                  spellCheck={false}
+                  maxLength={300}
+                  {...describedBy('f-grai', problems.grai)}
+                />
               </FormField>
             ) : (
-              <FormField id="f-serial" label="Serial" problem={problems.serial}
-                hint={!type ? 'Choose the bin type below first: its GRAI asset type is part of the GRAI.'
-                  : built == null ? `GRAI = company prefix ${options.companyPrefix} + asset type ${type.graiAssetType} + check digit + serial.`
-                  : built.ok ? <span id="built-grai">GRAI with check digit {built.grai.charAt(13)}: <span className="ident font-medium text-ink">{groupGrai(built.grai, options.prefixLength)}</span></span>
-                  : <span className="text-brick">{built.message}</span>}>
-                <input id="f-serial" className="field ident" value={fields.serial} onChange={set('serial')} autoComplete="off" spellCheck={false} maxLength={40} {...describedBy('f-serial', problems.serial)} />
+              <FormField
+                id="f-serial"
+                label="Serial"
+                problem={problems.serial}
+                hint={
+                  !type ? (
+                    'Choose the bin type below first: its GRAI asset type is part of the GRAI.'
+                  ) : built == null ? (
+                    `GRAI = company prefix ${options.companyPrefix} + asset type ${type.graiAssetType} + check digit + serial.`
+                  ) : built.ok ? (
+                    <span id="built-grai">
+                      GRAI with check digit {built.grai.charAt(13)}: <span className="ident font-medium text-ink">{groupGrai(built.grai, options.prefixLength)}</span>
+                    </span>
+                  ) : (
+                    <span className="text-brick">{built.message}</span>
+                  )
+                }
+              >
+                <input
+                  id="f-serial"
+                  className="field ident"
+                  value={fields.serial}
+                  onChange={set('serial')}
+                  autoComplete="off"
+                  spellCheck={false}
+                  maxLength={40}
+                  {...describedBy('f-serial', problems.serial)}
+                />
               </FormField>
             )}
           </>
         )}
         <div className={bin ? '' : 'grid gap-4 sm:grid-cols-2'}>
-          <FormField id="f-binTypeId" label="Bin type" problem={problems.binTypeId}
-            hint={bin && !bin.binTypeActive && String(bin.binTypeId) === fields.binTypeId ? `${bin.binTypeCode} is no longer in use; the bin may keep it.` : undefined}>
+          <FormField
+            id="f-binTypeId"
+            label="Bin type"
+            problem={problems.binTypeId}
+            hint={bin && !bin.binTypeActive && String(bin.binTypeId) === fields.binTypeId ? `${bin.binTypeCode} is no longer in use; the bin may keep it.` : undefined}
+          >
             <select id="f-binTypeId" className="field" value={fields.binTypeId} onChange={set('binTypeId')} {...describedBy('f-binTypeId', problems.binTypeId)}>
               <option value="">Choose a bin type…</option>
               {bin && !bin.binTypeActive && <option value={bin.binTypeId}>{bin.binTypeCode} (no longer in use)</option>}
-              {options.binTypes.map((t) => <option key={t.id} value={t.id}>{t.code} · {t.name}</option>)}
+              {options.binTypes.map((t) => (
+                <option key={t.id} value={t.id}>
+                  {t.code} · {t.name}
+                </option>
+              ))}
             </select>
           </FormField>
           {!bin && (
             <FormField id="f-siteId" label="Depot" problem={problems.siteId} hint="Where the bin stands now.">
               <select id="f-siteId" className="field" value={fields.siteId} onChange={set('siteId')} {...describedBy('f-siteId', problems.siteId)}>
                 <option value="">Choose a depot…</option>
-                {options.depots.map((d) => <option key={d.id} value={d.id}>{d.name} ({d.code})</option>)}
+                {options.depots.map((d) => (
+                  <option key={d.id} value={d.id}>
+                    {d.name} ({d.code})
+                  </option>
+                ))}
               </select>
             </FormField>
           )}
@@ -261,32 +360,100 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
 
       <fieldset className="card space-y-4 p-5" disabled={!ready}>
         <legend className="px-1 text-lg font-semibold">Marking and tests</legend>
-        <FormField id="f-unMarking" label="UN mark (optional)" problem={problems.unMarking}
-          hint="As stamped on the bin's plate, fields separated by /, e.g. 31HA2/Y/05 24/NL/maker/2313/1285. Leave empty for a bin without a UN mark.">
-          <input id="f-unMarking" className="field ident" value={fields.unMarking} onChange={set('unMarking')} autoComplete="off" spellCheck={false} maxLength={120} {...describedBy('f-unMarking', problems.unMarking)} />
+        <FormField
+          id="f-unMarking"
+          label="UN mark (optional)"
+          problem={problems.unMarking}
+          hint="As stamped on the bin's plate, fields separated by /, e.g. 31HA2/Y/05 24/NL/maker/2313/1285. Leave empty for a bin without a UN mark."
+        >
+          <input
+            id="f-unMarking"
+            className="field ident"
+            value={fields.unMarking}
+            onChange={set('unMarking')}
+            autoComplete="off"
+            spellCheck={false}
+            maxLength={120}
+            {...describedBy('f-unMarking', problems.unMarking)}
+          />
         </FormField>
         <UnMarkPanel summary={mark} typeWarning={typeWarning} />
-        <FormField id="f-manufactureMonth" label="Month of manufacture" problem={problems.manufactureMonth}
-          hint={markFilledMonth && markMonth === fields.manufactureMonth ? <span id="month-from-mark">Filled in from the UN mark.</span>
-            : markMonth && markMonth !== fields.manufactureMonth ? <span className="text-brick">The UN mark says {markMonth}.</span> : 'YYYY-MM, as on the bin\'s plate.'}>
-          <input id="f-manufactureMonth" className="field num sm:max-w-xs" type="month" placeholder="2024-05" value={fields.manufactureMonth} onChange={set('manufactureMonth')} {...describedBy('f-manufactureMonth', problems.manufactureMonth)} />
+        <FormField
+          id="f-manufactureMonth"
+          label="Month of manufacture"
+          problem={problems.manufactureMonth}
+          hint={
+            markFilledMonth && markMonth === fields.manufactureMonth ? (
+              <span id="month-from-mark">Filled in from the UN mark.</span>
+            ) : markMonth && markMonth !== fields.manufactureMonth ? (
+              <span className="text-brick">The UN mark says {markMonth}.</span>
+            ) : (
+              "YYYY-MM, as on the bin's plate."
+            )
+          }
+        >
+          <input
+            id="f-manufactureMonth"
+            className="field num sm:max-w-xs"
+            type="month"
+            placeholder="2024-05"
+            value={fields.manufactureMonth}
+            onChange={set('manufactureMonth')}
+            {...describedBy('f-manufactureMonth', problems.manufactureMonth)}
+          />
         </FormField>
         <div className="grid gap-4 sm:grid-cols-2">
-          <FormField id="f-lastIntermediateTestMonth" label={labels.intermediate} problem={problems.lastIntermediateTestMonth} hint="The last leakproofness test, as marked on the bin (also one done with a 5-year inspection). Leave empty when it has had none.">
-            <input id="f-lastIntermediateTestMonth" className="field num" type="month" placeholder="2026-02" value={fields.lastIntermediateTestMonth} onChange={set('lastIntermediateTestMonth')} {...describedBy('f-lastIntermediateTestMonth', problems.lastIntermediateTestMonth)} />
+          <FormField
+            id="f-lastIntermediateTestMonth"
+            label={labels.intermediate}
+            problem={problems.lastIntermediateTestMonth}
+            hint="The last leakproofness test, as marked on the bin (also one done with a 5-year inspection). Leave empty when it has had none."
+          >
+            <input
+              id="f-lastIntermediateTestMonth"
+              className="field num"
+              type="month"
+              placeholder="2026-02"
+              value={fields.lastIntermediateTestMonth}
+              onChange={set('lastIntermediateTestMonth')}
+              {...describedBy('f-lastIntermediateTestMonth', problems.lastIntermediateTestMonth)}
+            />
           </FormField>
-          <FormField id="f-lastFullInspectionMonth" label={labels.full} problem={problems.lastFullInspectionMonth} hint="Optional. It restarts only this clock; if it was done with a leakproofness test, enter that month above too.">
-            <input id="f-lastFullInspectionMonth" className="field num" type="month" placeholder="2025-09" value={fields.lastFullInspectionMonth} onChange={set('lastFullInspectionMonth')} {...describedBy('f-lastFullInspectionMonth', problems.lastFullInspectionMonth)} />
+          <FormField
+            id="f-lastFullInspectionMonth"
+            label={labels.full}
+            problem={problems.lastFullInspectionMonth}
+            hint="Optional. It restarts only this clock; if it was done with a leakproofness test, enter that month above too."
+          >
+            <input
+              id="f-lastFullInspectionMonth"
+              className="field num"
+              type="month"
+              placeholder="2025-09"
+              value={fields.lastFullInspectionMonth}
+              onChange={set('lastFullInspectionMonth')}
+              {...describedBy('f-lastFullInspectionMonth', problems.lastFullInspectionMonth)}
+            />
           </FormField>
         </div>
         <p className="notice-info" id="due-preview">
-          {due ? <>Next periodic test due <strong>{formatLongDate(due.nextDue)}</strong> ({due.label}); intermediate {formatLongDate(due.intermediateDue)}, full {formatLongDate(due.fullDue)}. Worked out from the bin type's policy.</>
-            : 'The due dates appear here once the bin type and month of manufacture are given.'}
+          {due ? (
+            <>
+              Next periodic test due <strong>{formatLongDate(due.nextDue)}</strong> ({due.label}); intermediate {formatLongDate(due.intermediateDue)}, full{' '}
+              {formatLongDate(due.fullDue)}. Worked out from the bin type's policy.
+            </>
+          ) : (
+            'The due dates appear here once the bin type and month of manufacture are given.'
+          )}
         </p>
       </fieldset>
 
       <div className="flex flex-wrap items-center justify-end gap-3">
-        {bin && <a className="btn-quiet" href={`/bins/${encodeURIComponent(bin.grai)}`}>Back to the bin</a>}
+        {bin && (
+          <a className="btn-quiet" href={`/bins/${encodeURIComponent(bin.grai)}`}>
+            Back to the bin
+          </a>
+        )}
         <button type="submit" className="btn-primary" disabled={busy || !ready} id="bin-form-submit">
           {busy ? 'Saving…' : editing ? 'Save changes' : 'Register bin'}
         </button>

@@ -5,9 +5,15 @@ import { Icon } from '@/components/ui/Icon';
 export function FormField({ id, label, hint, problem, children }: { id: string; label: string; hint?: ReactNode; problem?: string; children: ReactNode }) {
   return (
     <div>
-      <label className="label" htmlFor={id}>{label}</label>
+      <label className="label" htmlFor={id}>
+        {label}
+      </label>
       {children}
-      {hint && <p className="mt-1 text-sm text-ink-soft" id={`${id}-hint`}>{hint}</p>}
+      {hint && (
+        <p className="mt-1 text-sm text-ink-soft" id={`${id}-hint`}>
+          {hint}
+        </p>
+      )}
       {problem && (
         <p className="mt-1 flex items-start gap-1 text-sm font-medium text-brick" id={`${id}-problem`}>
           <Icon name="alert" size={16} className="mt-0.5 shrink-0" /> <span>{problem}</span>

@@ -45,22 +45,38 @@ function LineRow({ l }: { l: PreviewLine }) {
       <td className="num px-3 py-2 align-top font-medium">{l.line}</td>
       <td className="px-3 py-2 align-top min-w-[15rem] max-w-[24rem]">
         {ok ? (
-          <span className="inline-flex items-center gap-1 text-moss"><Icon name="check" size={16} /> Ready</span>
+          <span className="inline-flex items-center gap-1 text-moss">
+            <Icon name="check" size={16} /> Ready
+          </span>
         ) : (
           <ul className="space-y-1">
             {l.issues.map((i, n) => (
-              <li key={n} className="flex items-start gap-1 text-ink"><Icon name="alert" size={16} className="mt-0.5 shrink-0 text-brick" />
-                <span>{i.column && <span className="font-mono text-xs font-medium">{i.column}: </span>}{i.message}</span>
+              <li key={n} className="flex items-start gap-1 text-ink">
+                <Icon name="alert" size={16} className="mt-0.5 shrink-0 text-brick" />
+                <span>
+                  {i.column && <span className="font-mono text-xs font-medium">{i.column}: </span>}
+                  {i.message}
+                </span>
               </li>
             ))}
           </ul>
         )}
       </td>
-      <td className="px-3 py-2 align-top whitespace-nowrap"><Cell value={l.groupedGrai ?? l.cells.grai} mono /></td>
-      <td className="px-3 py-2 align-top whitespace-nowrap"><Cell value={l.cells.bin_type} /></td>
-      <td className="px-3 py-2 align-top whitespace-nowrap"><Cell value={l.cells.depot} /></td>
-      <td className="num px-3 py-2 align-top whitespace-nowrap"><Cell value={l.cells.manufacture_month} /></td>
-      <td className="px-3 py-2 align-top whitespace-nowrap"><Cell value={l.cells.un_marking} mono /></td>
+      <td className="px-3 py-2 align-top whitespace-nowrap">
+        <Cell value={l.groupedGrai ?? l.cells.grai} mono />
+      </td>
+      <td className="px-3 py-2 align-top whitespace-nowrap">
+        <Cell value={l.cells.bin_type} />
+      </td>
+      <td className="px-3 py-2 align-top whitespace-nowrap">
+        <Cell value={l.cells.depot} />
+      </td>
+      <td className="num px-3 py-2 align-top whitespace-nowrap">
+        <Cell value={l.cells.manufacture_month} />
+      </td>
+      <td className="px-3 py-2 align-top whitespace-nowrap">
+        <Cell value={l.cells.un_marking} mono />
+      </td>
       <td className="num px-3 py-2 align-top whitespace-nowrap">{tests}</td>
     </tr>
   );
@@ -102,7 +118,9 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
     if (!chosen) return setPhase('idle');
     if (chosen.size > maxBytes) {
       setPhase('idle');
-      setProblem({ message: `The file is ${megabytes(chosen.size)} MB; the limit is ${megabytes(maxBytes)} MB for one register import. Split it into smaller files (each with the header line) and import them one after another. Nothing was registered.` });
+      setProblem({
+        message: `The file is ${megabytes(chosen.size)} MB; the limit is ${megabytes(maxBytes)} MB for one register import. Split it into smaller files (each with the header line) and import them one after another. Nothing was registered.`,
+      });
       return;
     }
     setPhase('checking');
@@ -139,11 +157,17 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
   if (phase === 'done') {
     return (
       <div className="card p-6" role="status" id="import-done">
-        <p className="flex items-center gap-2 text-lg font-semibold text-moss"><Icon name="check" /> {registered.toLocaleString('en-GB')} bins registered</p>
+        <p className="flex items-center gap-2 text-lg font-semibold text-moss">
+          <Icon name="check" /> {registered.toLocaleString('en-GB')} bins registered
+        </p>
         <p className="mt-1 text-ink-soft">All lines of {file?.name} are in the register, available at their depots. The file is kept with the audit trail.</p>
         <div className="mt-5 flex flex-wrap gap-3">
-          <a className="btn-primary" href="/bins/export.csv" download>Export the register (CSV)</a>
-          <button type="button" className="btn-quiet" onClick={again} id="import-another">Import another file</button>
+          <a className="btn-primary" href="/bins/export.csv" download>
+            Export the register (CSV)
+          </a>
+          <button type="button" className="btn-quiet" onClick={again} id="import-another">
+            Import another file
+          </button>
         </div>
       </div>
     );
@@ -154,17 +178,39 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
   return (
     <div className="space-y-4">
       <div className="card p-5">
-        <label className="label" htmlFor="import-file">CSV file (up to {megabytes(maxBytes)} MB)</label>
-        <input ref={input} id="import-file" type="file" accept=".csv,text/csv" onChange={check} disabled={!ready || phase === 'checking' || phase === 'registering'}
-          className="block w-full text-sm file:mr-4 file:min-h-touch file:rounded-md file:border-0 file:bg-kelp file:px-4 file:font-medium file:text-white hover:file:bg-kelp-hover" />
-        {phase === 'checking' && <p className="mt-3 text-ink-soft" role="status">Checking every line…</p>}
+        <label className="label" htmlFor="import-file">
+          CSV file (up to {megabytes(maxBytes)} MB)
+        </label>
+        <input
+          ref={input}
+          id="import-file"
+          type="file"
+          accept=".csv,text/csv"
+          onChange={check}
+          disabled={!ready || phase === 'checking' || phase === 'registering'}
+          className="block w-full text-sm file:mr-4 file:min-h-touch file:rounded-md file:border-0 file:bg-kelp file:px-4 file:font-medium file:text-white hover:file:bg-kelp-hover"
+        />
+        {phase === 'checking' && (
+          <p className="mt-3 text-ink-soft" role="status">
+            Checking every line…
+          </p>
+        )}
       </div>
 
       {problem && (
         <div className="notice-fault" role="alert" id="import-problem">
-          <p className="flex items-start gap-2"><Icon name="alert" className="mt-0.5 shrink-0" /> <span>{problem.message}</span></p>
+          <p className="flex items-start gap-2">
+            <Icon name="alert" className="mt-0.5 shrink-0" /> <span>{problem.message}</span>
+          </p>
           {problem.missingColumns && (
-            <p className="mt-2" id="missing-columns">Missing: {problem.missingColumns.map((c) => <code key={c} className="mr-2 rounded bg-card px-1 font-mono">{c}</code>)}</p>
+            <p className="mt-2" id="missing-columns">
+              Missing:{' '}
+              {problem.missingColumns.map((c) => (
+                <code key={c} className="mr-2 rounded bg-card px-1 font-mono">
+                  {c}
+                </code>
+              ))}
+            </p>
           )}
         </div>
       )}
@@ -175,8 +221,7 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
             <div>
               <h2 id="preview-heading">Preview of {file?.name}</h2>
               <p className="mt-1 text-ink-soft" id="import-counts">
-                <span className="num">{counts.total.toLocaleString('en-GB')}</span> lines ·{' '}
-                <span className="num text-moss">{counts.ready.toLocaleString('en-GB')} ready</span> ·{' '}
+                <span className="num">{counts.total.toLocaleString('en-GB')}</span> lines · <span className="num text-moss">{counts.ready.toLocaleString('en-GB')} ready</span> ·{' '}
                 <span className={counts.withProblems ? 'num font-medium text-brick' : 'num'}>{counts.withProblems.toLocaleString('en-GB')} with problems</span>
               </p>
             </div>
@@ -186,7 +231,8 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
           </div>
           {counts.withProblems > 0 ? (
             <p className="notice-attention m-5" id="import-blocked">
-              Nothing is registered while any line has a problem: the file goes in whole or not at all. Fix the lines marked below in your spreadsheet (line numbers are its row numbers; the header is line 1), save as CSV and choose the file again.
+              Nothing is registered while any line has a problem: the file goes in whole or not at all. Fix the lines marked below in your spreadsheet (line numbers are its row
+              numbers; the header is line 1), save as CSV and choose the file again.
             </p>
           ) : (
             <p className="notice-good m-5">Every line is ready. Registering puts all {counts.total.toLocaleString('en-GB')} bins into the pool in one go.</p>
@@ -200,12 +246,37 @@ export default function ImportPanel({ maxBytes }: { maxBytes: number }) {
             <table className="w-full text-left text-sm" id="import-preview">
               <thead className="whitespace-nowrap bg-paper text-ink-soft">
                 <tr>
-                  <th scope="col" className="px-3 py-2">Line</th><th scope="col" className="px-3 py-2">Check</th><th scope="col" className="px-3 py-2">GRAI</th>
-                  <th scope="col" className="px-3 py-2">Bin type</th><th scope="col" className="px-3 py-2">Depot</th><th scope="col" className="px-3 py-2">Made</th>
-                  <th scope="col" className="px-3 py-2">UN mark</th><th scope="col" className="px-3 py-2">Last tests (int. / full)</th>
+                  <th scope="col" className="px-3 py-2">
+                    Line
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Check
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    GRAI
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Bin type
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Depot
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Made
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    UN mark
+                  </th>
+                  <th scope="col" className="px-3 py-2">
+                    Last tests (int. / full)
+                  </th>
                 </tr>
               </thead>
-              <tbody className="divide-y divide-paper-line">{lines.map((l) => <LineRow key={l.line} l={l} />)}</tbody>
+              <tbody className="divide-y divide-paper-line">
+                {lines.map((l) => (
+                  <LineRow key={l.line} l={l} />
+                ))}
+              </tbody>
             </table>
           </div>
           {preview.linesNotShown > 0 && (

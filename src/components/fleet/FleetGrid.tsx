@@ -5,9 +5,20 @@
 import { useCallback, useMemo, useRef, useState } from 'react';
 import { AgGridReact } from 'ag-grid-react';
 import {
-  ModuleRegistry, InfiniteRowModelModule, TextFilterModule, NumberFilterModule, DateFilterModule, CustomFilterModule,
-  ColumnApiModule, RowStyleModule,
-  type GridApi, type GridReadyEvent, type IDatasource, type IGetRowsParams, type RowClickedEvent, type CellKeyDownEvent,
+  ModuleRegistry,
+  InfiniteRowModelModule,
+  TextFilterModule,
+  NumberFilterModule,
+  DateFilterModule,
+  CustomFilterModule,
+  ColumnApiModule,
+  RowStyleModule,
+  type GridApi,
+  type GridReadyEvent,
+  type IDatasource,
+  type IGetRowsParams,
+  type RowClickedEvent,
+  type CellKeyDownEvent,
 } from 'ag-grid-community';
 import { api, withQuery, ApiError } from '@/lib/api.client';
 import { Icon } from '@/components/ui/Icon';
@@ -21,10 +32,7 @@ import { EMPTY_STATE, applyViewState, describeFilter, readViewState, sameView, s
 import type { FilterChoices, GridContext, GridPage, GridRow, ViewSummary } from './types';
 
 // Only what this grid uses (all community modules together are ~330 KB gzipped).
-ModuleRegistry.registerModules([
-  InfiniteRowModelModule, TextFilterModule, NumberFilterModule, DateFilterModule, CustomFilterModule,
-  ColumnApiModule, RowStyleModule,
-]);
+ModuleRegistry.registerModules([InfiniteRowModelModule, TextFilterModule, NumberFilterModule, DateFilterModule, CustomFilterModule, ColumnApiModule, RowStyleModule]);
 
 const PAGE_ROWS = 100;
 
@@ -149,7 +157,10 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
     const g = gridApi.current;
     if (!g) return;
     const now = readViewState(g);
-    const columns = now.columns.filter((c) => !c.hide).map((c) => c.colId).join(',');
+    const columns = now.columns
+      .filter((c) => !c.hide)
+      .map((c) => c.colId)
+      .join(',');
     const a = document.createElement('a');
     a.href = withQuery('/api/fleet/bins/export.csv', { sortModel: now.sortModel, filterModel: now.filterModel, columns });
     a.download = '';
@@ -175,32 +186,38 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
     <div className="flex flex-col gap-3">
       <ViewBar initialViews={views} selectedId={selectedId} modified={!sameView(state, baseState)} onSelect={selectView} currentState={() => readViewState(gridApi.current!)}>
         <div className="flex flex-wrap items-end gap-2 xl:ml-auto">
-        <div>
-          <label className="label" htmlFor="status-quick">Status</label>
-          <select id="status-quick" className="field" value={quickStatus} onChange={(e) => setStatusFilter(e.target.value)}>
-            <option value="">{statusModel && !quickStatus ? 'Several statuses' : 'All statuses'}</option>
-            {choices.statuses.map((s) => <option key={s.value} value={s.value}>{s.label}</option>)}
-          </select>
-        </div>
-        <details className="relative">
-          <summary className="btn-quiet cursor-pointer list-none">Columns</summary>
-          <fieldset className="card absolute z-20 mt-1 w-64 p-3 text-sm">
-            <legend className="sr-only">Columns to show</legend>
-            {columnDefs.map((c) => (
-              <label key={c.colId} className="flex min-h-[32px] cursor-pointer items-center gap-2">
-                <input
-                  type="checkbox"
-                  checked={!(state.columns.find((x) => x.colId === c.colId)?.hide ?? true)}
-                  onChange={(e) => gridApi.current?.setColumnsVisible([c.colId], e.target.checked)}
-                />
-                {c.headerName}
-              </label>
-            ))}
-          </fieldset>
-        </details>
-        <button type="button" className="btn-quiet" onClick={exportCsv} id="export-csv">
-          Export CSV
-        </button>
+          <div>
+            <label className="label" htmlFor="status-quick">
+              Status
+            </label>
+            <select id="status-quick" className="field" value={quickStatus} onChange={(e) => setStatusFilter(e.target.value)}>
+              <option value="">{statusModel && !quickStatus ? 'Several statuses' : 'All statuses'}</option>
+              {choices.statuses.map((s) => (
+                <option key={s.value} value={s.value}>
+                  {s.label}
+                </option>
+              ))}
+            </select>
+          </div>
+          <details className="relative">
+            <summary className="btn-quiet cursor-pointer list-none">Columns</summary>
+            <fieldset className="card absolute z-20 mt-1 w-64 p-3 text-sm">
+              <legend className="sr-only">Columns to show</legend>
+              {columnDefs.map((c) => (
+                <label key={c.colId} className="flex min-h-[32px] cursor-pointer items-center gap-2">
+                  <input
+                    type="checkbox"
+                    checked={!(state.columns.find((x) => x.colId === c.colId)?.hide ?? true)}
+                    onChange={(e) => gridApi.current?.setColumnsVisible([c.colId], e.target.checked)}
+                  />
+                  {c.headerName}
+                </label>
+              ))}
+            </fieldset>
+          </details>
+          <button type="button" className="btn-quiet" onClick={exportCsv} id="export-csv">
+            Export CSV
+          </button>
         </div>
       </ViewBar>
 
@@ -216,7 +233,12 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
           {activeFilters.map(([colId, cond]) => (
             <li key={colId} className="inline-flex items-center gap-1 rounded-full border border-paper-line bg-card py-1 pl-3 pr-1 text-sm">
               <span className="font-medium">{BIN_COLUMNS[colId].label}:</span> {describeFilter(colId, cond, choices)}
-              <button type="button" className="inline-flex h-7 w-7 items-center justify-center rounded-full hover:bg-paper-deep" onClick={() => clearFilter(colId)} aria-label={`Remove the ${BIN_COLUMNS[colId].label} filter`}>
+              <button
+                type="button"
+                className="inline-flex h-7 w-7 items-center justify-center rounded-full hover:bg-paper-deep"
+                onClick={() => clearFilter(colId)}
+                aria-label={`Remove the ${BIN_COLUMNS[colId].label} filter`}
+              >
                 ×
               </button>
             </li>
@@ -225,10 +247,14 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
       )}
 
       {error && (
-        <p className="notice-fault flex items-center gap-2" role="alert"><Icon name="alert" /> {error}</p>
+        <p className="notice-fault flex items-center gap-2" role="alert">
+          <Icon name="alert" /> {error}
+        </p>
       )}
       {count === 0 && !error && (
-        <p className="notice-info" role="status">No bins match these filters. Remove a filter above, or choose another view.</p>
+        <p className="notice-info" role="status">
+          No bins match these filters. Remove a filter above, or choose another view.
+        </p>
       )}
 
       <div className="h-[70vh] min-h-[26rem] w-full" id="fleet-grid">

@@ -5,8 +5,18 @@ import type { ReactElement } from 'react';
 import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import tailwindConfig from '../../../tailwind.config.mjs';
 
-interface TripMonth { month: string; label: string; dispatched: number; returned: number }
-interface TestMonth { month: string; label: string; intermediate: number; full: number }
+interface TripMonth {
+  month: string;
+  label: string;
+  dispatched: number;
+  returned: number;
+}
+interface TestMonth {
+  month: string;
+  label: string;
+  intermediate: number;
+  full: number;
+}
 
 type Shades = Record<string, string>;
 // The palette's tokens, read from the Tailwind theme so the charts use the same colours as everything else.

@@ -48,10 +48,12 @@ export function ViewBar({ initialViews, selectedId, modified, onSelect, currentS
     }
   }
 
-  const saveNew = () =>
-    act(() => api<ViewSummary>(VIEWS_KEY, { method: 'POST', body: { name, shared, state: currentState() } }), `Saved “${name.trim()}”.`);
+  const saveNew = () => act(() => api<ViewSummary>(VIEWS_KEY, { method: 'POST', body: { name, shared, state: currentState() } }), `Saved “${name.trim()}”.`);
   const saveChanges = () =>
-    act(() => api<ViewSummary>(`${VIEWS_KEY}/${selected!.id}`, { method: 'PATCH', body: { state: currentState(), version: selected!.version } }), `Saved the changes to “${selected!.name}”.`);
+    act(
+      () => api<ViewSummary>(`${VIEWS_KEY}/${selected!.id}`, { method: 'PATCH', body: { state: currentState(), version: selected!.version } }),
+      `Saved the changes to “${selected!.name}”.`,
+    );
   const rename = () =>
     act(() => api<ViewSummary>(`${VIEWS_KEY}/${selected!.id}`, { method: 'PATCH', body: { name, shared, version: selected!.version } }), `Updated “${name.trim()}”.`);
   const remove = () =>
@@ -71,35 +73,60 @@ export function ViewBar({ initialViews, selectedId, modified, onSelect, currentS
     <div className="flex flex-col gap-2">
       <div className="flex flex-wrap items-end gap-2">
         <div>
-          <label className="label" htmlFor="view-select">View</label>
-          <select
-            id="view-select" className="field min-w-[16rem]" value={selectedId ?? ''}
-            onChange={(e) => onSelect(views.find((v) => v.id === e.target.value) ?? null)}
-          >
+          <label className="label" htmlFor="view-select">
+            View
+          </label>
+          <select id="view-select" className="field min-w-[16rem]" value={selectedId ?? ''} onChange={(e) => onSelect(views.find((v) => v.id === e.target.value) ?? null)}>
             <option value="">All bins (default)</option>
-            {groups.filter(([, list]) => list.length).map(([label, list]) => (
-              <optgroup key={label} label={label}>
-                {list.map((v) => (
-                  <option key={v.id} value={v.id}>
-                    {v.name}{v.kind === 'shared' && v.ownerName ? ` — ${v.ownerName}` : ''}{v.kind === 'own' && v.shared ? ' (shared)' : ''}
-                  </option>
-                ))}
-              </optgroup>
-            ))}
+            {groups
+              .filter(([, list]) => list.length)
+              .map(([label, list]) => (
+                <optgroup key={label} label={label}>
+                  {list.map((v) => (
+                    <option key={v.id} value={v.id}>
+                      {v.name}
+                      {v.kind === 'shared' && v.ownerName ? ` — ${v.ownerName}` : ''}
+                      {v.kind === 'own' && v.shared ? ' (shared)' : ''}
+                    </option>
+                  ))}
+                </optgroup>
+              ))}
           </select>
         </div>
         {own && modified && (
-          <button type="button" className="btn-primary" disabled={busy} onClick={saveChanges}>Save changes</button>
+          <button type="button" className="btn-primary" disabled={busy} onClick={saveChanges}>
+            Save changes
+          </button>
         )}
-        <button type="button" className="btn-quiet" disabled={busy} onClick={() => { setName(''); setShared(false); setMode({ kind: 'save' }); }}>
+        <button
+          type="button"
+          className="btn-quiet"
+          disabled={busy}
+          onClick={() => {
+            setName('');
+            setShared(false);
+            setMode({ kind: 'save' });
+          }}
+        >
           Save as new view
         </button>
         {own && (
           <>
-            <button type="button" className="btn-quiet" disabled={busy} onClick={() => { setName(selected!.name); setShared(selected!.shared); setMode({ kind: 'rename' }); }}>
+            <button
+              type="button"
+              className="btn-quiet"
+              disabled={busy}
+              onClick={() => {
+                setName(selected!.name);
+                setShared(selected!.shared);
+                setMode({ kind: 'rename' });
+              }}
+            >
               Rename or share
             </button>
-            <button type="button" className="btn-quiet text-brick" disabled={busy} onClick={() => setMode({ kind: 'confirmDelete' })}>Delete</button>
+            <button type="button" className="btn-quiet text-brick" disabled={busy} onClick={() => setMode({ kind: 'confirmDelete' })}>
+              Delete
+            </button>
           </>
         )}
         {children}
@@ -110,18 +137,28 @@ export function ViewBar({ initialViews, selectedId, modified, onSelect, currentS
       {(mode.kind === 'save' || mode.kind === 'rename') && (
         <form
           className="card flex flex-wrap items-end gap-3 p-3"
-          onSubmit={(e) => { e.preventDefault(); if (mode.kind === 'save') saveNew(); else rename(); }}
+          onSubmit={(e) => {
+            e.preventDefault();
+            if (mode.kind === 'save') saveNew();
+            else rename();
+          }}
         >
           <div>
-            <label className="label" htmlFor="view-name">View name</label>
+            <label className="label" htmlFor="view-name">
+              View name
+            </label>
             <input id="view-name" className="field w-72" maxLength={80} required value={name} onChange={(e) => setName(e.target.value)} autoFocus />
           </div>
           <label className="flex min-h-touch items-center gap-2">
             <input type="checkbox" checked={shared} onChange={(e) => setShared(e.target.checked)} />
             Share with all planners and admins
           </label>
-          <button type="submit" className="btn-primary" disabled={busy || !name.trim()}>{mode.kind === 'save' ? 'Save view' : 'Update view'}</button>
-          <button type="button" className="btn-quiet" onClick={() => setMode({ kind: 'idle' })}>Cancel</button>
+          <button type="submit" className="btn-primary" disabled={busy || !name.trim()}>
+            {mode.kind === 'save' ? 'Save view' : 'Update view'}
+          </button>
+          <button type="button" className="btn-quiet" onClick={() => setMode({ kind: 'idle' })}>
+            Cancel
+          </button>
           {mode.kind === 'save' && <p className="w-full text-sm text-ink-soft">Saves the current filters, sort order and columns.</p>}
         </form>
       )}
@@ -129,9 +166,15 @@ export function ViewBar({ initialViews, selectedId, modified, onSelect, currentS
       {mode.kind === 'confirmDelete' && selected && (
         <div className="notice-attention flex flex-wrap items-center gap-3" role="alertdialog" aria-label="Confirm deleting the view">
           <Icon name="alert" />
-          <span>Delete the view “{selected.name}”{selected.shared ? ', which other planners use too' : ''}? This cannot be undone.</span>
-          <button type="button" className="btn-danger" disabled={busy} onClick={remove}>Delete view</button>
-          <button type="button" className="btn-quiet" onClick={() => setMode({ kind: 'idle' })}>Keep it</button>
+          <span>
+            Delete the view “{selected.name}”{selected.shared ? ', which other planners use too' : ''}? This cannot be undone.
+          </span>
+          <button type="button" className="btn-danger" disabled={busy} onClick={remove}>
+            Delete view
+          </button>
+          <button type="button" className="btn-quiet" onClick={() => setMode({ kind: 'idle' })}>
+            Keep it
+          </button>
         </div>
       )}
 

@@ -104,7 +104,6 @@ export function LastScanCell({ data, context }: Props) {
   );
 }
 
-
 export function DaysAtSiteCell({ data }: Props) {
   if (!data) return null;
   if (data.daysAtSite === null) return <span className="text-ink-faint">{data.status === 'in_transit' ? 'on the road' : '—'}</span>;

@@ -23,7 +23,8 @@ export function SetFilter(props: CustomFilterProps<unknown, unknown, SetModel> &
   const shown = search ? options.filter((o) => o.label.toLowerCase().includes(search.toLowerCase())) : options;
 
   function update(next: Set<SetOption['value']>) {
-    if (next.size === options.length) onModelChange(null); // everything ticked = no filter
+    if (next.size === options.length)
+      onModelChange(null); // everything ticked = no filter
     else onModelChange({ filterType: 'set', values: options.map((o) => o.value).filter((v) => next.has(v)) });
   }
   function toggle(value: SetOption['value']) {
@@ -37,13 +38,21 @@ export function SetFilter(props: CustomFilterProps<unknown, unknown, SetModel> &
     <div className="w-72 p-3 text-sm" role="group" aria-label={`Filter by ${name}`}>
       {options.length > 8 && (
         <input
-          type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder={`Search ${name.toLowerCase()}…`}
-          className="mb-2 block w-full rounded border border-ink-faint px-2 py-1.5" aria-label={`Search ${name.toLowerCase()}`}
+          type="search"
+          value={search}
+          onChange={(e) => setSearch(e.target.value)}
+          placeholder={`Search ${name.toLowerCase()}…`}
+          className="mb-2 block w-full rounded border border-ink-faint px-2 py-1.5"
+          aria-label={`Search ${name.toLowerCase()}`}
         />
       )}
       <div className="mb-2 flex gap-3">
-        <button type="button" className="text-kelp underline" onClick={() => update(new Set(options.map((o) => o.value)))}>All</button>
-        <button type="button" className="text-kelp underline" onClick={() => update(new Set())}>None</button>
+        <button type="button" className="text-kelp underline" onClick={() => update(new Set(options.map((o) => o.value)))}>
+          All
+        </button>
+        <button type="button" className="text-kelp underline" onClick={() => update(new Set())}>
+          None
+        </button>
       </div>
       <ul className="max-h-64 overflow-y-auto">
         {shown.map((o) => (

@@ -41,14 +41,15 @@ export function readViewState(api: GridApi<GridRow>): ViewState {
 
 /** JSON with object keys sorted, so two equal states compare equal however their keys were ordered. */
 export function stableJson(value: unknown): string {
-  return JSON.stringify(value, (_k, v) =>
-    v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).sort(([a], [b]) => a.localeCompare(b))) : v,
-  );
+  return JSON.stringify(value, (_k, v) => (v && typeof v === 'object' && !Array.isArray(v) ? Object.fromEntries(Object.entries(v).sort(([a], [b]) => a.localeCompare(b))) : v));
 }
 
 /** Whether what the grid shows differs from a view (filters, sort, visible columns in order; widths ignored). */
 export function sameView(a: ViewState, b: ViewState): boolean {
-  const visible = (s: ViewState) => columnLayout(s).filter((c) => !c.hide).map((c) => c.colId);
+  const visible = (s: ViewState) =>
+    columnLayout(s)
+      .filter((c) => !c.hide)
+      .map((c) => c.colId);
   return stableJson(a.filterModel) === stableJson(b.filterModel) && stableJson(a.sortModel) === stableJson(b.sortModel) && visible(a).join() === visible(b).join();
 }
 
@@ -56,10 +57,27 @@ export function sameView(a: ViewState, b: ViewState): boolean {
 // Filters in words
 
 const OP_WORDS: Record<string, string> = {
-  contains: 'contains', notContains: 'does not contain', equals: 'is', notEqual: 'is not', startsWith: 'starts with', endsWith: 'ends with',
-  lessThan: '<', lessThanOrEqual: '≤', greaterThan: '>', greaterThanOrEqual: '≥', blank: 'is empty', notBlank: 'is not empty',
+  contains: 'contains',
+  notContains: 'does not contain',
+  equals: 'is',
+  notEqual: 'is not',
+  startsWith: 'starts with',
+  endsWith: 'ends with',
+  lessThan: '<',
+  lessThanOrEqual: '≤',
+  greaterThan: '>',
+  greaterThanOrEqual: '≥',
+  blank: 'is empty',
+  notBlank: 'is not empty',
 };
-const DATE_WORDS: Record<string, string> = { lessThan: 'before', greaterThan: 'after', lessThanOrEqual: 'on or before', greaterThanOrEqual: 'on or after', equals: 'on', notEqual: 'not on' };
+const DATE_WORDS: Record<string, string> = {
+  lessThan: 'before',
+  greaterThan: 'after',
+  lessThanOrEqual: 'on or before',
+  greaterThanOrEqual: 'on or after',
+  equals: 'on',
+  notEqual: 'not on',
+};
 
 function describeSimple(colId: BinColumnId, c: SimpleCondition, choices: FilterChoices): string {
   switch (c.filterType) {

@@ -3,10 +3,14 @@
 // refusal with its reason; then the carrier's details send the truck off.
 import { useState, type FormEvent } from 'react';
 import ScanInput, { type Identified } from '@/components/yard/ScanInput';
-import { api, ApiError } from '@/lib/api.client';
+import { api, type ApiError } from '@/lib/api.client';
 import { newClientEventId } from '@/lib/yard/ids.client';
 
-interface Bin { grai: string; serial: string; lotNumber: string | null }
+interface Bin {
+  grai: string;
+  serial: string;
+  lotNumber: string | null;
+}
 interface Props {
   reference: string;
   status: string;
@@ -55,7 +59,9 @@ export default function LoadScanner(props: Props) {
         carrier: val('carrier'),
         vehicleRegistration: val('vehicle'),
         driverName: val('driver') || undefined,
-        trailerSeals: val('seals').split(/[\s,;]+/).filter(Boolean),
+        trailerSeals: val('seals')
+          .split(/[\s,;]+/)
+          .filter(Boolean),
       });
       setStatus('dispatched');
       window.location.assign(`/loads/${encodeURIComponent(props.reference)}/note`);
@@ -67,7 +73,11 @@ export default function LoadScanner(props: Props) {
   }
 
   if (status !== 'loading') {
-    return <p className="notice-info">This load has left. <a href={`/loads/${encodeURIComponent(props.reference)}/note`}>Open the dispatch note</a>.</p>;
+    return (
+      <p className="notice-info">
+        This load has left. <a href={`/loads/${encodeURIComponent(props.reference)}/note`}>Open the dispatch note</a>.
+      </p>
+    );
   }
 
   return (
@@ -76,10 +86,18 @@ export default function LoadScanner(props: Props) {
         <div className="flex items-baseline justify-between">
           <span className="text-lg font-semibold">On the load</span>
           <span className="num text-3xl font-bold" data-testid="load-count">
-            {bins.length}<span className="text-lg text-ink-soft">/{props.target}</span>
+            {bins.length}
+            <span className="text-lg text-ink-soft">/{props.target}</span>
           </span>
         </div>
-        <div className="mt-2 h-3 rounded-full bg-paper-deep" role="progressbar" aria-label="Bins on the load against the target" aria-valuemin={0} aria-valuemax={props.target} aria-valuenow={bins.length}>
+        <div
+          className="mt-2 h-3 rounded-full bg-paper-deep"
+          role="progressbar"
+          aria-label="Bins on the load against the target"
+          aria-valuemin={0}
+          aria-valuemax={props.target}
+          aria-valuenow={bins.length}
+        >
           <div className="h-3 rounded-full bg-kelp" style={{ width: `${Math.min(100, (bins.length / props.target) * 100)}%` }} />
         </div>
         {full && <p className="mt-2 font-medium text-moss">Target reached. Enter the carrier’s details below.</p>}
@@ -89,7 +107,9 @@ export default function LoadScanner(props: Props) {
         <div className="card p-4">
           <ScanInput prefixLength={props.prefixLength} onIdentified={add} busy={busy} keepCameraOpen label="Scan or type each bin as it goes on" />
           <div className="notice-attention mt-3 text-sm">
-            {props.cautions.map((c) => <p key={c}>{c}</p>)}
+            {props.cautions.map((c) => (
+              <p key={c}>{c}</p>
+            ))}
             <p className="mt-1 text-xs">{props.defer}</p>
           </div>
         </div>
@@ -107,12 +127,36 @@ export default function LoadScanner(props: Props) {
 
       <form onSubmit={dispatch} className="card space-y-3 p-4">
         <h2>Send the truck</h2>
-        {error && <p className="notice-fault" role="alert">{error}</p>}
+        {error && (
+          <p className="notice-fault" role="alert">
+            {error}
+          </p>
+        )}
         <div className="grid gap-3 sm:grid-cols-2">
-          <div><label className="label" htmlFor="carrier">Carrier</label><input id="carrier" name="carrier" className="field" required maxLength={120} /></div>
-          <div><label className="label" htmlFor="vehicle">Vehicle registration</label><input id="vehicle" name="vehicle" className="field ident uppercase" required maxLength={20} /></div>
-          <div><label className="label" htmlFor="driver">Driver</label><input id="driver" name="driver" className="field" maxLength={120} /></div>
-          <div><label className="label" htmlFor="seals">Trailer seal numbers</label><input id="seals" name="seals" className="field ident" maxLength={200} /></div>
+          <div>
+            <label className="label" htmlFor="carrier">
+              Carrier
+            </label>
+            <input id="carrier" name="carrier" className="field" required maxLength={120} />
+          </div>
+          <div>
+            <label className="label" htmlFor="vehicle">
+              Vehicle registration
+            </label>
+            <input id="vehicle" name="vehicle" className="field ident uppercase" required maxLength={20} />
+          </div>
+          <div>
+            <label className="label" htmlFor="driver">
+              Driver
+            </label>
+            <input id="driver" name="driver" className="field" maxLength={120} />
+          </div>
+          <div>
+            <label className="label" htmlFor="seals">
+              Trailer seal numbers
+            </label>
+            <input id="seals" name="seals" className="field ident" maxLength={200} />
+          </div>
         </div>
         <button className="btn-primary w-full" type="submit" disabled={busy || bins.length === 0}>
           Dispatch {bins.length} bin{bins.length === 1 ? '' : 's'} and print the note
@@ -124,7 +168,11 @@ export default function LoadScanner(props: Props) {
           <summary className="cursor-pointer font-medium">Bins on this load</summary>
           <ul className="mt-2 space-y-1">
             {bins.map((b) => (
-              <li key={b.grai}><a className="ident" href={`/bins/${b.grai}`}>{b.grai}</a></li>
+              <li key={b.grai}>
+                <a className="ident" href={`/bins/${b.grai}`}>
+                  {b.grai}
+                </a>
+              </li>
             ))}
           </ul>
         </details>

@@ -30,11 +30,22 @@ export function OrderCommands({ orderId, version, commands }: { orderId: number;
   return (
     <div className="flex flex-wrap items-center gap-3" data-testid="order-commands">
       {commands.map((c) => (
-        <button key={c.command} type="button" disabled={busy} className={c.command === 'confirm' ? 'btn-primary' : 'btn-quiet'} onClick={() => run(c.command)} data-command={c.command}>
+        <button
+          key={c.command}
+          type="button"
+          disabled={busy}
+          className={c.command === 'confirm' ? 'btn-primary' : 'btn-quiet'}
+          onClick={() => run(c.command)}
+          data-command={c.command}
+        >
           {c.label}
         </button>
       ))}
-      {problem && <p className="notice-fault flex items-start gap-2 w-full" role="alert"><Icon name="alert" size={18} className="mt-0.5 shrink-0" /> {problem}</p>}
+      {problem && (
+        <p className="notice-fault flex items-start gap-2 w-full" role="alert">
+          <Icon name="alert" size={18} className="mt-0.5 shrink-0" /> {problem}
+        </p>
+      )}
     </div>
   );
 }

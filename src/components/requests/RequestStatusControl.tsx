@@ -19,7 +19,11 @@ export interface RequestStatusControlProps {
 
 /** The request's status (word and icon) and the planner's next steps, saved with the version the page showed. */
 export default function RequestStatusControl({ kind, id, status: initialStatus, version: initialVersion, readyOn = null, plannedFor = null, today }: RequestStatusControlProps) {
-  const earliest = [readyOn, today].filter((d): d is string => !!d).sort().at(-1) ?? '';
+  const earliest =
+    [readyOn, today]
+      .filter((d): d is string => !!d)
+      .sort()
+      .at(-1) ?? '';
   const [runDay, setRunDay] = useState(plannedFor ?? earliest);
   const [status, setStatus] = useState(initialStatus);
   const [version, setVersion] = useState(initialVersion);

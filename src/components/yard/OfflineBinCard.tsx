@@ -24,7 +24,6 @@ interface Props {
   onClose: () => void;
 }
 
-
 export default function OfflineBinCard({ identified, prefixLength, onClose }: Props) {
   const [stored, setStored] = useState<StoredSnapshot | null | undefined>(undefined);
   const [queue, setQueue] = useState<QueueStatus | null>(null);
@@ -42,9 +41,7 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
   if (stored === undefined || queue === null) return null;
   const graiText = identified.grai ? safeGroup(identified.grai, prefixLength) : null;
   const snapshot = stored?.snapshot ?? null;
-  const ctx: ActingContext | null = snapshot
-    ? { role: 'yard', today: todayIn(snapshot.timeZone, new Date()), site: { id: snapshot.depot.id, kind: snapshot.depot.kind } }
-    : null;
+  const ctx: ActingContext | null = snapshot ? { role: 'yard', today: todayIn(snapshot.timeZone, new Date()), site: { id: snapshot.depot.id, kind: snapshot.depot.kind } } : null;
   const found = snapshot ? findInSnapshot(snapshot, identified) : null;
   const pendingBodies = queue.pending.map((p) => p.body);
   const projection = found && ctx ? projectBin(found, pendingBodies, ctx) : null;
@@ -69,7 +66,7 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
         <div>
           <p className="text-sm font-medium text-harbour">Offline view</p>
           <h2 id="offline-bin-title" className="ident break-all">
-            {bin ? `Bin ${bin.serial}` : graiText ?? `Serial ${identified.serial}`}
+            {bin ? `Bin ${bin.serial}` : (graiText ?? `Serial ${identified.serial}`)}
           </h2>
           {bin && <p className="ident text-sm text-ink-soft break-all">{safeGroup(bin.grai, prefixLength)}</p>}
         </div>
@@ -79,14 +76,24 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
       </div>
 
       <p className="notice-info" role="status">
-        No connection to Loopfold. {snapshot ? <>Showing your depot as this phone saw it at {instantLabel(stored!.storedAt, snapshot.timeZone)}.</> : <>This phone has no offline copy of your depot yet: it is saved the next time the yard page opens with signal.</>} What you record is saved on the phone and sent when the signal is back.
+        No connection to Loopfold.{' '}
+        {snapshot ? (
+          <>Showing your depot as this phone saw it at {instantLabel(stored!.storedAt, snapshot.timeZone)}.</>
+        ) : (
+          <>This phone has no offline copy of your depot yet: it is saved the next time the yard page opens with signal.</>
+        )}{' '}
+        What you record is saved on the phone and sent when the signal is back.
       </p>
 
       {bin && projection && ctx && snapshot && (
         <>
           <div className="flex flex-wrap items-center gap-2">
             <StatusBadge status={bin.status} size="lg" testLapsed={isInspectionLapsed(bin.nextDue, ctx.today)} />
-            {projection.applied > 0 && <span className="text-sm text-ink-soft">after {projection.applied} scan{projection.applied === 1 ? '' : 's'} waiting on this phone</span>}
+            {projection.applied > 0 && (
+              <span className="text-sm text-ink-soft">
+                after {projection.applied} scan{projection.applied === 1 ? '' : 's'} waiting on this phone
+              </span>
+            )}
           </div>
           <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
             <dt className="text-ink-soft">Type</dt>
@@ -124,7 +131,8 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
       {!bin && snapshot && (
         <div className="space-y-3">
           <p>
-            {identified.grai ? 'This bin is not in your depot’s offline list' : `No single bin in your depot’s offline list has serial ${identified.serial}`} (bins here and bins on their way back here).
+            {identified.grai ? 'This bin is not in your depot’s offline list' : `No single bin in your depot’s offline list has serial ${identified.serial}`} (bins here and bins on
+            their way back here).
             {identified.grai ? ' If it has just arrived, you can still receive it: Loopfold checks it when the signal is back.' : ' Scan or type the full GRAI instead.'}
           </p>
           {identified.grai && (

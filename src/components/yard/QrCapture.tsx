@@ -44,7 +44,10 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
     return () => {
       const r = reader.current;
       reader.current = null;
-      if (r) void loadReader().then((m) => m.stopCamera(r)).catch(() => undefined);
+      if (r)
+        void loadReader()
+          .then((m) => m.stopCamera(r))
+          .catch(() => undefined);
     };
   }, []);
 
@@ -116,13 +119,34 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
   return (
     <div className="space-y-2" data-qr-capture>
       <div className="grid grid-cols-2 gap-2">
-        <button type="button" className="btn-primary min-h-[56px]" onClick={() => void openCamera()} disabled={busy} data-open-camera aria-label="Camera: scan the QR label live" aria-describedby={!secure ? `${base}-insecure` : undefined}>
+        <button
+          type="button"
+          className="btn-primary min-h-[56px]"
+          onClick={() => void openCamera()}
+          disabled={busy}
+          data-open-camera
+          aria-label="Camera: scan the QR label live"
+          aria-describedby={!secure ? `${base}-insecure` : undefined}
+        >
           <Icon name="camera" /> Camera
         </button>
-        <label htmlFor={`${photoId}-input`} aria-label="Photo: take a picture of the QR label" className={`btn-quiet min-h-[56px] cursor-pointer ${busy ? 'pointer-events-none opacity-60' : ''}`}>
+        <label
+          htmlFor={`${photoId}-input`}
+          aria-label="Photo: take a picture of the QR label"
+          className={`btn-quiet min-h-[56px] cursor-pointer ${busy ? 'pointer-events-none opacity-60' : ''}`}
+        >
           <Icon name="label" /> {mode === 'reading' ? 'Reading…' : 'Photo'}
         </label>
-        <input id={`${photoId}-input`} type="file" accept="image/*" capture="environment" className="sr-only" onChange={(e) => void readPhoto(e)} disabled={busy} data-photo-input />
+        <input
+          id={`${photoId}-input`}
+          type="file"
+          accept="image/*"
+          capture="environment"
+          className="sr-only"
+          onChange={(e) => void readPhoto(e)}
+          disabled={busy}
+          data-photo-input
+        />
       </div>
       {!secure && (
         <p id={`${base}-insecure`} className="text-sm text-ink-soft">

@@ -56,7 +56,9 @@ export default function SyncStatus() {
         </svg>
         <span>{online ? 'Online' : 'Offline'}</span>
         <span aria-hidden="true">·</span>
-        <span className="num" data-waiting>{summary}</span>
+        <span className="num" data-waiting>
+          {summary}
+        </span>
         {refusedCount > 0 && (
           <span className="ml-auto rounded-full bg-brick px-2 py-0.5 text-white num" data-refused>
             {refusedCount} refused
@@ -69,13 +71,16 @@ export default function SyncStatus() {
         <div id="sync-panel" className="mt-2 max-h-[60vh] space-y-3 overflow-y-auto rounded-md bg-card p-3 text-ink" data-sync-panel>
           {s.needsSignIn && (
             <p className="notice-attention">
-              Your session has ended. <a href={`/login?next=${encodeURIComponent(location.pathname)}`}>Sign in again</a> to send the {waiting} scans waiting on this phone; they stay here meanwhile.
+              Your session has ended. <a href={`/login?next=${encodeURIComponent(location.pathname)}`}>Sign in again</a> to send the {waiting} scans waiting on this phone; they
+              stay here meanwhile.
             </p>
           )}
           {!online && <p className="text-sm">No connection to Loopfold. Scans are saved on this phone and sent by themselves when the signal is back.</p>}
           {s.refused.length > 0 && (
             <section aria-labelledby="refused-title">
-              <h3 id="refused-title" className="font-semibold">Refused by Loopfold</h3>
+              <h3 id="refused-title" className="font-semibold">
+                Refused by Loopfold
+              </h3>
               <p className="text-sm text-ink-soft">These were not recorded. Check each bin and record again what still applies.</p>
               <ul className="mt-2 space-y-2">
                 {s.refused.map((r) => (
@@ -85,7 +90,11 @@ export default function SyncStatus() {
                     <div className="mt-1 flex items-center justify-between gap-2 text-xs">
                       <span>scanned {when(r.queuedAt)}</span>
                       <span className="flex gap-2">
-                        {r.label.grai && <a href={`/bins/${r.label.grai}`} className="btn-quiet min-h-[40px] px-3 text-sm">Open bin</a>}
+                        {r.label.grai && (
+                          <a href={`/bins/${r.label.grai}`} className="btn-quiet min-h-[40px] px-3 text-sm">
+                            Open bin
+                          </a>
+                        )}
                         <button type="button" className="btn-quiet min-h-[40px] px-3 text-sm" onClick={() => void dismissRefused(r.clientEventId)}>
                           Dismiss
                         </button>
@@ -97,7 +106,9 @@ export default function SyncStatus() {
             </section>
           )}
           <section aria-labelledby="waiting-title">
-            <h3 id="waiting-title" className="font-semibold">Waiting on this phone</h3>
+            <h3 id="waiting-title" className="font-semibold">
+              Waiting on this phone
+            </h3>
             {s.pending.length === 0 ? (
               <p className="text-sm text-ink-soft">Nothing waiting: every scan has reached Loopfold.</p>
             ) : (

@@ -81,7 +81,12 @@ async function moveSequence(table: string, t: Transaction) {
 }
 
 export async function writePool(pool: PoolSim, inspections: SimInspection[], t: Transaction): Promise<{ events: number }> {
-  await insertRows('liner_lots', ['id', 'supplier', 'lot_number', 'spec', 'quantity_received', 'received_on', 'expiry_date', 'site_id', 'status', 'liner_spec_id', 'supplier_id'], [...pool.lots.values()], t);
+  await insertRows(
+    'liner_lots',
+    ['id', 'supplier', 'lot_number', 'spec', 'quantity_received', 'received_on', 'expiry_date', 'site_id', 'status', 'liner_spec_id', 'supplier_id'],
+    [...pool.lots.values()],
+    t,
+  );
   await insertRows(
     'hire_orders',
     ['id', 'reference', 'customer_id', 'delivery_site_id', 'depot_site_id', 'bin_type_id', 'quantity', 'needed_by', 'status', 'product'],
@@ -90,10 +95,28 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   );
   // Bins first without their open trip (trips refer to bins, bins to their open trip).
   const assets = [...pool.assets.values()].map((a) => ({
-    id: a.id, grai: a.grai, serial: a.serial, bin_type_id: a.binTypeId, manufacture_month: a.manufactureMonth, un_marking: a.unMarking,
-    status: a.status, site_id: a.siteId, site_since: a.siteSince, customer_id: a.customerId, leg: a.leg, prep_checked: a.prepChecked,
-    liner_lot_id: a.linerLotId, filled: a.filled, last_scan_at: a.lastScanAt, trip_count: a.tripCount, last_inspection_on: a.lastInspectionOn, last_leak_test_on: a.lastLeakTestOn,
-    last_full_inspection_on: a.lastFullInspectionOn, next_intermediate_due: a.nextIntermediateDue, next_full_due: a.nextFullDue, next_due: a.nextDue,
+    id: a.id,
+    grai: a.grai,
+    serial: a.serial,
+    bin_type_id: a.binTypeId,
+    manufacture_month: a.manufactureMonth,
+    un_marking: a.unMarking,
+    status: a.status,
+    site_id: a.siteId,
+    site_since: a.siteSince,
+    customer_id: a.customerId,
+    leg: a.leg,
+    prep_checked: a.prepChecked,
+    liner_lot_id: a.linerLotId,
+    filled: a.filled,
+    last_scan_at: a.lastScanAt,
+    trip_count: a.tripCount,
+    last_inspection_on: a.lastInspectionOn,
+    last_leak_test_on: a.lastLeakTestOn,
+    last_full_inspection_on: a.lastFullInspectionOn,
+    next_intermediate_due: a.nextIntermediateDue,
+    next_full_due: a.nextFullDue,
+    next_due: a.nextDue,
     version: a.version,
   }));
   await insertRows('assets', Object.keys(assets[0] ?? { id: 0 }), assets, t);
@@ -101,19 +124,49 @@ export async function writePool(pool: PoolSim, inspections: SimInspection[], t: 
   await insertRows('trips', Object.keys(trips[0] ?? { id: 0 }), trips, t);
   const open = [...pool.assets.values()].filter((a) => a.currentTripId !== null);
   if (open.length) {
-    await sequelize.query(
-      `UPDATE assets a SET current_trip_id = v.trip_id FROM unnest($1::int[], $2::int[]) AS v(asset_id, trip_id) WHERE a.id = v.asset_id`,
-      { bind: [open.map((a) => a.id), open.map((a) => a.currentTripId)], transaction: t },
-    );
+    await sequelize.query(`UPDATE assets a SET current_trip_id = v.trip_id FROM unnest($1::int[], $2::int[]) AS v(asset_id, trip_id) WHERE a.id = v.asset_id`, {
+      bind: [open.map((a) => a.id), open.map((a) => a.currentTripId)],
+      transaction: t,
+    });
   }
-  const eventColumns = ['id', 'asset_id', 'action', 'occurred_at', 'site_id', 'user_id', 'client_event_id', 'status_from', 'status_to', 'trip_id', 'inferred', 'flagged', 'payload'];
+  const eventColumns = [
+    'id',
+    'asset_id',
+    'action',
+    'occurred_at',
+    'site_id',
+    'user_id',
+    'client_event_id',
+    'status_from',
+    'status_to',
+    'trip_id',
+    'inferred',
+    'flagged',
+    'payload',
+  ];
   await insertRows('scan_events', eventColumns, pool.events, t);
   // The liner ledger: receipts first, so every prefix of the rows keeps each lot's stock at 0 or more.
   await insertRows('liner_moves', ['lot_id', 'site_id', 'kind', 'quantity', 'occurred_at', 'user_id', 'asset_id', 'scan_event_id', 'reason'], pool.moves, t);
   await insertRows('scan_event_keys', ['client_event_id', 'user_id', 'scan_event_id', 'outcome'], pool.keys, t);
   await insertRows(
     'inspections',
-    ['id', 'asset_id', 'kind', 'performed_on', 'inspector_id', 'site_id', 'checklist', 'leak_test_pressure_kpa', 'leak_test_minutes', 'leak_test_passed', 'outcome', 'next_intermediate_due', 'next_full_due', 'scan_event_id', 'recorded_by'],
+    [
+      'id',
+      'asset_id',
+      'kind',
+      'performed_on',
+      'inspector_id',
+      'site_id',
+      'checklist',
+      'leak_test_pressure_kpa',
+      'leak_test_minutes',
+      'leak_test_passed',
+      'outcome',
+      'next_intermediate_due',
+      'next_full_due',
+      'scan_event_id',
+      'recorded_by',
+    ],
     inspections,
     t,
   );

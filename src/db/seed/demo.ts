@@ -56,13 +56,31 @@ async function seedPeopleAndPlaces() {
     const customers = new Map<string, Organisation>();
     for (const c of CUSTOMERS) {
       const org = await Organisation.create(
-        { name: c.name, kind: 'customer', contactEmail: c.email, freeDays: c.freeDays, dailyRate: c.dailyRate, tripFee: c.tripFee, lostBinFee: c.lostBinFee, currency: OPERATOR.currency },
+        {
+          name: c.name,
+          kind: 'customer',
+          contactEmail: c.email,
+          freeDays: c.freeDays,
+          dailyRate: c.dailyRate,
+          tripFee: c.tripFee,
+          lostBinFee: c.lostBinFee,
+          currency: OPERATOR.currency,
+        },
         opts,
       );
       customers.set(c.name, org);
       // The customer's tariff: orders and billing read their terms from here, in force since before the history.
       await Tariff.create(
-        { customerId: org.id, freeDays: c.freeDays, dailyRate: c.dailyRate, perTripFee: c.tripFee, lostBinFee: c.lostBinFee, currency: OPERATOR.currency, validFrom: '2020-01-01', validTo: null },
+        {
+          customerId: org.id,
+          freeDays: c.freeDays,
+          dailyRate: c.dailyRate,
+          perTripFee: c.tripFee,
+          lostBinFee: c.lostBinFee,
+          currency: OPERATOR.currency,
+          validFrom: '2020-01-01',
+          validTo: null,
+        },
         opts,
       );
       for (const s of c.sites) {
@@ -78,7 +96,10 @@ async function seedPeopleAndPlaces() {
     for (const l of DEMO_LOGINS) {
       await User.create(
         {
-          email: l.email, name: l.name, passwordHash, role: l.role as 'admin',
+          email: l.email,
+          name: l.name,
+          passwordHash,
+          role: l.role as 'admin',
           organisationId: l.role === 'customer' ? firstCustomer.id : operator.id,
           homeSiteId: l.role === 'yard' ? sitesByCode.get('DEP-RTM')!.id : null,
           qualifiedInspector: l.role === 'yard',
@@ -90,12 +111,30 @@ async function seedPeopleAndPlaces() {
     }
     const second = SECOND_CUSTOMER_LOGIN;
     await User.create(
-      { email: second.email, name: second.name, passwordHash, role: 'customer', organisationId: customers.get(second.organisation)!.id, homeSiteId: null, qualifiedInspector: false, lastSignInAt: null },
+      {
+        email: second.email,
+        name: second.name,
+        passwordHash,
+        role: 'customer',
+        organisationId: customers.get(second.organisation)!.id,
+        homeSiteId: null,
+        qualifiedInspector: false,
+        lastSignInAt: null,
+      },
       opts,
     );
     for (const s of EXTRA_STAFF) {
       await User.create(
-        { email: s.email, name: s.name, passwordHash, role: s.role, organisationId: operator.id, homeSiteId: sitesByCode.get(s.homeDepot)!.id, qualifiedInspector: s.qualifiedInspector, lastSignInAt: null },
+        {
+          email: s.email,
+          name: s.name,
+          passwordHash,
+          role: s.role,
+          organisationId: operator.id,
+          homeSiteId: sitesByCode.get(s.homeDepot)!.id,
+          qualifiedInspector: s.qualifiedInspector,
+          lastSignInAt: null,
+        },
         opts,
       );
     }

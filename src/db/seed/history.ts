@@ -68,24 +68,57 @@ export async function generateHistory(opts: { bins: number; months: number; now?
     serial += 1;
     const grai = makeGrai(OPERATOR.gs1CompanyPrefix, type.graiAssetType, String(100000 + serial));
     const input = {
-      grai, binTypeId: type.id, siteId: depot.id, manufactureMonth: made,
+      grai,
+      binTypeId: type.id,
+      siteId: depot.id,
+      manufactureMonth: made,
       unMarking: type.unCode ? `${type.unCode}/Y/${made.slice(5, 7)} ${made.slice(2, 4)}/NL/NMP 4417/2313/${Number(type.maxGrossKg)}` : null,
       lastIntermediateTestMonth: lastTest,
     };
     // The same row and first log entry registerBin() writes.
     const row = newAssetRow(checkedOrThrow(input, OPERATOR.gs1PrefixLength), input, type, depot.id, joined);
     const asset: SimAsset = {
-      id: pool.ids.take('assets'), grai: row.grai, serial: row.serial, binTypeId: row.binTypeId, manufactureMonth: row.manufactureMonth,
-      unMarking: row.unMarking, status: row.status, siteId: row.siteId, siteSince: row.siteSince, customerId: null, currentTripId: null,
-      leg: null, prepChecked: false, linerLotId: null, filled: false, tripCount: 0, lastScanAt: row.lastScanAt,
-      lastInspectionOn: row.lastInspectionOn, lastLeakTestOn: row.lastLeakTestOn, lastFullInspectionOn: row.lastFullInspectionOn, nextIntermediateDue: row.nextIntermediateDue,
-      nextFullDue: row.nextFullDue, nextDue: row.nextDue, version: 0,
+      id: pool.ids.take('assets'),
+      grai: row.grai,
+      serial: row.serial,
+      binTypeId: row.binTypeId,
+      manufactureMonth: row.manufactureMonth,
+      unMarking: row.unMarking,
+      status: row.status,
+      siteId: row.siteId,
+      siteSince: row.siteSince,
+      customerId: null,
+      currentTripId: null,
+      leg: null,
+      prepChecked: false,
+      linerLotId: null,
+      filled: false,
+      tripCount: 0,
+      lastScanAt: row.lastScanAt,
+      lastInspectionOn: row.lastInspectionOn,
+      lastLeakTestOn: row.lastLeakTestOn,
+      lastFullInspectionOn: row.lastFullInspectionOn,
+      nextIntermediateDue: row.nextIntermediateDue,
+      nextFullDue: row.nextFullDue,
+      nextDue: row.nextDue,
+      version: 0,
     };
     pool.assets.set(asset.id, asset);
     const ev = registerEventRow(asset.id, depot.id, world.planner, joined);
     pool.events.push({
-      id: pool.ids.take('scan_events'), asset_id: asset.id, action: 'register', occurred_at: joined, site_id: depot.id, user_id: ev.userId,
-      client_event_id: null, status_from: null, status_to: 'available', trip_id: null, inferred: false, flagged: false, payload: ev.payload,
+      id: pool.ids.take('scan_events'),
+      asset_id: asset.id,
+      action: 'register',
+      occurred_at: joined,
+      site_id: depot.id,
+      user_id: ev.userId,
+      client_event_id: null,
+      status_from: null,
+      status_to: 'available',
+      trip_id: null,
+      inferred: false,
+      flagged: false,
+      payload: ev.payload,
     });
     plans.push({ asset, joined, depot });
   }
@@ -130,7 +163,23 @@ async function loadWorld(now: Date, start: Date, rnd: Random, transaction: Trans
   const liners = await seedLinerRecords(types, transaction);
   for (const [id, f] of liners.specs) pool.specs.set(id, f);
   for (const t of types) pool.binTypes.set(t.id, { name: t.name, listed: liners.listed.get(t.id) ?? [] });
-  return { now, start, rnd, planner: actorOf(planner), yardByDepot, customerActor, depots, customers, types, lots: [], orders: new Map(), inspections: [], pool, liners, stats: {} };
+  return {
+    now,
+    start,
+    rnd,
+    planner: actorOf(planner),
+    yardByDepot,
+    customerActor,
+    depots,
+    customers,
+    types,
+    lots: [],
+    orders: new Map(),
+    inspections: [],
+    pool,
+    liners,
+    stats: {},
+  };
 }
 
 function count(world: World, key: string, n = 1) {
@@ -176,9 +225,15 @@ function createLinerLots(world: World) {
       const received = localDate(new Date(t), OPERATOR.timeZone);
       const expiry = localDate(new Date(t + rnd.int(600, 760) * DAY), OPERATOR.timeZone);
       const lot: SimLot = {
-        id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
+        id: world.pool.ids.take('liner_lots'),
+        supplier: supplier.name,
         lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-${String(n).padStart(3, '0')}`,
-        spec: supplier.spec, quantity_received: rnd.pick([300, 400, 500]), received_on: received, expiry_date: expiry, site_id: depot.id, status: 'released',
+        spec: supplier.spec,
+        quantity_received: rnd.pick([300, 400, 500]),
+        received_on: received,
+        expiry_date: expiry,
+        site_id: depot.id,
+        status: 'released',
         ...linerIds(world, supplier.name),
       };
       world.lots.push(lot);
@@ -212,9 +267,15 @@ function urgentLot(world: World, depotId: number, at: Date): SimLot {
   const supplier = LINER_SUPPLIERS[n % LINER_SUPPLIERS.length]!;
   const received = localDate(at, OPERATOR.timeZone);
   const lot: SimLot = {
-    id: world.pool.ids.take('liner_lots'), supplier: supplier.name,
+    id: world.pool.ids.take('liner_lots'),
+    supplier: supplier.name,
     lot_number: `${supplier.prefix}${received.slice(2, 4)}${received.slice(5, 7)}-U${String(n).padStart(3, '0')}`,
-    spec: supplier.spec, quantity_received: 400, received_on: received, expiry_date: addDays(received, 700), site_id: depotId, status: 'released',
+    spec: supplier.spec,
+    quantity_received: 400,
+    received_on: received,
+    expiry_date: addDays(received, 700),
+    site_id: depotId,
+    status: 'released',
     ...linerIds(world, supplier.name),
   };
   world.lots.push(lot);
@@ -234,8 +295,13 @@ function orderFor(world: World, customer: World['customers'][number], depot: Sit
   const order: SimOrder = {
     id: world.pool.ids.take('hire_orders'),
     reference: `HO-${localDate(at, OPERATOR.timeZone).slice(2, 7).replace('-', '')}-${String(n).padStart(4, '0')}`,
-    customer_id: customer.org.id, delivery_site_id: customer.filling.id, depot_site_id: depot.id, bin_type_id: type.id,
-    quantity: 1, needed_by: localDate(new Date(at.getTime() + 2 * DAY), OPERATOR.timeZone), status: 'loading',
+    customer_id: customer.org.id,
+    delivery_site_id: customer.filling.id,
+    depot_site_id: depot.id,
+    bin_type_id: type.id,
+    quantity: 1,
+    needed_by: localDate(new Date(at.getTime() + 2 * DAY), OPERATOR.timeZone),
+    status: 'loading',
     product: PRODUCTS[customer.org.name] ?? null,
   };
   world.orders.set(key, order);
@@ -273,7 +339,8 @@ function liveBin(world: World, bin: SimAsset, homeDepot: Site, joined: Date) {
     later(4, 36);
     keepTestInDate(world, bin, t, yard);
     const pass = !rnd.chance(0.04);
-    if (!(scan(yard, { action: 'prep_check', siteId: depot.id, prepResult: pass ? 'pass' : 'fail', checklist: prepChecklist(pass), faults: pass ? undefined : rnd.pick(FAULTS) }, t))) return;
+    if (!scan(yard, { action: 'prep_check', siteId: depot.id, prepResult: pass ? 'pass' : 'fail', checklist: prepChecklist(pass), faults: pass ? undefined : rnd.pick(FAULTS) }, t))
+      return;
     if (!pass) {
       count(world, 'quarantined');
       if (rnd.chance(0.05)) {
@@ -282,30 +349,30 @@ function liveBin(world: World, bin: SimAsset, homeDepot: Site, joined: Date) {
         return;
       }
       later(1, 5);
-      if (!(scan(yard, { action: 'send_to_repair', siteId: depot.id }, t))) return;
+      if (!scan(yard, { action: 'send_to_repair', siteId: depot.id }, t)) return;
       later(4, 14);
-      if (!(scan(world.planner, { action: 'release', siteId: null, note: 'Repaired and retested.' }, t))) return;
+      if (!scan(world.planner, { action: 'release', siteId: null, note: 'Repaired and retested.' }, t)) return;
       continue;
     }
     later(0, 1);
     const lot = lotFor(world, depot.id, new Date(t));
-    if (!lot || !(scan(yard, { action: 'fit_liner', siteId: depot.id, linerLotId: lot.id }, t))) return;
+    if (!lot || !scan(yard, { action: 'fit_liner', siteId: depot.id, linerLotId: lot.id }, t)) return;
 
     const customer = rnd.chance(0.75) ? rnd.pick(world.customers.filter((c) => c.homeDepot.id === depot.id).concat(world.customers)) : rnd.pick(world.customers);
     later(0, 4);
     const order = orderFor(world, customer, depot, binType, new Date(t));
-    if (!(scan(yard, { action: 'dispatch', siteId: depot.id, purpose: 'hire', hireOrderId: order.id }, t))) return;
+    if (!scan(yard, { action: 'dispatch', siteId: depot.id, purpose: 'hire', hireOrderId: order.id }, t)) return;
 
     const driver = world.yardByDepot.get(customer.homeDepot.id)!;
     const customerActor = world.customerActor.get(customer.org.id) ?? world.planner;
     later(0, 2);
     const skipDeliver = rnd.chance(0.03);
-    if (!skipDeliver && !(scan(driver, { action: 'deliver', siteId: customer.filling.id }, t))) return;
+    if (!skipDeliver && !scan(driver, { action: 'deliver', siteId: customer.filling.id }, t)) return;
     later(1, 6);
     const product = PRODUCTS[customer.org.name] ?? 'Vegetable oil';
     const volume = rnd.int(880, 960);
     const fill = { product, volumeL: volume, massKg: Math.round(volume * 0.92), temperatureC: rnd.int(8, 24), seals: [sealNumber(rnd), sealNumber(rnd)] };
-    if (!(scan(customerActor, { action: 'fill_seal', siteId: customer.filling.id, fill }, t))) return;
+    if (!scan(customerActor, { action: 'fill_seal', siteId: customer.filling.id, fill }, t)) return;
 
     // With the customer: discharged at the receiving site, folded, waiting for the haulier.
     const slow = customer.slowPayer && rnd.chance(0.35);
@@ -317,15 +384,15 @@ function liveBin(world: World, bin: SimAsset, homeDepot: Site, joined: Date) {
       return;
     }
     const seals = rnd.chance(0.01) ? [fill.seals[0]!, sealNumber(rnd)] : fill.seals;
-    if (!(scan(customerActor, { action: 'discharge', siteId: customer.receiving.id, sealsVerified: seals }, t))) return;
+    if (!scan(customerActor, { action: 'discharge', siteId: customer.receiving.id, sealsVerified: seals }, t)) return;
     later(0, 2);
-    if (!(scan(customerActor, { action: 'fold', siteId: customer.receiving.id }, t))) return;
+    if (!scan(customerActor, { action: 'fold', siteId: customer.receiving.id }, t)) return;
     later(3, slow ? 30 : 14);
     const skipCollect = rnd.chance(0.1); // the haulier forgot to scan; the depot infers it
-    if (!skipCollect && !(scan(driver, { action: 'collect', siteId: customer.receiving.id }, t))) return;
+    if (!skipCollect && !scan(driver, { action: 'collect', siteId: customer.receiving.id }, t)) return;
     later(1, 3);
     depot = rnd.chance(0.85) ? customer.homeDepot : rnd.pick(world.depots);
-    if (!(scan(world.yardByDepot.get(depot.id)!, { action: 'receive', siteId: depot.id }, t))) return;
+    if (!scan(world.yardByDepot.get(depot.id)!, { action: 'receive', siteId: depot.id }, t)) return;
   }
 }
 
@@ -344,19 +411,37 @@ function keepTestInDate(world: World, asset: SimAsset, at: number, inspector: Ac
   const { schedule } = scheduleAfterTest(asset, { kind, outcome: 'pass', leakTest, performedOn: today }, policyForBinType(type));
   let eventId: number;
   try {
-    eventId = world.pool.recordScan(inspector, PoolSim.input({
-      assetId: asset.id, action: 'inspect', siteId: asset.siteId, occurredAt: new Date(at),
-      inspection: { kind, outcome: 'pass', leakTest }, inspectionResult: { kind, outcome: 'pass', scheduleAfter: schedule },
-    })).eventId;
+    eventId = world.pool.recordScan(
+      inspector,
+      PoolSim.input({
+        assetId: asset.id,
+        action: 'inspect',
+        siteId: asset.siteId,
+        occurredAt: new Date(at),
+        inspection: { kind, outcome: 'pass', leakTest },
+        inspectionResult: { kind, outcome: 'pass', scheduleAfter: schedule },
+      }),
+    ).eventId;
   } catch (e) {
     if (e instanceof SimRefusal) return;
     throw e;
   }
   world.inspections.push({
-    id: world.pool.ids.take('inspections'), asset_id: asset.id, kind, performed_on: today, inspector_id: inspector.id,
-    site_id: asset.siteId, checklist: Object.fromEntries(CHECKLIST[kind].map((i) => [i.key, true])), leak_test_pressure_kpa: '20',
-    leak_test_minutes: '10', leak_test_passed: true, outcome: 'pass', next_intermediate_due: asset.nextIntermediateDue, next_full_due: asset.nextFullDue,
-    scan_event_id: eventId, recorded_by: inspector.id,
+    id: world.pool.ids.take('inspections'),
+    asset_id: asset.id,
+    kind,
+    performed_on: today,
+    inspector_id: inspector.id,
+    site_id: asset.siteId,
+    checklist: Object.fromEntries(CHECKLIST[kind].map((i) => [i.key, true])),
+    leak_test_pressure_kpa: '20',
+    leak_test_minutes: '10',
+    leak_test_passed: true,
+    outcome: 'pass',
+    next_intermediate_due: asset.nextIntermediateDue,
+    next_full_due: asset.nextFullDue,
+    scan_event_id: eventId,
+    recorded_by: inspector.id,
   });
   count(world, full ? 'full_tests' : 'intermediate_tests');
 }
@@ -390,8 +475,14 @@ function openComingOrders(world: World) {
       const order: SimOrder = {
         id: world.pool.ids.take('hire_orders'),
         reference: `HO-${localDate(needed, OPERATOR.timeZone).slice(2, 7).replace('-', '')}-N${String(n).padStart(3, '0')}`,
-        customer_id: c.org.id, delivery_site_id: c.filling.id, depot_site_id: c.homeDepot.id, bin_type_id: world.types[k % 2]!.id,
-        quantity: rnd.pick([12, 20, 24, 24, 30, 40]), needed_by: localDate(needed, OPERATOR.timeZone), status: 'confirmed', product: PRODUCTS[c.org.name] ?? null,
+        customer_id: c.org.id,
+        delivery_site_id: c.filling.id,
+        depot_site_id: c.homeDepot.id,
+        bin_type_id: world.types[k % 2]!.id,
+        quantity: rnd.pick([12, 20, 24, 24, 30, 40]),
+        needed_by: localDate(needed, OPERATOR.timeZone),
+        status: 'confirmed',
+        product: PRODUCTS[c.org.name] ?? null,
       };
       world.pool.orders.set(order.id, order);
     }

@@ -1,7 +1,7 @@
 // The demo's liner suppliers and specs, and which bin types each spec fits (scenario.ts), written through
 // the models; the history's lots then name them.
 import type { Transaction } from 'sequelize';
-import { BinType, LinerSpec, LinerSupplier } from '@/models';
+import { type BinType, LinerSpec, LinerSupplier } from '@/models';
 import type { SpecFacts } from '@/lib/liners/liner-specs';
 import { sequelize } from '@/db/sequelize';
 import { LINER_SUPPLIERS, EXTRA_LINER_SPEC } from './scenario';
@@ -14,7 +14,14 @@ export interface LinerRecords {
   listed: Map<number, SpecFacts[]>;
 }
 
-const facts = (s: LinerSpec): SpecFacts => ({ id: s.id, code: s.code, nominalCapacityL: s.nominalCapacityL, valveType: s.valveType, valveSize: s.valveSize, glandSize: s.glandSize });
+const facts = (s: LinerSpec): SpecFacts => ({
+  id: s.id,
+  code: s.code,
+  nominalCapacityL: s.nominalCapacityL,
+  valveType: s.valveType,
+  valveSize: s.valveSize,
+  glandSize: s.glandSize,
+});
 
 export async function seedLinerRecords(types: BinType[], transaction: Transaction): Promise<LinerRecords> {
   const bySupplier = new Map<string, { supplierId: number; specId: number }>();
@@ -36,6 +43,9 @@ export async function seedLinerRecords(types: BinType[], transaction: Transactio
   const { supplier, binTypeCodes, ...extra } = EXTRA_LINER_SPEC;
   const spec = await LinerSpec.create({ ...extra, supplierId: bySupplier.get(supplier)!.supplierId }, { transaction });
   specs.set(spec.id, facts(spec));
-  await link(spec, types.filter((t) => binTypeCodes.includes(t.code)));
+  await link(
+    spec,
+    types.filter((t) => binTypeCodes.includes(t.code)),
+  );
   return { bySupplier, specs, listed };
 }

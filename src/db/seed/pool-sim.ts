@@ -176,14 +176,40 @@ export class PoolSim {
     let opened: { tripId: number; customerId: number } | null = null;
     let tripId: number | null = null;
     if (decision.trip === 'open') {
-      const o = tripOpening(asset, input, site, order ? { id: order.id, customerId: order.customer_id, depotSiteId: order.depot_site_id, deliverySiteId: order.delivery_site_id } : null, occurredAt);
+      const o = tripOpening(
+        asset,
+        input,
+        site,
+        order ? { id: order.id, customerId: order.customer_id, depotSiteId: order.depot_site_id, deliverySiteId: order.delivery_site_id } : null,
+        occurredAt,
+      );
       if (!o.customerId) throw new SimRefusal('transition_refused', 'no_hire_order', 'Choose the hire order this bin goes out on.');
       const trip: SimTrip = {
-        id: this.ids.take('trips'), asset_id: asset.id, hire_order_id: o.hireOrderId, customer_id: o.customerId, depot_site_id: o.depotSiteId,
-        customer_site_id: o.customerSiteId, discharge_site_id: null, closing_site_id: null, liner_lot_id: o.linerLotId, load_id: o.loadId,
-        dispatched_at: o.dispatchedAt, delivered_at: o.deliveredAt, filled_at: null, discharged_at: null, collected_at: null, returned_at: null,
-        fill_product: null, fill_volume_l: null, fill_mass_kg: null, fill_temperature_c: null, seals_applied: [], seals_verified: [],
-        seal_mismatch: false, status: 'open', version: 0,
+        id: this.ids.take('trips'),
+        asset_id: asset.id,
+        hire_order_id: o.hireOrderId,
+        customer_id: o.customerId,
+        depot_site_id: o.depotSiteId,
+        customer_site_id: o.customerSiteId,
+        discharge_site_id: null,
+        closing_site_id: null,
+        liner_lot_id: o.linerLotId,
+        load_id: o.loadId,
+        dispatched_at: o.dispatchedAt,
+        delivered_at: o.deliveredAt,
+        filled_at: null,
+        discharged_at: null,
+        collected_at: null,
+        returned_at: null,
+        fill_product: null,
+        fill_volume_l: null,
+        fill_mass_kg: null,
+        fill_temperature_c: null,
+        seals_applied: [],
+        seals_verified: [],
+        seal_mismatch: false,
+        status: 'open',
+        version: 0,
       };
       this.trips.set(trip.id, trip);
       opened = { tripId: trip.id, customerId: o.customerId };
@@ -204,9 +230,19 @@ export class PoolSim {
     for (const r of logRows(input, occurredAt, asset.status, decision, flags, named)) {
       eventId = this.ids.take('scan_events');
       this.events.push({
-        id: eventId, asset_id: asset.id, action: r.action, occurred_at: r.occurredAt, site_id: site?.id ?? null, user_id: actor.id,
-        client_event_id: r.clientEventId, status_from: r.statusFrom, status_to: r.statusTo, trip_id: eventTripId, inferred: r.inferred,
-        flagged: r.flagged, payload: r.payload,
+        id: eventId,
+        asset_id: asset.id,
+        action: r.action,
+        occurred_at: r.occurredAt,
+        site_id: site?.id ?? null,
+        user_id: actor.id,
+        client_event_id: r.clientEventId,
+        status_from: r.statusFrom,
+        status_to: r.statusTo,
+        trip_id: eventTripId,
+        inferred: r.inferred,
+        flagged: r.flagged,
+        payload: r.payload,
       });
     }
     const before = { ...asset };
@@ -218,8 +254,18 @@ export class PoolSim {
       this.addMove({ ...m, scan_event_id: eventId });
     }
     const outcome: ScanOutcome = {
-      clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai, action: input.action,
-      statusFrom: decision.from, statusTo: decision.to, inferred: decision.inferred, flags, tripId: eventTripId, version: asset.version,
+      clientEventId: input.clientEventId,
+      replayed: false,
+      eventId,
+      assetId: asset.id,
+      grai: asset.grai,
+      action: input.action,
+      statusFrom: decision.from,
+      statusTo: decision.to,
+      inferred: decision.inferred,
+      flags,
+      tripId: eventTripId,
+      version: asset.version,
     };
     this.keys.push({ client_event_id: input.clientEventId, user_id: actor.id, scan_event_id: eventId, outcome });
     return outcome;

@@ -2,9 +2,7 @@ import bcrypt from 'bcryptjs';
 import { sequelize } from '@/db/sequelize';
 import { Organisation, Setting, User } from '@/models';
 import { AppError } from '@/lib/api-errors';
-import {
-  accountLinkUrl, linkProblemMessage, passwordProblem, RESET_LINK_MINUTES, type LinkPurpose,
-} from './account-rules';
+import { accountLinkUrl, linkProblemMessage, passwordProblem, RESET_LINK_MINUTES, type LinkPurpose } from './account-rules';
 import { inviteMail, passwordResetMail } from '@/lib/mail/mail-templates';
 import { ROLE_LABELS, type PersonRow } from './people';
 import type { InviteInput } from './people-schemas';
@@ -34,9 +32,15 @@ async function operatorSettings() {
 async function mailInvitation(user: User, token: string, expiresAt: Date, inviterName: string): Promise<MailOutcome> {
   const [{ operatorName, timeZone }, org] = await Promise.all([operatorSettings(), Organisation.findByPk(user.organisationId, { attributes: ['name'] })]);
   const content = inviteMail({
-    recipientName: user.name, recipientEmail: user.email, roleLabel: ROLE_LABELS[user.role],
-    organisationName: org?.name ?? operatorName, operatorName, inviterName,
-    link: accountLinkUrl(appUrl(), 'invite', token), expiresAt, timeZone,
+    recipientName: user.name,
+    recipientEmail: user.email,
+    roleLabel: ROLE_LABELS[user.role],
+    organisationName: org?.name ?? operatorName,
+    operatorName,
+    inviterName,
+    link: accountLinkUrl(appUrl(), 'invite', token),
+    expiresAt,
+    timeZone,
   });
   return sendMail({ to: user.email, ...content, kind: 'invite', secrets: [token] });
 }
@@ -57,8 +61,14 @@ export async function invitePerson(input: InviteInput, inviter: Inviter): Promis
     await checkAssignment(input, transaction);
     const user = await User.create(
       {
-        email: input.email, name: input.name, passwordHash: null, role: input.role, organisationId: input.organisationId,
-        homeSiteId: input.homeSiteId, qualifiedInspector: input.qualifiedInspector, lastSignInAt: null,
+        email: input.email,
+        name: input.name,
+        passwordHash: null,
+        role: input.role,
+        organisationId: input.organisationId,
+        homeSiteId: input.homeSiteId,
+        qualifiedInspector: input.qualifiedInspector,
+        lastSignInAt: null,
       },
       { transaction },
     );
@@ -114,7 +124,9 @@ export async function setPasswordWithLink(token: string, password: string, ip: s
       {
         actor: { userId: user.id, ip },
         action: claimed.purpose === 'invite' ? 'user.invite_accepted' : 'user.password_reset',
-        entityType: 'user', entityId: user.id, after: { passwordSet: true, via: claimed.purpose },
+        entityType: 'user',
+        entityId: user.id,
+        after: { passwordSet: true, via: claimed.purpose },
       },
       { transaction },
     );
@@ -143,8 +155,11 @@ export async function requestPasswordReset(email: string, address: string): Prom
     const { token } = await issueToken(user.id, 'reset');
     const { operatorName } = await operatorSettings();
     const content = passwordResetMail({
-      recipientName: user.name, recipientEmail: user.email, operatorName,
-      link: accountLinkUrl(appUrl(), 'reset', token), validForMinutes: RESET_LINK_MINUTES,
+      recipientName: user.name,
+      recipientEmail: user.email,
+      operatorName,
+      link: accountLinkUrl(appUrl(), 'reset', token),
+      validForMinutes: RESET_LINK_MINUTES,
     });
     const outcome = await sendMail({ to: user.email, ...content, kind: 'password_reset', secrets: [token] });
     return outcome.status === 'sent' ? 'sent' : 'mail_failed';

@@ -12,10 +12,21 @@ import { dropUnusedTokens } from './user-tokens.server';
 // Customers never reach this (users.manage is admin-only, checked by the route).
 
 interface PersonSqlRow {
-  id: number; name: string; email: string; role: Role; organisation_id: number; organisation_name: string;
-  organisation_kind: 'operator' | 'customer'; home_site_id: number | null; home_site_name: string | null;
-  qualified_inspector: boolean; active: boolean; has_password: boolean; invite_expires_at: Date | null;
-  last_sign_in_at: Date | null; version: number;
+  id: number;
+  name: string;
+  email: string;
+  role: Role;
+  organisation_id: number;
+  organisation_name: string;
+  organisation_kind: 'operator' | 'customer';
+  home_site_id: number | null;
+  home_site_name: string | null;
+  qualified_inspector: boolean;
+  active: boolean;
+  has_password: boolean;
+  invite_expires_at: Date | null;
+  last_sign_in_at: Date | null;
+  version: number;
 }
 
 const PERSON_SQL = `
@@ -30,9 +41,18 @@ const PERSON_SQL = `
 
 function toRow(r: PersonSqlRow): PersonRow {
   return {
-    id: r.id, name: r.name, email: r.email, role: r.role, organisationId: r.organisation_id,
-    organisationName: r.organisation_name, organisationKind: r.organisation_kind, homeSiteId: r.home_site_id,
-    homeSiteName: r.home_site_name, qualifiedInspector: r.qualified_inspector, active: r.active, hasPassword: r.has_password,
+    id: r.id,
+    name: r.name,
+    email: r.email,
+    role: r.role,
+    organisationId: r.organisation_id,
+    organisationName: r.organisation_name,
+    organisationKind: r.organisation_kind,
+    homeSiteId: r.home_site_id,
+    homeSiteName: r.home_site_name,
+    qualifiedInspector: r.qualified_inspector,
+    active: r.active,
+    hasPassword: r.has_password,
     inviteExpiresAt: r.invite_expires_at ? new Date(r.invite_expires_at).toISOString() : null,
     lastSignInAt: r.last_sign_in_at ? new Date(r.last_sign_in_at).toISOString() : null,
     version: r.version,
@@ -56,7 +76,9 @@ export async function peopleChoices(): Promise<PeopleChoices> {
   if (!operator) throw new AppError('unavailable', 'The operator organisation is missing; run the set-up first.');
   const customers = await Organisation.findAll({ where: { kind: 'customer', active: true }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
   const depots = await Site.findAll({
-    where: { kind: 'depot', organisationId: operator.id, active: true }, attributes: ['id', 'name', 'code'], order: [['name', 'ASC']],
+    where: { kind: 'depot', organisationId: operator.id, active: true },
+    attributes: ['id', 'name', 'code'],
+    order: [['name', 'ASC']],
   });
   return {
     operator: { id: operator.id, name: operator.name },
@@ -66,10 +88,7 @@ export async function peopleChoices(): Promise<PeopleChoices> {
 }
 
 /** Looks up what the assignment rules need and refuses a bad combination with field messages. */
-export async function checkAssignment(
-  a: { role: Role; organisationId: number; homeSiteId: number | null; qualifiedInspector: boolean },
-  transaction?: Transaction,
-): Promise<void> {
+export async function checkAssignment(a: { role: Role; organisationId: number; homeSiteId: number | null; qualifiedInspector: boolean }, transaction?: Transaction): Promise<void> {
   const org = await Organisation.findByPk(a.organisationId, { attributes: ['kind'], transaction });
   let homeSite: Assignment['homeSite'] = null;
   if (a.homeSiteId !== null) {
@@ -85,8 +104,13 @@ export async function checkAssignment(
 /** The fields of a user the audit trail follows. */
 export function userSnapshot(u: User) {
   return {
-    name: u.name, email: u.email, role: u.role, organisationId: u.organisationId,
-    homeSiteId: u.homeSiteId, qualifiedInspector: u.qualifiedInspector, active: u.active,
+    name: u.name,
+    email: u.email,
+    role: u.role,
+    organisationId: u.organisationId,
+    homeSiteId: u.homeSiteId,
+    qualifiedInspector: u.qualifiedInspector,
+    active: u.active,
   };
 }
 
@@ -111,10 +135,7 @@ export async function updatePerson(id: number, patch: PersonPatch, actor: AuditA
     }
     const role = patch.role ?? user.role;
     if (isStaffRole(role) !== isStaffRole(user.role)) {
-      throw new AppError(
-        'unprocessable',
-        'A role cannot move between operator staff and customer: the account would change organisation. Invite a new account instead.',
-      );
+      throw new AppError('unprocessable', 'A role cannot move between operator staff and customer: the account would change organisation. Invite a new account instead.');
     }
     const before = userSnapshot(user);
     const homeSiteId = patch.homeSiteId !== undefined ? patch.homeSiteId : user.homeSiteId;

@@ -37,9 +37,19 @@ export async function loadSessionUser(key: SessionKey): Promise<SessionUser | nu
   const { uid: id, role: tokenRole, sid, epoch } = key;
   if (!Number.isInteger(id) || id <= 0 || !isRole(tokenRole)) return null;
   const rows = await sequelize.query<{
-    id: number; email: string; name: string; role: string; organisation_id: number;
-    organisation_name: string; home_site_id: number | null; qualified_inspector: boolean; active: boolean;
-    session_epoch: number; ended: boolean; portal_admin: boolean; site_ids: number[] | null;
+    id: number;
+    email: string;
+    name: string;
+    role: string;
+    organisation_id: number;
+    organisation_name: string;
+    home_site_id: number | null;
+    qualified_inspector: boolean;
+    active: boolean;
+    session_epoch: number;
+    ended: boolean;
+    portal_admin: boolean;
+    site_ids: number[] | null;
   }>(
     `SELECT u.id, u.email, u.name, u.role, u.organisation_id, o.name AS organisation_name,
             u.home_site_id, u.qualified_inspector, u.active AND o.active AS active, u.session_epoch, u.portal_admin,

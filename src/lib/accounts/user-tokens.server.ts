@@ -14,18 +14,16 @@ function hashToken(raw: string): string {
  * Creates a fresh link for the user and deletes their older unused links of
  * the same purpose, so only the newest e-mail works.
  */
-export async function issueToken(
-  userId: number,
-  purpose: LinkPurpose,
-  transaction?: Transaction,
-): Promise<{ token: string; expiresAt: Date }> {
+export async function issueToken(userId: number, purpose: LinkPurpose, transaction?: Transaction): Promise<{ token: string; expiresAt: Date }> {
   const token = randomBytes(32).toString('base64url');
   const expiresAt = new Date(Date.now() + linkLifetimeMs(purpose));
   await sequelize.query('DELETE FROM user_tokens WHERE user_id = $1 AND purpose = $2 AND used_at IS NULL', {
-    bind: [userId, purpose], transaction,
+    bind: [userId, purpose],
+    transaction,
   });
   await sequelize.query('INSERT INTO user_tokens (user_id, purpose, token_hash, expires_at) VALUES ($1, $2, $3, $4)', {
-    bind: [userId, purpose, hashToken(token), expiresAt], transaction,
+    bind: [userId, purpose, hashToken(token), expiresAt],
+    transaction,
   });
   return { token, expiresAt };
 }

@@ -63,17 +63,44 @@ export interface TripRecord {
   receivedAt: Instant | null;
 }
 
-export interface LinerUse { tripId: string; binId: string; at: Instant; quantity: number; unitPriceMinor: number; linerLot: string | null }
-export interface TruckRun { runId: string; at: Instant; description: string; amountMinor: number }
-export interface DamageChargeBack { repairOrderId: string; binId: string; tripId: string | null; at: Instant; costMinor: number; photoIds: string[]; description: string }
-export interface MissingDeclaration { tripId: string; declaredAt: Instant }
-export interface FoundAgain { tripId: string; foundAt: Instant }
+export interface LinerUse {
+  tripId: string;
+  binId: string;
+  at: Instant;
+  quantity: number;
+  unitPriceMinor: number;
+  linerLot: string | null;
+}
+export interface TruckRun {
+  runId: string;
+  at: Instant;
+  description: string;
+  amountMinor: number;
+}
+export interface DamageChargeBack {
+  repairOrderId: string;
+  binId: string;
+  tripId: string | null;
+  at: Instant;
+  costMinor: number;
+  photoIds: string[];
+  description: string;
+}
+export interface MissingDeclaration {
+  tripId: string;
+  declaredAt: Instant;
+}
+export interface FoundAgain {
+  tripId: string;
+  foundAt: Instant;
+}
 
-export type TaxTreatment =
-  | { kind: 'rate'; rateBasisPoints: number }
-  | { kind: 'reverse_charge'; customerVatId: string };
+export type TaxTreatment = { kind: 'rate'; rateBasisPoints: number } | { kind: 'reverse_charge'; customerVatId: string };
 
-export interface BillingPeriod { from: LocalDate; to: LocalDate }
+export interface BillingPeriod {
+  from: LocalDate;
+  to: LocalDate;
+}
 
 export interface StatementInput {
   timeZone: string;
@@ -124,7 +151,11 @@ export interface StatementTotals {
   rounding: string;
 }
 
-export interface Statement { period: BillingPeriod; lines: StatementLine[]; totals: StatementTotals }
+export interface Statement {
+  period: BillingPeriod;
+  lines: StatementLine[];
+  totals: StatementTotals;
+}
 
 export class BillingInputError extends RangeError {
   constructor(readonly problems: string[]) {
@@ -141,7 +172,11 @@ export class BillingInputError extends RangeError {
  */
 export const REVERSE_CHARGE_NOTE = 'Reverse charge: VAT to be accounted for by the recipient (Art. 196 Directive 2006/112/EC).';
 
-export interface TaxCustomer { country: string; business: boolean; vatId: string | null }
+export interface TaxCustomer {
+  country: string;
+  business: boolean;
+  vatId: string | null;
+}
 
 /**
  * A business customer with a VAT number in another EU member state than the operator gets reverse charge; anyone
@@ -157,7 +192,10 @@ export function taxTreatmentFor(operatorCountry: string, customer: TaxCustomer, 
 
 // ---------------------------------------------------------------------------------------------------------------
 
-interface Ctx { timeZone: string; problems: string[] }
+interface Ctx {
+  timeZone: string;
+  problems: string[];
+}
 
 function dateOf(ctx: Ctx, instant: Instant | null, what: string): LocalDate | null {
   if (instant === null || instant === undefined) return null;
@@ -192,7 +230,8 @@ function checkTariffs(ctx: Ctx, tariffs: TariffVersion[]): TariffVersion[] {
     } catch (error) {
       ctx.problems.push(`${what}: ${(error as Error).message}`);
     }
-    if (!Number.isInteger(t.freeDaysPerTrip) || t.freeDaysPerTrip < 0 || t.freeDaysPerTrip > 365) ctx.problems.push(`${what}: free days must be a whole number 0–365, got ${t.freeDaysPerTrip}`);
+    if (!Number.isInteger(t.freeDaysPerTrip) || t.freeDaysPerTrip < 0 || t.freeDaysPerTrip > 365)
+      ctx.problems.push(`${what}: free days must be a whole number 0–365, got ${t.freeDaysPerTrip}`);
     requireAmount(ctx, t.dailyRateMinor, `${what}: daily rate`);
     requireAmount(ctx, t.tripFeeMinor, `${what}: trip fee`);
     requireAmount(ctx, t.lostBinFeeMinor, `${what}: lost-bin fee`);
@@ -291,9 +330,10 @@ function hireLines(ctx: Ctx, tariffs: TariffVersion[], period: BillingPeriod, r:
     const days = daysBetween(cursor, segmentEnd) + 1;
     const tripDays = { first: hireDayNumber(startOn, cursor, terms), last: hireDayNumber(startOn, segmentEnd, terms) };
     const dayWords = tripDays.first === tripDays.last ? `day ${tripDays.first}` : `days ${tripDays.first}–${tripDays.last}`;
-    const text = kind === 'free_days'
-      ? `${binTrip(trip.binId, trip.tripId)}: ${span(cursor, segmentEnd)}, ${dayWords} of the trip, ${plural(days, 'day')} free (${terms.freeDaysPerTrip} free days per trip)${estimatedNote}`
-      : `${binTrip(trip.binId, trip.tripId)}: ${span(cursor, segmentEnd)}, ${dayWords} of the trip, ${plural(days, 'day')} × ${formatMoney(rate, terms.currency)}${estimatedNote}`;
+    const text =
+      kind === 'free_days'
+        ? `${binTrip(trip.binId, trip.tripId)}: ${span(cursor, segmentEnd)}, ${dayWords} of the trip, ${plural(days, 'day')} free (${terms.freeDaysPerTrip} free days per trip)${estimatedNote}`
+        : `${binTrip(trip.binId, trip.tripId)}: ${span(cursor, segmentEnd)}, ${dayWords} of the trip, ${plural(days, 'day')} × ${formatMoney(rate, terms.currency)}${estimatedNote}`;
     lines.push({ ...base, kind, from: cursor, to: segmentEnd, tripDays, quantity: days, unitMinor: rate, amountMinor: days * rate, text });
     cursor = addDays(segmentEnd, 1);
   }
@@ -330,7 +370,7 @@ function checkTax(ctx: Ctx, tax: TaxTreatment): void {
       ctx.problems.push(`tax rate must be whole basis points 0–10000 (1900 = 19 %), got ${tax.rateBasisPoints}`);
     }
   } else if (tax?.kind === 'reverse_charge') {
-    if (typeof tax.customerVatId !== 'string' || tax.customerVatId.trim() === '') ctx.problems.push('reverse charge needs the customer\'s VAT number');
+    if (typeof tax.customerVatId !== 'string' || tax.customerVatId.trim() === '') ctx.problems.push("reverse charge needs the customer's VAT number");
   } else {
     ctx.problems.push('tax must be a rate or reverse charge');
   }
@@ -382,8 +422,18 @@ export function statementFor(input: StatementInput): Statement {
     lines.push(...hireLines(ctx, tariffs, period, r));
     if (inPeriod(period, r.startOn) && r.terms.tripFeeMinor > 0) {
       lines.push({
-        kind: 'trip_fee', binId: trip.binId, tripId: trip.tripId, reference: null, from: r.startOn, to: r.startOn, tripDays: null,
-        quantity: 1, unitMinor: r.terms.tripFeeMinor, amountMinor: r.terms.tripFeeMinor, estimated: r.estimated, photoIds: [],
+        kind: 'trip_fee',
+        binId: trip.binId,
+        tripId: trip.tripId,
+        reference: null,
+        from: r.startOn,
+        to: r.startOn,
+        tripDays: null,
+        quantity: 1,
+        unitMinor: r.terms.tripFeeMinor,
+        amountMinor: r.terms.tripFeeMinor,
+        estimated: r.estimated,
+        photoIds: [],
         text: `${binTrip(trip.binId, trip.tripId)}: trip fee, hire started ${formatLongDate(r.startOn)}`,
       });
     }
@@ -391,8 +441,18 @@ export function statementFor(input: StatementInput): Statement {
       const version = versionOn(ctx, tariffs, r.missingOn);
       if (version) {
         lines.push({
-          kind: 'lost_bin', binId: trip.binId, tripId: trip.tripId, reference: null, from: r.missingOn, to: r.missingOn, tripDays: null,
-          quantity: 1, unitMinor: version.lostBinFeeMinor, amountMinor: version.lostBinFeeMinor, estimated: false, photoIds: [],
+          kind: 'lost_bin',
+          binId: trip.binId,
+          tripId: trip.tripId,
+          reference: null,
+          from: r.missingOn,
+          to: r.missingOn,
+          tripDays: null,
+          quantity: 1,
+          unitMinor: version.lostBinFeeMinor,
+          amountMinor: version.lostBinFeeMinor,
+          estimated: false,
+          photoIds: [],
           text: `${binTrip(trip.binId, trip.tripId)}: declared missing on ${formatLongDate(r.missingOn)}, lost-bin fee (hire stops that day)`,
         });
       }
@@ -416,8 +476,18 @@ export function statementFor(input: StatementInput): Statement {
     const version = versionOn(ctx, tariffs, declaredOn);
     if (!version) continue;
     lines.push({
-      kind: 'lost_bin_credit', binId: r.trip.binId, tripId: f.tripId, reference: null, from: foundOn, to: foundOn, tripDays: null,
-      quantity: 1, unitMinor: -version.lostBinFeeMinor, amountMinor: -version.lostBinFeeMinor, estimated: false, photoIds: [],
+      kind: 'lost_bin_credit',
+      binId: r.trip.binId,
+      tripId: f.tripId,
+      reference: null,
+      from: foundOn,
+      to: foundOn,
+      tripDays: null,
+      quantity: 1,
+      unitMinor: -version.lostBinFeeMinor,
+      amountMinor: -version.lostBinFeeMinor,
+      estimated: false,
+      photoIds: [],
       text: `${binTrip(r.trip.binId, f.tripId)}: found again on ${formatLongDate(foundOn)}, lost-bin fee of ${formatLongDate(declaredOn)} credited`,
     });
   }
@@ -428,8 +498,18 @@ export function statementFor(input: StatementInput): Statement {
     requireAmount(ctx, l.unitPriceMinor, `liners of trip ${l.tripId}: unit price`);
     if (on === null || !inPeriod(period, on)) continue;
     lines.push({
-      kind: 'liners', binId: l.binId, tripId: l.tripId, reference: l.linerLot, from: on, to: on, tripDays: null,
-      quantity: l.quantity, unitMinor: l.unitPriceMinor, amountMinor: l.quantity * l.unitPriceMinor, estimated: false, photoIds: [],
+      kind: 'liners',
+      binId: l.binId,
+      tripId: l.tripId,
+      reference: l.linerLot,
+      from: on,
+      to: on,
+      tripDays: null,
+      quantity: l.quantity,
+      unitMinor: l.unitPriceMinor,
+      amountMinor: l.quantity * l.unitPriceMinor,
+      estimated: false,
+      photoIds: [],
       text: `${binTrip(l.binId, l.tripId)}: ${plural(l.quantity, 'liner')}${l.linerLot ? ` (lot ${l.linerLot})` : ''} fitted ${formatLongDate(on)} × ${money(l.unitPriceMinor)}`,
     });
   }
@@ -439,8 +519,18 @@ export function statementFor(input: StatementInput): Statement {
     requireAmount(ctx, run.amountMinor, `truck run ${run.runId}: amount`);
     if (on === null || !inPeriod(period, on)) continue;
     lines.push({
-      kind: 'transport', binId: null, tripId: null, reference: run.runId, from: on, to: on, tripDays: null,
-      quantity: 1, unitMinor: run.amountMinor, amountMinor: run.amountMinor, estimated: false, photoIds: [],
+      kind: 'transport',
+      binId: null,
+      tripId: null,
+      reference: run.runId,
+      from: on,
+      to: on,
+      tripDays: null,
+      quantity: 1,
+      unitMinor: run.amountMinor,
+      amountMinor: run.amountMinor,
+      estimated: false,
+      photoIds: [],
       text: `Truck run ${run.runId} on ${formatLongDate(on)}: ${run.description}`,
     });
   }
@@ -452,8 +542,18 @@ export function statementFor(input: StatementInput): Statement {
     if (on === null || !inPeriod(period, on)) continue;
     const photos = d.photoIds.length === 0 ? 'no photos' : plural(d.photoIds.length, 'photo');
     lines.push({
-      kind: 'damage', binId: d.binId, tripId: d.tripId, reference: d.repairOrderId, from: on, to: on, tripDays: null,
-      quantity: 1, unitMinor: d.costMinor, amountMinor: d.costMinor, estimated: false, photoIds: [...d.photoIds],
+      kind: 'damage',
+      binId: d.binId,
+      tripId: d.tripId,
+      reference: d.repairOrderId,
+      from: on,
+      to: on,
+      tripDays: null,
+      quantity: 1,
+      unitMinor: d.costMinor,
+      amountMinor: d.costMinor,
+      estimated: false,
+      photoIds: [...d.photoIds],
       text: `${binTrip(d.binId, d.tripId)}: damage repaired under repair order ${d.repairOrderId} (${formatLongDate(on)}, ${photos}): ${d.description}`,
     });
   }
@@ -479,7 +579,14 @@ function groupKey(l: StatementLine): string {
   return [l.kind, l.binId ?? '', l.tripId ?? '', l.reference ?? '', l.unitMinor].join('|');
 }
 
-interface Group { sample: StatementLine; quantity: number; amountMinor: number; spans: string[]; from: LocalDate; to: LocalDate }
+interface Group {
+  sample: StatementLine;
+  quantity: number;
+  amountMinor: number;
+  spans: string[];
+  from: LocalDate;
+  to: LocalDate;
+}
 
 function group(lines: StatementLine[]): Map<string, Group> {
   const groups = new Map<string, Group>();
@@ -498,8 +605,15 @@ function group(lines: StatementLine[]): Map<string, Group> {
 }
 
 const KIND_WORDS: Record<LineKind, string> = {
-  free_days: 'free days', hire: 'hire days', trip_fee: 'trip fee', liners: 'liners', transport: 'transport',
-  damage: 'damage charge-back', lost_bin: 'lost-bin fee', lost_bin_credit: 'lost-bin credit', adjustment: 'adjustment',
+  free_days: 'free days',
+  hire: 'hire days',
+  trip_fee: 'trip fee',
+  liners: 'liners',
+  transport: 'transport',
+  damage: 'damage charge-back',
+  lost_bin: 'lost-bin fee',
+  lost_bin_credit: 'lost-bin credit',
+  adjustment: 'adjustment',
 };
 
 function describe(g: Group | undefined, currency: string): string {
@@ -530,10 +644,21 @@ export function adjustmentLines(issued: StatementLine[], recomputed: StatementLi
     const reason = opts.reason ? ` Reason: ${opts.reason}.` : '';
     const diff = nowAmount - wasAmount;
     lines.push({
-      kind: 'adjustment', binId: sample.binId, tripId: sample.tripId, reference: sample.reference,
-      from: opts.on, to: opts.on, tripDays: null, quantity: 1, unitMinor: diff, amountMinor: diff, estimated: sample.estimated, photoIds: [],
-      text: `Correction to ${span(opts.period.from, opts.period.to)}: ${subject}, ${KIND_WORDS[sample.kind]}${rateWords}: `
-        + `was ${describe(was, opts.currency)}, now ${describe(now, opts.currency)}; difference ${formatMoney(diff, opts.currency)}.${reason}`,
+      kind: 'adjustment',
+      binId: sample.binId,
+      tripId: sample.tripId,
+      reference: sample.reference,
+      from: opts.on,
+      to: opts.on,
+      tripDays: null,
+      quantity: 1,
+      unitMinor: diff,
+      amountMinor: diff,
+      estimated: sample.estimated,
+      photoIds: [],
+      text:
+        `Correction to ${span(opts.period.from, opts.period.to)}: ${subject}, ${KIND_WORDS[sample.kind]}${rateWords}: ` +
+        `was ${describe(was, opts.currency)}, now ${describe(now, opts.currency)}; difference ${formatMoney(diff, opts.currency)}.${reason}`,
     });
   }
   return lines.sort(compareLines);

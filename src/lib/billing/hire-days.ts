@@ -58,12 +58,7 @@ function rangeOf(first: LocalDate, last: LocalDate): HireDayRange {
  * The counted dates of one hire. `stopOn` null means the hire is still running; it is then counted through
  * `throughOn` inclusive. A stopped hire ignores `throughOn` (clip to a period with `clipRange`).
  */
-export function hireDayRange(
-  startOn: LocalDate,
-  stopOn: LocalDate | null,
-  throughOn: LocalDate,
-  terms: DayCountTerms = DEFAULT_DAY_COUNT,
-): HireDayRange {
+export function hireDayRange(startOn: LocalDate, stopOn: LocalDate | null, throughOn: LocalDate, terms: DayCountTerms = DEFAULT_DAY_COUNT): HireDayRange {
   if (stopOn === null) return rangeOf(firstHireDay(startOn, terms), addDays(throughOn, 0));
   if (startOn === stopOn) return terms.firstDayCounts && terms.lastDayCounts ? rangeOf(startOn, startOn) : NO_DAYS;
   const last = terms.lastDayCounts ? addDays(stopOn, 0) : addDays(stopOn, -1);

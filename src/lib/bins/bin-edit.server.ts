@@ -17,7 +17,7 @@ import { getSettings } from '@/lib/settings/settings.server';
 import type { Actor } from '@/lib/scans/scan-service.server';
 
 const NOT_EDITABLE = {
-  grai: 'The GRAI cannot be edited: it is the bin\'s identity on its label and in every recorded event.',
+  grai: "The GRAI cannot be edited: it is the bin's identity on its label and in every recorded event.",
   status: 'The status cannot be edited: it follows the scan log. Record a scan (for example quarantine or retire) instead.',
   siteId: 'The site cannot be edited: it follows the scan log. Record a receipt or a transfer instead.',
 } as const;
@@ -73,17 +73,32 @@ export function canonicalGrai(param: string | undefined, prefixLength: number): 
 /** The bin as the edit form shows it; null when no bin has that GRAI. */
 export async function editableBin(grai: string): Promise<EditableBin | null> {
   const settings = await getSettings();
-  const asset = await Asset.findOne({ where: { grai }, include: [{ model: BinType, as: 'binType' }, { model: Site, as: 'site' }] });
+  const asset = await Asset.findOne({
+    where: { grai },
+    include: [
+      { model: BinType, as: 'binType' },
+      { model: Site, as: 'site' },
+    ],
+  });
   if (!asset) return null;
   const type = (asset as Asset & { binType: BinType }).binType;
   const site = (asset as Asset & { site: Site | null }).site;
   return {
-    id: asset.id, grai: asset.grai, groupedGrai: groupGrai(asset.grai, settings.gs1PrefixLength), serial: asset.serial,
-    status: asset.status, siteName: site?.name ?? null,
-    binTypeId: asset.binTypeId, binTypeCode: type.code, binTypeActive: type.active,
-    manufactureMonth: asset.manufactureMonth.slice(0, 7), unMarking: asset.unMarking,
+    id: asset.id,
+    grai: asset.grai,
+    groupedGrai: groupGrai(asset.grai, settings.gs1PrefixLength),
+    serial: asset.serial,
+    status: asset.status,
+    siteName: site?.name ?? null,
+    binTypeId: asset.binTypeId,
+    binTypeCode: type.code,
+    binTypeActive: type.active,
+    manufactureMonth: asset.manufactureMonth.slice(0, 7),
+    unMarking: asset.unMarking,
     ...testMonthsOf(asset),
-    nextIntermediateDue: asset.nextIntermediateDue, nextFullDue: asset.nextFullDue, nextDue: asset.nextDue,
+    nextIntermediateDue: asset.nextIntermediateDue,
+    nextFullDue: asset.nextFullDue,
+    nextDue: asset.nextDue,
     version: asset.version,
   };
 }
@@ -142,15 +157,21 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
     const issues: RegisterIssue[] = [];
     const checked = checkRegistration(
       {
-        grai: asset.grai, manufactureMonth: body.manufactureMonth, unMarking: body.unMarking,
-        lastIntermediateTestMonth: body.lastIntermediateTestMonth, lastFullInspectionMonth: body.lastFullInspectionMonth,
+        grai: asset.grai,
+        manufactureMonth: body.manufactureMonth,
+        unMarking: body.unMarking,
+        lastIntermediateTestMonth: body.lastIntermediateTestMonth,
+        lastFullInspectionMonth: body.lastFullInspectionMonth,
       },
       settings.gs1PrefixLength,
     );
     issues.push(...checked.issues.filter((i) => i.field !== 'grai'));
     // A bin may keep a bin type that went out of use; it may not be moved to one.
-    const typeIssue = !body.binTypeId ? { field: 'binTypeId', message: 'Choose a bin type.' }
-      : newType && newType.id === asset.binTypeId ? null : checkBinType(newType ?? undefined, '');
+    const typeIssue = !body.binTypeId
+      ? { field: 'binTypeId', message: 'Choose a bin type.' }
+      : newType && newType.id === asset.binTypeId
+        ? null
+        : checkBinType(newType ?? undefined, '');
     if (typeIssue) issues.push(typeIssue);
     const markIssue = newType ? checkMarkAgainstType(body.unMarking, newType) : null;
     if (markIssue) issues.push(markIssue);
@@ -159,8 +180,7 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
 
     const before = snapshot(asset, oldType?.code ?? String(asset.binTypeId));
     const shownTests = testMonthsOf(asset);
-    const testsChanged =
-      shownTests.lastIntermediateTestMonth !== body.lastIntermediateTestMonth || shownTests.lastFullInspectionMonth !== body.lastFullInspectionMonth;
+    const testsChanged = shownTests.lastIntermediateTestMonth !== body.lastIntermediateTestMonth || shownTests.lastFullInspectionMonth !== body.lastFullInspectionMonth;
     const manufactureMonth = checked.manufactureMonth!;
     const scheduleChanged = testsChanged || type.id !== asset.binTypeId || manufactureMonth !== before.manufactureMonth;
 
@@ -178,7 +198,10 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
     if (Object.keys(diff.after).length === 0) return { changed: false, version: asset.version, nextDue: asset.nextDue };
 
     await asset.save({ transaction: t }); // bumps version; refuses if it moved since the read
-    await recordAudit({ actor: { userId: actor.id, ip: ip ?? null }, action: 'bin.update', entityType: 'asset', entityId: asset.id, before: diff.before, after: diff.after }, { transaction: t });
+    await recordAudit(
+      { actor: { userId: actor.id, ip: ip ?? null }, action: 'bin.update', entityType: 'asset', entityId: asset.id, before: diff.before, after: diff.after },
+      { transaction: t },
+    );
     return { changed: true, version: asset.version, nextDue: asset.nextDue, changes: diff };
   });
 }

@@ -6,10 +6,7 @@ import { text } from '@/lib/text-input';
 import { Asset, BinType, Site, sequelize } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { groupGrai } from '@/lib/gs1';
-import {
-  checkBinType, checkDepot, checkMarkAgainstType, checkRegistration, graiFromSerial,
-  type BinTypeRef, type RegisterIssue, type SiteRef,
-} from './registration-check';
+import { checkBinType, checkDepot, checkMarkAgainstType, checkRegistration, graiFromSerial, type BinTypeRef, type RegisterIssue, type SiteRef } from './registration-check';
 import { registerBin } from './bin-register.server';
 import { recordAudit } from '@/lib/audit.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -37,15 +34,18 @@ export interface FormOptions {
 
 /** Bin types in use and open depots for the forms, with the operator's GS1 company prefix. */
 export async function formOptions(): Promise<FormOptions> {
-  const [settings, types, depots] = await Promise.all([
-    getSettings(),
-    BinType.findAll({ where: { active: true }, order: [['code', 'ASC']] }),
-    depotChoices(),
-  ]);
+  const [settings, types, depots] = await Promise.all([getSettings(), BinType.findAll({ where: { active: true }, order: [['code', 'ASC']] }), depotChoices()]);
   return {
     binTypes: types.map((t) => ({
-      id: t.id, code: t.code, name: t.name, graiAssetType: t.graiAssetType, unCode: t.unCode, active: t.active,
-      policyKind: t.policyKind, intermediateMonths: t.intermediateMonths, fullMonths: t.fullMonths,
+      id: t.id,
+      code: t.code,
+      name: t.name,
+      graiAssetType: t.graiAssetType,
+      unCode: t.unCode,
+      active: t.active,
+      policyKind: t.policyKind,
+      intermediateMonths: t.intermediateMonths,
+      fullMonths: t.fullMonths,
     })),
     depots: depots.map((d) => ({ id: d.id, code: d.code, name: d.name, kind: d.kind, active: true })),
     companyPrefix: settings.gs1CompanyPrefix,
@@ -54,10 +54,18 @@ export async function formOptions(): Promise<FormOptions> {
 }
 
 /** An empty month field is "not given". The format is checked with the rest, so its message names the field. */
-const monthField = text().trim().max(10).nullish().transform((v) => (v ? v : null));
+const monthField = text()
+  .trim()
+  .max(10)
+  .nullish()
+  .transform((v) => (v ? v : null));
 /** A choice from a list by id; 0 (or empty) = nothing chosen. */
 const choiceField = z.preprocess((v) => (v === '' || v == null ? 0 : v), z.coerce.number().int().nonnegative());
-const markField = text().trim().max(120, 'A UN mark has at most 120 characters.').nullish().transform((v) => (v ? v : null));
+const markField = text()
+  .trim()
+  .max(120, 'A UN mark has at most 120 characters.')
+  .nullish()
+  .transform((v) => (v ? v : null));
 
 export const registerBody = z.object({
   /** 'grai': the full GRAI as typed; 'serial': built from the company prefix, the bin type and the serial. */
@@ -96,8 +104,11 @@ export async function registerFromForm(actor: Actor, body: RegisterBody, ip: str
     grai = built?.ok ? built.grai : '';
   }
   const input = {
-    grai, manufactureMonth: body.manufactureMonth, unMarking: body.unMarking,
-    lastIntermediateTestMonth: body.lastIntermediateTestMonth, lastFullInspectionMonth: body.lastFullInspectionMonth,
+    grai,
+    manufactureMonth: body.manufactureMonth,
+    unMarking: body.unMarking,
+    lastIntermediateTestMonth: body.lastIntermediateTestMonth,
+    lastFullInspectionMonth: body.lastFullInspectionMonth,
   };
   const checked = checkRegistration(input, settings.gs1PrefixLength);
   // In serial mode without a built GRAI the serial (or the bin type) has already said why.
@@ -117,7 +128,11 @@ export async function registerFromForm(actor: Actor, body: RegisterBody, ip: str
     const created = await registerBin(actor, { ...input, grai: checked.grai!, binTypeId: type!.id, siteId: site!.id }, { transaction: t });
     await recordAudit(
       {
-        actor: { userId: actor.id, ip: ip ?? null }, action: 'bin.register', entityType: 'asset', entityId: created.id, before: null,
+        actor: { userId: actor.id, ip: ip ?? null },
+        action: 'bin.register',
+        entityType: 'asset',
+        entityId: created.id,
+        before: null,
         after: { grai: created.grai, binType: type!.code, depot: site!.code, manufactureMonth: created.manufactureMonth, unMarking: created.unMarking, nextDue: created.nextDue },
       },
       { transaction: t },

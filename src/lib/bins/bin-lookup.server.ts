@@ -5,10 +5,7 @@ import { parseGrai } from '@/lib/gs1';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 
-export type FindResult =
-  | { kind: 'found'; grai: string; assetId: number }
-  | { kind: 'many'; matches: Array<{ grai: string; serial: string }> }
-  | { kind: 'none'; message: string };
+export type FindResult = { kind: 'found'; grai: string; assetId: number } | { kind: 'many'; matches: Array<{ grai: string; serial: string }> } | { kind: 'none'; message: string };
 
 /**
  * What a typed, pasted or scanned text identifies: a GRAI in any form (element
@@ -25,12 +22,19 @@ export async function findBin(text: string, user: Pick<SessionUser, 'role' | 'or
     const found = await Asset.findOne({ where: { grai: parsed.grai.value, ...scope }, attributes: ['id', 'grai'] });
     // A customer user limited to some sites finds only the bins at (or for) those sites.
     const asset = found && siteLimited(user) && !(await reachableBins(user, [found.id])).has(found.id) ? null : found;
-    return asset ? { kind: 'found', grai: asset.grai, assetId: asset.id } : { kind: 'none', message: `No bin with GRAI ${parsed.grai.value} is registered${user.role === 'customer' ? ' to your organisation' : ''}.` };
+    return asset
+      ? { kind: 'found', grai: asset.grai, assetId: asset.id }
+      : { kind: 'none', message: `No bin with GRAI ${parsed.grai.value} is registered${user.role === 'customer' ? ' to your organisation' : ''}.` };
   }
   // Not a GRAI: perhaps a serial (labels print it under the code).
   if (/^[!-~]{1,16}$/.test(q)) {
     const matched = await Asset.findAll({ where: { serial: { [Op.in]: [q, q.toUpperCase()] }, ...scope }, attributes: ['id', 'grai', 'serial'], limit: 10 });
-    const reach = siteLimited(user) ? await reachableBins(user, matched.map((r) => r.id)) : null;
+    const reach = siteLimited(user)
+      ? await reachableBins(
+          user,
+          matched.map((r) => r.id),
+        )
+      : null;
     const rows = reach ? matched.filter((r) => reach.has(r.id)) : matched;
     if (rows.length === 1) return { kind: 'found', grai: rows[0]!.grai, assetId: rows[0]!.id };
     if (rows.length > 1) return { kind: 'many', matches: rows.map((r) => ({ grai: r.grai, serial: r.serial })) };

@@ -20,19 +20,42 @@ export function newAssetRow(checked: { grai: string; serial: string; manufacture
     policyForBinType(type),
   );
   return {
-    grai: checked.grai, serial: checked.serial, binTypeId: type.id, manufactureMonth: `${checked.manufactureMonth}-01`,
-    unMarking: input.unMarking?.trim() || null, status: 'available' as const, siteId, siteSince: now, customerId: null,
-    currentTripId: null, leg: null, linerLotId: null, lastScanAt: now,
+    grai: checked.grai,
+    serial: checked.serial,
+    binTypeId: type.id,
+    manufactureMonth: `${checked.manufactureMonth}-01`,
+    unMarking: input.unMarking?.trim() || null,
+    status: 'available' as const,
+    siteId,
+    siteSince: now,
+    customerId: null,
+    currentTripId: null,
+    leg: null,
+    linerLotId: null,
+    lastScanAt: now,
     ...testColumns(input.lastIntermediateTestMonth, input.lastFullInspectionMonth),
-    nextIntermediateDue: due.intermediateDue, nextFullDue: due.fullDue, nextDue: due.nextDue, labelPrintedAt: null,
+    nextIntermediateDue: due.intermediateDue,
+    nextFullDue: due.fullDue,
+    nextDue: due.nextDue,
+    labelPrintedAt: null,
   };
 }
 
 /** The bin's first entry in the scan log. */
 export function registerEventRow(assetId: number, siteId: number, actor: Actor, now: Date) {
   return {
-    assetId, action: 'register' as const, occurredAt: now, siteId, userId: actor.id, clientEventId: null,
-    statusFrom: null, statusTo: 'available' as const, tripId: null, voidedAt: null, voidedBy: null, voidReason: null,
+    assetId,
+    action: 'register' as const,
+    occurredAt: now,
+    siteId,
+    userId: actor.id,
+    clientEventId: null,
+    statusFrom: null,
+    statusTo: 'available' as const,
+    tripId: null,
+    voidedAt: null,
+    voidedBy: null,
+    voidReason: null,
     payload: { patch: { status: 'available', siteId: String(siteId), siteKind: 'depot' }, trip: 'none' },
   };
 }
@@ -84,8 +107,19 @@ async function insertChunk(rows: Array<ReturnType<typeof newAssetRow>>, actor: A
      RETURNING id, grai, site_id`,
     {
       bind: [
-        col('grai'), col('serial'), col('binTypeId'), col('manufactureMonth'), col('unMarking'), col('siteId'), col('lastInspectionOn'),
-        col('lastFullInspectionOn'), col('nextIntermediateDue'), col('nextFullDue'), col('nextDue'), now, col('lastLeakTestOn'),
+        col('grai'),
+        col('serial'),
+        col('binTypeId'),
+        col('manufactureMonth'),
+        col('unMarking'),
+        col('siteId'),
+        col('lastInspectionOn'),
+        col('lastFullInspectionOn'),
+        col('nextIntermediateDue'),
+        col('nextFullDue'),
+        col('nextDue'),
+        now,
+        col('lastLeakTestOn'),
       ],
       type: QueryTypes.SELECT,
       transaction: t,

@@ -15,15 +15,50 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 
 export interface BinView {
   asset: {
-    id: number; grai: string; serial: string; binTypeId: number; status: Status; version: number; manufactureMonth: string; unMarking: string | null;
-    tripCount: number; lastScanAt: string | null; siteSince: string | null; labelPrintedAt: string | null; filled: boolean;
-    prepChecked: boolean; leg: Leg | null; lastInspectionOn: string | null; nextIntermediateDue: string | null; nextFullDue: string | null;
-    nextDue: string | null; testStatus: TestStatus | null; daysAtSite: number | null;
+    id: number;
+    grai: string;
+    serial: string;
+    binTypeId: number;
+    status: Status;
+    version: number;
+    manufactureMonth: string;
+    unMarking: string | null;
+    tripCount: number;
+    lastScanAt: string | null;
+    siteSince: string | null;
+    labelPrintedAt: string | null;
+    filled: boolean;
+    prepChecked: boolean;
+    leg: Leg | null;
+    lastInspectionOn: string | null;
+    nextIntermediateDue: string | null;
+    nextFullDue: string | null;
+    nextDue: string | null;
+    testStatus: TestStatus | null;
+    daysAtSite: number | null;
   };
-  binType: { code: string; name: string; nominalCapacityL: number; tareKg: number; maxGrossKg: number; unCode: string | null; policyKind: 'un' | 'own'; intermediateMonths: number; fullMonths: number };
+  binType: {
+    code: string;
+    name: string;
+    nominalCapacityL: number;
+    tareKg: number;
+    maxGrossKg: number;
+    unCode: string | null;
+    policyKind: 'un' | 'own';
+    intermediateMonths: number;
+    fullMonths: number;
+  };
   site: { id: number; code: string; name: string; kind: SiteKind } | null;
   customer: { id: number; name: string; freeDays: number } | null;
-  trip: { id: number; dispatchedAt: string; deliveredAt: string | null; orderRef: string | null; customerSite: string | null; fillProduct: string | null; sealsApplied: string[] } | null;
+  trip: {
+    id: number;
+    dispatchedAt: string;
+    deliveredAt: string | null;
+    orderRef: string | null;
+    customerSite: string | null;
+    fillProduct: string | null;
+    sealsApplied: string[];
+  } | null;
   linerLot: { id: number; lotNumber: string; supplier: string; expiryDate: string; status: string } | null;
   marking: ReturnType<typeof parseUnMarking> | null;
   events: BinEvent[];
@@ -68,29 +103,60 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
   const siteSince = iso(row.site_since);
   return {
     asset: {
-      id: row.id as number, grai: row.grai as string, serial: row.serial as string, binTypeId: row.bin_type_id as number, status: row.status as Status, version: row.version as number,
-      manufactureMonth: String(row.manufacture_month).slice(0, 7), unMarking: (row.un_marking as string) ?? null, tripCount: row.trip_count as number,
-      lastScanAt: iso(row.last_scan_at), siteSince, labelPrintedAt: iso(row.label_printed_at), filled: row.filled as boolean,
-      prepChecked: row.prep_checked as boolean, leg: (row.leg as Leg) ?? null, lastInspectionOn: (row.last_inspection_on as string) ?? null,
-      nextIntermediateDue: (row.next_intermediate_due as string) ?? null, nextFullDue: (row.next_full_due as string) ?? null,
-      nextDue: (row.next_due as string) ?? null, testStatus: row.next_due ? testStatus(row.next_due as string, today) : null,
+      id: row.id as number,
+      grai: row.grai as string,
+      serial: row.serial as string,
+      binTypeId: row.bin_type_id as number,
+      status: row.status as Status,
+      version: row.version as number,
+      manufactureMonth: String(row.manufacture_month).slice(0, 7),
+      unMarking: (row.un_marking as string) ?? null,
+      tripCount: row.trip_count as number,
+      lastScanAt: iso(row.last_scan_at),
+      siteSince,
+      labelPrintedAt: iso(row.label_printed_at),
+      filled: row.filled as boolean,
+      prepChecked: row.prep_checked as boolean,
+      leg: (row.leg as Leg) ?? null,
+      lastInspectionOn: (row.last_inspection_on as string) ?? null,
+      nextIntermediateDue: (row.next_intermediate_due as string) ?? null,
+      nextFullDue: (row.next_full_due as string) ?? null,
+      nextDue: (row.next_due as string) ?? null,
+      testStatus: row.next_due ? testStatus(row.next_due as string, today) : null,
       daysAtSite: siteSince ? Math.max(0, daysBetween(localDate(siteSince, settings.timeZone), today)) : null,
     },
     binType: {
-      code: row.bt_code as string, name: row.bt_name as string, nominalCapacityL: row.nominal_capacity_l as number, tareKg: Number(row.tare_kg),
-      maxGrossKg: Number(row.max_gross_kg), unCode: (row.un_code as string) ?? null, policyKind: row.policy_kind as 'un' | 'own',
-      intermediateMonths: row.intermediate_months as number, fullMonths: row.full_months as number,
+      code: row.bt_code as string,
+      name: row.bt_name as string,
+      nominalCapacityL: row.nominal_capacity_l as number,
+      tareKg: Number(row.tare_kg),
+      maxGrossKg: Number(row.max_gross_kg),
+      unCode: (row.un_code as string) ?? null,
+      policyKind: row.policy_kind as 'un' | 'own',
+      intermediateMonths: row.intermediate_months as number,
+      fullMonths: row.full_months as number,
     },
     site: row.site_id ? { id: row.site_id as number, code: row.site_code as string, name: row.site_name as string, kind: row.site_kind as SiteKind } : null,
     customer: row.customer_id ? { id: row.customer_id as number, name: row.customer_name as string, freeDays: row.free_days as number } : null,
     trip: row.current_trip_id
       ? {
-          id: row.current_trip_id as number, dispatchedAt: iso(row.dispatched_at)!, deliveredAt: iso(row.delivered_at), orderRef: (row.order_ref as string) ?? null,
-          customerSite: (row.customer_site_name as string) ?? null, fillProduct: (row.fill_product as string) ?? null, sealsApplied: (row.seals_applied as string[]) ?? [],
+          id: row.current_trip_id as number,
+          dispatchedAt: iso(row.dispatched_at)!,
+          deliveredAt: iso(row.delivered_at),
+          orderRef: (row.order_ref as string) ?? null,
+          customerSite: (row.customer_site_name as string) ?? null,
+          fillProduct: (row.fill_product as string) ?? null,
+          sealsApplied: (row.seals_applied as string[]) ?? [],
         }
       : null,
     linerLot: row.liner_lot_id
-      ? { id: row.liner_lot_id as number, lotNumber: row.lot_number as string, supplier: row.supplier as string, expiryDate: row.expiry_date as string, status: row.lot_status as string }
+      ? {
+          id: row.liner_lot_id as number,
+          lotNumber: row.lot_number as string,
+          supplier: row.supplier as string,
+          expiryDate: row.expiry_date as string,
+          status: row.lot_status as string,
+        }
       : null,
     marking: row.un_marking ? parseUnMarking(row.un_marking as string) : null,
     events,
@@ -103,9 +169,15 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
 export function actionsFor(view: BinView, user: SessionUser, site: { id: number; kind: SiteKind } | null): Action[] {
   return allowedActions(
     {
-      status: view.asset.status, siteId: view.site ? String(view.site.id) : null, siteKind: view.site?.kind ?? null, leg: view.asset.leg,
-      prepChecked: view.asset.prepChecked, linerLotId: view.linerLot ? String(view.linerLot.id) : null, filled: view.asset.filled,
-      tripOpen: view.trip !== null, nextDue: view.asset.nextDue,
+      status: view.asset.status,
+      siteId: view.site ? String(view.site.id) : null,
+      siteKind: view.site?.kind ?? null,
+      leg: view.asset.leg,
+      prepChecked: view.asset.prepChecked,
+      linerLotId: view.linerLot ? String(view.linerLot.id) : null,
+      filled: view.asset.filled,
+      tripOpen: view.trip !== null,
+      nextDue: view.asset.nextDue,
     },
     { role: user.role, today: view.today, siteId: site ? String(site.id) : null, siteKind: site?.kind ?? null },
   );

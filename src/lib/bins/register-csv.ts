@@ -9,16 +9,29 @@ import Papa from 'papaparse';
 import { csvLines, csvTable } from '@/lib/csv';
 import { parseSerialisedGrai } from '@/lib/gs1';
 import {
-  checkBinType, checkDepot, checkMarkAgainstType, checkRegistration, graiFromSerial, normaliseMonth,
-  type BinTypeRef, type RegisterBinInput, type RegisterIssue, type SiteRef,
+  checkBinType,
+  checkDepot,
+  checkMarkAgainstType,
+  checkRegistration,
+  graiFromSerial,
+  normaliseMonth,
+  type BinTypeRef,
+  type RegisterBinInput,
+  type RegisterIssue,
+  type SiteRef,
 } from './registration-check';
 
 export const IMPORT_COLUMNS = [
-  { name: 'grai', required: true, meaning: 'The bin\'s GS1 GRAI with its serial, as on the label (spaces allowed; a label link works too).', example: '09521234100102EX-0001' },
+  { name: 'grai', required: true, meaning: "The bin's GS1 GRAI with its serial, as on the label (spaces allowed; a label link works too).", example: '09521234100102EX-0001' },
   { name: 'bin_type', required: true, meaning: 'Bin type code, one of the codes in use listed below this table.', example: 'FX1000' },
   { name: 'depot', required: true, meaning: 'Site code of the depot where the bin is now, one of the open depots listed below this table.', example: 'DEP-RTM' },
   { name: 'manufacture_month', required: true, meaning: 'Month of manufacture, YYYY-MM. May be empty when the UN mark is given (the mark carries it).', example: '2024-05' },
-  { name: 'un_marking', required: false, meaning: 'The UN mark as stamped on the bin, fields separated by /. Empty for a bin without one.', example: '31HA2/Y/05 24/NL/NMP 4417/2313/1285' },
+  {
+    name: 'un_marking',
+    required: false,
+    meaning: 'The UN mark as stamped on the bin, fields separated by /. Empty for a bin without one.',
+    example: '31HA2/Y/05 24/NL/NMP 4417/2313/1285',
+  },
   { name: 'last_intermediate_test_month', required: false, meaning: 'Month of the last 2.5-year inspection and leakproofness test, YYYY-MM, if any.', example: '' },
   { name: 'last_full_inspection_month', required: false, meaning: 'Month of the last 5-year inspection, YYYY-MM, if any.', example: '' },
 ] as const;
@@ -49,7 +62,11 @@ export type CsvParseResult =
 
 /** 'Last Full-Inspection Month ' → 'last_full_inspection_month'. */
 function headerKey(text: string): string {
-  return text.replace(/^\uFEFF/, '').trim().toLowerCase().replace(/[\s-]+/g, '_');
+  return text
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .toLowerCase()
+    .replace(/[\s-]+/g, '_');
 }
 
 /** The delimiter that splits the header into the most known column names (comma on a tie). */
@@ -85,7 +102,12 @@ export function parseRegisterCsv(input: string): CsvParseResult {
   const repeated = header.filter((h, i) => h !== '' && header.indexOf(h) !== i);
   const missing = REQUIRED.filter((c) => !header.includes(c));
   if (missing.length) {
-    return refused('missing_columns', `The header lacks ${missing.length === 1 ? 'the column' : 'these columns'}: ${missing.join(', ')}. The first line must name the columns (see the template).`, [...missing], unknown);
+    return refused(
+      'missing_columns',
+      `The header lacks ${missing.length === 1 ? 'the column' : 'these columns'}: ${missing.join(', ')}. The first line must name the columns (see the template).`,
+      [...missing],
+      unknown,
+    );
   }
   if (unknown.length || repeated.length) {
     const parts = [
@@ -98,7 +120,12 @@ export function parseRegisterCsv(input: string): CsvParseResult {
   const quoteProblems = new Map<number, string>();
   for (const e of parsed.errors) {
     if (e.type === 'Quotes' && typeof e.row === 'number') {
-      quoteProblems.set(e.row, e.code === 'MissingQuotes' ? 'A quoted cell is never closed: a " is missing, so the rest of the file ran into this cell.' : 'A " stands inside a cell that is not quoted; write it as "" inside a quoted cell.');
+      quoteProblems.set(
+        e.row,
+        e.code === 'MissingQuotes'
+          ? 'A quoted cell is never closed: a " is missing, so the rest of the file ran into this cell.'
+          : 'A " stands inside a cell that is not quoted; write it as "" inside a quoted cell.',
+      );
     }
   }
 
@@ -112,7 +139,11 @@ export function parseRegisterCsv(input: string): CsvParseResult {
     });
     const issues: LineIssue[] = [];
     const extra = row.slice(header.length).filter((cell) => cell.trim() !== '');
-    if (extra.length) issues.push({ column: null, message: `This line has ${row.length} cells; the header names ${header.length}. Check for a stray ${delimiter === '\t' ? 'tab' : `"${delimiter}"`} or an unquoted cell.` });
+    if (extra.length)
+      issues.push({
+        column: null,
+        message: `This line has ${row.length} cells; the header names ${header.length}. Check for a stray ${delimiter === '\t' ? 'tab' : `"${delimiter}"`} or an unquoted cell.`,
+      });
     const quote = quoteProblems.get(r);
     if (quote) issues.push({ column: null, message: quote });
     lines.push({ line: r + 1, cells, issues });
@@ -192,7 +223,7 @@ export function validateImportLines(lines: CsvLine[], lookups: RegisterLookups):
     const binType = cells.bin_type ? lookups.binTypes.get(cells.bin_type.toUpperCase()) : undefined;
     const site = cells.depot ? lookups.sites.get(cells.depot.toUpperCase()) : undefined;
     if (!cells.bin_type) issues.push({ column: 'bin_type', message: 'Give the bin type code.' });
-    if (!cells.depot) issues.push({ column: 'depot', message: 'Give the depot\'s site code.' });
+    if (!cells.depot) issues.push({ column: 'depot', message: "Give the depot's site code." });
     const typeIssue = cells.bin_type ? checkBinType(binType, cells.bin_type) : null;
     const depotIssue = cells.depot ? checkDepot(site, cells.depot) : null;
     for (const issue of [typeIssue, depotIssue]) if (issue) issues.push(toLineIssue(issue));
@@ -252,8 +283,20 @@ export function templateCsv(example: { companyPrefix: string; binTypes: Array<{ 
 // The export
 
 export const EXPORT_COLUMNS = [
-  'grai', 'serial', 'bin_type', 'status', 'site', 'customer', 'manufacture_month', 'un_marking', 'trip_count',
-  'last_inspection_on', 'last_full_inspection_on', 'next_intermediate_due', 'next_full_due', 'next_due',
+  'grai',
+  'serial',
+  'bin_type',
+  'status',
+  'site',
+  'customer',
+  'manufacture_month',
+  'un_marking',
+  'trip_count',
+  'last_inspection_on',
+  'last_full_inspection_on',
+  'next_intermediate_due',
+  'next_full_due',
+  'next_due',
 ] as const;
 
 export type ExportRow = Record<(typeof EXPORT_COLUMNS)[number], string | number | null>;

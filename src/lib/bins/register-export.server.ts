@@ -34,20 +34,23 @@ export function registerCsvStream(opts: { pageSize?: number } = {}): ReadableStr
   const encoder = new TextEncoder();
   let lastId = 0;
   let first = true;
-  return new ReadableStream<Uint8Array>({
-    async pull(controller) {
-      try {
-        const rows = await page(lastId, size);
-        const chunk = exportCsvChunk(rows, first);
-        if (chunk) controller.enqueue(encoder.encode(chunk));
-        first = false;
-        if (rows.length < size) controller.close();
-        else lastId = rows[rows.length - 1]!.id;
-      } catch (e) {
-        controller.error(e);
-      }
+  return new ReadableStream<Uint8Array>(
+    {
+      async pull(controller) {
+        try {
+          const rows = await page(lastId, size);
+          const chunk = exportCsvChunk(rows, first);
+          if (chunk) controller.enqueue(encoder.encode(chunk));
+          first = false;
+          if (rows.length < size) controller.close();
+          else lastId = rows[rows.length - 1]!.id;
+        } catch (e) {
+          controller.error(e);
+        }
+      },
     },
-  }, { highWaterMark: 1 });
+    { highWaterMark: 1 },
+  );
 }
 
 export function exportFilename(today: string): string {

@@ -9,10 +9,7 @@ import { AppError } from '@/lib/api-errors';
 import { groupGrai } from '@/lib/gs1';
 import { decodeCsvUpload } from '@/lib/upload-sniff';
 import { declaredLength, readBodyCapped } from '@/lib/http/body.server';
-import {
-  graisInLines, importCounts, parseRegisterCsv, validateImportLines,
-  type CsvLine, type ImportLine, type RegisterLookups,
-} from './register-csv';
+import { graisInLines, importCounts, parseRegisterCsv, validateImportLines, type CsvLine, type ImportLine, type RegisterLookups } from './register-csv';
 import { registerBins } from './bin-register.server';
 import { recordAudit } from '@/lib/audit.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -57,7 +54,9 @@ function linesOf(bytes: Uint8Array): CsvLine[] {
   const parsed = parseRegisterCsv(sniff.text);
   if (!parsed.ok) {
     throw new AppError('unprocessable', `${parsed.message} Nothing was registered.`, {
-      fileProblem: parsed.code, missingColumns: parsed.missingColumns, unknownColumns: parsed.unknownColumns,
+      fileProblem: parsed.code,
+      missingColumns: parsed.missingColumns,
+      unknownColumns: parsed.unknownColumns,
     });
   }
   return parsed.lines;
@@ -98,15 +97,17 @@ export interface ImportPreview {
 
 function previewOf(lines: ImportLine[], prefixLength: number, bytes: Uint8Array): ImportPreview {
   // Every line in file order when they fit; otherwise the problems first, so none is cut off.
-  const shown = lines.length <= PREVIEW_LINES
-    ? lines
-    : [...lines.filter((l) => l.issues.length > 0), ...lines.filter((l) => l.issues.length === 0)].slice(0, PREVIEW_LINES);
+  const shown = lines.length <= PREVIEW_LINES ? lines : [...lines.filter((l) => l.issues.length > 0), ...lines.filter((l) => l.issues.length === 0)].slice(0, PREVIEW_LINES);
   return {
     sha256: sha256(bytes),
     byteSize: bytes.byteLength,
     counts: importCounts(lines),
     lines: shown.map((l) => ({
-      line: l.line, grai: l.grai, groupedGrai: l.grai ? groupGrai(l.grai, prefixLength) : null, cells: l.cells, issues: l.issues,
+      line: l.line,
+      grai: l.grai,
+      groupedGrai: l.grai ? groupGrai(l.grai, prefixLength) : null,
+      cells: l.cells,
+      issues: l.issues,
     })),
     linesNotShown: lines.length - shown.length,
   };
@@ -136,23 +137,35 @@ export async function commitImport(actor: Actor, bytes: Uint8Array, opts: { expe
       const checked = validateImportLines(lines, await lookups(lines, settings.gs1PrefixLength, t));
       const counts = importCounts(checked);
       if (counts.withProblems > 0) {
-        throw new AppError(
-          'unprocessable',
-          `${counts.withProblems} of ${counts.total} lines have problems, so nothing was registered. Fix them in the file and upload it again.`,
-          { preview: previewOf(checked, settings.gs1PrefixLength, bytes) },
-        );
+        throw new AppError('unprocessable', `${counts.withProblems} of ${counts.total} lines have problems, so nothing was registered. Fix them in the file and upload it again.`, {
+          preview: previewOf(checked, settings.gs1PrefixLength, bytes),
+        });
       }
-      const registered = await registerBins(actor, checked.map((l) => l.input!), { transaction: t, now: opts.now });
+      const registered = await registerBins(
+        actor,
+        checked.map((l) => l.input!),
+        { transaction: t, now: opts.now },
+      );
       const file = await Attachment.create(
         {
-          content: Buffer.from(bytes), contentType: 'text/csv', byteSize: bytes.byteLength, sha256: digest,
-          filename: opts.filename?.slice(0, 200) ?? null, purpose: 'import', organisationId: actor.organisationId, uploadedBy: actor.id,
+          content: Buffer.from(bytes),
+          contentType: 'text/csv',
+          byteSize: bytes.byteLength,
+          sha256: digest,
+          filename: opts.filename?.slice(0, 200) ?? null,
+          purpose: 'import',
+          organisationId: actor.organisationId,
+          uploadedBy: actor.id,
         },
         { transaction: t },
       );
       await recordAudit(
         {
-          actor: { userId: actor.id, ip: opts.ip ?? null }, action: 'bins.import', entityType: 'attachment', entityId: file.id, before: null,
+          actor: { userId: actor.id, ip: opts.ip ?? null },
+          action: 'bins.import',
+          entityType: 'attachment',
+          entityId: file.id,
+          before: null,
           after: { registered, filename: file.filename, sha256: digest, firstGrai: checked[0]!.grai, lastGrai: checked[checked.length - 1]!.grai },
         },
         { transaction: t },

@@ -82,7 +82,10 @@ export function graiFromSerial(companyPrefix: string, assetType: string, serial:
   if (trimmed === '') return { ok: false, message: "Give the bin's serial (as printed on its plate)." };
   const width = 12 - companyPrefix.length;
   if (assetType.length > width) {
-    return { ok: false, message: `The bin type's GRAI asset type ${assetType} has ${assetType.length} digits; with a ${companyPrefix.length}-digit company prefix it may have ${width}.` };
+    return {
+      ok: false,
+      message: `The bin type's GRAI asset type ${assetType} has ${assetType.length} digits; with a ${companyPrefix.length}-digit company prefix it may have ${width}.`,
+    };
   }
   try {
     return { ok: true, grai: formatGrai({ companyPrefix, assetType: assetType.padStart(width, '0'), serial: trimmed }) };
@@ -137,8 +140,14 @@ export function checkDepot(site: SiteRef | undefined, label: string): RegisterIs
  * each as the first day of its month. Each clock restarts only from its own
  * test (inspection-due.ts).
  */
-export function testColumns(lastIntermediateTestMonth: string | null | undefined, lastFullInspectionMonth: string | null | undefined): { lastInspectionOn: string | null; lastLeakTestOn: string | null; lastFullInspectionOn: string | null } {
-  const latest = [lastIntermediateTestMonth, lastFullInspectionMonth].filter((m): m is string => !!m).sort().pop();
+export function testColumns(
+  lastIntermediateTestMonth: string | null | undefined,
+  lastFullInspectionMonth: string | null | undefined,
+): { lastInspectionOn: string | null; lastLeakTestOn: string | null; lastFullInspectionOn: string | null } {
+  const latest = [lastIntermediateTestMonth, lastFullInspectionMonth]
+    .filter((m): m is string => !!m)
+    .sort()
+    .pop();
   return {
     lastInspectionOn: latest ? `${latest}-01` : null,
     lastLeakTestOn: lastIntermediateTestMonth ? `${lastIntermediateTestMonth}-01` : null,
@@ -147,6 +156,9 @@ export function testColumns(lastIntermediateTestMonth: string | null | undefined
 }
 
 /** The two test months as the edit form shows them, read back from a bin's columns. */
-export function testMonthsOf(bin: { lastLeakTestOn: string | null; lastFullInspectionOn: string | null }): { lastIntermediateTestMonth: string | null; lastFullInspectionMonth: string | null } {
+export function testMonthsOf(bin: { lastLeakTestOn: string | null; lastFullInspectionOn: string | null }): {
+  lastIntermediateTestMonth: string | null;
+  lastFullInspectionMonth: string | null;
+} {
   return { lastIntermediateTestMonth: bin.lastLeakTestOn?.slice(0, 7) ?? null, lastFullInspectionMonth: bin.lastFullInspectionOn?.slice(0, 7) ?? null };
 }

@@ -11,9 +11,7 @@ export interface UnMarkField {
   value: string;
 }
 
-export type UnMarkSummary =
-  | { ok: true; fields: UnMarkField[]; manufactureMonth: string; typeCode: string }
-  | { ok: false; message: string };
+export type UnMarkSummary = { ok: true; fields: UnMarkField[]; manufactureMonth: string; typeCode: string } | { ok: false; message: string };
 
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
 

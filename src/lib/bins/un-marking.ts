@@ -335,10 +335,8 @@ const FIELD_NAMES = 'type code, packing-group letter, month and year, State, man
  */
 function splitFields(mark: string): RawFields | Failure {
   const slashMode = mark.includes('/');
-  const fields = slashMode
-    ? mark.split('/').map((field) => field.trim().replace(/\s+/g, ' '))
-    : mark.split(/\s+/);
-  const empty = fields.findIndex((field) => field === '');
+  const fields = slashMode ? mark.split('/').map((field) => field.trim().replace(/\s+/g, ' ')) : mark.split(/\s+/);
+  const empty = fields.indexOf('');
   if (empty >= 0) return fail('missing-field', `Field ${empty + 1} of the mark is empty; expected ${FIELD_NAMES}`);
   const [typeCode = '', packingGroup = '', dateField = ''] = fields;
   const dateParts = slashMode ? dateField.split(' ') : [dateField];
@@ -368,7 +366,12 @@ function joinLines(text: string): string {
   const joiner = text.includes('/') ? '/' : ' ';
   return text
     .split(/\r?\n/)
-    .map((line) => line.trim().replace(/^\/|\/$/g, '').trim())
+    .map((line) =>
+      line
+        .trim()
+        .replace(/^\/|\/$/g, '')
+        .trim(),
+    )
     .filter((line) => line !== '')
     .join(joiner);
 }
@@ -392,7 +395,9 @@ export function ibcsStackableOnTop(stackingTestLoadKg: number, maxGrossMassKg: n
  * The leading UN symbol text is optional.
  */
 export function parseUnMarking(text: string, opts: UnMarkingOptions = {}): UnMarkingResult {
-  const mark = joinLines(text).replace(UN_SYMBOL, '').replace(/^[\s/]+|[\s/]+$/g, '');
+  const mark = joinLines(text)
+    .replace(UN_SYMBOL, '')
+    .replace(/^[\s/]+|[\s/]+$/g, '');
   if (mark === '') return fail('empty', 'No UN mark given');
   const raw = splitFields(mark);
   if (isFailure(raw)) return raw;

@@ -7,7 +7,19 @@ import { sequelize } from '@/db/sequelize';
 import { getSettings } from '@/lib/settings/settings.server';
 import { localDate, formatLongDate } from '@/lib/calendar';
 import { AppError } from '@/lib/api-errors';
-import { binsCountQuery, binsExportQuery, binsPageQuery, BIN_COLUMNS, COUNT_CAP, GridQueryError, type BinColumnId, type FilterModel, type GridRequest, type QueryContext, type SqlStatement } from './grid-query';
+import {
+  binsCountQuery,
+  binsExportQuery,
+  binsPageQuery,
+  BIN_COLUMNS,
+  COUNT_CAP,
+  GridQueryError,
+  type BinColumnId,
+  type FilterModel,
+  type GridRequest,
+  type QueryContext,
+  type SqlStatement,
+} from './grid-query';
 import { STATUS_LABELS, type Status } from '@/lib/scans/lifecycle';
 
 /** Runs a check from the grid's query language; a refusal becomes a 400 validation_failed with its details. */
@@ -157,7 +169,10 @@ export async function exportBinsCsv(req: Pick<GridRequest, 'sortModel' | 'filter
     await close(false).catch(() => undefined);
     throw err;
   }
-  const header = csvTable(columns.map((c) => BIN_COLUMNS[c].label), []);
+  const header = csvTable(
+    columns.map((c) => BIN_COLUMNS[c].label),
+    [],
+  );
   let wroteHeader = false;
   return new ReadableStream<Uint8Array>({
     async pull(controller) {

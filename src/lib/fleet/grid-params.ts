@@ -21,9 +21,7 @@ function jsonParam(name: string) {
     });
 }
 
-export const gridModelsQuery = z
-  .object({ sortModel: jsonParam('sortModel'), filterModel: jsonParam('filterModel') })
-  .strict();
+export const gridModelsQuery = z.object({ sortModel: jsonParam('sortModel'), filterModel: jsonParam('filterModel') }).strict();
 
 export const binsPageQuerySchema = gridModelsQuery
   .extend({
@@ -32,6 +30,4 @@ export const binsPageQuerySchema = gridModelsQuery
   })
   .strict();
 
-export const binsExportQuerySchema = gridModelsQuery
-  .extend({ columns: text().max(1000).optional() })
-  .strict();
+export const binsExportQuerySchema = gridModelsQuery.extend({ columns: text().max(1000).optional() }).strict();

@@ -138,7 +138,7 @@ export type BinColumnId = keyof typeof BIN_COLUMNS;
 export const BIN_COLUMN_IDS = Object.keys(BIN_COLUMNS) as BinColumnId[];
 
 export function isBinColumnId(value: unknown): value is BinColumnId {
-  return typeof value === 'string' && Object.prototype.hasOwnProperty.call(BIN_COLUMNS, value);
+  return typeof value === 'string' && Object.hasOwn(BIN_COLUMNS, value);
 }
 
 function column(id: unknown, path: string): ColumnSpec {

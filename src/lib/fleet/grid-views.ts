@@ -34,7 +34,18 @@ export interface BuiltinView {
 
 /** Columns shown when a view does not say otherwise, in order. The rest start hidden. */
 export const DEFAULT_VISIBLE: readonly BinColumnId[] = [
-  'grai', 'serial', 'binType', 'status', 'site', 'customer', 'daysAtSite', 'lastScanAt', 'tripCount', 'lastInspectionOn', 'nextDue', 'linerLot',
+  'grai',
+  'serial',
+  'binType',
+  'status',
+  'site',
+  'customer',
+  'daysAtSite',
+  'lastScanAt',
+  'tripCount',
+  'lastInspectionOn',
+  'nextDue',
+  'linerLot',
 ];
 
 const NOT_RETIRED = STATUSES.filter((s) => s !== 'retired');

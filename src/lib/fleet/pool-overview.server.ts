@@ -114,10 +114,17 @@ function dateOf(value: unknown, timeZone: string): LocalDate | null {
 }
 
 async function siteCounts(): Promise<{ byStatus: StatusCounts; sites: SiteCounts[]; noSite: StatusCounts }> {
-  const counts = await select<{ site_id: number | null; status: Status; n: number }>(
-    `SELECT site_id, status, count(*)::int AS n FROM assets GROUP BY site_id, status`,
-  );
-  const sites = await select<{ id: number; code: string; name: string; kind: SiteKind; organisation_name: string; latitude: string | null; longitude: string | null; active: boolean }>(
+  const counts = await select<{ site_id: number | null; status: Status; n: number }>(`SELECT site_id, status, count(*)::int AS n FROM assets GROUP BY site_id, status`);
+  const sites = await select<{
+    id: number;
+    code: string;
+    name: string;
+    kind: SiteKind;
+    organisation_name: string;
+    latitude: string | null;
+    longitude: string | null;
+    active: boolean;
+  }>(
     `SELECT s.id, s.code, s.name, s.kind, o.name AS organisation_name, s.latitude, s.longitude, s.active
        FROM sites s JOIN organisations o ON o.id = s.organisation_id
       ORDER BY CASE s.kind WHEN 'depot' THEN 0 WHEN 'customer' THEN 1 ELSE 2 END, s.name`,
@@ -136,9 +143,16 @@ async function siteCounts(): Promise<{ byStatus: StatusCounts; sites: SiteCounts
     .map((s) => {
       const siteStatus = bySite.get(s.id) ?? zeroCounts();
       return {
-        id: s.id, code: s.code, name: s.name, kind: s.kind, organisationName: s.organisation_name,
-        lat: s.latitude === null ? null : Number(s.latitude), lon: s.longitude === null ? null : Number(s.longitude),
-        byStatus: siteStatus, total: Object.values(siteStatus).reduce((a, b) => a + b, 0), active: s.active,
+        id: s.id,
+        code: s.code,
+        name: s.name,
+        kind: s.kind,
+        organisationName: s.organisation_name,
+        lat: s.latitude === null ? null : Number(s.latitude),
+        lon: s.longitude === null ? null : Number(s.longitude),
+        byStatus: siteStatus,
+        total: Object.values(siteStatus).reduce((a, b) => a + b, 0),
+        active: s.active,
       };
     })
     // Inactive sites only while bins are still there.
@@ -163,7 +177,16 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
   const byCustomer = new Map<number, CustomerHire>();
   let overdueTotal = 0;
   for (const g of groups) {
-    const c = byCustomer.get(g.customer_id) ?? { customerId: g.customer_id, name: g.name, freeDays: g.free_days, onHire: 0, awaitingCollection: 0, overdue: 0, overdueEstimated: 0, worstDaysOver: 0 };
+    const c = byCustomer.get(g.customer_id) ?? {
+      customerId: g.customer_id,
+      name: g.name,
+      freeDays: g.free_days,
+      onHire: 0,
+      awaitingCollection: 0,
+      overdue: 0,
+      overdueEstimated: 0,
+      worstDaysOver: 0,
+    };
     byCustomer.set(g.customer_id, c);
     if (g.status === 'on_hire') c.onHire += g.n;
     else c.awaitingCollection += g.n;
@@ -178,7 +201,17 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
   const customers = [...byCustomer.values()].sort((a, b) => b.onHire + b.awaitingCollection - (a.onHire + a.awaitingCollection) || a.name.localeCompare(b.name));
 
   // The longest-overdue bins: ordered by the end of their free days, so the overdue ones come first.
-  const rows = await select<{ id: number; grai: string; serial: string; status: Status; customer: string; site: string | null; free_days: number; delivered_on: string | null; dispatched_on: string | null }>(
+  const rows = await select<{
+    id: number;
+    grai: string;
+    serial: string;
+    status: Status;
+    customer: string;
+    site: string | null;
+    free_days: number;
+    delivered_on: string | null;
+    dispatched_on: string | null;
+  }>(
     `SELECT a.id, a.grai, a.serial, a.status, o.name AS customer, s.name AS site, o.free_days,
             (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
             (t.dispatched_at AT TIME ZONE $1)::date AS dispatched_on
@@ -195,7 +228,17 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
   for (const r of rows) {
     const check = overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, freeDays: r.free_days, today });
     if (!check.overdue) continue;
-    overdueBins.push({ assetId: r.id, grai: r.grai, serial: r.serial, status: r.status, customerName: r.customer, siteName: r.site, freeUntil: check.freeUntil!, daysOver: check.daysOver, estimated: check.estimated });
+    overdueBins.push({
+      assetId: r.id,
+      grai: r.grai,
+      serial: r.serial,
+      status: r.status,
+      customerName: r.customer,
+      siteName: r.site,
+      freeUntil: check.freeUntil!,
+      daysOver: check.daysOver,
+      estimated: check.estimated,
+    });
   }
   return { customers, overdueTotal, overdueBins };
 }
@@ -215,8 +258,14 @@ async function empties(today: LocalDate, timeZone: string): Promise<EmptiesAtSit
   return rows.map((r) => {
     const oldestSince = dateOf(r.since, timeZone);
     return {
-      siteId: r.site_id, code: r.code, name: r.name, customerName: r.customer, count: r.n, oldestSince,
-      longestWaitDays: oldestSince === null ? null : Math.max(0, daysBetween(oldestSince, today)), openRequests: r.requests,
+      siteId: r.site_id,
+      code: r.code,
+      name: r.name,
+      customerName: r.customer,
+      count: r.n,
+      oldestSince,
+      longestWaitDays: oldestSince === null ? null : Math.max(0, daysBetween(oldestSince, today)),
+      openRequests: r.requests,
     };
   });
 }
@@ -234,7 +283,9 @@ async function notScanned(today: LocalDate, timeZone: string, days: number): Pro
     [timeZone, recentFrom, LIST_LENGTH],
   );
   return {
-    days, firstRecentDay: recentFrom, count: counted?.n ?? 0,
+    days,
+    firstRecentDay: recentFrom,
+    count: counted?.n ?? 0,
     bins: rows.map((r) => ({ assetId: r.id, grai: r.grai, serial: r.serial, status: r.status, siteName: r.site, lastScanOn: dateOf(r.last_scan_at, timeZone) })),
   };
 }
@@ -317,7 +368,17 @@ export async function loadPoolOverview(opts: { staleDays: number; now?: Date }):
   ) as Record<OverviewCardId, number | null>;
   return {
     cards,
-    today, timeZone, byStatus: sites.byStatus, inService, sites: sites.sites, noSite: sites.noSite,
-    ...hire, empties: emptiesList, stale, shrinkage: shrink, tripsPerMonth: trips, testsDue: tests,
+    today,
+    timeZone,
+    byStatus: sites.byStatus,
+    inService,
+    sites: sites.sites,
+    noSite: sites.noSite,
+    ...hire,
+    empties: emptiesList,
+    stale,
+    shrinkage: shrink,
+    tripsPerMonth: trips,
+    testsDue: tests,
   };
 }

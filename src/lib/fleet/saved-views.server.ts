@@ -45,10 +45,20 @@ export async function listViews(user: Pick<SessionUser, 'id'>): Promise<ViewSumm
   const rows = await GridView.findAll({
     where: { grid: FLEET_GRID, [Op.or]: [{ ownerId: user.id }, { shared: true }] },
     include: [{ model: User, as: 'owner', attributes: ['name'] }],
-    order: [['name', 'ASC'], ['id', 'ASC']],
+    order: [
+      ['name', 'ASC'],
+      ['id', 'ASC'],
+    ],
   });
   const builtins: ViewSummary[] = BUILTIN_VIEWS.map((b) => ({
-    id: b.id, name: b.name, kind: 'builtin', shared: true, ownerName: null, description: b.description, state: b.state, version: null,
+    id: b.id,
+    name: b.name,
+    kind: 'builtin',
+    shared: true,
+    ownerName: null,
+    description: b.description,
+    state: b.state,
+    version: null,
   }));
   const own = rows.filter((r) => r.ownerId === user.id).map((r) => summary(r, user.id));
   const shared = rows.filter((r) => r.ownerId !== user.id).map((r) => summary(r, user.id));
@@ -84,11 +94,7 @@ export async function createView(user: Pick<SessionUser, 'id'>, input: ViewInput
   return summary(view, user.id);
 }
 
-export async function updateView(
-  user: Pick<SessionUser, 'id'>,
-  id: number,
-  patch: Partial<ViewInput> & { version: number },
-): Promise<ViewSummary> {
+export async function updateView(user: Pick<SessionUser, 'id'>, id: number, patch: Partial<ViewInput> & { version: number }): Promise<ViewSummary> {
   const view = await ownView(user, id);
   if (view.version !== patch.version) throw new AppError('changed_meanwhile', 'This view was changed meanwhile (perhaps in another tab). Reload and try again.');
   if (patch.name !== undefined) view.name = cleanViewName(patch.name);

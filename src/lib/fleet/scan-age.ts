@@ -47,6 +47,8 @@ export function isNotScannedFor(lastScanOn: LocalDate | null, today: LocalDate, 
  * tests/integration/fleet/silent-drift.test.ts.
  */
 export function notScannedForSql(firstRecent: string, timeZone: string): string {
-  const outOfService = STATUSES.filter((s) => !IN_SERVICE_STATUSES.includes(s)).map((s) => `'${s}'`).join(', ');
+  const outOfService = STATUSES.filter((s) => !IN_SERVICE_STATUSES.includes(s))
+    .map((s) => `'${s}'`)
+    .join(', ');
   return `a.status NOT IN (${outOfService}) AND (a.last_scan_at IS NULL OR a.last_scan_at < (${firstRecent}::date::timestamp AT TIME ZONE ${timeZone}))`;
 }

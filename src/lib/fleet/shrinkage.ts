@@ -48,7 +48,12 @@ function requireCount(value: number, name: string) {
 }
 
 export function shrinkage({ window, declaredMissing, foundAgain, poolAtStart, poolAtEnd }: ShrinkageInput): Shrinkage {
-  for (const [value, name] of [[declaredMissing, 'declaredMissing'], [foundAgain, 'foundAgain'], [poolAtStart, 'poolAtStart'], [poolAtEnd, 'poolAtEnd']] as const) {
+  for (const [value, name] of [
+    [declaredMissing, 'declaredMissing'],
+    [foundAgain, 'foundAgain'],
+    [poolAtStart, 'poolAtStart'],
+    [poolAtEnd, 'poolAtEnd'],
+  ] as const) {
     requireCount(value, name);
   }
   if (foundAgain > declaredMissing) throw new RangeError(`More bins found again (${foundAgain}) than declared missing (${declaredMissing})`);

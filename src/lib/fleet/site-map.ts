@@ -109,13 +109,37 @@ function boxFor(mark: LabelMark, side: LabelSide, charWidth: number, lineHeight:
   const baselineDrop = lineHeight * 0.35; // puts the middle of the text on the point's height
   switch (side) {
     case 'right':
-      return { x: mark.x + r, y: mark.y + baselineDrop, anchor: 'start', side, box: { left: mark.x + r, right: mark.x + r + w, top: mark.y - lineHeight / 2, bottom: mark.y + lineHeight / 2 } };
+      return {
+        x: mark.x + r,
+        y: mark.y + baselineDrop,
+        anchor: 'start',
+        side,
+        box: { left: mark.x + r, right: mark.x + r + w, top: mark.y - lineHeight / 2, bottom: mark.y + lineHeight / 2 },
+      };
     case 'left':
-      return { x: mark.x - r, y: mark.y + baselineDrop, anchor: 'end', side, box: { left: mark.x - r - w, right: mark.x - r, top: mark.y - lineHeight / 2, bottom: mark.y + lineHeight / 2 } };
+      return {
+        x: mark.x - r,
+        y: mark.y + baselineDrop,
+        anchor: 'end',
+        side,
+        box: { left: mark.x - r - w, right: mark.x - r, top: mark.y - lineHeight / 2, bottom: mark.y + lineHeight / 2 },
+      };
     case 'above':
-      return { x: mark.x, y: mark.y - r - lineHeight * 0.25, anchor: 'middle', side, box: { left: mark.x - w / 2, right: mark.x + w / 2, top: mark.y - r - lineHeight, bottom: mark.y - r } };
+      return {
+        x: mark.x,
+        y: mark.y - r - lineHeight * 0.25,
+        anchor: 'middle',
+        side,
+        box: { left: mark.x - w / 2, right: mark.x + w / 2, top: mark.y - r - lineHeight, bottom: mark.y - r },
+      };
     case 'below':
-      return { x: mark.x, y: mark.y + r + lineHeight * 0.8, anchor: 'middle', side, box: { left: mark.x - w / 2, right: mark.x + w / 2, top: mark.y + r, bottom: mark.y + r + lineHeight } };
+      return {
+        x: mark.x,
+        y: mark.y + r + lineHeight * 0.8,
+        anchor: 'middle',
+        side,
+        box: { left: mark.x - w / 2, right: mark.x + w / 2, top: mark.y + r, bottom: mark.y + r + lineHeight },
+      };
     default: {
       // Diagonals: the label's near corner touches the circle at 45°.
       const d = r * Math.SQRT1_2;

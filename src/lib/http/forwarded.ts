@@ -44,7 +44,10 @@ export function normaliseAddress(raw: string | undefined | null): string | null 
 
 /** The comma-separated entries of one or more X-Forwarded-* header values, in order, trimmed. */
 function headerList(value: string | null | undefined): string[] {
-  return (value ?? '').split(',').map((s) => s.trim()).filter(Boolean);
+  return (value ?? '')
+    .split(',')
+    .map((s) => s.trim())
+    .filter(Boolean);
 }
 
 export interface AddressInput {

@@ -20,7 +20,8 @@ export async function usualDaysOnHire(customerId: number, timeZone: string, toda
   const rows = await sequelize.query<{ days: number; returned: boolean }>(
     `SELECT (COALESCE((returned_at AT TIME ZONE $2)::date, $3::date) - (dispatched_at AT TIME ZONE $2)::date)::int AS days, returned_at IS NOT NULL AS returned
        FROM trips WHERE customer_id = $1 ORDER BY dispatched_at DESC LIMIT ${RECENT_TRIPS}`,
-    { bind: [customerId, timeZone, today], type: QueryTypes.SELECT, transaction: t });
+    { bind: [customerId, timeZone, today], type: QueryTypes.SELECT, transaction: t },
+  );
   const spells = rows.filter((r) => r.days >= 0);
   if (spells.length === 0) return null;
   return daysOnHireFromCurve(kaplanMeier(spells)) ?? daysOnHireFromTrips(spells.filter((s) => s.returned).map((s) => s.days));
@@ -33,10 +34,19 @@ export async function dispatchLapseCheck(
   timeZone: string,
   t: Transaction,
 ): Promise<DispatchCheck> {
-  const [bin] = await sequelize.query<{ next_due: string | null; inner_made_month: string | null; service_life_applies: boolean; service_life_years: number; policy_kind: 'un' | 'own'; intermediate_months: number; full_months: number }>(
+  const [bin] = await sequelize.query<{
+    next_due: string | null;
+    inner_made_month: string | null;
+    service_life_applies: boolean;
+    service_life_years: number;
+    policy_kind: 'un' | 'own';
+    intermediate_months: number;
+    full_months: number;
+  }>(
     `SELECT a.next_due::text, a.inner_made_month::text, bt.service_life_applies, bt.service_life_years, bt.policy_kind, bt.intermediate_months, bt.full_months
        FROM assets a JOIN bin_types bt ON bt.id = a.bin_type_id WHERE a.id = $1`,
-    { bind: [assetId], type: QueryTypes.SELECT, transaction: t });
+    { bind: [assetId], type: QueryTypes.SELECT, transaction: t },
+  );
   const policy = { applies: bin!.service_life_applies, years: bin!.service_life_years };
   // A type under 4.1.1.15 whose bin has no inner month on record: its period cannot be shown, so none is assumed.
   const lifeEnds = policy.applies && bin!.inner_made_month ? serviceLifeEnd(policy, bin!.inner_made_month.slice(0, 7)) : null;

@@ -83,13 +83,24 @@ export function checkDispatch(input: DispatchCheckInput): DispatchCheck {
   const what = WHAT[because];
   const base = { lastDay, because };
   if (lastDay < today) {
-    return { ok: false, code: 'inspection_lapsed', overridable: false, ...base, expectedBackOn: null, reason: `Its ${what} ran out on ${lastDay}; it may not be dispatched for hire.` };
+    return {
+      ok: false,
+      code: 'inspection_lapsed',
+      overridable: false,
+      ...base,
+      expectedBackOn: null,
+      reason: `Its ${what} ran out on ${lastDay}; it may not be dispatched for hire.`,
+    };
   }
   // Filled on the wanted date at the earliest: allowed only up to and including the last day.
   const fillOn = wantedOn < today ? today : wantedOn;
   if (lastDay < fillOn) {
     return {
-      ok: false, code: 'lapses_before_fill', overridable: false, ...base, expectedBackOn: null,
+      ok: false,
+      code: 'lapses_before_fill',
+      overridable: false,
+      ...base,
+      expectedBackOn: null,
       reason: `Its ${what} runs out on ${lastDay}, before the order's wanted date ${fillOn}: it could not be filled there. Choose another bin.`,
     };
   }
@@ -97,7 +108,11 @@ export function checkDispatch(input: DispatchCheckInput): DispatchCheck {
   const expectedBackOn = addDays(fillOn, usualDaysOnHire);
   if (lastDay < expectedBackOn) {
     return {
-      ok: false, code: 'lapses_while_out', overridable: true, ...base, expectedBackOn,
+      ok: false,
+      code: 'lapses_while_out',
+      overridable: true,
+      ...base,
+      expectedBackOn,
       reason: `Its ${what} runs out on ${lastDay}, while it is likely still out (this customer's bins are usually back within ${usualDaysOnHire} days, by ${expectedBackOn}); ${carriageWords(lastDay, policy)}. A planner may override this with a reason.`,
     };
   }

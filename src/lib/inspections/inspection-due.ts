@@ -299,8 +299,7 @@ export interface CarryCheckInput {
 
 export type CarryCheck =
   /** carryUntil: last day a bin filled before expiry may still travel; null when there is no limit. */
-  | { ok: true; carryUntil: LocalDate | null }
-  | { ok: false; lapsedOn: LocalDate; reason: string };
+  { ok: true; carryUntil: LocalDate | null } | { ok: false; lapsedOn: LocalDate; reason: string };
 
 /** May a filled bin travel today? Filled before expiry: yes, within the policy's carriage allowance. */
 export function mayCarryFilled({ filledOn, nextDue, today, policy }: CarryCheckInput): CarryCheck {

@@ -70,7 +70,8 @@ export function inspectionProblems(d: InspectionDraft, today: LocalDate, manufac
   if (!PERIODIC_KINDS.includes(d.kind)) return [{ field: 'kind', message: 'Choose the kind of inspection.' }];
   if (!isLocalDate(d.performedOn)) problems.push({ field: 'performedOn', message: 'Enter the day of the inspection.' });
   else if (d.performedOn > today) problems.push({ field: 'performedOn', message: 'The inspection day cannot be in the future.' });
-  else if (manufactureMonth && d.performedOn.slice(0, 7) < manufactureMonth) problems.push({ field: 'performedOn', message: `The bin was made in ${manufactureMonth}; the inspection cannot be earlier.` });
+  else if (manufactureMonth && d.performedOn.slice(0, 7) < manufactureMonth)
+    problems.push({ field: 'performedOn', message: `The bin was made in ${manufactureMonth}; the inspection cannot be earlier.` });
   const items = CHECKLIST[d.kind];
   const unanswered = items.filter((i) => typeof d.checklist[i.key] !== 'boolean');
   if (unanswered.length) problems.push({ field: 'checklist', message: `Answer every item of the checklist (${unanswered.length} left).` });
@@ -82,8 +83,10 @@ export function inspectionProblems(d: InspectionDraft, today: LocalDate, manufac
     if (typeof d.leakTest.passed !== 'boolean') problems.push({ field: 'leakTest', message: 'Say whether the leakproofness test passed.' });
   }
   if (d.outcome === 'pass') {
-    if (failedItems.length) problems.push({ field: 'outcome', message: `A bin with a failed item (${failedItems[0]!.label.split(':')[0]}) cannot pass: choose needs repair or fail.` });
-    if (d.leakTest && d.leakTest.passed === false) problems.push({ field: 'outcome', message: 'The leakproofness test failed, so the inspection cannot pass: choose needs repair or fail.' });
+    if (failedItems.length)
+      problems.push({ field: 'outcome', message: `A bin with a failed item (${failedItems[0]!.label.split(':')[0]}) cannot pass: choose needs repair or fail.` });
+    if (d.leakTest && d.leakTest.passed === false)
+      problems.push({ field: 'outcome', message: 'The leakproofness test failed, so the inspection cannot pass: choose needs repair or fail.' });
   } else if (!['repair', 'fail'].includes(d.outcome)) {
     problems.push({ field: 'outcome', message: 'Choose pass, needs repair or fail.' });
   } else if (!d.remarks?.trim()) {
@@ -103,6 +106,10 @@ export function testMark(performedOn: LocalDate, mark: string): string {
 
 /** An inspector's mark from a name: the initials, "Jana de Vries" → "JDV". An outside body's mark is its name. */
 export function initialsOf(name: string): string {
-  const letters = name.trim().split(/\s+/).map((w) => w[0]!.toUpperCase()).join('');
+  const letters = name
+    .trim()
+    .split(/\s+/)
+    .map((w) => w[0]!.toUpperCase())
+    .join('');
   return letters.slice(0, 4) || '?';
 }

@@ -33,18 +33,33 @@ export interface RecordedInspection {
 }
 
 interface BinRow {
-  id: number; manufacture_month: string; last_inspection_on: string | null; last_leak_test_on: string | null; last_full_inspection_on: string | null;
-  next_intermediate_due: string | null; next_full_due: string | null; next_due: string | null;
-  policy_kind: 'un' | 'own'; intermediate_months: number; full_months: number;
+  id: number;
+  manufacture_month: string;
+  last_inspection_on: string | null;
+  last_leak_test_on: string | null;
+  last_full_inspection_on: string | null;
+  next_intermediate_due: string | null;
+  next_full_due: string | null;
+  next_due: string | null;
+  policy_kind: 'un' | 'own';
+  intermediate_months: number;
+  full_months: number;
 }
 
-const invalid = (problems: Array<{ field: string; message: string }>) => new AppError('validation_failed', problems[0]!.message, problems.map((p) => ({ path: p.field, message: p.message })));
+const invalid = (problems: Array<{ field: string; message: string }>) =>
+  new AppError(
+    'validation_failed',
+    problems[0]!.message,
+    problems.map((p) => ({ path: p.field, message: p.message })),
+  );
 
 /** The inspector named on the record must be a qualified, active user of the operator; returns the mark they apply. */
 async function inspectorMark(draft: Pick<InspectionDraft, 'inspectorId' | 'inspectionBody'>, t: Transaction): Promise<string> {
   if (draft.inspectorId === null) return draft.inspectionBody!.trim();
   const [u] = await sequelize.query<{ name: string; qualified_inspector: boolean; active: boolean; role: string }>(
-    'SELECT name, qualified_inspector, active, role FROM users WHERE id = $1', { bind: [draft.inspectorId], type: QueryTypes.SELECT, transaction: t });
+    'SELECT name, qualified_inspector, active, role FROM users WHERE id = $1',
+    { bind: [draft.inspectorId], type: QueryTypes.SELECT, transaction: t },
+  );
   if (!u || !u.active || u.role === 'customer' || !u.qualified_inspector) {
     throw invalid([{ field: 'inspector', message: 'That person is not flagged as a qualified inspector; choose one who is, or name the outside inspection body.' }]);
   }
@@ -65,7 +80,11 @@ function scheduleAfter(bin: BinRow, draft: InspectionDraft) {
  * `inspect` scan (the rule table decides the bin's status; the log keeps the patch), then the record itself.
  * All in one transaction: a refusal anywhere leaves no trace.
  */
-export async function recordInspection(actor: Actor & { id: number }, input: RecordInspectionInput, opts: { now?: Date; transaction?: Transaction } = {}): Promise<RecordedInspection> {
+export async function recordInspection(
+  actor: Actor & { id: number },
+  input: RecordInspectionInput,
+  opts: { now?: Date; transaction?: Transaction } = {},
+): Promise<RecordedInspection> {
   const now = opts.now ?? new Date();
   const settings = await getSettings();
   const today = localDate(now, settings.timeZone);
@@ -74,20 +93,34 @@ export async function recordInspection(actor: Actor & { id: number }, input: Rec
       `SELECT a.id, a.manufacture_month::text, a.last_inspection_on::text, a.last_leak_test_on::text, a.last_full_inspection_on::text,
               a.next_intermediate_due::text, a.next_full_due::text, a.next_due::text, bt.policy_kind, bt.intermediate_months, bt.full_months
          FROM assets a JOIN bin_types bt ON bt.id = a.bin_type_id WHERE a.id = $1`,
-      { bind: [input.assetId], type: QueryTypes.SELECT, transaction: t });
+      { bind: [input.assetId], type: QueryTypes.SELECT, transaction: t },
+    );
     if (!bin) throw new AppError('not_found', 'No bin with that identity is registered.');
     const problems = inspectionProblems(input, today, bin.manufacture_month.slice(0, 7));
     if (problems.length) throw invalid(problems);
     const mark = await inspectorMark(input, t);
     const { schedule, restarted } = scheduleAfter(bin, input);
-    const scan = await recordScan(actor, {
-      clientEventId: input.clientEventId, assetId: bin.id, action: 'inspect', siteId: input.siteId, expectedVersion: input.expectedVersion,
-      photoIds: input.photoIds?.length ? input.photoIds : undefined, occurredAt: now,
-      inspection: { kind: input.kind, outcome: input.outcome, leakTest: input.leakTest },
-      inspectionResult: { kind: input.kind, outcome: input.outcome, scheduleAfter: schedule },
-    }, { now, transaction: t });
+    const scan = await recordScan(
+      actor,
+      {
+        clientEventId: input.clientEventId,
+        assetId: bin.id,
+        action: 'inspect',
+        siteId: input.siteId,
+        expectedVersion: input.expectedVersion,
+        photoIds: input.photoIds?.length ? input.photoIds : undefined,
+        occurredAt: now,
+        inspection: { kind: input.kind, outcome: input.outcome, leakTest: input.leakTest },
+        inspectionResult: { kind: input.kind, outcome: input.outcome, scheduleAfter: schedule },
+      },
+      { now, transaction: t },
+    );
     if (scan.replayed) {
-      const [again] = await sequelize.query<{ id: number }>('SELECT id FROM inspections WHERE scan_event_id = $1 AND amends_id IS NULL', { bind: [scan.eventId], type: QueryTypes.SELECT, transaction: t });
+      const [again] = await sequelize.query<{ id: number }>('SELECT id FROM inspections WHERE scan_event_id = $1 AND amends_id IS NULL', {
+        bind: [scan.eventId],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      });
       if (again) return { ...(await recordedOf(again.id, t)), scan };
     }
     const dues = schedule ?? { nextIntermediateDue: bin.next_intermediate_due, nextFullDue: bin.next_full_due, nextDue: bin.next_due };
@@ -98,12 +131,28 @@ export async function recordInspection(actor: Actor & { id: number }, input: Rec
        VALUES ($1, $2, $3, $4, $5, (SELECT site_id FROM scan_events WHERE id = $16), $6, $7, $8, $9, $10, $11, $12, $13, $14, $16, $15, $17) RETURNING id`,
       {
         bind: [
-          bin.id, input.kind, input.performedOn, input.inspectorId, input.inspectionBody?.trim() || null, JSON.stringify(input.checklist),
-          input.leakTest?.pressureKpa ?? null, input.leakTest?.minutes ?? null, input.leakTest?.passed ?? null, input.outcome,
-          dues.nextIntermediateDue, dues.nextFullDue, input.photoIds ?? [], input.remarks?.trim() || null, actor.id, scan.eventId, markText,
+          bin.id,
+          input.kind,
+          input.performedOn,
+          input.inspectorId,
+          input.inspectionBody?.trim() || null,
+          JSON.stringify(input.checklist),
+          input.leakTest?.pressureKpa ?? null,
+          input.leakTest?.minutes ?? null,
+          input.leakTest?.passed ?? null,
+          input.outcome,
+          dues.nextIntermediateDue,
+          dues.nextFullDue,
+          input.photoIds ?? [],
+          input.remarks?.trim() || null,
+          actor.id,
+          scan.eventId,
+          markText,
         ],
-        type: QueryTypes.SELECT, transaction: t,
-      });
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    );
     return { inspectionId: row!.id, scan, nextIntermediateDue: dues.nextIntermediateDue, nextFullDue: dues.nextFullDue, nextDue: dues.nextDue, restarted, testMark: markText };
   };
   return opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run);
@@ -111,7 +160,14 @@ export async function recordInspection(actor: Actor & { id: number }, input: Rec
 
 async function recordedOf(id: number, t: Transaction): Promise<Omit<RecordedInspection, 'scan'>> {
   const r = (await inspectionById(id, t))!;
-  return { inspectionId: id, nextIntermediateDue: r.nextIntermediateDue, nextFullDue: r.nextFullDue, nextDue: null, restarted: { intermediate: false, full: false }, testMark: r.testMark };
+  return {
+    inspectionId: id,
+    nextIntermediateDue: r.nextIntermediateDue,
+    nextFullDue: r.nextFullDue,
+    nextDue: null,
+    restarted: { intermediate: false, full: false },
+    testMark: r.testMark,
+  };
 }
 
 export interface InspectionRecord {
@@ -151,21 +207,60 @@ const RECORD_SQL = `
     LEFT JOIN users iu ON iu.id = i.inspector_id LEFT JOIN users ru ON ru.id = i.recorded_by LEFT JOIN sites s ON s.id = i.site_id`;
 
 type RecordRow = {
-  id: number; asset_id: number; grai: string; serial: string; un_marking: string | null; bin_type_name: string; kind: InspectionRecord['kind'];
-  performed_on: string; inspector_name: string | null; inspection_body: string | null; recorded_by_name: string | null; site_name: string | null;
-  checklist: Record<string, boolean>; leak_test_pressure_kpa: string | null; leak_test_minutes: string | null; leak_test_passed: boolean | null;
-  outcome: TestOutcome; next_intermediate_due: string | null; next_full_due: string | null; photo_ids: number[]; notes: string | null;
-  test_mark: string | null; created_at: Date; amends_id: number | null; amendment_reason: string | null;
+  id: number;
+  asset_id: number;
+  grai: string;
+  serial: string;
+  un_marking: string | null;
+  bin_type_name: string;
+  kind: InspectionRecord['kind'];
+  performed_on: string;
+  inspector_name: string | null;
+  inspection_body: string | null;
+  recorded_by_name: string | null;
+  site_name: string | null;
+  checklist: Record<string, boolean>;
+  leak_test_pressure_kpa: string | null;
+  leak_test_minutes: string | null;
+  leak_test_passed: boolean | null;
+  outcome: TestOutcome;
+  next_intermediate_due: string | null;
+  next_full_due: string | null;
+  photo_ids: number[];
+  notes: string | null;
+  test_mark: string | null;
+  created_at: Date;
+  amends_id: number | null;
+  amendment_reason: string | null;
 };
 
 function recordOf(r: RecordRow, amendments: InspectionRecord['amendments']): InspectionRecord {
   return {
-    id: r.id, assetId: r.asset_id, grai: r.grai, serial: r.serial, unMarking: r.un_marking, binTypeName: r.bin_type_name, kind: r.kind,
-    performedOn: r.performed_on, inspectorName: r.inspector_name, inspectionBody: r.inspection_body, recordedByName: r.recorded_by_name,
-    siteName: r.site_name, checklist: r.checklist,
-    leakTest: r.leak_test_pressure_kpa === null ? null : { pressureKpa: Number(r.leak_test_pressure_kpa), minutes: Number(r.leak_test_minutes), passed: Boolean(r.leak_test_passed) },
-    outcome: r.outcome, nextIntermediateDue: r.next_intermediate_due, nextFullDue: r.next_full_due, photoIds: r.photo_ids, remarks: r.notes,
-    testMark: r.test_mark, createdAt: r.created_at, amendments, amendsId: r.amends_id, amendmentReason: r.amendment_reason,
+    id: r.id,
+    assetId: r.asset_id,
+    grai: r.grai,
+    serial: r.serial,
+    unMarking: r.un_marking,
+    binTypeName: r.bin_type_name,
+    kind: r.kind,
+    performedOn: r.performed_on,
+    inspectorName: r.inspector_name,
+    inspectionBody: r.inspection_body,
+    recordedByName: r.recorded_by_name,
+    siteName: r.site_name,
+    checklist: r.checklist,
+    leakTest:
+      r.leak_test_pressure_kpa === null ? null : { pressureKpa: Number(r.leak_test_pressure_kpa), minutes: Number(r.leak_test_minutes), passed: Boolean(r.leak_test_passed) },
+    outcome: r.outcome,
+    nextIntermediateDue: r.next_intermediate_due,
+    nextFullDue: r.next_full_due,
+    photoIds: r.photo_ids,
+    remarks: r.notes,
+    testMark: r.test_mark,
+    createdAt: r.created_at,
+    amendments,
+    amendsId: r.amends_id,
+    amendmentReason: r.amendment_reason,
   };
 }
 
@@ -177,14 +272,18 @@ export async function inspectionById(id: number, t?: Transaction): Promise<Inspe
   const amendments = await sequelize.query<RecordRow>(`${RECORD_SQL} WHERE i.amends_id = $1 ORDER BY i.id`, { bind: [id], type: QueryTypes.SELECT, transaction: t });
   const latest = amendments.at(-1);
   const current = latest ? { ...latest, id: orig.id, amends_id: null, amendment_reason: null, created_at: orig.created_at } : orig;
-  return recordOf(current, amendments.map((a) => ({ id: a.id, reason: a.amendment_reason!, createdAt: a.created_at, recordedByName: a.recorded_by_name })));
+  return recordOf(
+    current,
+    amendments.map((a) => ({ id: a.id, reason: a.amendment_reason!, createdAt: a.created_at, recordedByName: a.recorded_by_name })),
+  );
 }
 
 /** A bin's periodic inspection records, newest first, as they now read. */
 export async function inspectionsOfBin(assetId: number): Promise<InspectionRecord[]> {
   const ids = await sequelize.query<{ id: number }>(
     `SELECT id FROM inspections WHERE asset_id = $1 AND amends_id IS NULL AND kind <> 'prep_check' ORDER BY performed_on DESC, id DESC LIMIT 50`,
-    { bind: [assetId], type: QueryTypes.SELECT });
+    { bind: [assetId], type: QueryTypes.SELECT },
+  );
   const out: InspectionRecord[] = [];
   for (const { id } of ids) out.push((await inspectionById(id))!);
   return out;
@@ -214,9 +313,13 @@ export async function amendInspection(actor: { id: number }, id: number, input: 
     if (!current || current.kind === 'prep_check') throw new AppError('not_found', 'No such inspection record.');
     await sequelize.query('SELECT id FROM inspections WHERE id = $1 FOR UPDATE', { bind: [current.id], transaction: t });
     const [ids] = await sequelize.query<{ inspector_id: number | null; site_id: number | null; scan_event_id: number | null }>(
-      `SELECT inspector_id, site_id, scan_event_id FROM inspections WHERE id = $1`, { bind: [current.amendments.at(-1)?.id ?? current.id], type: QueryTypes.SELECT, transaction: t });
+      `SELECT inspector_id, site_id, scan_event_id FROM inspections WHERE id = $1`,
+      { bind: [current.amendments.at(-1)?.id ?? current.id], type: QueryTypes.SELECT, transaction: t },
+    );
     const next: InspectionDraft = {
-      kind: current.kind, performedOn: current.performedOn, outcome: current.outcome,
+      kind: current.kind,
+      performedOn: current.performedOn,
+      outcome: current.outcome,
       checklist: input.checklist ?? current.checklist,
       leakTest: input.leakTest === undefined ? current.leakTest : input.leakTest,
       inspectorId: input.inspectorId === undefined ? (ids?.inspector_id ?? null) : input.inspectorId,
@@ -237,18 +340,37 @@ export async function amendInspection(actor: { id: number }, id: number, input: 
        VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $17, $18, $19, $20)`,
       {
         bind: [
-          current.assetId, current.kind, current.performedOn, next.inspectorId, next.inspectionBody?.trim() || null, ids?.site_id ?? null, JSON.stringify(next.checklist),
-          next.leakTest?.pressureKpa ?? null, next.leakTest?.minutes ?? null, next.leakTest?.passed ?? null, current.outcome, current.nextIntermediateDue,
-          current.nextFullDue, current.photoIds, next.remarks?.trim() || null, ids?.scan_event_id ?? null, actor.id, current.testMark, current.id, reason,
+          current.assetId,
+          current.kind,
+          current.performedOn,
+          next.inspectorId,
+          next.inspectionBody?.trim() || null,
+          ids?.site_id ?? null,
+          JSON.stringify(next.checklist),
+          next.leakTest?.pressureKpa ?? null,
+          next.leakTest?.minutes ?? null,
+          next.leakTest?.passed ?? null,
+          current.outcome,
+          current.nextIntermediateDue,
+          current.nextFullDue,
+          current.photoIds,
+          next.remarks?.trim() || null,
+          ids?.scan_event_id ?? null,
+          actor.id,
+          current.testMark,
+          current.id,
+          reason,
         ],
         transaction: t,
-      });
+      },
+    );
     return (await inspectionById(current.id, t))!;
   });
 }
 
 /** The qualified inspectors a form offers (active users flagged as such). */
 export async function qualifiedInspectors(): Promise<Array<{ id: number; name: string }>> {
-  return sequelize.query<{ id: number; name: string }>(
-    `SELECT id, name FROM users WHERE qualified_inspector AND active AND role <> 'customer' ORDER BY name`, { type: QueryTypes.SELECT });
+  return sequelize.query<{ id: number; name: string }>(`SELECT id, name FROM users WHERE qualified_inspector AND active AND role <> 'customer' ORDER BY name`, {
+    type: QueryTypes.SELECT,
+  });
 }

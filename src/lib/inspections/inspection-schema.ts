@@ -14,8 +14,10 @@ export const inspectionBody = z.object({
   assetId: z.number().int().positive(),
   siteId: z.number().int().positive().nullable().optional(),
   expectedVersion: z.number().int().min(0).optional(),
-  kind: z.enum(PERIODIC_KINDS as [typeof PERIODIC_KINDS[number], ...typeof PERIODIC_KINDS[number][]]),
-  performedOn: text().regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the day as YYYY-MM-DD').refine(inDateRange, `The day ${DATE_RANGE_MESSAGE}`),
+  kind: z.enum(PERIODIC_KINDS as [(typeof PERIODIC_KINDS)[number], ...(typeof PERIODIC_KINDS)[number][]]),
+  performedOn: text()
+    .regex(/^\d{4}-\d{2}-\d{2}$/, 'Enter the day as YYYY-MM-DD')
+    .refine(inDateRange, `The day ${DATE_RANGE_MESSAGE}`),
   checklist: z.record(text().max(40), z.boolean()),
   leakTest: leakTest.nullable(),
   outcome: z.enum(['pass', 'repair', 'fail']),

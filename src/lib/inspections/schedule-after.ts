@@ -16,7 +16,11 @@ export interface BinTestColumns {
 
 const day = (d: string | null) => (d ? d.slice(0, 10) : null);
 
-export function scheduleAfterTest(bin: BinTestColumns, test: TestRecord & { performedOn: string }, policy: InspectionPolicy): { schedule: Schedule | null; restarted: { intermediate: boolean; full: boolean } } {
+export function scheduleAfterTest(
+  bin: BinTestColumns,
+  test: TestRecord & { performedOn: string },
+  policy: InspectionPolicy,
+): { schedule: Schedule | null; restarted: { intermediate: boolean; full: boolean } } {
   const none = { intermediate: false, full: false };
   const restarted = clocksRestartedBy(test);
   if (!restarted.intermediate && !restarted.full) return { schedule: null, restarted: none };
@@ -39,7 +43,9 @@ export function scheduleAfterTest(bin: BinTestColumns, test: TestRecord & { perf
       lastInspectionOn: lastAny && lastAny > test.performedOn ? lastAny : test.performedOn,
       lastLeakTestOn: now.intermediate ? test.performedOn : day(bin.lastLeakTestOn),
       lastFullInspectionOn: now.full ? test.performedOn : day(bin.lastFullInspectionOn),
-      nextIntermediateDue: due.intermediateDue, nextFullDue: due.fullDue, nextDue: due.nextDue,
+      nextIntermediateDue: due.intermediateDue,
+      nextFullDue: due.fullDue,
+      nextDue: due.nextDue,
     },
   };
 }

@@ -59,7 +59,11 @@ export function planTestDays(input: { from: LocalDate; capacity: TestCapacity; b
     if (bin.dueOn < from) {
       flagged.push({ id: bin.id, code: 'lapsed', reason: `Its test lapsed after ${bin.dueOn}; test it as soon as it is at the depot (it may travel empty to its test).` });
     } else if (bin.availableFrom > bin.dueOn) {
-      flagged.push({ id: bin.id, code: 'back_after_due', reason: `Expected back on ${bin.availableFrom}, after its due date ${bin.dueOn}: ask for it back sooner or test it where it is.` });
+      flagged.push({
+        id: bin.id,
+        code: 'back_after_due',
+        reason: `Expected back on ${bin.availableFrom}, after its due date ${bin.dueOn}: ask for it back sooner or test it where it is.`,
+      });
     } else {
       open.push({ ...bin, start: bin.availableFrom > from ? bin.availableFrom : from });
     }
@@ -78,7 +82,10 @@ export function planTestDays(input: { from: LocalDate; capacity: TestCapacity; b
           .slice(0, slots);
         if (fits.length) {
           const taken = new Set(fits.map((b) => b.id));
-          byDay.set(day, fits.map((b) => b.id));
+          byDay.set(
+            day,
+            fits.map((b) => b.id),
+          );
           waiting = waiting.filter((b) => !taken.has(b.id));
         }
       }

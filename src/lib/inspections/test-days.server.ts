@@ -8,7 +8,15 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { planTestDays, type BinToTest, type TestDayPlan } from './test-day-plan';
 import { usualDaysOnHire } from './dispatch-check.server';
 
-export interface PlannedBin { id: string; grai: string; serial: string; status: string; dueOn: LocalDate; availableFrom: LocalDate; where: string }
+export interface PlannedBin {
+  id: string;
+  grai: string;
+  serial: string;
+  status: string;
+  dueOn: LocalDate;
+  availableFrom: LocalDate;
+  where: string;
+}
 export interface DepotTestPlan {
   depot: { id: number; name: string; capacity: number[] } | null;
   depots: Array<{ id: number; name: string }>;
@@ -24,19 +32,31 @@ export async function depotTestPlan(depotId: number | null, months: number): Pro
   const today = localDate(new Date(), settings.timeZone);
   const until = addMonthsToDate(today, months);
   const depots = await sequelize.query<{ id: number; name: string; test_capacity: number[] }>(
-    `SELECT id, name, test_capacity FROM sites WHERE kind = 'depot' AND active ORDER BY name`, { type: QueryTypes.SELECT });
+    `SELECT id, name, test_capacity FROM sites WHERE kind = 'depot' AND active ORDER BY name`,
+    { type: QueryTypes.SELECT },
+  );
   const depot = depots.find((d) => d.id === depotId) ?? depots[0] ?? null;
   const empty = { depot: null, depots, today, until, months, plan: { days: [], flagged: [] }, bins: new Map() };
   if (!depot) return empty;
   // At the depot, or out on a trip that left from it (it comes back there, as a rule).
-  const rows = await sequelize.query<{ id: number; grai: string; serial: string; status: string; next_due: string; site_name: string | null; customer_id: number | null; out_on: string | null }>(
+  const rows = await sequelize.query<{
+    id: number;
+    grai: string;
+    serial: string;
+    status: string;
+    next_due: string;
+    site_name: string | null;
+    customer_id: number | null;
+    out_on: string | null;
+  }>(
     `SELECT a.id, a.grai, a.serial, a.status, a.next_due::text, s.name AS site_name, t.customer_id,
             (t.dispatched_at AT TIME ZONE $3)::date::text AS out_on
        FROM assets a LEFT JOIN sites s ON s.id = a.site_id LEFT JOIN trips t ON t.id = a.current_trip_id
       WHERE a.status <> 'retired' AND a.next_due IS NOT NULL AND a.next_due <= $2
         AND (a.site_id = $1 OR (a.current_trip_id IS NOT NULL AND t.depot_site_id = $1))
       ORDER BY a.next_due, a.id`,
-    { bind: [depot.id, until, settings.timeZone], type: QueryTypes.SELECT });
+    { bind: [depot.id, until, settings.timeZone], type: QueryTypes.SELECT },
+  );
   const usual = new Map<number, number | null>();
   const bins = new Map<string, PlannedBin>();
   const toTest: BinToTest[] = [];

@@ -22,7 +22,18 @@ export async function runMissingBinRule({ now }: JobContext) {
   const actor: Actor = { id: null, role: 'planner', organisationId: operator?.id ?? 0, homeSiteId: null };
   let marked = 0;
   for (const b of bins) {
-    const out = await recordScan(actor, { clientEventId: eventId(b.id, day), assetId: b.id, action: 'mark_missing', siteId: null, occurredAt: now, note: `No scan for ${MISSING_AFTER_DAYS} days (missing-bin rule)` }, { now });
+    const out = await recordScan(
+      actor,
+      {
+        clientEventId: eventId(b.id, day),
+        assetId: b.id,
+        action: 'mark_missing',
+        siteId: null,
+        occurredAt: now,
+        note: `No scan for ${MISSING_AFTER_DAYS} days (missing-bin rule)`,
+      },
+      { now },
+    );
     if (!out.replayed) marked += 1;
   }
   return { checked: bins.length, marked };

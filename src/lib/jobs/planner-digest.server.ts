@@ -62,7 +62,13 @@ export async function runPlannerDigest({ now }: JobContext) {
   const planners = await q<{ name: string; email: string }>(`SELECT name, email FROM users WHERE role = 'planner' AND active ORDER BY id`);
   let sent = 0;
   for (const p of planners) {
-    const mail = plannerDigestMail({ ...figures, recipientName: p.name, operatorName: settings.operatorName, day: formatLongDate(figures.today), appUrl: process.env.APP_URL ?? settings.digitalLinkBase });
+    const mail = plannerDigestMail({
+      ...figures,
+      recipientName: p.name,
+      operatorName: settings.operatorName,
+      day: formatLongDate(figures.today),
+      appUrl: process.env.APP_URL ?? settings.digitalLinkBase,
+    });
     const out = await sendMail({ to: p.email, ...mail, kind: 'planner_digest' });
     if (out.status === 'sent') sent += 1;
   }

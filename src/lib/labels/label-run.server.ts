@@ -155,9 +155,7 @@ async function runList(entries: string[], limit: number): Promise<LabelRun> {
     run.tooMany = true;
     return run;
   }
-  const rows = wanted.length
-    ? await sequelize.query<Row>(`SELECT ${COLUMNS} ${FROM} WHERE a.grai = ANY($1::text[])`, { bind: [wanted], type: QueryTypes.SELECT })
-    : [];
+  const rows = wanted.length ? await sequelize.query<Row>(`SELECT ${COLUMNS} ${FROM} WHERE a.grai = ANY($1::text[])`, { bind: [wanted], type: QueryTypes.SELECT }) : [];
   const byGrai = new Map(rows.map((r) => [r.grai, r]));
   for (const grai of wanted) {
     const row = byGrai.get(grai);
@@ -197,10 +195,10 @@ export async function markLabelsPrinted(ids: readonly number[], at: Date = new D
   // the bin's state that scans lock against, so it must not make a yard's
   // concurrent scan fail as "changed meanwhile".
   if (unique.length === 0) return { marked: 0, missing: [], printedAt: at };
-  const rows = await sequelize.query<{ id: number }>(
-    `UPDATE assets SET label_printed_at = $2, updated_at = now() WHERE id = ANY($1::int[]) RETURNING id`,
-    { bind: [unique, at], type: QueryTypes.SELECT },
-  );
+  const rows = await sequelize.query<{ id: number }>(`UPDATE assets SET label_printed_at = $2, updated_at = now() WHERE id = ANY($1::int[]) RETURNING id`, {
+    bind: [unique, at],
+    type: QueryTypes.SELECT,
+  });
   const found = new Set(rows.map((r) => r.id));
   return { marked: found.size, missing: unique.filter((id) => !found.has(id)), printedAt: at };
 }

@@ -194,12 +194,23 @@ export function resolveRange(from: string, to: string, prefixLength: number): { 
 /** Empty form fields mean "not given". */
 const blank = (v: unknown) => (typeof v === 'string' && v.trim() === '' ? undefined : v);
 const optionalId = (what: string) =>
-  z.preprocess(blank, z.coerce.number({ invalid_type_error: `Choose a ${what} from the list.` }).int(`Choose a ${what} from the list.`).positive(`Choose a ${what} from the list.`).max(2_147_483_647, `Choose a ${what} from the list.`).optional());
+  z.preprocess(
+    blank,
+    z.coerce
+      .number({ invalid_type_error: `Choose a ${what} from the list.` })
+      .int(`Choose a ${what} from the list.`)
+      .positive(`Choose a ${what} from the list.`)
+      .max(2_147_483_647, `Choose a ${what} from the list.`)
+      .optional(),
+  );
 const text = (max: number, what: string) => multilineText().max(max, `The ${what} is too long (at most ${count(max)} characters).`);
 
 const querySchema = z
   .object({
-    by: z.preprocess(blank, z.enum(['range', 'filter', 'ids', 'list'], { errorMap: () => ({ message: 'Choose how to pick bins: range, filter, id list or pasted list.' }) }).optional()),
+    by: z.preprocess(
+      blank,
+      z.enum(['range', 'filter', 'ids', 'list'], { errorMap: () => ({ message: 'Choose how to pick bins: range, filter, id list or pasted list.' }) }).optional(),
+    ),
     from: text(300, 'start of the range').optional(),
     to: text(300, 'end of the range').optional(),
     site: optionalId('site'),
@@ -258,7 +269,10 @@ export function parseLabelQuery(input: Record<string, string | undefined>): Labe
     const entries = splitPastedList(q.grais ?? '');
     if (entries.length === 0) issues.push({ field: 'grais', message: 'Paste at least one GRAI or label link, one per line.' });
     else if (entries.length > MAX_LABELS_PER_RUN) {
-      issues.push({ field: 'grais', message: `A sheet run holds at most ${count(MAX_LABELS_PER_RUN)} labels; the pasted list has ${count(entries.length)} entries. Split it into smaller runs.` });
+      issues.push({
+        field: 'grais',
+        message: `A sheet run holds at most ${count(MAX_LABELS_PER_RUN)} labels; the pasted list has ${count(entries.length)} entries. Split it into smaller runs.`,
+      });
     } else selection = { by, entries };
   }
   if (issues.length) return { ok: false, issues };

@@ -11,8 +11,22 @@ import { AppError } from '@/lib/api-errors';
 import { countAdjustment, shortOfStock, reversalOf, type MoveDraft } from './liner-moves';
 
 const COLUMNS = [
-  'lot_id', 'site_id', 'kind', 'quantity', 'occurred_at', 'user_id', 'asset_id', 'scan_event_id', 'hire_order_id', 'folded_bins',
-  'to_site_id', 'sent_move_id', 'reverses_move_id', 'counted', 'expected', 'reason',
+  'lot_id',
+  'site_id',
+  'kind',
+  'quantity',
+  'occurred_at',
+  'user_id',
+  'asset_id',
+  'scan_event_id',
+  'hire_order_id',
+  'folded_bins',
+  'to_site_id',
+  'sent_move_id',
+  'reverses_move_id',
+  'counted',
+  'expected',
+  'reason',
 ] as const;
 
 async function rows<T extends object>(sql: string, bind: unknown[], t?: Transaction): Promise<T[]> {
@@ -40,13 +54,22 @@ export async function insertMoves(drafts: MoveDraft[], t: Transaction): Promise<
   }
 }
 
-export interface LockedLot { id: number; lotNumber: string; status: 'released' | 'on_hold' | 'recalled'; expiryDate: string; siteId: number; linerSpecId: number | null }
+export interface LockedLot {
+  id: number;
+  lotNumber: string;
+  status: 'released' | 'on_hold' | 'recalled';
+  expiryDate: string;
+  siteId: number;
+  linerSpecId: number | null;
+}
 
 /** Locks the lot's row for the rest of the transaction (every taker of its liners queues here). */
 export async function lockLot(lotId: number, t: Transaction): Promise<LockedLot | null> {
   const [lot] = await rows<LockedLot>(
     `SELECT id, lot_number AS "lotNumber", status, expiry_date AS "expiryDate", site_id AS "siteId", liner_spec_id AS "linerSpecId" FROM liner_lots WHERE id = $1 FOR UPDATE`,
-    [lotId], t);
+    [lotId],
+    t,
+  );
   return lot ?? null;
 }
 
@@ -71,7 +94,9 @@ async function depot(siteId: number, t: Transaction): Promise<void> {
   if (!s || !s.active || s.kind !== 'depot') throw new AppError('unprocessable', 'That is not an open depot.');
 }
 
-export interface Mover { id: number | null }
+export interface Mover {
+  id: number | null;
+}
 
 export interface ReceiptInput {
   supplier: string;
@@ -95,8 +120,24 @@ export async function receiveLot(who: Mover, input: ReceiptInput, opts: { transa
     const [lot] = await rows<{ id: number }>(
       `INSERT INTO liner_lots (supplier, lot_number, spec, quantity_received, received_on, expiry_date, site_id, certificate_id, liner_spec_id, supplier_id)
        VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id`,
-      [input.supplier, input.lotNumber, input.spec, input.quantity, input.receivedOn, input.expiryDate, input.siteId, input.certificateId ?? null, input.linerSpecId ?? null, input.supplierId ?? null], t);
-    const [moveId] = await insertMoves([{ lot_id: lot!.id, site_id: input.siteId, kind: 'receipt', quantity: input.quantity, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
+      [
+        input.supplier,
+        input.lotNumber,
+        input.spec,
+        input.quantity,
+        input.receivedOn,
+        input.expiryDate,
+        input.siteId,
+        input.certificateId ?? null,
+        input.linerSpecId ?? null,
+        input.supplierId ?? null,
+      ],
+      t,
+    );
+    const [moveId] = await insertMoves(
+      [{ lot_id: lot!.id, site_id: input.siteId, kind: 'receipt', quantity: input.quantity, occurred_at: opts.now ?? new Date(), user_id: who.id }],
+      t,
+    );
     return { lotId: lot!.id, moveId: moveId! };
   });
 }
@@ -106,12 +147,29 @@ function within<T>(opts: { transaction?: Transaction }, run: (t: Transaction) =>
 }
 
 /** Liners leave a depot for another; they are in transit until the other depot books their arrival. */
-export async function sendTransfer(who: Mover, input: { lotId: number; fromSiteId: number; toSiteId: number; quantity: number }, opts: { transaction?: Transaction; now?: Date } = {}): Promise<number> {
+export async function sendTransfer(
+  who: Mover,
+  input: { lotId: number; fromSiteId: number; toSiteId: number; quantity: number },
+  opts: { transaction?: Transaction; now?: Date } = {},
+): Promise<number> {
   if (input.fromSiteId === input.toSiteId) throw new AppError('validation_failed', 'A transfer goes to another depot.');
   return within(opts, async (t) => {
     await depot(input.toSiteId, t);
     await takeFromLot(input.lotId, input.fromSiteId, input.quantity, t);
-    const [id] = await insertMoves([{ lot_id: input.lotId, site_id: input.fromSiteId, kind: 'sent', quantity: -input.quantity, to_site_id: input.toSiteId, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
+    const [id] = await insertMoves(
+      [
+        {
+          lot_id: input.lotId,
+          site_id: input.fromSiteId,
+          kind: 'sent',
+          quantity: -input.quantity,
+          to_site_id: input.toSiteId,
+          occurred_at: opts.now ?? new Date(),
+          user_id: who.id,
+        },
+      ],
+      t,
+    );
     return id!;
   });
 }
@@ -120,37 +178,82 @@ export async function sendTransfer(who: Mover, input: { lotId: number; fromSiteI
 export async function receiveTransfer(who: Mover, sentMoveId: number, opts: { transaction?: Transaction; now?: Date } = {}): Promise<number> {
   return within(opts, async (t) => {
     const [sent] = await rows<{ id: string; lot_id: number; to_site_id: number; quantity: number }>(
-      `SELECT id, lot_id, to_site_id, quantity FROM liner_moves WHERE id = $1 AND kind = 'sent'`, [sentMoveId], t);
+      `SELECT id, lot_id, to_site_id, quantity FROM liner_moves WHERE id = $1 AND kind = 'sent'`,
+      [sentMoveId],
+      t,
+    );
     if (!sent) throw new AppError('not_found', 'No such transfer.');
     await lockLot(sent.lot_id, t);
     const [done] = await rows<{ id: string }>('SELECT id FROM liner_moves WHERE sent_move_id = $1', [sentMoveId], t);
     if (done) throw new AppError('conflict', 'This transfer has already arrived.');
-    const [id] = await insertMoves([{ lot_id: sent.lot_id, site_id: sent.to_site_id, kind: 'arrived', quantity: -sent.quantity, sent_move_id: sentMoveId, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
+    const [id] = await insertMoves(
+      [
+        {
+          lot_id: sent.lot_id,
+          site_id: sent.to_site_id,
+          kind: 'arrived',
+          quantity: -sent.quantity,
+          sent_move_id: sentMoveId,
+          occurred_at: opts.now ?? new Date(),
+          user_id: who.id,
+        },
+      ],
+      t,
+    );
     return id!;
   });
 }
 
 /** Liner kits sent with folded bins on a hire order, for the customer to fit. */
-export async function sendKits(who: Mover, input: { lotId: number; siteId: number; hireOrderId: number; quantity: number; foldedBins: number }, opts: { transaction?: Transaction; now?: Date } = {}): Promise<number> {
+export async function sendKits(
+  who: Mover,
+  input: { lotId: number; siteId: number; hireOrderId: number; quantity: number; foldedBins: number },
+  opts: { transaction?: Transaction; now?: Date } = {},
+): Promise<number> {
   return within(opts, async (t) => {
     await takeFromLot(input.lotId, input.siteId, input.quantity, t);
-    const [id] = await insertMoves([{ lot_id: input.lotId, site_id: input.siteId, kind: 'kit_sent', quantity: -input.quantity, hire_order_id: input.hireOrderId, folded_bins: input.foldedBins, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
+    const [id] = await insertMoves(
+      [
+        {
+          lot_id: input.lotId,
+          site_id: input.siteId,
+          kind: 'kit_sent',
+          quantity: -input.quantity,
+          hire_order_id: input.hireOrderId,
+          folded_bins: input.foldedBins,
+          occurred_at: opts.now ?? new Date(),
+          user_id: who.id,
+        },
+      ],
+      t,
+    );
     return id!;
   });
 }
 
 /** Liners off the shelf for good (torn cartons, expired, failed inspection), with the reason. */
-export async function scrapLiners(who: Mover, input: { lotId: number; siteId: number; quantity: number; reason: string }, opts: { transaction?: Transaction; now?: Date } = {}): Promise<number> {
+export async function scrapLiners(
+  who: Mover,
+  input: { lotId: number; siteId: number; quantity: number; reason: string },
+  opts: { transaction?: Transaction; now?: Date } = {},
+): Promise<number> {
   if (!input.reason.trim()) throw new AppError('validation_failed', 'Say why the liners are scrapped.', { field: 'reason' });
   return within(opts, async (t) => {
     await takeFromLot(input.lotId, input.siteId, input.quantity, t);
-    const [id] = await insertMoves([{ lot_id: input.lotId, site_id: input.siteId, kind: 'scrapped', quantity: -input.quantity, reason: input.reason, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
+    const [id] = await insertMoves(
+      [{ lot_id: input.lotId, site_id: input.siteId, kind: 'scrapped', quantity: -input.quantity, reason: input.reason, occurred_at: opts.now ?? new Date(), user_id: who.id }],
+      t,
+    );
     return id!;
   });
 }
 
 /** A stock count of one lot at a depot: the difference to the ledger becomes an adjustment, both figures kept. */
-export async function recordCount(who: Mover, input: { lotId: number; siteId: number; counted: number; note?: string | null }, opts: { transaction?: Transaction; now?: Date } = {}): Promise<{ moveId: number; counted: number; expected: number; quantity: number }> {
+export async function recordCount(
+  who: Mover,
+  input: { lotId: number; siteId: number; counted: number; note?: string | null },
+  opts: { transaction?: Transaction; now?: Date } = {},
+): Promise<{ moveId: number; counted: number; expected: number; quantity: number }> {
   return within(opts, async (t) => {
     const lot = await lockLot(input.lotId, t);
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
@@ -160,7 +263,10 @@ export async function recordCount(who: Mover, input: { lotId: number; siteId: nu
     } catch (e) {
       throw new AppError('validation_failed', (e as Error).message, { field: 'counted' });
     }
-    const [id] = await insertMoves([{ lot_id: input.lotId, site_id: input.siteId, kind: 'counted', ...adj, reason: input.note ?? null, occurred_at: opts.now ?? new Date(), user_id: who.id }], t);
+    const [id] = await insertMoves(
+      [{ lot_id: input.lotId, site_id: input.siteId, kind: 'counted', ...adj, reason: input.note ?? null, occurred_at: opts.now ?? new Date(), user_id: who.id }],
+      t,
+    );
     return { moveId: id!, ...adj };
   });
 }
@@ -171,13 +277,28 @@ export async function reverseMovesOfEvents(eventIds: number[], userId: number | 
   const moves = await rows<{ id: string; lot_id: number; site_id: number; quantity: number; asset_id: number | null }>(
     `SELECT m.id, m.lot_id, m.site_id, m.quantity, m.asset_id FROM liner_moves m
       WHERE m.scan_event_id = ANY($1::bigint[]) AND NOT EXISTS (SELECT 1 FROM liner_moves r WHERE r.reverses_move_id = m.id)
-      ORDER BY m.id`, [eventIds], t);
+      ORDER BY m.id`,
+    [eventIds],
+    t,
+  );
   for (const lotId of [...new Set(moves.map((m) => m.lot_id))].sort((a, b) => a - b)) await lockLot(lotId, t);
-  await insertMoves(moves.map((m) => reversalOf({ ...m, id: Number(m.id) }, at, userId, reason)), t);
+  await insertMoves(
+    moves.map((m) => reversalOf({ ...m, id: Number(m.id) }, at, userId, reason)),
+    t,
+  );
   return moves.length;
 }
 
-export interface LotStock { lotId: number; lotNumber: string; supplier: string; spec: string; receivedOn: string; expiryDate: string; status: string; onHand: number }
+export interface LotStock {
+  lotId: number;
+  lotNumber: string;
+  supplier: string;
+  spec: string;
+  receivedOn: string;
+  expiryDate: string;
+  status: string;
+  onHand: number;
+}
 
 /** Lots with liners on the shelf at a depot, first expiry first. */
 export async function stockAt(siteId: number, t?: Transaction): Promise<LotStock[]> {
@@ -185,7 +306,10 @@ export async function stockAt(siteId: number, t?: Transaction): Promise<LotStock
     `SELECT l.id AS "lotId", l.lot_number AS "lotNumber", l.supplier, l.spec, l.received_on AS "receivedOn", l.expiry_date AS "expiryDate", l.status, s.n AS "onHand"
        FROM (SELECT lot_id, sum(quantity)::int AS n FROM liner_moves WHERE site_id = $1 GROUP BY lot_id HAVING sum(quantity) > 0) s
        JOIN liner_lots l ON l.id = s.lot_id
-      ORDER BY l.expiry_date, l.received_on, l.id`, [siteId], t);
+      ORDER BY l.expiry_date, l.received_on, l.id`,
+    [siteId],
+    t,
+  );
 }
 
 /** Liners sent to a depot and not yet booked in there, per lot. */
@@ -193,6 +317,9 @@ export async function inTransitTo(siteId: number, t?: Transaction): Promise<Arra
   const out = await rows<{ id: string; lot_id: number; site_id: number; quantity: number; occurred_at: Date }>(
     `SELECT m.id, m.lot_id, m.site_id, m.quantity, m.occurred_at FROM liner_moves m
       WHERE m.kind = 'sent' AND m.to_site_id = $1 AND NOT EXISTS (SELECT 1 FROM liner_moves a WHERE a.sent_move_id = m.id)
-      ORDER BY m.occurred_at`, [siteId], t);
+      ORDER BY m.occurred_at`,
+    [siteId],
+    t,
+  );
   return out.map((m) => ({ sentMoveId: Number(m.id), lotId: m.lot_id, fromSiteId: m.site_id, quantity: -m.quantity, sentAt: m.occurred_at }));
 }

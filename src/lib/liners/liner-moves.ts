@@ -86,7 +86,12 @@ export function movesForScan(a: {
 }
 
 /** The move that undoes another (a voided scan's): same lot and depot, the opposite quantity. */
-export function reversalOf(m: { id: number; lot_id: number; site_id: number; quantity: number; asset_id: number | null }, at: Date, userId: number | null, reason: string): MoveDraft {
+export function reversalOf(
+  m: { id: number; lot_id: number; site_id: number; quantity: number; asset_id: number | null },
+  at: Date,
+  userId: number | null,
+  reason: string,
+): MoveDraft {
   return { lot_id: m.lot_id, site_id: m.site_id, kind: 'reversal', quantity: -m.quantity, occurred_at: at, user_id: userId, asset_id: m.asset_id, reverses_move_id: m.id, reason };
 }
 

@@ -13,12 +13,19 @@ const size = (what: string) =>
       return s ?? v;
     });
 
-const money = (what: string) => z.number({ invalid_type_error: `Enter the ${what} as a number.` }).min(0, `The ${what} cannot be negative.`).max(99_999_999);
+const money = (what: string) =>
+  z
+    .number({ invalid_type_error: `Enter the ${what} as a number.` })
+    .min(0, `The ${what} cannot be negative.`)
+    .max(99_999_999);
 
 export const specSchema = z
   .object({
     version: z.number().int().min(0).optional(),
-    code: text().trim().toUpperCase().regex(/^[A-Z0-9][A-Z0-9-]{1,23}$/, 'A code is 2 to 24 letters, digits or dashes.'),
+    code: text()
+      .trim()
+      .toUpperCase()
+      .regex(/^[A-Z0-9][A-Z0-9-]{1,23}$/, 'A code is 2 to 24 letters, digits or dashes.'),
     name: text().trim().min(1, 'Name the spec.').max(160),
     material: text().trim().min(1, 'Name the material (PE, PE/PA, PE/EVOH/PE …).').max(60),
     layers: z.number({ invalid_type_error: 'Enter the number of layers.' }).int().min(1, 'At least 1 layer.').max(9, 'At most 9 layers.'),
@@ -34,7 +41,8 @@ export const specSchema = z
     active: z.boolean().optional(),
   })
   .superRefine((v, ctx) => {
-    if (v.valveType === 'none' && v.valveSize) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['valveSize'], message: 'A liner without a bottom valve has no valve size; clear it.' });
+    if (v.valveType === 'none' && v.valveSize)
+      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['valveSize'], message: 'A liner without a bottom valve has no valve size; clear it.' });
     if (v.valveType !== 'none' && !v.valveSize) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['valveSize'], message: 'Give the valve size (DN50, DN80, S60x6 …).' });
   });
 export type SpecInput = z.infer<typeof specSchema>;

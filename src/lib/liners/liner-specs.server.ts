@@ -22,9 +22,24 @@ export async function specFitFor(specId: number | null, binTypeId: number, t?: T
 }
 
 export interface SpecRow {
-  id: number; version: number; active: boolean; code: string; name: string; material: string; layers: number; nominalCapacityL: number;
-  valveType: SpecInput['valveType']; valveSize: string | null; glandSize: string; foodContact: boolean; maxFillTempC: number | null;
-  supplierId: number | null; supplierName: string | null; articleNumber: string | null; binTypeIds: number[]; lots: number;
+  id: number;
+  version: number;
+  active: boolean;
+  code: string;
+  name: string;
+  material: string;
+  layers: number;
+  nominalCapacityL: number;
+  valveType: SpecInput['valveType'];
+  valveSize: string | null;
+  glandSize: string;
+  foodContact: boolean;
+  maxFillTempC: number | null;
+  supplierId: number | null;
+  supplierName: string | null;
+  articleNumber: string | null;
+  binTypeIds: number[];
+  lots: number;
 }
 
 export async function listSpecs(): Promise<SpecRow[]> {
@@ -40,7 +55,20 @@ export async function listSpecs(): Promise<SpecRow[]> {
   );
 }
 
-const SPEC_FIELDS = ['code', 'name', 'material', 'layers', 'nominalCapacityL', 'valveType', 'valveSize', 'glandSize', 'foodContact', 'maxFillTempC', 'supplierId', 'articleNumber'] as const;
+const SPEC_FIELDS = [
+  'code',
+  'name',
+  'material',
+  'layers',
+  'nominalCapacityL',
+  'valveType',
+  'valveSize',
+  'glandSize',
+  'foodContact',
+  'maxFillTempC',
+  'supplierId',
+  'articleNumber',
+] as const;
 const SUPPLIER_FIELDS = ['name', 'orderEmail', 'leadTimeDays', 'orderCost', 'packSize', 'minOrderQty', 'pricePerLiner'] as const;
 
 async function setBinTypes(specId: number, binTypeIds: number[], t: Transaction): Promise<number[]> {
@@ -71,7 +99,10 @@ export async function createSpec(input: SpecInput, actor: AuditActor): Promise<S
     await supplierExists(input.supplierId, t);
     const spec = await LinerSpec.create({ ...pick(input, SPEC_FIELDS), active: input.active ?? true }, { transaction: t });
     const binTypeIds = await setBinTypes(spec.id, input.binTypeIds, t);
-    await recordAudit({ actor, action: 'liner_spec.create', entityType: 'liner_spec', entityId: spec.id, after: { ...snapshotOf(spec, SPEC_FIELDS), binTypeIds } }, { transaction: t });
+    await recordAudit(
+      { actor, action: 'liner_spec.create', entityType: 'liner_spec', entityId: spec.id, after: { ...snapshotOf(spec, SPEC_FIELDS), binTypeIds } },
+      { transaction: t },
+    );
     return spec.id;
   });
   return (await listSpecs()).find((r) => r.id === id)!;
@@ -84,19 +115,35 @@ export async function updateSpec(id: number, input: SpecInput, actor: AuditActor
     if (input.version !== undefined && input.version !== spec.version) throw changed('spec');
     await uniqueCode(input.code, id, t);
     await supplierExists(input.supplierId, t);
-    const [before] = await sequelize.query<{ ids: number[] }>('SELECT COALESCE(array_agg(bin_type_id ORDER BY bin_type_id), \'{}\') AS ids FROM bin_type_liner_specs WHERE liner_spec_id = $1', { bind: [id], type: QueryTypes.SELECT, transaction: t });
+    const [before] = await sequelize.query<{ ids: number[] }>(
+      "SELECT COALESCE(array_agg(bin_type_id ORDER BY bin_type_id), '{}') AS ids FROM bin_type_liner_specs WHERE liner_spec_id = $1",
+      { bind: [id], type: QueryTypes.SELECT, transaction: t },
+    );
     const snap = { ...snapshotOf(spec, SPEC_FIELDS), active: spec.active, binTypeIds: before!.ids };
     spec.set({ ...pick(input, SPEC_FIELDS), active: input.active ?? spec.active });
     await spec.save({ transaction: t });
     const binTypeIds = await setBinTypes(id, input.binTypeIds, t);
-    await recordAudit({ actor, action: 'liner_spec.update', entityType: 'liner_spec', entityId: id, before: snap, after: { ...snapshotOf(spec, SPEC_FIELDS), active: spec.active, binTypeIds } }, { transaction: t });
+    await recordAudit(
+      { actor, action: 'liner_spec.update', entityType: 'liner_spec', entityId: id, before: snap, after: { ...snapshotOf(spec, SPEC_FIELDS), active: spec.active, binTypeIds } },
+      { transaction: t },
+    );
   });
   return (await listSpecs()).find((r) => r.id === id)!;
 }
 
 export interface SupplierRow {
-  id: number; version: number; active: boolean; name: string; orderEmail: string | null; leadTimeDays: number; orderCost: string;
-  packSize: number; minOrderQty: number; pricePerLiner: string; specs: number; lots: number;
+  id: number;
+  version: number;
+  active: boolean;
+  name: string;
+  orderEmail: string | null;
+  leadTimeDays: number;
+  orderCost: string;
+  packSize: number;
+  minOrderQty: number;
+  pricePerLiner: string;
+  specs: number;
+  lots: number;
 }
 
 export async function listSuppliers(): Promise<SupplierRow[]> {
@@ -135,7 +182,10 @@ export async function updateSupplier(id: number, input: SupplierInput, actor: Au
     s.set({ ...supplierValues(input), active: input.active ?? s.active });
     await s.save({ transaction: t });
     await s.reload({ transaction: t });
-    await recordAudit({ actor, action: 'liner_supplier.update', entityType: 'liner_supplier', entityId: id, before, after: { ...snapshotOf(s, SUPPLIER_FIELDS), active: s.active } }, { transaction: t });
+    await recordAudit(
+      { actor, action: 'liner_supplier.update', entityType: 'liner_supplier', entityId: id, before, after: { ...snapshotOf(s, SUPPLIER_FIELDS), active: s.active } },
+      { transaction: t },
+    );
   });
   return (await listSuppliers()).find((r) => r.id === id)!;
 }

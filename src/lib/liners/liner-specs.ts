@@ -23,7 +23,11 @@ export const SIZE_PATTERN = /^(DN[0-9]{2,3}|S[0-9]{2,3}x[0-9]{1,2})$/;
 
 /** Normalises a typed size ("dn 50", "s60X6") to the written form, or null when it is not one. */
 export function connectionSize(text: string): string | null {
-  const t = text.trim().replace(/\s+/g, '').toUpperCase().replace(/^(S[0-9]{2,3})X/, '$1x');
+  const t = text
+    .trim()
+    .replace(/\s+/g, '')
+    .toUpperCase()
+    .replace(/^(S[0-9]{2,3})X/, '$1x');
   return SIZE_PATTERN.test(t) ? t : null;
 }
 
@@ -36,9 +40,7 @@ export interface SpecFacts {
   glandSize: string;
 }
 
-export type SpecFit =
-  | { ok: true }
-  | { ok: false; code: 'liner_capacity' | 'liner_valve' | 'liner_gland' | 'liner_not_listed'; reason: string };
+export type SpecFit = { ok: true } | { ok: false; code: 'liner_capacity' | 'liner_valve' | 'liner_gland' | 'liner_not_listed'; reason: string };
 
 const litres = (n: number) => `${n.toLocaleString('en-GB')} L`;
 const valve = (s: Pick<SpecFacts, 'valveType' | 'valveSize'>) => (s.valveType === 'none' ? VALVE_TYPE_LABEL.none : `${s.valveSize} ${VALVE_TYPE_LABEL[s.valveType]}`);
@@ -50,17 +52,33 @@ export function specFitsBinType(spec: SpecFacts | null, binTypeName: string, lis
   const lead = `Liner spec ${spec.code} does not fit ${binTypeName}:`;
   const sameCapacity = listed.filter((s) => s.nominalCapacityL === spec.nominalCapacityL);
   if (!sameCapacity.length) {
-    return { ok: false, code: 'liner_capacity', reason: `${lead} it is a ${litres(spec.nominalCapacityL)} liner; this bin takes ${list(listed.map((s) => litres(s.nominalCapacityL)))}. Take a liner from another lot.` };
+    return {
+      ok: false,
+      code: 'liner_capacity',
+      reason: `${lead} it is a ${litres(spec.nominalCapacityL)} liner; this bin takes ${list(listed.map((s) => litres(s.nominalCapacityL)))}. Take a liner from another lot.`,
+    };
   }
   const sameValve = sameCapacity.filter((s) => s.valveType === spec.valveType && s.valveSize === spec.valveSize);
   if (!sameValve.length) {
-    return { ok: false, code: 'liner_valve', reason: `${lead} its valve is ${valve(spec)}; this bin's outlet takes ${list(sameCapacity.map(valve))}. Take a liner from another lot.` };
+    return {
+      ok: false,
+      code: 'liner_valve',
+      reason: `${lead} its valve is ${valve(spec)}; this bin's outlet takes ${list(sameCapacity.map(valve))}. Take a liner from another lot.`,
+    };
   }
   const sameGland = sameValve.filter((s) => s.glandSize === spec.glandSize);
   if (!sameGland.length) {
-    return { ok: false, code: 'liner_gland', reason: `${lead} its fill gland is ${spec.glandSize}; this bin's lid takes ${list(sameValve.map((s) => s.glandSize))}. Take a liner from another lot.` };
+    return {
+      ok: false,
+      code: 'liner_gland',
+      reason: `${lead} its fill gland is ${spec.glandSize}; this bin's lid takes ${list(sameValve.map((s) => s.glandSize))}. Take a liner from another lot.`,
+    };
   }
-  return { ok: false, code: 'liner_not_listed', reason: `${lead} the spec is not listed for this bin type (its capacity, valve and gland match a listed spec; ask a planner to list it). Take a liner from another lot.` };
+  return {
+    ok: false,
+    code: 'liner_not_listed',
+    reason: `${lead} the spec is not listed for this bin type (its capacity, valve and gland match a listed spec; ask a planner to list it). Take a liner from another lot.`,
+  };
 }
 
 /** A one-line description of a spec, as lists and the fit form show it. */

@@ -256,7 +256,14 @@ export function planReorder(i: ReorderPlanInput): ReorderPlan {
   const reorderNow = i.inventoryPosition <= rop && annualDemand > 0;
   const wanted = reorderNow ? rop + q - i.inventoryPosition : 0;
   return {
-    knownInLeadTime, forecastInLeadTime, safetyStock: safety, z, reorderPoint: rop, annualDemand, eoq: q, reorderNow,
+    knownInLeadTime,
+    forecastInLeadTime,
+    safetyStock: safety,
+    z,
+    reorderPoint: rop,
+    annualDemand,
+    eoq: q,
+    reorderNow,
     suggestedQuantity: roundOrderQuantity(wanted, i.pack),
   };
 }

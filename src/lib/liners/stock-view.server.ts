@@ -8,8 +8,20 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { addDays, localDate, type LocalDate } from '@/lib/calendar';
 import { DEMAND_STATUSES_SQL } from '@/lib/planning/order-status';
 import {
-  daysOfCover, forecastFromDaily, knownDemandByDay, planReorder, projectFefo, proposeTransfer, unplannedDaily,
-  type Demand, type DemandOrder, type DepotStockPicture, type LotProjection, type ReorderPlan, type StockLot, type TransferProposal,
+  daysOfCover,
+  forecastFromDaily,
+  knownDemandByDay,
+  planReorder,
+  projectFefo,
+  proposeTransfer,
+  unplannedDaily,
+  type Demand,
+  type DemandOrder,
+  type DepotStockPicture,
+  type LotProjection,
+  type ReorderPlan,
+  type StockLot,
+  type TransferProposal,
 } from './liner-stock';
 import { specMeetsGrade } from './liner-specs';
 
@@ -22,10 +34,37 @@ export const SERVICE_LEVEL = 0.95;
 /** Holding cost a year as a share of the liner's price (common practice: carrying costs of 20–30 % a year). */
 export const HOLDING_SHARE = 0.25;
 
-interface LotRow { site_id: number; lot_id: number; lot_number: string; expiry_date: string; status: string; spec_id: number | null; on_hand: number; supplier: string }
-interface SpecRow { id: number; code: string; name: string; food_contact: boolean; max_fill_temp_c: number | null; supplier_id: number | null; supplier: string | null; lead_time_days: number | null; order_cost: string | null; pack_size: number | null; min_order_qty: number | null; price_per_liner: string | null; order_email: string | null }
+interface LotRow {
+  site_id: number;
+  lot_id: number;
+  lot_number: string;
+  expiry_date: string;
+  status: string;
+  spec_id: number | null;
+  on_hand: number;
+  supplier: string;
+}
+interface SpecRow {
+  id: number;
+  code: string;
+  name: string;
+  food_contact: boolean;
+  max_fill_temp_c: number | null;
+  supplier_id: number | null;
+  supplier: string | null;
+  lead_time_days: number | null;
+  order_cost: string | null;
+  pack_size: number | null;
+  min_order_qty: number | null;
+  price_per_liner: string | null;
+  order_email: string | null;
+}
 
-export interface LotLine extends LotProjection { status: string; supplier: string; transfer: TransferProposal | null }
+export interface LotLine extends LotProjection {
+  status: string;
+  supplier: string;
+  transfer: TransferProposal | null;
+}
 
 export interface SpecStock {
   specId: number | null;
@@ -49,8 +88,15 @@ export interface SpecStock {
   blocked: Array<{ lotId: number; lotNumber: string; status: string; onHand: number; expiryDate: string }>;
 }
 
-export interface DepotStock { siteId: number; name: string; specs: SpecStock[] }
-export interface StockPicture { today: LocalDate; depots: DepotStock[] }
+export interface DepotStock {
+  siteId: number;
+  name: string;
+  specs: SpecStock[];
+}
+export interface StockPicture {
+  today: LocalDate;
+  depots: DepotStock[];
+}
 
 const rows = <T extends object>(sql: string, bind: unknown[] = []) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT });
 
@@ -66,36 +112,46 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
       `SELECT m.site_id, l.id AS lot_id, l.lot_number, to_char(l.expiry_date, 'YYYY-MM-DD') AS expiry_date, l.status, l.liner_spec_id AS spec_id, l.supplier,
               sum(m.quantity)::int AS on_hand
          FROM liner_moves m JOIN liner_lots l ON l.id = m.lot_id
-        GROUP BY m.site_id, l.id HAVING sum(m.quantity) > 0`),
+        GROUP BY m.site_id, l.id HAVING sum(m.quantity) > 0`,
+    ),
     rows<SpecRow>(
       `SELECT s.id, s.code, s.name, s.food_contact, s.max_fill_temp_c, s.supplier_id, sup.name AS supplier, sup.lead_time_days, sup.order_cost,
               sup.pack_size, sup.min_order_qty, sup.price_per_liner, sup.order_email
-         FROM liner_specs s LEFT JOIN liner_suppliers sup ON sup.id = s.supplier_id ORDER BY s.code`),
+         FROM liner_specs s LEFT JOIN liner_suppliers sup ON sup.id = s.supplier_id ORDER BY s.code`,
+    ),
     rows<{ site_id: number; spec_id: number | null; n: number }>(
       `SELECT m.to_site_id AS site_id, l.liner_spec_id AS spec_id, (-sum(m.quantity))::int AS n
          FROM liner_moves m JOIN liner_lots l ON l.id = m.lot_id
         WHERE m.kind = 'sent' AND NOT EXISTS (SELECT 1 FROM liner_moves a WHERE a.sent_move_id = m.id)
-        GROUP BY 1, 2`),
+        GROUP BY 1, 2`,
+    ),
     rows<{ depot_site_id: number; bin_type_id: number; needed_by: string; bins: number; food: boolean; temp: number | null }>(
       `SELECT ho.depot_site_id, ho.bin_type_id, to_char(ho.needed_by, 'YYYY-MM-DD') AS needed_by, ho.liner_food_contact AS food, ho.liner_max_fill_temp_c AS temp,
               GREATEST(ho.quantity - (SELECT count(*)::int FROM trips t WHERE t.hire_order_id = ho.id), 0) AS bins
-         FROM hire_orders ho WHERE ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $1::date ORDER BY ho.needed_by, ho.id`, [horizonEnd]),
+         FROM hire_orders ho WHERE ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $1::date ORDER BY ho.needed_by, ho.id`,
+      [horizonEnd],
+    ),
     rows<{ site_id: number; spec_id: number | null; n: number }>(
       `SELECT a.site_id, l.liner_spec_id AS spec_id, count(*)::int AS n FROM assets a JOIN liner_lots l ON l.id = a.liner_lot_id
-        WHERE a.status = 'prepared' AND a.current_trip_id IS NULL GROUP BY 1, 2`),
+        WHERE a.status = 'prepared' AND a.current_trip_id IS NULL GROUP BY 1, 2`,
+    ),
     // Liners used per day: fits and kits, less fits reversed.
     rows<{ site_id: number; spec_id: number | null; day: string; n: number }>(
       `SELECT m.site_id, l.liner_spec_id AS spec_id, to_char((m.occurred_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS day, (-sum(m.quantity))::int AS n
          FROM liner_moves m JOIN liner_lots l ON l.id = m.lot_id
         WHERE (m.kind IN ('fitted', 'kit_sent') OR (m.kind = 'reversal' AND m.quantity > 0)) AND m.occurred_at >= ($1::date AT TIME ZONE $2)
-        GROUP BY 1, 2, 3`, [since, timeZone]),
+        GROUP BY 1, 2, 3`,
+      [since, timeZone],
+    ),
     // Bins sent out that day on orders the book held at least a lead time (of the spec's supplier, else 14 days) before.
     rows<{ site_id: number; spec_id: number | null; day: string; n: number }>(
       `SELECT t.depot_site_id AS site_id, l.liner_spec_id AS spec_id, to_char((t.dispatched_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS day, count(*)::int AS n
          FROM trips t JOIN hire_orders ho ON ho.id = t.hire_order_id JOIN liner_lots l ON l.id = t.liner_lot_id
          LEFT JOIN liner_specs s ON s.id = l.liner_spec_id LEFT JOIN liner_suppliers sup ON sup.id = s.supplier_id
         WHERE t.dispatched_at >= ($1::date AT TIME ZONE $2) AND ho.created_at <= t.dispatched_at - make_interval(days => COALESCE(sup.lead_time_days, 14))
-        GROUP BY 1, 2, 3`, [since, timeZone]),
+        GROUP BY 1, 2, 3`,
+      [since, timeZone],
+    ),
     rows<{ bin_type_id: number; spec_id: number }>('SELECT bin_type_id, liner_spec_id AS spec_id FROM bin_type_liner_specs'),
   ]);
 
@@ -164,32 +220,75 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
       const terms = spec && spec.lead_time_days !== null ? spec : null;
       const plan = terms
         ? planReorder({
-            demand: p.demand, leadTimeDays: terms.lead_time_days!, serviceLevel: SERVICE_LEVEL, inventoryPosition: onHand + inTransit,
-            orderCost: Number(terms.order_cost), holdingCostPerUnitYear: Math.max(0.01, Number(terms.price_per_liner) * HOLDING_SHARE),
+            demand: p.demand,
+            leadTimeDays: terms.lead_time_days!,
+            serviceLevel: SERVICE_LEVEL,
+            inventoryPosition: onHand + inTransit,
+            orderCost: Number(terms.order_cost),
+            holdingCostPerUnitYear: Math.max(0.01, Number(terms.price_per_liner) * HOLDING_SHARE),
             pack: { packSize: terms.pack_size!, minimumOrder: terms.min_order_qty! },
           })
         : null;
       const projected = projectFefo(p.lots, p.demand, { today });
       const supplierOf = new Map(p.all.map((l) => [l.lot_id, l.supplier]));
       depot.specs.push({
-        specId, code: spec?.code ?? 'No spec', name: spec?.name ?? 'Lots received before specs were recorded', supplier: spec?.supplier ?? null,
-        onHand, inTransit, allocated: p.demand.known.reduce((s, v) => s + v, 0),
-        forecastPerDay: p.demand.forecast.mean, forecastSd: p.demand.forecast.sd, daysOfCover: daysOfCover(onHand, p.demand),
-        plan, planMissing: plan ? null : spec ? `No supplier terms for ${spec.code}: give it a supplier on the liner specs page.` : 'Lots without a spec have no supplier terms.',
-        leadTimeDays: terms?.lead_time_days ?? null, pack: terms ? { packSize: terms.pack_size!, minimumOrder: terms.min_order_qty! } : null,
+        specId,
+        code: spec?.code ?? 'No spec',
+        name: spec?.name ?? 'Lots received before specs were recorded',
+        supplier: spec?.supplier ?? null,
+        onHand,
+        inTransit,
+        allocated: p.demand.known.reduce((s, v) => s + v, 0),
+        forecastPerDay: p.demand.forecast.mean,
+        forecastSd: p.demand.forecast.sd,
+        daysOfCover: daysOfCover(onHand, p.demand),
+        plan,
+        planMissing: plan ? null : spec ? `No supplier terms for ${spec.code}: give it a supplier on the liner specs page.` : 'Lots without a spec have no supplier terms.',
+        leadTimeDays: terms?.lead_time_days ?? null,
+        pack: terms ? { packSize: terms.pack_size!, minimumOrder: terms.min_order_qty! } : null,
         lots: projected.map((l) => ({
-          ...l, status: 'released', supplier: supplierOf.get(l.lotId) ?? '',
+          ...l,
+          status: 'released',
+          supplier: supplierOf.get(l.lotId) ?? '',
           transfer: l.atRisk > 0 ? proposeTransfer(l, l.atRisk, others, { today }) : null,
         })),
-        blocked: p.all.filter((l) => l.status !== 'released' || l.expiry_date < today).map((l) => ({ lotId: l.lot_id, lotNumber: l.lot_number, status: l.expiry_date < today && l.status === 'released' ? 'expired' : l.status, onHand: l.on_hand, expiryDate: l.expiry_date })),
+        blocked: p.all
+          .filter((l) => l.status !== 'released' || l.expiry_date < today)
+          .map((l) => ({
+            lotId: l.lot_id,
+            lotNumber: l.lot_number,
+            status: l.expiry_date < today && l.status === 'released' ? 'expired' : l.status,
+            onHand: l.on_hand,
+            expiryDate: l.expiry_date,
+          })),
       });
     }
   }
   return { today, depots: out };
 }
 
-export interface LedgerFilter { siteId: number; kind?: string; lot?: string; from?: string; to?: string; limit?: number }
-export interface LedgerLine { id: number; occurredAt: Date; kind: string; lotNumber: string; quantity: number; counted: number | null; expected: number | null; reason: string | null; grai: string | null; otherSite: string | null; orderRef: string | null; who: string | null }
+export interface LedgerFilter {
+  siteId: number;
+  kind?: string;
+  lot?: string;
+  from?: string;
+  to?: string;
+  limit?: number;
+}
+export interface LedgerLine {
+  id: number;
+  occurredAt: Date;
+  kind: string;
+  lotNumber: string;
+  quantity: number;
+  counted: number | null;
+  expected: number | null;
+  reason: string | null;
+  grai: string | null;
+  otherSite: string | null;
+  orderRef: string | null;
+  who: string | null;
+}
 
 /** The depot's stock moves, newest first, filtered by kind, lot number (prefix) and local dates. */
 export async function ledgerAt(f: LedgerFilter): Promise<LedgerLine[]> {

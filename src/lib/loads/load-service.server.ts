@@ -14,16 +14,33 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { countsAsDemand } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 
-export interface LoadBin { grai: string; serial: string; lotNumber: string | null; statusNow: string; dispatchedAt: string }
+export interface LoadBin {
+  grai: string;
+  serial: string;
+  lotNumber: string | null;
+  statusNow: string;
+  dispatchedAt: string;
+}
 
 export interface LoadView {
-  id: number; reference: string; purpose: 'hire' | 'transfer'; status: string; targetCount: number; loaded: number;
+  id: number;
+  reference: string;
+  purpose: 'hire' | 'transfer';
+  status: string;
+  targetCount: number;
+  loaded: number;
   order: { id: number; reference: string; quantity: number; neededBy: string; product: string | null } | null;
   customer: string | null;
   depot: { id: number; name: string; address: string | null };
   destination: { id: number; name: string; address: string | null } | null;
-  carrier: string | null; vehicleRegistration: string | null; driverName: string | null; trailerSeals: string[];
-  dispatchedAt: string | null; deliveredAt: string | null; receivedByName: string | null; deliveryPhotoId: number | null;
+  carrier: string | null;
+  vehicleRegistration: string | null;
+  driverName: string | null;
+  trailerSeals: string[];
+  dispatchedAt: string | null;
+  deliveredAt: string | null;
+  receivedByName: string | null;
+  deliveryPhotoId: number | null;
   bins: LoadBin[];
 }
 
@@ -39,7 +56,10 @@ async function loadedCount(loadId: number, t?: Transaction): Promise<number> {
 }
 
 /** Starts a load at the user's depot for a hire order (or a transfer of empties), or resumes the one already loading. */
-export async function startLoad(user: Actor & { id: number }, input: { hireOrderId?: number; purpose: 'hire' | 'transfer'; destinationSiteId?: number; depotSiteId?: number; targetCount?: number }) {
+export async function startLoad(
+  user: Actor & { id: number },
+  input: { hireOrderId?: number; purpose: 'hire' | 'transfer'; destinationSiteId?: number; depotSiteId?: number; targetCount?: number },
+) {
   const depotId = input.depotSiteId ?? user.homeSiteId;
   if (!depotId) throw new AppError('unprocessable', 'Choose the depot the load leaves from.');
   const depot = await Site.findByPk(depotId);
@@ -67,18 +87,35 @@ export async function startLoad(user: Actor & { id: number }, input: { hireOrder
   const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM loads WHERE reference LIKE $1', [`${prefix}%`])) as [{ n: number }];
   return Load.create({
     reference: `${prefix}${String(n).padStart(3, '0')}`,
-    hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null, depotSiteId: depot.id, destinationSiteId: destination,
-    purpose: input.purpose, targetCount: target, carrier: null, vehicleRegistration: null, driverName: null,
-    dispatchedAt: null, deliveredAt: null, receivedByName: null, deliveryPhotoId: null, createdBy: user.id,
+    hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null,
+    depotSiteId: depot.id,
+    destinationSiteId: destination,
+    purpose: input.purpose,
+    targetCount: target,
+    carrier: null,
+    vehicleRegistration: null,
+    driverName: null,
+    dispatchedAt: null,
+    deliveredAt: null,
+    receivedByName: null,
+    deliveryPhotoId: null,
+    createdBy: user.id,
   });
 }
 
 /** Adds one bin to a loading load: a dispatch scan on the load's order, refused when the load is full. */
-export async function addBinToLoad(user: Actor, loadId: number, input: { clientEventId: string; assetId: number; occurredAt?: Date; overrideReason?: string }): Promise<ScanOutcome & { loaded: number; target: number }> {
+export async function addBinToLoad(
+  user: Actor,
+  loadId: number,
+  input: { clientEventId: string; assetId: number; occurredAt?: Date; overrideReason?: string },
+): Promise<ScanOutcome & { loaded: number; target: number }> {
   return sequelize.transaction(async (t) => {
     // Lock the load so two phones loading the same truck cannot overfill it.
     const [load] = await q<{ id: number; status: string; target_count: number; hire_order_id: number | null; depot_site_id: number; purpose: 'hire' | 'transfer' }>(
-      'SELECT id, status, target_count, hire_order_id, depot_site_id, purpose FROM loads WHERE id = $1 FOR UPDATE', [loadId], t);
+      'SELECT id, status, target_count, hire_order_id, depot_site_id, purpose FROM loads WHERE id = $1 FOR UPDATE',
+      [loadId],
+      t,
+    );
     if (!load) throw new AppError('not_found', 'No such load.');
     if (load.status !== 'loading') throw new AppError('conflict', 'This load has left; start a new one.');
     const loaded = await loadedCount(load.id, t);
@@ -90,7 +127,17 @@ export async function addBinToLoad(user: Actor, loadId: number, input: { clientE
     }
     const outcome = await recordScan(
       user,
-      { clientEventId: input.clientEventId, assetId: input.assetId, action: 'dispatch', occurredAt: input.occurredAt, siteId: load.depot_site_id, purpose: load.purpose, hireOrderId: load.hire_order_id ?? undefined, loadId: load.id, overrideReason: input.overrideReason },
+      {
+        clientEventId: input.clientEventId,
+        assetId: input.assetId,
+        action: 'dispatch',
+        occurredAt: input.occurredAt,
+        siteId: load.depot_site_id,
+        purpose: load.purpose,
+        hireOrderId: load.hire_order_id ?? undefined,
+        loadId: load.id,
+        overrideReason: input.overrideReason,
+      },
       { transaction: t },
     );
     return { ...outcome, loaded: outcome.replayed ? loaded : loaded + 1, target: load.target_count };
@@ -168,7 +215,13 @@ export async function confirmDelivery(load: Load, input: { receivedByName: strin
   );
   let delivered = 0;
   for (const b of bins) {
-    await recordScan(actor, { clientEventId: deliveryEventId(load.id, b.asset_id), assetId: b.asset_id, action: 'deliver', siteId: load.destinationSiteId, note: `Received by ${input.receivedByName}` });
+    await recordScan(actor, {
+      clientEventId: deliveryEventId(load.id, b.asset_id),
+      assetId: b.asset_id,
+      action: 'deliver',
+      siteId: load.destinationSiteId,
+      note: `Received by ${input.receivedByName}`,
+    });
     delivered += 1;
   }
   load.status = 'delivered';
@@ -202,15 +255,32 @@ export async function loadView(reference: string): Promise<LoadView | null> {
   );
   const iso = (v: unknown) => (v instanceof Date ? v.toISOString() : v == null ? null : String(v));
   return {
-    id: row.id as number, reference: row.reference as string, purpose: row.purpose as 'hire' | 'transfer', status: row.status as string,
-    targetCount: row.target_count as number, loaded: bins.length,
-    order: row.hire_order_id ? { id: row.hire_order_id as number, reference: row.order_ref as string, quantity: row.quantity as number, neededBy: row.needed_by as string, product: (row.product as string) ?? null } : null,
+    id: row.id as number,
+    reference: row.reference as string,
+    purpose: row.purpose as 'hire' | 'transfer',
+    status: row.status as string,
+    targetCount: row.target_count as number,
+    loaded: bins.length,
+    order: row.hire_order_id
+      ? {
+          id: row.hire_order_id as number,
+          reference: row.order_ref as string,
+          quantity: row.quantity as number,
+          neededBy: row.needed_by as string,
+          product: (row.product as string) ?? null,
+        }
+      : null,
     customer: (row.customer as string) ?? null,
     depot: { id: row.depot_site_id as number, name: row.depot_name as string, address: (row.depot_address as string) ?? null },
     destination: row.destination_site_id ? { id: row.destination_site_id as number, name: row.dest_name as string, address: (row.dest_address as string) ?? null } : null,
-    carrier: (row.carrier as string) ?? null, vehicleRegistration: (row.vehicle_registration as string) ?? null, driverName: (row.driver_name as string) ?? null,
-    trailerSeals: (row.trailer_seals as string[]) ?? [], dispatchedAt: iso(row.dispatched_at), deliveredAt: iso(row.delivered_at),
-    receivedByName: (row.received_by_name as string) ?? null, deliveryPhotoId: (row.delivery_photo_id as number) ?? null,
+    carrier: (row.carrier as string) ?? null,
+    vehicleRegistration: (row.vehicle_registration as string) ?? null,
+    driverName: (row.driver_name as string) ?? null,
+    trailerSeals: (row.trailer_seals as string[]) ?? [],
+    dispatchedAt: iso(row.dispatched_at),
+    deliveredAt: iso(row.delivered_at),
+    receivedByName: (row.received_by_name as string) ?? null,
+    deliveryPhotoId: (row.delivery_photo_id as number) ?? null,
     bins: bins.map((b) => ({ ...b, dispatchedAt: iso(b.dispatchedAt)! })),
   };
 }

@@ -8,15 +8,33 @@ import { sequelize } from '@/db/sequelize';
 const MAIL_PAGE_SIZE = 50;
 
 export interface OutboxRow {
-  id: number; toAddress: string; subject: string; textBody: string; kind: string;
-  status: 'queued' | 'sent' | 'failed'; messageId: string | null; error: string | null; createdAt: Date; sentAt: Date | null;
+  id: number;
+  toAddress: string;
+  subject: string;
+  textBody: string;
+  kind: string;
+  status: 'queued' | 'sent' | 'failed';
+  messageId: string | null;
+  error: string | null;
+  createdAt: Date;
+  sentAt: Date | null;
 }
 
 export interface LocalMailRow {
-  id: number; from: string | null; to: string[]; subject: string; textBody: string; receivedAt: Date;
+  id: number;
+  from: string | null;
+  to: string[];
+  subject: string;
+  textBody: string;
+  receivedAt: Date;
 }
 
-export interface Page<T> { rows: T[]; total: number; page: number; pages: number }
+export interface Page<T> {
+  rows: T[];
+  total: number;
+  page: number;
+  pages: number;
+}
 
 function paging(total: number, page: number) {
   const pages = Math.max(1, Math.ceil(total / MAIL_PAGE_SIZE));

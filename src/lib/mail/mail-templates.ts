@@ -17,7 +17,10 @@ export interface MailContent {
 export type MailKind = 'invite' | 'password_reset' | 'planner_digest' | 'collection_request' | 'damage_report' | 'seal_mismatch' | 'collection_confirmation';
 
 function compose(subject: string, lines: string[]): MailContent {
-  const text = lines.join('\n').replace(/\n{3,}/g, '\n\n').trim() + '\n';
+  const text = `${lines
+    .join('\n')
+    .replace(/\n{3,}/g, '\n\n')
+    .trim()}\n`;
   return { subject, text, html: textToHtml(text) };
 }
 

@@ -61,8 +61,13 @@ function describe(err: unknown): string {
 
 export async function sendMail(mail: OutgoingMail): Promise<MailOutcome> {
   const row = await MailMessage.create({
-    toAddress: mail.to, subject: mail.subject.slice(0, 300), textBody: maskSecrets(mail.text, mail.secrets), kind: mail.kind,
-    messageId: null, error: null, sentAt: null,
+    toAddress: mail.to,
+    subject: mail.subject.slice(0, 300),
+    textBody: maskSecrets(mail.text, mail.secrets),
+    kind: mail.kind,
+    messageId: null,
+    error: null,
+    sentAt: null,
   });
   const fail = async (error: string): Promise<MailOutcome> => {
     await row.update({ status: 'failed', error });
@@ -73,7 +78,11 @@ export async function sendMail(mail: OutgoingMail): Promise<MailOutcome> {
   if (!config.ok) return fail(config.problem);
   try {
     const info = await transportFor(config.options).sendMail({
-      from: await sender(), to: mail.to, subject: mail.subject, text: mail.text, html: mail.html,
+      from: await sender(),
+      to: mail.to,
+      subject: mail.subject,
+      text: mail.text,
+      html: mail.html,
     });
     const messageId = String(info.messageId ?? '').slice(0, 300) || null;
     await row.update({ status: 'sent', messageId, sentAt: new Date() });

@@ -124,7 +124,7 @@ export const PACKING_GROUP_NAMES: Readonly<Record<PackingGroup, string>> = { 1: 
 /** Said every time a dangerous-goods check is shown. */
 export const DG_NOT_CHECKED =
   'Only the packing group and the liquid code are checked here. The packing instruction, special provisions, ' +
-  'material compatibility and the product\'s other conditions are not checked: confirm them with the ' +
+  "material compatibility and the product's other conditions are not checked: confirm them with the " +
   "product's safety data sheet and your dangerous goods safety adviser.";
 
 export interface DangerousGoodsCheck {
@@ -154,9 +154,7 @@ export function checkDangerousGoods(unMarking: string | null | undefined, packin
     problems.push(`${typeCode.code} is an IBC for ${typeCode.kind.meaning}, not for liquids (a liquid needs a 31… code)`);
   }
   if (!approval.packingGroups.includes(packingGroup)) {
-    problems.push(
-      `Packing group ${PACKING_GROUP_NAMES[packingGroup]} is not allowed by the mark's letter ${approval.letter} (${approval.meaning})`,
-    );
+    problems.push(`Packing group ${PACKING_GROUP_NAMES[packingGroup]} is not allowed by the mark's letter ${approval.letter} (${approval.meaning})`);
   }
   return { fits: problems.length === 0, problems, notChecked: DG_NOT_CHECKED };
 }
@@ -166,12 +164,10 @@ export const FILL_CAUTIONS: readonly string[] = [
   'Never fill above the safe fill level shown here; leave the space the liquid needs to expand.',
   "Follow the product's safety data sheet: wear the protective equipment it names and check the product suits the liner.",
   'Check the liner is seated, the bottom valve is closed and the bin stands level before filling.',
-  'Local regulations and the site\'s licensed procedures come first; this plan is an aid, not an approval.',
+  "Local regulations and the site's licensed procedures come first; this plan is an aid, not an approval.",
 ];
 
-export type FillLimitBasis =
-  | { method: 'formula'; d15: number; d50: number }
-  | { method: 'boiling-point'; initialBoilingPointC: number };
+export type FillLimitBasis = { method: 'formula'; d15: number; d50: number } | { method: 'boiling-point'; initialBoilingPointC: number };
 
 export interface FillPlanInput {
   capacityL: number;

@@ -246,12 +246,7 @@ function filledLevels(bin: BinForLoading, grossKgPerBin: number): { levels: numb
  * height (payload checked with the tare); filled loads also by the mark's
  * stacking test load and by the payload.
  */
-export function loadCapacity(
-  trailer: Trailer,
-  bin: BinForLoading,
-  load: LoadKind,
-  opts: LoadPlanOptions = {},
-): LoadCapacity | LoadPlanError {
+export function loadCapacity(trailer: Trailer, bin: BinForLoading, load: LoadKind, opts: LoadPlanOptions = {}): LoadCapacity | LoadPlanError {
   const problem = checkInput(trailer, bin, load, opts);
   if (problem) return { ok: false, message: problem };
 

@@ -143,10 +143,24 @@ export const orderInputSchema = z
     binTypeId: id,
     quantity: z.number({ invalid_type_error: 'must be a number' }).int('must be a whole number of bins').min(1, 'must be at least 1 bin').max(1000, 'must be at most 1000 bins'),
     neededBy: localDate,
-    product: text().trim().max(120, 'must be at most 120 characters').nullish().transform((v) => (v ? v : null)),
-    notes: multilineText().trim().max(2000, 'must be at most 2000 characters').nullish().transform((v) => (v ? v : null)),
+    product: text()
+      .trim()
+      .max(120, 'must be at most 120 characters')
+      .nullish()
+      .transform((v) => (v ? v : null)),
+    notes: multilineText()
+      .trim()
+      .max(2000, 'must be at most 2000 characters')
+      .nullish()
+      .transform((v) => (v ? v : null)),
     linerFoodContact: z.boolean().default(false),
-    linerMaxFillTempC: z.number({ invalid_type_error: 'must be a number' }).int('must be whole degrees').min(-40, 'must be −40 °C or more').max(100, 'must be 100 °C or less').nullish().transform((v) => v ?? null),
+    linerMaxFillTempC: z
+      .number({ invalid_type_error: 'must be a number' })
+      .int('must be whole degrees')
+      .min(-40, 'must be −40 °C or more')
+      .max(100, 'must be 100 °C or less')
+      .nullish()
+      .transform((v) => v ?? null),
     /** Save as draft (counts nowhere) or confirm straight away. */
     confirm: z.boolean().default(false),
   })

@@ -120,7 +120,9 @@ export function remaining(progress: OrderProgress): number {
 }
 
 /** How a status is shown: a word and an icon, with a tone as a third cue (never colour alone). */
-export const ORDER_STATUS_LOOK: Readonly<Record<OrderStatus, { icon: 'plusBox' | 'check' | 'truck' | 'route' | 'retired' | 'hold'; tone: 'good' | 'info' | 'attention' | 'fault' | 'neutral' }>> = {
+export const ORDER_STATUS_LOOK: Readonly<
+  Record<OrderStatus, { icon: 'plusBox' | 'check' | 'truck' | 'route' | 'retired' | 'hold'; tone: 'good' | 'info' | 'attention' | 'fault' | 'neutral' }>
+> = {
   draft: { icon: 'plusBox', tone: 'neutral' },
   confirmed: { icon: 'check', tone: 'attention' },
   loading: { icon: 'truck', tone: 'info' },

@@ -9,20 +9,11 @@ import { recordAudit, type AuditActor } from '@/lib/audit.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import { localDate } from '@/lib/calendar';
 import { HireOrder } from '@/models';
-import {
-  availableCommands,
-  decideCommand,
-  DEMAND_STATUSES,
-  statusFromLoads,
-  type OrderCommand,
-  type OrderProgress,
-  type OrderStatus,
-} from './order-status';
+import { availableCommands, decideCommand, DEMAND_STATUSES, statusFromLoads, type OrderCommand, type OrderProgress, type OrderStatus } from './order-status';
 import type { OrderInput, OrderListQuery, OrderSortKey } from './order-forms';
 import type { Tariff } from './tariffs';
 
-const q = <T extends object>(sql: string, bind: unknown[], t?: Transaction) =>
-  sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
+const q = <T extends object>(sql: string, bind: unknown[], t?: Transaction) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
 
 // Bins for the order: every trip opened by a dispatch scan on it. A trip on a load
 // still loading is loaded, not yet dispatched; one without a load left at its scan.
@@ -42,11 +33,7 @@ async function orderProgress(orderId: number, quantity: number, t?: Transaction)
  * dispatched). Call inside the transaction that loaded or dispatched bins.
  */
 export async function syncOrderStatus(orderId: number, t: Transaction): Promise<OrderStatus | null> {
-  const [order] = await q<{ id: number; status: OrderStatus; quantity: number }>(
-    'SELECT id, status, quantity FROM hire_orders WHERE id = $1 FOR UPDATE',
-    [orderId],
-    t,
-  );
+  const [order] = await q<{ id: number; status: OrderStatus; quantity: number }>('SELECT id, status, quantity FROM hire_orders WHERE id = $1 FOR UPDATE', [orderId], t);
   if (!order) return null;
   const next = statusFromLoads(order.status, await orderProgress(order.id, order.quantity, t));
   if (next !== order.status) {
@@ -131,10 +118,7 @@ export async function listOrders(query: OrderListQuery): Promise<{ rows: OrderLi
   const { where, bind } = orderWhere(query.filters);
   const order = `${SORT_SQL[query.sort]} ${query.dir === 'asc' ? 'ASC' : 'DESC'}, ho.id ${query.dir === 'asc' ? 'ASC' : 'DESC'}`;
   const limit = bind.length + 1;
-  const [countRow] = await q<{ n: number }>(
-    `SELECT count(*)::int AS n FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id ${where}`,
-    bind,
-  );
+  const [countRow] = await q<{ n: number }>(`SELECT count(*)::int AS n FROM hire_orders ho JOIN organisations o ON o.id = ho.customer_id ${where}`, bind);
   const rows = await q<OrderListRow>(
     `SELECT ho.id, ho.reference, ho.status, ho.customer_id AS "customerId", o.name AS customer, ds.name AS "deliverySite",
             dp.name AS depot, bt.name AS "binType", ho.quantity, ho.needed_by AS "neededBy",
@@ -179,8 +163,15 @@ export interface OrderView {
   deliverySite: { id: number; name: string; address: string | null };
   depot: { id: number; name: string };
   binType: {
-    id: number; name: string; nominalCapacityL: number;
-    footprintLengthMm: number; footprintWidthMm: number; heightErectedMm: number; heightFoldedMm: number; tareKg: number; maxGrossKg: number;
+    id: number;
+    name: string;
+    nominalCapacityL: number;
+    footprintLengthMm: number;
+    footprintWidthMm: number;
+    heightErectedMm: number;
+    heightFoldedMm: number;
+    tareKg: number;
+    maxGrossKg: number;
   };
   quantity: number;
   neededBy: string;
@@ -236,10 +227,15 @@ export async function orderView(id: number): Promise<OrderView | null> {
     deliverySite: { id: row.delivery_site_id as number, name: row.ds_name as string, address: (row.ds_address as string) ?? null },
     depot: { id: row.depot_site_id as number, name: row.dp_name as string },
     binType: {
-      id: row.bin_type_id as number, name: row.bt_name as string, nominalCapacityL: row.bt_capacity as number,
-      footprintLengthMm: row.footprint_length_mm as number, footprintWidthMm: row.footprint_width_mm as number,
-      heightErectedMm: row.height_erected_mm as number, heightFoldedMm: row.height_folded_mm as number,
-      tareKg: Number(row.tare_kg), maxGrossKg: Number(row.max_gross_kg),
+      id: row.bin_type_id as number,
+      name: row.bt_name as string,
+      nominalCapacityL: row.bt_capacity as number,
+      footprintLengthMm: row.footprint_length_mm as number,
+      footprintWidthMm: row.footprint_width_mm as number,
+      heightErectedMm: row.height_erected_mm as number,
+      heightFoldedMm: row.height_folded_mm as number,
+      tareKg: Number(row.tare_kg),
+      maxGrossKg: Number(row.max_gross_kg),
     },
     quantity,
     neededBy: row.needed_by as string,
@@ -281,7 +277,11 @@ async function checkReferences(input: OrderInput, t: Transaction): Promise<strin
   const [type] = await q<{ active: boolean }>('SELECT active FROM bin_types WHERE id = $1', [input.binTypeId], t);
   if (!type || !type.active) fields.binTypeId = 'must be an active bin type';
   if (Object.keys(fields).length > 0) {
-    throw new AppError('validation_failed', 'Some fields do not fit together.', Object.entries(fields).map(([path, message]) => ({ path, message })));
+    throw new AppError(
+      'validation_failed',
+      'Some fields do not fit together.',
+      Object.entries(fields).map(([path, message]) => ({ path, message })),
+    );
   }
   return customer!.name;
 }
@@ -324,7 +324,13 @@ export async function createOrder(input: OrderInput, actor: AuditActor): Promise
       { transaction: t },
     );
     await recordAudit(
-      { actor, action: 'order.create', entityType: 'hire_order', entityId: order.id, after: { reference: order.reference, status: order.status, quantity: order.quantity, neededBy: order.neededBy } },
+      {
+        actor,
+        action: 'order.create',
+        entityType: 'hire_order',
+        entityId: order.id,
+        after: { reference: order.reference, status: order.status, quantity: order.quantity, neededBy: order.neededBy },
+      },
       { transaction: t },
     );
     return { id: order.id, reference: order.reference, status: order.status };

@@ -19,13 +19,7 @@ import { createRequire } from 'node:module';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { DEFAULT_TIME_LIMIT_SECONDS, PlanInputError } from './transport-plan';
-import type {
-  SolveOptions,
-  TransportationInput,
-  TransportationResult,
-  TruckPlanInput,
-  TruckPlanResult,
-} from './transport-plan';
+import type { SolveOptions, TransportationInput, TransportationResult, TruckPlanInput, TruckPlanResult } from './transport-plan';
 import type { SolverJob, SolverReply } from './solver-worker.server';
 
 const WORKER_FILE = 'src/lib/planning/solver-worker.server.ts';

@@ -12,7 +12,10 @@ export const PLAN_TIME_LIMIT_SECONDS = 4;
 export const PLAN_MIP_REL_GAP = 0.01;
 
 const number = (min: number, max: number, what: string) =>
-  z.coerce.number({ invalid_type_error: `${what} must be a number` }).min(min, `${what} is at least ${min}`).max(max, `${what} is at most ${max}`);
+  z.coerce
+    .number({ invalid_type_error: `${what} must be a number` })
+    .min(min, `${what} is at least ${min}`)
+    .max(max, `${what} is at most ${max}`);
 
 export const planSettingsSchema = z.object({
   horizonDays: number(1, 60, 'The horizon').int('The horizon is a whole number of days').default(PLAN_DEFAULTS.horizonDays),

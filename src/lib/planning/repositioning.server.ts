@@ -15,10 +15,34 @@ import { depotBalance, planRepositioning, type RepoBinType, type RepoDepot, type
 import { solveTruckPlanOffThread } from './plan-solver.server';
 import type { PlanSettings } from './repositioning-settings';
 
-interface SiteRow { id: number; name: string; kind: string; lat: number | null; lon: number | null }
-interface CountRow { site_id: number; bin_type_id: number; n: number }
-interface NeedRow { depot_site_id: number; bin_type_id: number; needed_by: LocalDate; bins: number }
-interface TypeRow { id: number; name: string; footprint_length_mm: number; footprint_width_mm: number; height_erected_mm: number; height_folded_mm: number; tare_kg: string; max_gross_kg: string }
+interface SiteRow {
+  id: number;
+  name: string;
+  kind: string;
+  lat: number | null;
+  lon: number | null;
+}
+interface CountRow {
+  site_id: number;
+  bin_type_id: number;
+  n: number;
+}
+interface NeedRow {
+  depot_site_id: number;
+  bin_type_id: number;
+  needed_by: LocalDate;
+  bins: number;
+}
+interface TypeRow {
+  id: number;
+  name: string;
+  footprint_length_mm: number;
+  footprint_width_mm: number;
+  height_erected_mm: number;
+  height_folded_mm: number;
+  tare_kg: string;
+  max_gross_kg: string;
+}
 
 export interface DepotRow {
   key: string;
@@ -62,17 +86,27 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
     q<CountRow>(`SELECT a.site_id, a.bin_type_id, count(*)::int AS n FROM assets a JOIN sites s ON s.id = a.site_id
                   WHERE s.kind = 'customer' AND a.status = 'awaiting_collection' GROUP BY 1, 2`),
     // Bins still to go out on confirmed orders wanted by the horizon's end; an order already late counts today.
-    q<NeedRow>(`SELECT ho.depot_site_id, ho.bin_type_id, to_char(greatest(ho.needed_by, $1::date), 'YYYY-MM-DD') AS needed_by,
+    q<NeedRow>(
+      `SELECT ho.depot_site_id, ho.bin_type_id, to_char(greatest(ho.needed_by, $1::date), 'YYYY-MM-DD') AS needed_by,
                        sum(greatest(ho.quantity - (SELECT count(*) FROM trips t WHERE t.hire_order_id = ho.id), 0))::int AS bins
-                  FROM hire_orders ho WHERE ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $2::date GROUP BY 1, 2, 3`, [today, horizonEnd]),
+                  FROM hire_orders ho WHERE ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $2::date GROUP BY 1, 2, 3`,
+      [today, horizonEnd],
+    ),
     loadTripHistory(),
   ]);
 
   const types = typeRows.flatMap((t) => {
-    const cap = loadCapacity(STANDARD_TRAILER, {
-      footprint: { lengthMm: t.footprint_length_mm, widthMm: t.footprint_width_mm }, heightErectedMm: t.height_erected_mm, heightFoldedMm: t.height_folded_mm,
-      tareKg: Number(t.tare_kg), maxGrossKg: Number(t.max_gross_kg),
-    }, { kind: 'folded' });
+    const cap = loadCapacity(
+      STANDARD_TRAILER,
+      {
+        footprint: { lengthMm: t.footprint_length_mm, widthMm: t.footprint_width_mm },
+        heightErectedMm: t.height_erected_mm,
+        heightFoldedMm: t.height_folded_mm,
+        tareKg: Number(t.tare_kg),
+        maxGrossKg: Number(t.max_gross_kg),
+      },
+      { kind: 'folded' },
+    );
     return cap.ok ? [{ key: String(t.id), name: t.name, truckCapacity: cap.bins, limitedBy: cap.explanation }] : [];
   });
   const placed = sites.filter((s) => s.lat !== null && s.lon !== null);
@@ -90,7 +124,11 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
   const out = binsOutAsOf(history, today);
   const lowBy = new Map<string, Map<LocalDate, number>>();
   for (const t of types) {
-    for (const f of forecastReturns(model, out.filter((b) => b.binTypeKey === t.key), { asOf: today, horizonDays: settings.horizonDays })) {
+    for (const f of forecastReturns(
+      model,
+      out.filter((b) => b.binTypeKey === t.key),
+      { asOf: today, horizonDays: settings.horizonDays },
+    )) {
       lowBy.set(`${f.depotKey}:${t.key}`, new Map(f.days.map((d) => [d.date, d.cumulativeLow])));
     }
   }
@@ -105,7 +143,17 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
       balance[t.key] = b;
       const backByHorizon = returnsBy(s.id, t.key)(horizonEnd);
       if (held(s.id, t.key) || b.needed || backByHorizon) {
-        rows.push({ key: String(s.id), name: s.name, type: t.name, onHand: held(s.id, t.key), needed: b.needed, backByHorizon, shortage: b.shortage, shortOn: b.shortOn, spare: b.spare });
+        rows.push({
+          key: String(s.id),
+          name: s.name,
+          type: t.name,
+          onHand: held(s.id, t.key),
+          needed: b.needed,
+          backByHorizon,
+          shortage: b.shortage,
+          shortOn: b.shortOn,
+          spare: b.spare,
+        });
       }
     }
     return { key: String(s.id), name: s.name, point: { lat: s.lat!, lon: s.lon! }, balance };
@@ -114,9 +162,8 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
     .filter((s) => s.kind === 'customer' && types.some((t) => waiting(s.id, t.key) > 0))
     .map((s) => ({ key: String(s.id), name: s.name, point: { lat: s.lat!, lon: s.lon! }, awaiting: Object.fromEntries(types.map((t) => [t.key, waiting(s.id, t.key)])) }));
 
-  const result = await planRepositioning(
-    { types, depots, sites: customerSites, costPerKm: settings.costPerKm, roadFactor: settings.roadFactor },
-    (input) => solveTruckPlanOffThread(input, { timeLimit: settings.timeLimitSeconds, mipRelGap: settings.mipRelGap }),
+  const result = await planRepositioning({ types, depots, sites: customerSites, costPerKm: settings.costPerKm, roadFactor: settings.roadFactor }, (input) =>
+    solveTruckPlanOffThread(input, { timeLimit: settings.timeLimitSeconds, mipRelGap: settings.mipRelGap }),
   );
   const names = new Map(sites.map((s) => [String(s.id), s.name]));
   return {

@@ -128,7 +128,11 @@ function problemOf(
   { types, costPerKm, roadFactor }: Pick<RepositioningInput, 'types' | 'costPerKm' | 'roadFactor'>,
 ): RepositioningProblem {
   const points = destinations.map((d) => d.depot.point);
-  const costs = truckCostMatrix(sources.map((s) => place(s).point), points, { roadFactor, costPerKm });
+  const costs = truckCostMatrix(
+    sources.map((s) => place(s).point),
+    points,
+    { roadFactor, costPerKm },
+  );
   return {
     input: {
       supplies: sources.map((s) => types.map((t) => supply(s, t))),
@@ -167,14 +171,28 @@ export function shortageProblem(input: RepositioningInput): RepositioningProblem
 /** Stage 2: the customer empties stage 1 left where they are (`usedAt[i][k]` per stage-1 source), all to a depot yard. */
 export function collectionProblem(input: RepositioningInput, stage1: RepositioningProblem, used: readonly (readonly number[])[]): RepositioningProblem {
   const left = new Map<string, number[]>();
-  for (const site of input.sites) left.set(site.key, input.types.map((t) => site.awaiting[t.key] ?? 0));
+  for (const site of input.sites)
+    left.set(
+      site.key,
+      input.types.map((t) => site.awaiting[t.key] ?? 0),
+    );
   stage1.sources.forEach((s, i) => {
-    if (s.kind === 'site') left.set(s.site.key, left.get(s.site.key)!.map((n, k) => n - (used[i]?.[k] ?? 0)));
+    if (s.kind === 'site')
+      left.set(
+        s.site.key,
+        left.get(s.site.key)!.map((n, k) => n - (used[i]?.[k] ?? 0)),
+      );
   });
   const sources: SourceRow[] = input.sites.filter((s) => left.get(s.key)!.some((n) => n > 0)).map((site) => ({ kind: 'site' as const, site }));
   const totals = input.types.map((_, k) => [...left.values()].reduce((n, row) => n + row[k]!, 0));
   const destinations: DestinationColumn[] = sources.length ? input.depots.map((depot) => ({ kind: 'yard' as const, depot })) : [];
-  return problemOf(sources, destinations, (s, t) => left.get((s as { site: RepoSite }).site.key)![input.types.indexOf(t)]!, (_d, t) => totals[input.types.indexOf(t)]!, input);
+  return problemOf(
+    sources,
+    destinations,
+    (s, t) => left.get((s as { site: RepoSite }).site.key)![input.types.indexOf(t)]!,
+    (_d, t) => totals[input.types.indexOf(t)]!,
+    input,
+  );
 }
 
 /** Bins each source sends in a solved plan, per bin type. */
@@ -227,8 +245,17 @@ function summarise(stages: readonly StageLoads[]): PlanSummary {
       const dest = problem.destinations[to]!;
       const key = `${source.kind}:${place(source).key}→${dest.depot.key}`;
       const lane = byLane.get(key) ?? {
-        fromKind: source.kind, fromKey: place(source).key, from: place(source).name, toKey: dest.depot.key, to: dest.depot.name,
-        bins: types.map(() => 0), toShortage: types.map(() => 0), trucks: 0, km: problem.km[from]![to]!, costPerTruck: problem.input.truckCosts[from]![to] ?? 0, cost: 0,
+        fromKind: source.kind,
+        fromKey: place(source).key,
+        from: place(source).name,
+        toKey: dest.depot.key,
+        to: dest.depot.name,
+        bins: types.map(() => 0),
+        toShortage: types.map(() => 0),
+        trucks: 0,
+        km: problem.km[from]![to]!,
+        costPerTruck: problem.input.truckCosts[from]![to] ?? 0,
+        cost: 0,
       };
       load.forEach((b, k) => {
         lane.bins[k]! += b;
@@ -263,10 +290,7 @@ function summarise(stages: readonly StageLoads[]): PlanSummary {
 
 /** Both stages' answers per physical lane (loads on one lane share their trucks). */
 export function planLanes(shortages: RepositioningProblem, first: TruckPlanResult, collections: RepositioningProblem | null, second: TruckPlanResult | null): PlanSummary {
-  return summarise([
-    { problem: shortages, loads: first.lanes, unmetDemand: first.unmetDemand },
-    ...(collections && second ? [{ problem: collections, loads: second.lanes }] : []),
-  ]);
+  return summarise([{ problem: shortages, loads: first.lanes, unmetDemand: first.unmetDemand }, ...(collections && second ? [{ problem: collections, loads: second.lanes }] : [])]);
 }
 
 /**
@@ -287,7 +311,10 @@ export function naiveRepositioning(input: RepositioningInput): PlanSummary {
     });
     if (best >= 0) second.push({ from: i, to: best, load: collections.input.supplies[i]! });
   });
-  return summarise([{ problem: shortages, loads: first, unmetDemand: naive?.unmetDemand }, { problem: collections, loads: second }]);
+  return summarise([
+    { problem: shortages, loads: first, unmetDemand: naive?.unmetDemand },
+    { problem: collections, loads: second },
+  ]);
 }
 
 export interface RepositioningPlan {
@@ -300,7 +327,18 @@ export interface RepositioningPlan {
 }
 
 type Solve = (input: TruckPlanInput) => Promise<TruckPlanResult>;
-const EMPTY: TruckPlanResult = { status: 'optimal', hasPlan: true, totalCost: 0, totalTrucks: 0, lanes: [], unmetDemand: [], unusedSupply: [], mipGap: 0, bound: 0, solveSeconds: 0 };
+const EMPTY: TruckPlanResult = {
+  status: 'optimal',
+  hasPlan: true,
+  totalCost: 0,
+  totalTrucks: 0,
+  lanes: [],
+  unmetDemand: [],
+  unusedSupply: [],
+  mipGap: 0,
+  bound: 0,
+  solveSeconds: 0,
+};
 
 /** Both stages solved with `solve` (in a worker on the server, in-thread in tests), and the naive plan beside them. */
 export async function planRepositioning(input: RepositioningInput, solve: Solve): Promise<RepositioningPlan> {

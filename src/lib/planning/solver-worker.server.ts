@@ -11,9 +11,7 @@ export type SolverJob =
   | { id: number; kind: 'transportation'; input: TransportationInput; options?: SolveOptions }
   | { id: number; kind: 'truck-plan'; input: TruckPlanInput; options?: SolveOptions };
 
-export type SolverReply =
-  | { id: number; ok: true; result: unknown }
-  | { id: number; ok: false; error: { name: string; message: string } };
+export type SolverReply = { id: number; ok: true; result: unknown } | { id: number; ok: false; error: { name: string; message: string } };
 
 if (!parentPort) throw new Error('solver-worker.server.ts runs only as a worker thread');
 const port = parentPort;
@@ -21,10 +19,7 @@ const port = parentPort;
 port.on('message', async (job: SolverJob) => {
   let reply: SolverReply;
   try {
-    const result =
-      job.kind === 'transportation'
-        ? await solveTransportation(job.input, job.options)
-        : await solveTruckPlan(job.input, job.options);
+    const result = job.kind === 'transportation' ? await solveTransportation(job.input, job.options) : await solveTruckPlan(job.input, job.options);
     reply = { id: job.id, ok: true, result };
   } catch (error) {
     const e = error instanceof Error ? error : new Error(String(error));

@@ -15,7 +15,9 @@ export { tariffsOf };
 export async function addTariff(input: TariffInput, actor: AuditActor, outer?: Transaction): Promise<{ id: number; endedPrevious: { id: number; validTo: string } | null }> {
   return sequelize.transaction({ transaction: outer }, async (t) => {
     const [customer] = await sequelize.query<{ kind: string }>('SELECT kind FROM organisations WHERE id = $1 FOR UPDATE', {
-      bind: [input.customerId], type: QueryTypes.SELECT, transaction: t,
+      bind: [input.customerId],
+      type: QueryTypes.SELECT,
+      transaction: t,
     });
     if (!customer || customer.kind !== 'customer') throw new AppError('validation_failed', 'Some fields are not valid.', [{ path: 'customerId', message: 'no such customer' }]);
     const existing = await sequelize.query<Pick<TariffRow, 'id' | 'validFrom' | 'validTo'>>(
@@ -26,9 +28,13 @@ export async function addTariff(input: TariffInput, actor: AuditActor, outer?: T
     if (!plan.ok) throw new AppError('unprocessable', plan.message, [{ path: 'validFrom', message: plan.message }]);
     if (plan.endPrevious) {
       await sequelize.query('UPDATE tariffs SET valid_to = $2, version = version + 1, updated_at = now() WHERE id = $1', {
-        bind: [plan.endPrevious.id, plan.endPrevious.validTo], transaction: t,
+        bind: [plan.endPrevious.id, plan.endPrevious.validTo],
+        transaction: t,
       });
-      await recordAudit({ actor, action: 'tariff.end', entityType: 'tariff', entityId: plan.endPrevious.id, before: { validTo: null }, after: { validTo: plan.endPrevious.validTo } }, { transaction: t });
+      await recordAudit(
+        { actor, action: 'tariff.end', entityType: 'tariff', entityId: plan.endPrevious.id, before: { validTo: null }, after: { validTo: plan.endPrevious.validTo } },
+        { transaction: t },
+      );
     }
     const row = await Tariff.create({ ...input }, { transaction: t });
     await recordAudit({ actor, action: 'tariff.create', entityType: 'tariff', entityId: row.id, after: { ...input } }, { transaction: t });

@@ -48,7 +48,7 @@ export function periodWords(t: Pick<Tariff, 'validFrom' | 'validTo'>): string {
 }
 
 export type NewTariffPlan =
-  | { ok: true; /** The open-ended tariff that the new one succeeds, ended the day before it starts. */ endPrevious: { id: number; validTo: LocalDate } | null }
+  | { ok: true /** The open-ended tariff that the new one succeeds, ended the day before it starts. */; endPrevious: { id: number; validTo: LocalDate } | null }
   | { ok: false; message: string };
 
 /**
@@ -75,7 +75,10 @@ export function planNewTariff(
   return { ok: true, endPrevious };
 }
 
-const money = z.string().trim().regex(/^\d{1,8}(\.\d{1,2})?$/, 'must be an amount like 1.60 (at most two decimals)');
+const money = z
+  .string()
+  .trim()
+  .regex(/^\d{1,8}(\.\d{1,2})?$/, 'must be an amount like 1.60 (at most two decimals)');
 const day = z.string().refine(isLocalDate, 'must be a date like 2027-01-01');
 
 /** A new tariff as an admin enters it. */

@@ -33,14 +33,7 @@ export class PlanInputError extends Error {
 }
 
 /** What the solver says about the answer. 'optimal' for a MIP means within the requested relative gap. */
-export type SolverStatus =
-  | 'optimal'
-  | 'infeasible'
-  | 'unbounded'
-  | 'time_limit'
-  | 'iteration_limit'
-  | 'interrupted'
-  | 'error';
+export type SolverStatus = 'optimal' | 'infeasible' | 'unbounded' | 'time_limit' | 'iteration_limit' | 'interrupted' | 'error';
 
 export interface TransportationInput {
   supplies: readonly number[];
@@ -194,13 +187,7 @@ const STATUS_BY_CODE: Record<number, SolverStatus> = {
   17: 'interrupted',
 };
 
-function runModel(
-  highs: Highs,
-  data: ModelData,
-  options: Record<string, number | string | boolean>,
-  isMip: boolean,
-  start?: Float64Array,
-): RunOutcome {
+function runModel(highs: Highs, data: ModelData, options: Record<string, number | string | boolean>, isMip: boolean, start?: Float64Array): RunOutcome {
   try {
     return highs.withModel(data, (model) => {
       model.options.set({ output_flag: false, ...options });
@@ -474,10 +461,13 @@ export async function solveTruckPlan(input: TruckPlanInput, options?: SolveOptio
   const supplies = checkTypeMatrix(input.supplies, 'supplies', types);
   const demands = checkTypeMatrix(input.demands, 'demands', types);
   const costs = checkCostMatrix(input.truckCosts, supplies.length, demands.length, 'truckCosts');
-  const mustShip = input.mustShip === undefined ? supplies.map(() => false) : checkList(input.mustShip, 'mustShip').map((v, i) => {
-    if (typeof v !== 'boolean') throw new PlanInputError(`mustShip[${i}] must be true or false`);
-    return v;
-  });
+  const mustShip =
+    input.mustShip === undefined
+      ? supplies.map(() => false)
+      : checkList(input.mustShip, 'mustShip').map((v, i) => {
+          if (typeof v !== 'boolean') throw new PlanInputError(`mustShip[${i}] must be true or false`);
+          return v;
+        });
   if (mustShip.length !== supplies.length) throw new PlanInputError(`mustShip must have one entry per source (${supplies.length}), got ${mustShip.length}`);
   costs.forEach((row, i) =>
     row.forEach((c, j) => {

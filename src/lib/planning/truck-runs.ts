@@ -76,7 +76,12 @@ export function driveOrder(depot: Point, stops: readonly Point[], roadFactor: nu
     order.push(next!);
     at = stops[next!]!;
   }
-  const length = (o: number[]) => routeKm(depot, o.map((i) => stops[i]!), roadFactor);
+  const length = (o: number[]) =>
+    routeKm(
+      depot,
+      o.map((i) => stops[i]!),
+      roadFactor,
+    );
   for (let improved = true; improved; ) {
     improved = false;
     for (let i = 0; i < order.length - 1; i++) {
@@ -93,13 +98,26 @@ export function driveOrder(depot: Point, stops: readonly Point[], roadFactor: nu
 }
 
 function run(depot: Point, members: CollectionStop[], roadFactor: number, fullTruck: boolean): SuggestedRun {
-  const order = driveOrder(depot, members.map((m) => m.point), roadFactor);
+  const order = driveOrder(
+    depot,
+    members.map((m) => m.point),
+    roadFactor,
+  );
   const stops = order.map((i) => members[i]!);
   return {
-    leavesOn: stops.map((s) => s.readyOn).sort().at(-1)!,
+    leavesOn: stops
+      .map((s) => s.readyOn)
+      .sort()
+      .at(-1)!,
     stops: stops.map((s) => ({ key: s.key, name: s.name, bins: s.bins, readyOn: s.readyOn })),
     bins: stops.reduce((n, s) => n + s.bins, 0),
-    km: Math.round(routeKm(depot, stops.map((s) => s.point), roadFactor)),
+    km: Math.round(
+      routeKm(
+        depot,
+        stops.map((s) => s.point),
+        roadFactor,
+      ),
+    ),
     fullTruck,
   };
 }
@@ -112,7 +130,7 @@ export function suggestRuns(stops: readonly CollectionStop[], opts: RunOptions):
   const keys = new Set<string>();
   const waiting: RunSuggestion['waiting'] = [];
   const runs: SuggestedRun[] = [];
-  let pool: CollectionStop[] = [];
+  const pool: CollectionStop[] = [];
   for (const s of stops) {
     if (keys.has(s.key)) throw new RangeError(`one stop per site: ${s.key} appears twice`);
     keys.add(s.key);
@@ -136,15 +154,28 @@ export function suggestRuns(stops: readonly CollectionStop[], opts: RunOptions):
     let bins = first.bins;
     const until = addDays(first.readyOn, windowDays);
     for (;;) {
-      const length = routeKm(depot, members.map((m) => m.point), roadFactor);
+      const length = routeKm(
+        depot,
+        members.map((m) => m.point),
+        roadFactor,
+      );
       let pick = -1;
       let pickDist = Infinity;
       pool.forEach((c, i) => {
         if (c.readyOn > until || bins + c.bins > truckCapacity) return;
         const near = Math.min(...members.map((m) => km(m.point, c.point, roadFactor)));
         if (near >= pickDist) return;
-        const order = driveOrder(depot, [...members, c].map((m) => m.point), roadFactor);
-        const detour = routeKm(depot, order.map((o) => [...members, c][o]!.point), roadFactor) - length;
+        const order = driveOrder(
+          depot,
+          [...members, c].map((m) => m.point),
+          roadFactor,
+        );
+        const detour =
+          routeKm(
+            depot,
+            order.map((o) => [...members, c][o]!.point),
+            roadFactor,
+          ) - length;
         if (detour <= maxDetourKm) {
           pick = i;
           pickDist = near;

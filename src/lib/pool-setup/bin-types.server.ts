@@ -50,8 +50,21 @@ export async function binTypeById(id: number): Promise<BinTypeRow> {
 }
 
 const FIELDS = [
-  'code', 'name', 'graiAssetType', 'nominalCapacityL', 'tareKg', 'maxGrossKg', 'footprintLengthMm', 'footprintWidthMm',
-  'heightErectedMm', 'heightFoldedMm', 'unCode', 'policyKind', 'intermediateMonths', 'fullMonths', 'active',
+  'code',
+  'name',
+  'graiAssetType',
+  'nominalCapacityL',
+  'tareKg',
+  'maxGrossKg',
+  'footprintLengthMm',
+  'footprintWidthMm',
+  'heightErectedMm',
+  'heightFoldedMm',
+  'unCode',
+  'policyKind',
+  'intermediateMonths',
+  'fullMonths',
+  'active',
 ] as const;
 
 function snapshot(b: BinType) {
@@ -80,10 +93,7 @@ function refuseProblems(problems: { path: string; message: string }[]) {
 export async function createBinType(input: BinTypeCreate, actor: AuditActor): Promise<BinTypeRow> {
   const id = await createAudited('bin_type', actor, async (transaction) => {
     await codeTaken(input.code, null, transaction);
-    const row = await BinType.create(
-      { ...input, tareKg: String(input.tareKg), maxGrossKg: String(input.maxGrossKg), active: input.active ?? true },
-      { transaction },
-    );
+    const row = await BinType.create({ ...input, tareKg: String(input.tareKg), maxGrossKg: String(input.maxGrossKg), active: input.active ?? true }, { transaction });
     return { id: row.id, snapshot: snapshot(row), result: row.id };
   });
   return binTypeById(id);
@@ -91,7 +101,11 @@ export async function createBinType(input: BinTypeCreate, actor: AuditActor): Pr
 
 export async function updateBinType(id: number, patch: BinTypePatch, actor: AuditActor): Promise<BinTypeRow> {
   await editVersioned({
-    model: BinType, id, version: patch.version, entityType: 'bin_type', actor,
+    model: BinType,
+    id,
+    version: patch.version,
+    entityType: 'bin_type',
+    actor,
     notFound: 'There is no such bin type.',
     describe: (b) => `the bin type ${b.code}`,
     snapshot,
@@ -103,7 +117,9 @@ export async function updateBinType(id: number, patch: BinTypePatch, actor: Audi
       const changedFixed = FIXED_ONCE_USED.filter((f) => patch[f] !== undefined && patch[f] !== current[f]);
       if (changedFixed.length) {
         const [{ n }] = (await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE bin_type_id = $1', {
-          bind: [b.id], type: QueryTypes.SELECT, transaction,
+          bind: [b.id],
+          type: QueryTypes.SELECT,
+          transaction,
         })) as [{ n: number }];
         if (n > 0) {
           const message = `${n} registered ${n === 1 ? 'bin carries' : 'bins carry'} this type's asset type and inspection dates; they stay as they are. Add a new bin type for different ones.`;

@@ -61,7 +61,16 @@ export async function createCustomer(input: CustomerCreate, actor: AuditActor): 
     const t = input.terms;
     // The organisation's own term columns are kept equal to its first tariff for the readers that still use them.
     const org = await Organisation.create(
-      { name: input.name, kind: 'customer', contactEmail: input.contactEmail, freeDays: t.freeDays, dailyRate: t.dailyRate, tripFee: t.perTripFee, lostBinFee: t.lostBinFee, currency: t.currency },
+      {
+        name: input.name,
+        kind: 'customer',
+        contactEmail: input.contactEmail,
+        freeDays: t.freeDays,
+        dailyRate: t.dailyRate,
+        tripFee: t.perTripFee,
+        lostBinFee: t.lostBinFee,
+        currency: t.currency,
+      },
       { transaction },
     );
     await addTariff({ customerId: org.id, ...t, validFrom, validTo: null }, actor, transaction);
@@ -72,7 +81,11 @@ export async function createCustomer(input: CustomerCreate, actor: AuditActor): 
 
 export async function updateCustomer(id: number, patch: CustomerPatch, actor: AuditActor): Promise<CustomerRow> {
   await editVersioned({
-    model: Organisation, id, version: patch.version, entityType: 'customer', actor,
+    model: Organisation,
+    id,
+    version: patch.version,
+    entityType: 'customer',
+    actor,
     notFound: 'There is no such customer.',
     describe: (o) => o.name,
     snapshot,

@@ -79,7 +79,11 @@ const siteObject = z.object({
   code: code('site'),
   name: text().trim().min(1, 'Enter the site’s name.').max(160, 'At most 160 characters.'),
   kind: z.enum(SITE_KINDS),
-  address: multilineText().trim().max(500, 'At most 500 characters.').nullish().transform((v) => (v ? v : null)),
+  address: multilineText()
+    .trim()
+    .max(500, 'At most 500 characters.')
+    .nullish()
+    .transform((v) => (v ? v : null)),
   latitude: coordinate(-90, 90, 'latitude'),
   longitude: coordinate(-180, 180, 'longitude'),
   active: z.boolean(),
@@ -96,11 +100,7 @@ function bothOrNeither(v: { latitude: number | null; longitude: number | null },
   for (const p of positionProblems(v)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [p.path], message: p.message });
 }
 
-export const siteCreateSchema = siteObject
-  .omit({ version: true })
-  .partial({ address: true, active: true })
-  .strict()
-  .superRefine(bothOrNeither);
+export const siteCreateSchema = siteObject.omit({ version: true }).partial({ address: true, active: true }).strict().superRefine(bothOrNeither);
 export type SiteCreate = z.infer<typeof siteCreateSchema>;
 
 /** An edit names the fields it changes; the owner does not change. Both-or-neither coordinates is checked on the merged row. */
@@ -110,16 +110,25 @@ export type SitePatch = z.infer<typeof sitePatchSchema>;
 // ---------------------------------------------------------------- bin types
 
 const wholeMm = (what: string, max = 5000) =>
-  z.number({ invalid_type_error: `The ${what} is a number of millimetres.` }).int('Whole millimetres.').min(1, 'Above 0.').max(max, `At most ${max} mm.`);
+  z
+    .number({ invalid_type_error: `The ${what} is a number of millimetres.` })
+    .int('Whole millimetres.')
+    .min(1, 'Above 0.')
+    .max(max, `At most ${max} mm.`);
 const kg = (what: string) =>
-  z.number({ invalid_type_error: `The ${what} is a number of kilograms.` }).positive('Above 0.').max(99_999, 'At most 99,999 kg.')
+  z
+    .number({ invalid_type_error: `The ${what} is a number of kilograms.` })
+    .positive('Above 0.')
+    .max(99_999, 'At most 99,999 kg.')
     .refine((v) => Math.round(v * 10) === v * 10, 'At most one decimal, e.g. 86.5.');
 
 const binTypeObject = z.object({
   version,
   code: code('bin type'),
   name: text().trim().min(1, 'Enter a name, e.g. Folding IBC 1000 L.').max(120, 'At most 120 characters.'),
-  graiAssetType: text().trim().regex(/^\d{1,6}$/, 'The GRAI asset type is 1 to 6 digits.'),
+  graiAssetType: text()
+    .trim()
+    .regex(/^\d{1,6}$/, 'The GRAI asset type is 1 to 6 digits.'),
   nominalCapacityL: z.number({ invalid_type_error: 'The capacity is a number of litres.' }).int('Whole litres.').min(1, 'Above 0.').max(3000, 'IBCs hold at most 3,000 L.'),
   tareKg: kg('tare mass'),
   maxGrossKg: kg('maximum gross mass'),
@@ -156,10 +165,11 @@ export function binTypeProblems(b: Omit<BinTypeFields, 'version' | 'active' | 'c
   const problems: { path: string; message: string }[] = [];
   if (b.maxGrossKg <= b.tareKg) problems.push({ path: 'maxGrossKg', message: 'The maximum gross mass is above the tare (the empty bin).' });
   if (b.heightFoldedMm >= b.heightErectedMm) problems.push({ path: 'heightFoldedMm', message: 'Folded, the bin is lower than erected.' });
-  if (b.policyKind === 'un' && !b.unCode) problems.push({ path: 'unCode', message: 'The UN inspection policy is for UN-marked bins: enter the UN code, or choose the operator’s own policy.' });
+  if (b.policyKind === 'un' && !b.unCode)
+    problems.push({ path: 'unCode', message: 'The UN inspection policy is for UN-marked bins: enter the UN code, or choose the operator’s own policy.' });
   const policy = { ...DEFAULT_UN_POLICY, kind: b.policyKind, intermediateMonths: b.intermediateMonths, fullMonths: b.fullMonths };
   for (const p of policyProblems(policy)) {
-    problems.push({ path: /full/.test(p) && !/intermediate/.test(p) ? 'fullMonths' : 'intermediateMonths', message: p[0]!.toUpperCase() + p.slice(1) + '.' });
+    problems.push({ path: /full/.test(p) && !/intermediate/.test(p) ? 'fullMonths' : 'intermediateMonths', message: `${p[0]!.toUpperCase() + p.slice(1)}.` });
   }
   return problems;
 }

@@ -25,7 +25,11 @@ export interface SiteRow {
   bins: number;
 }
 
-export interface SiteOwnerChoice { id: number; name: string; kind: 'operator' | 'customer' }
+export interface SiteOwnerChoice {
+  id: number;
+  name: string;
+  kind: 'operator' | 'customer';
+}
 
 const SITE_SQL = `
   SELECT s.id, s.code, s.name, s.kind, s.organisation_id AS "organisationId", o.name AS "organisationName", s.address,
@@ -34,10 +38,9 @@ const SITE_SQL = `
     FROM sites s JOIN organisations o ON o.id = s.organisation_id`;
 
 export async function listSites(): Promise<SiteRow[]> {
-  return sequelize.query<SiteRow>(
-    `${SITE_SQL} ORDER BY s.active DESC, array_position(ARRAY['depot','repair','recycling','customer']::varchar[], s.kind), lower(s.name), s.id`,
-    { type: QueryTypes.SELECT },
-  );
+  return sequelize.query<SiteRow>(`${SITE_SQL} ORDER BY s.active DESC, array_position(ARRAY['depot','repair','recycling','customer']::varchar[], s.kind), lower(s.name), s.id`, {
+    type: QueryTypes.SELECT,
+  });
 }
 
 export async function siteById(id: number): Promise<SiteRow> {
@@ -48,7 +51,13 @@ export async function siteById(id: number): Promise<SiteRow> {
 
 /** Who may own a site: the operator and the active customers. */
 export async function siteOwners(): Promise<SiteOwnerChoice[]> {
-  const orgs = await Organisation.findAll({ attributes: ['id', 'name', 'kind', 'active'], order: [['kind', 'DESC'], ['name', 'ASC']] });
+  const orgs = await Organisation.findAll({
+    attributes: ['id', 'name', 'kind', 'active'],
+    order: [
+      ['kind', 'DESC'],
+      ['name', 'ASC'],
+    ],
+  });
   return orgs.filter((o) => o.active || o.kind === 'operator').map((o) => ({ id: o.id, name: o.name, kind: o.kind }));
 }
 
@@ -57,9 +66,7 @@ async function checkOwner(organisationId: number, kind: SiteKindName, transactio
   if (!org) throw new AppError('validation_failed', 'Some fields are not valid.', [{ path: 'organisationId', message: 'That organisation does not exist.' }]);
   const wanted = siteOwnerKind(kind);
   if (org.kind !== wanted) {
-    const message = wanted === 'operator'
-      ? `A ${SITE_KIND_LABELS[kind].toLowerCase()} belongs to the operator.`
-      : 'A customer site belongs to a customer.';
+    const message = wanted === 'operator' ? `A ${SITE_KIND_LABELS[kind].toLowerCase()} belongs to the operator.` : 'A customer site belongs to a customer.';
     throw new AppError('validation_failed', message, [{ path: kind === 'customer' ? 'organisationId' : 'kind', message }]);
   }
 }
@@ -73,8 +80,13 @@ async function codeTaken(code: string, exceptId: number | null, transaction?: im
 
 function snapshot(s: Site) {
   return {
-    code: s.code, name: s.name, kind: s.kind, address: s.address,
-    latitude: s.latitude === null ? null : Number(s.latitude), longitude: s.longitude === null ? null : Number(s.longitude), active: s.active,
+    code: s.code,
+    name: s.name,
+    kind: s.kind,
+    address: s.address,
+    latitude: s.latitude === null ? null : Number(s.latitude),
+    longitude: s.longitude === null ? null : Number(s.longitude),
+    active: s.active,
   };
 }
 
@@ -84,8 +96,13 @@ export async function createSite(input: SiteCreate, actor: AuditActor): Promise<
     await codeTaken(input.code, null, transaction);
     const site = await Site.create(
       {
-        organisationId: input.organisationId, code: input.code, name: input.name, kind: input.kind, address: input.address ?? null,
-        latitude: input.latitude === null ? null : String(input.latitude), longitude: input.longitude === null ? null : String(input.longitude),
+        organisationId: input.organisationId,
+        code: input.code,
+        name: input.name,
+        kind: input.kind,
+        address: input.address ?? null,
+        latitude: input.latitude === null ? null : String(input.latitude),
+        longitude: input.longitude === null ? null : String(input.longitude),
         active: input.active ?? true,
       },
       { transaction },
@@ -97,7 +114,11 @@ export async function createSite(input: SiteCreate, actor: AuditActor): Promise<
 
 export async function updateSite(id: number, patch: SitePatch, actor: AuditActor): Promise<SiteRow> {
   await editVersioned({
-    model: Site, id, version: patch.version, entityType: 'site', actor,
+    model: Site,
+    id,
+    version: patch.version,
+    entityType: 'site',
+    actor,
     notFound: 'There is no such site.',
     describe: (s) => `the site ${s.code}`,
     snapshot,
@@ -105,9 +126,15 @@ export async function updateSite(id: number, patch: SitePatch, actor: AuditActor
       if (patch.kind !== undefined && patch.kind !== s.kind) await checkOwner(s.organisationId, patch.kind, transaction);
       if (patch.code !== undefined && patch.code !== s.code) await codeTaken(patch.code, s.id, transaction);
       if (patch.active === false && s.active) {
-        const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE site_id = $1', { bind: [s.id], type: QueryTypes.SELECT, transaction }) as [{ n: number }];
+        const [{ n }] = (await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE site_id = $1', {
+          bind: [s.id],
+          type: QueryTypes.SELECT,
+          transaction,
+        })) as [{ n: number }];
         if (n > 0) {
-          throw new AppError('unprocessable', `${n} ${n === 1 ? 'bin stands' : 'bins stand'} at ${s.code}. Move ${n === 1 ? 'it' : 'them'} elsewhere before closing the site.`, [{ path: 'active', message: 'Bins still stand here.' }]);
+          throw new AppError('unprocessable', `${n} ${n === 1 ? 'bin stands' : 'bins stand'} at ${s.code}. Move ${n === 1 ? 'it' : 'them'} elsewhere before closing the site.`, [
+            { path: 'active', message: 'Bins still stand here.' },
+          ]);
         }
       }
       if (patch.code !== undefined) s.code = patch.code;

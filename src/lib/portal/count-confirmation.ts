@@ -58,7 +58,12 @@ export function compareCount(expected: readonly string[], confirmed: readonly st
 export const RESOLUTIONS = ['found', 'moved', 'lost'] as const;
 export type Resolution = (typeof RESOLUTIONS)[number];
 
-export interface DisputeLine { grai: string; kind: 'missing' | 'unexpected'; resolution: Resolution | null; movedTo?: string | null }
+export interface DisputeLine {
+  grai: string;
+  kind: 'missing' | 'unexpected';
+  resolution: Resolution | null;
+  movedTo?: string | null;
+}
 
 export type ResolutionCheck = { ok: true } | { ok: false; reason: string };
 

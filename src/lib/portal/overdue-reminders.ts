@@ -9,7 +9,14 @@
 export const REMINDER_INTERVAL_DAYS = 7;
 const DAY_MS = 86_400_000;
 
-export interface ReminderBin { grai: string; serial: string; organisationId: number; siteId: number | null; siteName: string | null; daysOver: number }
+export interface ReminderBin {
+  grai: string;
+  serial: string;
+  organisationId: number;
+  siteId: number | null;
+  siteName: string | null;
+  daysOver: number;
+}
 
 export interface ReminderContact {
   userId: number;
@@ -24,7 +31,10 @@ export interface ReminderContact {
   lastRemindedAt: Date | null;
 }
 
-export interface Reminder { contact: ReminderContact; bins: ReminderBin[] }
+export interface Reminder {
+  contact: ReminderContact;
+  bins: ReminderBin[];
+}
 
 /** True when the contact had a reminder less than a week ago. */
 export function remindedThisWeek(lastRemindedAt: Date | null, now: Date): boolean {

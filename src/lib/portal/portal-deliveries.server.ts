@@ -11,8 +11,15 @@ import type { DeliveryInput } from './portal-forms';
 import type { PortalScope } from './portal-scope.server';
 
 export interface PortalDeliveryRow {
-  reference: string; status: 'dispatched' | 'delivered'; site: string; orderReference: string; bins: number;
-  dispatchedAt: string | null; deliveredAt: string | null; receivedByName: string | null; carrier: string | null;
+  reference: string;
+  status: 'dispatched' | 'delivered';
+  site: string;
+  orderReference: string;
+  bins: number;
+  dispatchedAt: string | null;
+  deliveredAt: string | null;
+  receivedByName: string | null;
+  carrier: string | null;
 }
 
 const SCOPED = `FROM loads l JOIN hire_orders ho ON ho.id = l.hire_order_id JOIN sites s ON s.id = l.destination_site_id
@@ -34,10 +41,13 @@ export async function portalDeliveries(scope: PortalScope): Promise<PortalDelive
 }
 
 export async function confirmFromPortal(
-  scope: PortalScope, input: DeliveryInput, photo: { bytes: Uint8Array; filename: string | null } | null,
+  scope: PortalScope,
+  input: DeliveryInput,
+  photo: { bytes: Uint8Array; filename: string | null } | null,
 ): Promise<{ reference: string; delivered: number; already: boolean }> {
   const [row] = await sequelize.query<{ id: number }>(`SELECT l.id ${SCOPED} AND l.reference = $3`, {
-    bind: [scope.organisationId, scope.siteIds, input.reference], type: QueryTypes.SELECT,
+    bind: [scope.organisationId, scope.siteIds, input.reference],
+    type: QueryTypes.SELECT,
   });
   const load = row ? await Load.findByPk(row.id) : null;
   if (!load) throw new AppError('not_found', 'There is no such delivery to your sites.');

@@ -9,12 +9,24 @@ import { multilineText, text } from '@/lib/text-input';
 export const PORTAL_HORIZON_DAYS = 120;
 
 const id = (what: string) =>
-  z.coerce.number({ invalid_type_error: `Choose ${what}.` }).int(`Choose ${what}.`).positive(`Choose ${what}.`).max(2_147_483_647, `Choose ${what}.`);
+  z.coerce
+    .number({ invalid_type_error: `Choose ${what}.` })
+    .int(`Choose ${what}.`)
+    .positive(`Choose ${what}.`)
+    .max(2_147_483_647, `Choose ${what}.`);
 
 const optionalLine = (max: number, message: string) =>
-  text().trim().max(max, message).optional().transform((v) => (v ? v : null));
+  text()
+    .trim()
+    .max(max, message)
+    .optional()
+    .transform((v) => (v ? v : null));
 const optionalNote = (max: number, message: string) =>
-  multilineText().trim().max(max, message).optional().transform((v) => (v ? v : null));
+  multilineText()
+    .trim()
+    .max(max, message)
+    .optional()
+    .transform((v) => (v ? v : null));
 
 /** A day from today up to the horizon, as a form's date field sends it. */
 function dayFrom(today: LocalDate, words: { missing: string; past: string }) {
@@ -47,7 +59,10 @@ export function portalOrderFields(today: LocalDate) {
       deliverySiteId: id('the site that fills them'),
       product: optionalLine(120, 'Keep the product under 120 characters.'),
       /** The liner grade: food contact, and the hottest fill the liner must stand. */
-      linerFoodContact: z.literal('yes').optional().transform((v) => v === 'yes'),
+      linerFoodContact: z
+        .literal('yes')
+        .optional()
+        .transform((v) => v === 'yes'),
       linerMaxFillTempC: text()
         .trim()
         .optional()
@@ -111,7 +126,10 @@ export const inviteColleagueFields = z
     name: text({ required_error: 'Give their name.' }).trim().min(2, 'Give their name.').max(160, 'Keep the name under 160 characters.'),
     email: text({ required_error: 'Give their e-mail address.' }).trim().toLowerCase().email('Give an e-mail address, like name@company.example.').max(254),
     siteIds: siteIdList,
-    admin: z.literal('yes').optional().transform((v) => v === 'yes'),
+    admin: z
+      .literal('yes')
+      .optional()
+      .transform((v) => v === 'yes'),
   })
   .strict();
 export type InviteColleagueInput = z.output<typeof inviteColleagueFields>;

@@ -10,19 +10,53 @@ import type { Status } from '@/lib/scans/lifecycle';
 import { getSettings } from '@/lib/settings/settings.server';
 import { SCOPE_SITE_SQL, scopeSites, type PortalScope } from './portal-scope.server';
 
-export interface PortalBin { grai: string; serial: string; status: Status; filled: boolean; product: string | null; since: string; daysOnHire: number; freeDaysLeft: number; overdue: boolean; testLapsed: boolean }
+export interface PortalBin {
+  grai: string;
+  serial: string;
+  status: Status;
+  filled: boolean;
+  product: string | null;
+  since: string;
+  daysOnHire: number;
+  freeDaysLeft: number;
+  overdue: boolean;
+  testLapsed: boolean;
+}
 /** A bin on the road: to one of the customer's sites (outbound) or back from them to the depot (return). */
-export interface RoadBin extends PortalBin { leg: 'outbound' | 'return' | 'transfer' | null; toSite: string | null }
-export interface PortalSite { id: number; name: string; address: string | null; bins: PortalBin[]; counts: Partial<Record<Status, number>> }
+export interface RoadBin extends PortalBin {
+  leg: 'outbound' | 'return' | 'transfer' | null;
+  toSite: string | null;
+}
+export interface PortalSite {
+  id: number;
+  name: string;
+  address: string | null;
+  bins: PortalBin[];
+  counts: Partial<Record<Status, number>>;
+}
 
 export async function loadPortalHome(scope: PortalScope) {
   const organisationId = scope.organisationId;
   const settings = await getSettings();
   const today = localDate(new Date(), settings.timeZone);
-  const [org] = await sequelize.query<{ name: string; free_days: number }>('SELECT name, free_days FROM organisations WHERE id = $1', { bind: [organisationId], type: QueryTypes.SELECT });
+  const [org] = await sequelize.query<{ name: string; free_days: number }>('SELECT name, free_days FROM organisations WHERE id = $1', {
+    bind: [organisationId],
+    type: QueryTypes.SELECT,
+  });
   const sites = await scopeSites(scope);
   // A bin counts at the site it stands at; one on the road, at the site its trip serves.
-  const bins = await sequelize.query<{ site_id: number | null; grai: string; serial: string; status: Status; filled: boolean; product: string | null; start_day: string; leg: RoadBin['leg']; to_site: string | null; next_due: string | null }>(
+  const bins = await sequelize.query<{
+    site_id: number | null;
+    grai: string;
+    serial: string;
+    status: Status;
+    filled: boolean;
+    product: string | null;
+    start_day: string;
+    leg: RoadBin['leg'];
+    to_site: string | null;
+    next_due: string | null;
+  }>(
     `SELECT a.site_id, a.grai, a.serial, a.status, a.filled, t.fill_product AS product, a.leg, cs.name AS to_site, a.next_due::text,
             to_char((COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS start_day
        FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN sites cs ON cs.id = t.customer_site_id LEFT JOIN sites s ON s.id = a.site_id
@@ -40,7 +74,16 @@ export async function loadPortalHome(scope: PortalScope) {
     const daysOnHire = check.daysWithCustomer ?? Math.max(0, daysBetween(b.start_day, today));
     const days = { daysOnHire, freeDaysLeft: freeDays - daysOnHire, overdue: check.overdue };
     const list = bySite.get(b.site_id) ?? [];
-    const bin = { grai: b.grai, serial: b.serial, status: b.status, filled: b.filled, product: b.product, since: b.start_day, ...days, testLapsed: isInspectionLapsed(b.next_due, today) };
+    const bin = {
+      grai: b.grai,
+      serial: b.serial,
+      status: b.status,
+      filled: b.filled,
+      product: b.product,
+      since: b.start_day,
+      ...days,
+      testLapsed: isInspectionLapsed(b.next_due, today),
+    };
     if (b.status === 'in_transit') road.push({ ...bin, leg: b.leg, toSite: b.to_site });
     else list.push(bin);
     bySite.set(b.site_id, list);
@@ -55,6 +98,11 @@ export async function loadPortalHome(scope: PortalScope) {
     today,
     sites: perSite,
     onTheRoad,
-    totals: { onHire: bins.filter((b) => b.status === 'on_hire').length, awaiting: bins.filter((b) => b.status === 'awaiting_collection').length, overdue: [...bySite.values()].flat().filter((b) => b.overdue).length, onTheWay: road.filter((b) => b.leg === 'outbound').length },
+    totals: {
+      onHire: bins.filter((b) => b.status === 'on_hire').length,
+      awaiting: bins.filter((b) => b.status === 'awaiting_collection').length,
+      overdue: [...bySite.values()].flat().filter((b) => b.overdue).length,
+      onTheWay: road.filter((b) => b.leg === 'outbound').length,
+    },
   };
 }

@@ -10,8 +10,18 @@ import type { PortalOrderInput } from './portal-forms';
 import { ownSite, scopeSites, type PortalScope } from './portal-scope.server';
 
 export interface PortalOrderRow {
-  id: number; reference: string; status: OrderStatus; quantity: number; neededBy: string; createdAt: string;
-  binType: string; site: string; product: string | null; loaded: number; dispatched: number; delivered: number;
+  id: number;
+  reference: string;
+  status: OrderStatus;
+  quantity: number;
+  neededBy: string;
+  createdAt: string;
+  binType: string;
+  site: string;
+  product: string | null;
+  loaded: number;
+  dispatched: number;
+  delivered: number;
 }
 
 export async function listPortalOrders(scope: PortalScope): Promise<PortalOrderRow[]> {
@@ -37,8 +47,9 @@ export async function listPortalOrders(scope: PortalScope): Promise<PortalOrderR
 export async function portalOrderChoices(scope: PortalScope) {
   const [sites, binTypes] = await Promise.all([
     scopeSites(scope),
-    sequelize.query<{ id: number; name: string; nominalCapacityL: number }>(
-      `SELECT id, name, nominal_capacity_l AS "nominalCapacityL" FROM bin_types WHERE active ORDER BY name`, { type: QueryTypes.SELECT }),
+    sequelize.query<{ id: number; name: string; nominalCapacityL: number }>(`SELECT id, name, nominal_capacity_l AS "nominalCapacityL" FROM bin_types WHERE active ORDER BY name`, {
+      type: QueryTypes.SELECT,
+    }),
   ]);
   return { sites, binTypes };
 }

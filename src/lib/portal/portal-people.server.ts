@@ -14,7 +14,16 @@ export function requirePortalAdmin(user: Pick<SessionUser, 'role' | 'portalAdmin
   if (user.role !== 'customer' || !user.portalAdmin) throw new AppError('forbidden', "Only your organisation's portal admin manages its people.");
 }
 
-export interface Colleague { id: number; name: string; email: string; active: boolean; admin: boolean; invited: boolean; siteIds: number[]; version: number }
+export interface Colleague {
+  id: number;
+  name: string;
+  email: string;
+  active: boolean;
+  admin: boolean;
+  invited: boolean;
+  siteIds: number[];
+  version: number;
+}
 
 export async function listColleagues(admin: Pick<SessionUser, 'role' | 'portalAdmin' | 'organisationId'>): Promise<Colleague[]> {
   requirePortalAdmin(admin);
@@ -28,10 +37,10 @@ export async function listColleagues(admin: Pick<SessionUser, 'role' | 'portalAd
 
 async function checkSites(organisationId: number, siteIds: number[]): Promise<void> {
   if (siteIds.length === 0) return;
-  const [row] = await sequelize.query<{ n: number }>(
-    `SELECT count(*)::int AS n FROM sites WHERE id = ANY($1::int[]) AND organisation_id = $2 AND kind = 'customer'`,
-    { bind: [siteIds, organisationId], type: QueryTypes.SELECT },
-  );
+  const [row] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM sites WHERE id = ANY($1::int[]) AND organisation_id = $2 AND kind = 'customer'`, {
+    bind: [siteIds, organisationId],
+    type: QueryTypes.SELECT,
+  });
   if (row!.n !== siteIds.length) throw new AppError('not_found', 'There is no such site of yours.', [{ path: 'siteIds', message: 'Choose sites from the list.' }]);
 }
 
@@ -42,9 +51,7 @@ async function writeSites(userId: number, siteIds: number[], transaction: import
   }
 }
 
-export async function inviteColleague(
-  admin: Pick<SessionUser, 'role' | 'portalAdmin' | 'organisationId'>, input: InviteColleagueInput, inviter: Inviter,
-): Promise<{ id: number }> {
+export async function inviteColleague(admin: Pick<SessionUser, 'role' | 'portalAdmin' | 'organisationId'>, input: InviteColleagueInput, inviter: Inviter): Promise<{ id: number }> {
   requirePortalAdmin(admin);
   await checkSites(admin.organisationId, input.siteIds);
   const { person } = await invitePerson(
@@ -54,23 +61,31 @@ export async function inviteColleague(
   await sequelize.transaction(async (transaction) => {
     await writeSites(person.id, input.siteIds, transaction);
     if (input.admin) await User.update({ portalAdmin: true }, { where: { id: person.id }, transaction });
-    await recordAudit({ actor: inviter, action: 'user.sites', entityType: 'user', entityId: person.id, after: { siteIds: input.siteIds, portalAdmin: input.admin } }, { transaction });
+    await recordAudit(
+      { actor: inviter, action: 'user.sites', entityType: 'user', entityId: person.id, after: { siteIds: input.siteIds, portalAdmin: input.admin } },
+      { transaction },
+    );
   });
   return { id: person.id };
 }
 
 /** Limits a colleague to these sites (none = every site). A customer admin does not limit themselves. */
-export async function setColleagueSites(
-  admin: Pick<SessionUser, 'id' | 'role' | 'portalAdmin' | 'organisationId'>, input: ColleagueSitesInput, actor: AuditActor,
-): Promise<void> {
+export async function setColleagueSites(admin: Pick<SessionUser, 'id' | 'role' | 'portalAdmin' | 'organisationId'>, input: ColleagueSitesInput, actor: AuditActor): Promise<void> {
   requirePortalAdmin(admin);
   if (input.userId === admin.id) throw new AppError('unprocessable', 'You cannot limit your own account; ask another admin of your organisation.');
   const person = await User.findOne({ where: { id: input.userId, organisationId: admin.organisationId, role: 'customer' } });
   if (!person) throw new AppError('not_found', 'There is no such person in your organisation.');
   await checkSites(admin.organisationId, input.siteIds);
   await sequelize.transaction(async (transaction) => {
-    const [before] = await sequelize.query<{ ids: number[] | null }>('SELECT array_agg(site_id ORDER BY site_id) AS ids FROM user_sites WHERE user_id = $1', { bind: [person.id], type: QueryTypes.SELECT, transaction });
+    const [before] = await sequelize.query<{ ids: number[] | null }>('SELECT array_agg(site_id ORDER BY site_id) AS ids FROM user_sites WHERE user_id = $1', {
+      bind: [person.id],
+      type: QueryTypes.SELECT,
+      transaction,
+    });
     await writeSites(person.id, input.siteIds, transaction);
-    await recordAudit({ actor, action: 'user.sites', entityType: 'user', entityId: person.id, before: { siteIds: before?.ids ?? [] }, after: { siteIds: input.siteIds } }, { transaction });
+    await recordAudit(
+      { actor, action: 'user.sites', entityType: 'user', entityId: person.id, before: { siteIds: before?.ids ?? [] }, after: { siteIds: input.siteIds } },
+      { transaction },
+    );
   });
 }

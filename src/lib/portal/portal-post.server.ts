@@ -6,9 +6,7 @@ import { AppError, ERROR_STATUS } from '@/lib/api-errors';
 import { readForm } from '@/lib/attachments.server';
 import { fieldProblems, MULTI_FIELDS, pickTextFields } from './portal-forms';
 
-export type PortalPost =
-  | { ok: true; redirect: string }
-  | { ok: false; status: number; message: string; problems: Record<string, string>; values: Record<string, string> };
+export type PortalPost = { ok: true; redirect: string } | { ok: false; status: number; message: string; problems: Record<string, string>; values: Record<string, string> };
 
 export async function portalPost<T>(
   request: Request,

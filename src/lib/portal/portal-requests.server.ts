@@ -13,8 +13,15 @@ import type { CollectionInput, DamageInput } from './portal-forms';
 import { ownSite, SCOPE_SITE_SQL, type PortalScope } from './portal-scope.server';
 
 export interface PortalCollectionRow {
-  id: number; source: 'public' | 'portal' | 'planner'; status: 'open' | 'scheduled' | 'done' | 'cancelled'; quantity: number;
-  site: string | null; readyOn: string | null; plannedFor: string | null; createdAt: string; binSerial: string | null;
+  id: number;
+  source: 'public' | 'portal' | 'planner';
+  status: 'open' | 'scheduled' | 'done' | 'cancelled';
+  quantity: number;
+  site: string | null;
+  readyOn: string | null;
+  plannedFor: string | null;
+  createdAt: string;
+  binSerial: string | null;
 }
 
 const inScope = (column: string, n: number) => `($${n}::int[] IS NULL OR ${column} = ANY($${n}::int[]))`;
@@ -34,20 +41,42 @@ export async function listPortalCollections(scope: PortalScope): Promise<PortalC
 export async function requestCollection(scope: PortalScope, input: CollectionInput, ip: string | null): Promise<{ id: number; delivery: Promise<unknown> }> {
   const site = await ownSite(scope, input.siteId);
   const created = await createCollectionRequest({
-    source: 'portal', assetId: null, siteId: site.id, customerId: scope.organisationId, quantity: input.quantity, readyOn: input.readyOn,
-    locationNote: null, contactName: scope.name, contactPhone: null, contactEmail: scope.email, note: input.note,
-    requestedBy: scope.userId, requesterIp: ip,
+    source: 'portal',
+    assetId: null,
+    siteId: site.id,
+    customerId: scope.organisationId,
+    quantity: input.quantity,
+    readyOn: input.readyOn,
+    locationNote: null,
+    contactName: scope.name,
+    contactPhone: null,
+    contactEmail: scope.email,
+    note: input.note,
+    requestedBy: scope.userId,
+    requesterIp: ip,
   });
   const settings = await getSettings();
   const content = collectionConfirmationMail({
-    recipientName: scope.name, operatorName: settings.operatorName, siteName: site.name, quantity: input.quantity, readyOn: input.readyOn,
+    recipientName: scope.name,
+    operatorName: settings.operatorName,
+    siteName: site.name,
+    quantity: input.quantity,
+    readyOn: input.readyOn,
     link: `${appUrl()}/portal/collections`,
   });
   const confirmation = sendMail({ to: scope.email, ...content, kind: 'collection_confirmation' });
   return { id: created.id, delivery: Promise.all([created.delivery, confirmation]) };
 }
 
-export interface PortalDamageRow { id: number; status: 'open' | 'triaged' | 'closed'; description: string; binSerial: string | null; createdAt: string; photoId: number | null; source: string }
+export interface PortalDamageRow {
+  id: number;
+  status: 'open' | 'triaged' | 'closed';
+  description: string;
+  binSerial: string | null;
+  createdAt: string;
+  photoId: number | null;
+  source: string;
+}
 
 export async function listPortalDamage(scope: PortalScope): Promise<PortalDamageRow[]> {
   return sequelize.query<PortalDamageRow>(
@@ -73,14 +102,23 @@ export async function damageableBins(scope: PortalScope): Promise<Array<{ grai: 
 }
 
 export async function reportPortalDamage(
-  scope: PortalScope, input: DamageInput, photo: { bytes: Uint8Array; filename: string | null } | null, ip: string | null,
+  scope: PortalScope,
+  input: DamageInput,
+  photo: { bytes: Uint8Array; filename: string | null } | null,
+  ip: string | null,
 ): Promise<{ id: number; delivery: Promise<unknown> }> {
   const bin = (await damageableBins(scope)).find((b) => b.grai === input.grai);
   if (!bin) throw new AppError('not_found', 'That bin is not on hire to you; choose one from the list.');
   const [row] = await sequelize.query<{ id: number }>('SELECT id FROM assets WHERE grai = $1', { bind: [bin.grai], type: QueryTypes.SELECT });
   const created = await createDamageReport({
-    source: 'portal', assetId: row!.id, description: input.description, photo, contactName: scope.name, contactEmail: scope.email,
-    reportedBy: scope.userId, requesterIp: ip,
+    source: 'portal',
+    assetId: row!.id,
+    description: input.description,
+    photo,
+    contactName: scope.name,
+    contactEmail: scope.email,
+    reportedBy: scope.userId,
+    requesterIp: ip,
   });
   return { id: created.id, delivery: created.delivery };
 }

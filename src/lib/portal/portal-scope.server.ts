@@ -20,7 +20,6 @@ export async function portalScope(user: Pick<SessionUser, 'id' | 'name' | 'email
   return { userId: user.id, name: user.name, email: user.email, organisationId: user.organisationId, siteIds: user.siteIds ?? null };
 }
 
-
 /** The scope's sites: active sites of the organisation, limited to the user's own when limited. */
 export async function scopeSites(scope: PortalScope): Promise<Array<{ id: number; name: string; code: string; address: string | null }>> {
   return sequelize.query(

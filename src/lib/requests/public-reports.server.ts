@@ -9,9 +9,7 @@ import type { ZodError } from 'zod';
 import { parseGrai } from '@/lib/gs1';
 import type { ErrorCode } from '@/lib/api-errors';
 import { AppError } from '@/lib/api-errors';
-import {
-  collectionRequestFields, damageReportFields, fieldProblems, isHoneypotFilled, textFields, type ReportForm,
-} from './report-forms';
+import { collectionRequestFields, damageReportFields, fieldProblems, isHoneypotFilled, textFields, type ReportForm } from './report-forms';
 import { Asset } from '@/models';
 import { checkUpload, formFile, readForm } from '@/lib/attachments.server';
 import { hit, publicBinFormLimit, publicFormLimit, secondsBlocked } from '@/lib/rate-limits.server';
@@ -100,8 +98,12 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
   }
 
   const invalid = (error: ZodError): IntakeResult => ({
-    ok: false, form: kind, code: 'validation_failed', message: 'Some answers need another look: see the notes beside them. Nothing was sent yet.',
-    fields: fieldProblems(error), values,
+    ok: false,
+    form: kind,
+    code: 'validation_failed',
+    message: 'Some answers need another look: see the notes beside them. Nothing was sent yet.',
+    fields: fieldProblems(error),
+    values,
   });
   const common = { source: 'public' as const, assetId: args.bin.id, requesterIp: args.clientAddress };
   let store: () => Promise<Created>;

@@ -33,7 +33,7 @@ const optionalText = (max: number, tooLong: string, multiline = false) =>
  * could call back (common practice; short internal extensions are not enough).
  */
 export function phoneProblem(phone: string): string | null {
-  if (!/^\+?[0-9 ().\/-]+$/.test(phone)) return 'Use digits, spaces and + ( ) - only for the phone number.';
+  if (!/^\+?[0-9 ()./-]+$/.test(phone)) return 'Use digits, spaces and + ( ) - only for the phone number.';
   const digits = phone.replace(/\D/g, '').length;
   if (digits < 6) return 'That phone number is too short.';
   if (digits > 15) return 'That phone number has too many digits (at most 15).';
@@ -56,13 +56,7 @@ export const collectionRequestFields = z
       .min(1, 'Say how many folded bins are waiting.')
       .regex(/^\d+$/, 'Give the number of bins as a whole number, e.g. 6.')
       .transform(Number)
-      .pipe(
-        z
-          .number()
-          .int()
-          .min(1, 'At least one bin must be waiting.')
-          .max(MAX_BINS_PER_REQUEST, `At most ${MAX_BINS_PER_REQUEST} bins per request; send another for the rest.`),
-      ),
+      .pipe(z.number().int().min(1, 'At least one bin must be waiting.').max(MAX_BINS_PER_REQUEST, `At most ${MAX_BINS_PER_REQUEST} bins per request; send another for the rest.`)),
     locationNote: optionalText(MAX_LOCATION_CHARS, `Keep "where exactly" under ${MAX_LOCATION_CHARS} characters.`, true),
     contactName: text({ required_error: 'Give your name, so the haulier knows whom to ask for.' })
       .trim()

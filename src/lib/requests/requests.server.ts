@@ -61,8 +61,16 @@ export async function createCollectionRequest(input: CollectionRequestInput): Pr
     const where = await place(input, transaction);
     return CollectionRequest.create(
       {
-        source: input.source, ...where, quantity: input.quantity, locationNote: input.locationNote, contactName: input.contactName,
-        contactPhone: input.contactPhone, contactEmail: input.contactEmail, note: input.note, requestedBy: input.requestedBy, readyOn: input.readyOn ?? null,
+        source: input.source,
+        ...where,
+        quantity: input.quantity,
+        locationNote: input.locationNote,
+        contactName: input.contactName,
+        contactPhone: input.contactPhone,
+        contactEmail: input.contactEmail,
+        note: input.note,
+        requestedBy: input.requestedBy,
+        readyOn: input.readyOn ?? null,
         requesterIp: input.requesterIp?.slice(0, 64) ?? null,
       },
       { transaction },
@@ -78,15 +86,18 @@ export async function createDamageReport(input: DamageReportInput): Promise<Crea
     // A photo from the public page is for the operator's staff only; one sent
     // through the portal belongs to the customer who sent it too.
     const photo = input.photo
-      ? await storeAttachment(
-          { ...input.photo, purpose: 'photo', organisationId: input.source === 'portal' ? where.customerId : null, uploadedBy: input.reportedBy },
-          transaction,
-        )
+      ? await storeAttachment({ ...input.photo, purpose: 'photo', organisationId: input.source === 'portal' ? where.customerId : null, uploadedBy: input.reportedBy }, transaction)
       : null;
     return DamageReport.create(
       {
-        source: input.source, ...where, description: input.description, photoId: photo?.id ?? null, contactName: input.contactName,
-        contactEmail: input.contactEmail, reportedBy: input.reportedBy, requesterIp: input.requesterIp?.slice(0, 64) ?? null,
+        source: input.source,
+        ...where,
+        description: input.description,
+        photoId: photo?.id ?? null,
+        contactName: input.contactName,
+        contactEmail: input.contactEmail,
+        reportedBy: input.reportedBy,
+        requesterIp: input.requesterIp?.slice(0, 64) ?? null,
       },
       { transaction },
     );
@@ -112,22 +123,39 @@ async function mailFor(kind: RequestKind, id: number): Promise<{ kind: MailKind;
   if (!row) throw new Error(`${kind} request ${id} vanished before its mail was written`);
   const bin: RequestMailBin | null = row.bin ? { serial: row.bin.serial, grai: groupGrai(row.bin.grai, settings.gs1PrefixLength) } : null;
   const common = {
-    operatorName: settings.operatorName, bin, siteName: row.site?.name ?? null, customerName: row.customer?.name ?? null,
-    receivedAt: new Date(row.createdAt), timeZone: settings.timeZone, link: `${appUrl()}/requests`,
+    operatorName: settings.operatorName,
+    bin,
+    siteName: row.site?.name ?? null,
+    customerName: row.customer?.name ?? null,
+    receivedAt: new Date(row.createdAt),
+    timeZone: settings.timeZone,
+    link: `${appUrl()}/requests`,
   };
   if (row.kind === 'collection') {
     return {
       kind: 'collection_request',
       content: collectionRequestMail({
-        ...common, source: row.source, quantity: row.quantity, locationNote: row.locationNote, contactName: row.contactName,
-        contactPhone: row.contactPhone, contactEmail: row.contactEmail, note: row.note, readyOn: row.readyOn,
+        ...common,
+        source: row.source,
+        quantity: row.quantity,
+        locationNote: row.locationNote,
+        contactName: row.contactName,
+        contactPhone: row.contactPhone,
+        contactEmail: row.contactEmail,
+        note: row.note,
+        readyOn: row.readyOn,
       }),
     };
   }
   return {
     kind: 'damage_report',
     content: damageReportMail({
-      ...common, source: row.source, description: row.description, hasPhoto: row.photoId !== null, contactName: row.contactName, contactEmail: row.contactEmail,
+      ...common,
+      source: row.source,
+      description: row.description,
+      hasPhoto: row.photoId !== null,
+      contactName: row.contactName,
+      contactEmail: row.contactEmail,
     }),
   };
 }
@@ -204,8 +232,15 @@ interface ListOptions {
 }
 
 type RawRow = Record<string, unknown> & {
-  id: number; createdAt: Date; assetGrai: string | null; assetSerial: string | null;
-  siteId: number | null; siteName: string | null; siteCode: string | null; customerId: number | null; customerName: string | null;
+  id: number;
+  createdAt: Date;
+  assetGrai: string | null;
+  assetSerial: string | null;
+  siteId: number | null;
+  siteName: string | null;
+  siteCode: string | null;
+  customerId: number | null;
+  customerName: string | null;
 };
 
 async function list<T extends CollectionRequestRow | DamageReportRow>(kind: RequestKind, opts: ListOptions): Promise<RequestPage<T>> {
@@ -268,7 +303,7 @@ export async function changeRequestStatus(kind: RequestKind, id: number, change:
   const entityType = kind === 'collection' ? 'collection_request' : 'damage_report';
   return sequelize.transaction(async (transaction) => {
     const options = { transaction, lock: transaction.LOCK.UPDATE };
-    const row: Model & { id: number; status: string; version: number } | null =
+    const row: (Model & { id: number; status: string; version: number }) | null =
       kind === 'collection' ? await CollectionRequest.findByPk(id, options) : await DamageReport.findByPk(id, options);
     if (!row) throw new AppError('not_found', kind === 'collection' ? 'There is no such collection request.' : 'There is no such damage report.');
     if (row.version !== change.version) {
@@ -283,7 +318,8 @@ export async function changeRequestStatus(kind: RequestKind, id: number, change:
     const after: Record<string, unknown> = { status: change.status };
     row.set('status', change.status);
     if (kind === 'collection' && change.plannedFor !== undefined) {
-      if (change.status !== 'scheduled') throw new AppError('validation_failed', 'A run day goes with scheduling the collection.', [{ path: 'plannedFor', message: 'Only when scheduling.' }]);
+      if (change.status !== 'scheduled')
+        throw new AppError('validation_failed', 'A run day goes with scheduling the collection.', [{ path: 'plannedFor', message: 'Only when scheduling.' }]);
       const readyOn = (row as CollectionRequest).readyOn;
       if (change.plannedFor && readyOn && change.plannedFor < readyOn) {
         throw new AppError('validation_failed', `The run cannot be before the empties are ready (${readyOn}).`, [{ path: 'plannedFor', message: 'Before the ready day.' }]);

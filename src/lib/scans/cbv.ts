@@ -5,11 +5,33 @@ import type { Action } from './lifecycle';
 // step, so those export as `other` with the disposition saying what changed.
 
 export type CbvBizStep =
-  | 'commissioning' | 'inspecting' | 'loading' | 'shipping' | 'departing' | 'arriving' | 'receiving'
-  | 'collecting' | 'repairing' | 'storing' | 'decommissioning' | 'other';
+  | 'commissioning'
+  | 'inspecting'
+  | 'loading'
+  | 'shipping'
+  | 'departing'
+  | 'arriving'
+  | 'receiving'
+  | 'collecting'
+  | 'repairing'
+  | 'storing'
+  | 'decommissioning'
+  | 'other';
 export type CbvDisposition =
-  | 'active' | 'available' | 'in_transit' | 'container_closed' | 'container_open' | 'returned' | 'damaged'
-  | 'needs_replacement' | 'non_conformant' | 'conformant' | 'unavailable' | 'inactive' | 'destroyed' | 'stolen';
+  | 'active'
+  | 'available'
+  | 'in_transit'
+  | 'container_closed'
+  | 'container_open'
+  | 'returned'
+  | 'damaged'
+  | 'needs_replacement'
+  | 'non_conformant'
+  | 'conformant'
+  | 'unavailable'
+  | 'inactive'
+  | 'destroyed'
+  | 'stolen';
 
 export interface CbvRow {
   bizStep: CbvBizStep;

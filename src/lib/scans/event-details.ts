@@ -11,7 +11,9 @@ export function describePayload(p: Record<string, unknown>): string[] {
   const out: string[] = [];
   if (p.prepResult) out.push(p.prepResult === 'pass' ? 'Prep check passed' : 'Prep check failed');
   if (p.checklist && typeof p.checklist === 'object') {
-    const failed = Object.entries(p.checklist as Record<string, boolean>).filter(([, ok]) => !ok).map(([k]) => CHECK_WORDS[k] ?? k);
+    const failed = Object.entries(p.checklist as Record<string, boolean>)
+      .filter(([, ok]) => !ok)
+      .map(([k]) => CHECK_WORDS[k] ?? k);
     if (failed.length) out.push(`Faults: ${failed.join(', ')}`);
   }
   if (typeof p.faults === 'string' && p.faults) out.push(`Noted: ${p.faults}`);
@@ -20,7 +22,11 @@ export function describePayload(p: Record<string, unknown>): string[] {
   if (p.purpose === 'transfer') out.push('Transfer of empties between depots');
   const fill = p.fill as { product?: string; volumeL?: number; massKg?: number; temperatureC?: number; seals?: string[] } | undefined;
   if (fill) {
-    const q = [fill.volumeL != null ? `${fill.volumeL} L` : null, fill.massKg != null ? `${fill.massKg} kg` : null, fill.temperatureC != null ? `${fill.temperatureC} °C` : null].filter(Boolean);
+    const q = [
+      fill.volumeL != null ? `${fill.volumeL} L` : null,
+      fill.massKg != null ? `${fill.massKg} kg` : null,
+      fill.temperatureC != null ? `${fill.temperatureC} °C` : null,
+    ].filter(Boolean);
     out.push(`Filled: ${fill.product ?? ''}${q.length ? ` (${q.join(', ')})` : ''}`);
     if (fill.seals?.length) out.push(`Seals applied: ${fill.seals.join(', ')}`);
   }

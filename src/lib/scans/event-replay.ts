@@ -28,7 +28,18 @@ export interface DerivedState {
 const toId = (v: string | null | undefined) => (v == null ? null : Number(v));
 
 export function replayState(events: readonly LoggedEvent[]): DerivedState {
-  const s: DerivedState = { status: null, siteId: null, leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, tripCount: 0, siteSince: null, schedule: null };
+  const s: DerivedState = {
+    status: null,
+    siteId: null,
+    leg: null,
+    prepChecked: false,
+    linerLotId: null,
+    filled: false,
+    tripOpen: false,
+    tripCount: 0,
+    siteSince: null,
+    schedule: null,
+  };
   for (const e of events) {
     if (e.voided || e.inferred || !e.payload?.patch) continue;
     const p = e.payload.patch;

@@ -20,9 +20,19 @@ export interface BinEvent {
 }
 
 interface EventRow {
-  id: number; action: Action; occurred_at: Date; status_from: Status | null; status_to: Status; inferred: boolean; flagged: boolean;
-  voided_at: Date | null; void_reason: string | null; payload: Record<string, unknown> | null; trip_id: number | null;
-  site_name: string | null; user_name: string | null;
+  id: number;
+  action: Action;
+  occurred_at: Date;
+  status_from: Status | null;
+  status_to: Status;
+  inferred: boolean;
+  flagged: boolean;
+  voided_at: Date | null;
+  void_reason: string | null;
+  payload: Record<string, unknown> | null;
+  trip_id: number | null;
+  site_name: string | null;
+  user_name: string | null;
 }
 
 /** `filter` is a fixed SQL condition on `e` written by the caller, with its values in `bind` — never user text. */
@@ -39,9 +49,17 @@ export async function timelineEvents(filter: string, bind: unknown[], limit = 30
     { bind, type: QueryTypes.SELECT },
   );
   return rows.map((e) => ({
-    id: e.id, action: e.action, occurredAt: new Date(e.occurred_at).toISOString(), siteName: e.site_name, userName: e.user_name,
-    statusFrom: e.status_from, statusTo: e.status_to, inferred: e.inferred, flagged: e.flagged,
+    id: e.id,
+    action: e.action,
+    occurredAt: new Date(e.occurred_at).toISOString(),
+    siteName: e.site_name,
+    userName: e.user_name,
+    statusFrom: e.status_from,
+    statusTo: e.status_to,
+    inferred: e.inferred,
+    flagged: e.flagged,
     voided: e.voided_at ? { at: new Date(e.voided_at).toISOString(), reason: e.void_reason ?? '' } : null,
-    payload: e.payload ?? {}, tripId: e.trip_id,
+    payload: e.payload ?? {},
+    tripId: e.trip_id,
   }));
 }

@@ -4,7 +4,25 @@
 // A refusal carries a reason a yard hand can act on and changes nothing.
 
 export const STATUSES = ['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair', 'missing', 'retired'] as const;
-export const ACTIONS = ['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found', 'inspect'] as const;
+export const ACTIONS = [
+  'register',
+  'receive',
+  'prep_check',
+  'fit_liner',
+  'dispatch',
+  'deliver',
+  'fill_seal',
+  'discharge',
+  'fold',
+  'collect',
+  'quarantine',
+  'send_to_repair',
+  'release',
+  'retire',
+  'mark_missing',
+  'mark_found',
+  'inspect',
+] as const;
 import { ROLES, type Role } from '@/lib/permissions';
 import { dueDatesOf, inspectionLabel, inspectionNeeded } from '@/lib/inspections/inspection-due';
 export { ROLES, type Role };

@@ -22,8 +22,15 @@ export async function alertAfterScan(outcome: ScanOutcome): Promise<void> {
     );
     if (!row) return;
     const mail = sealMismatchMail({
-      operatorName: settings.operatorName, serial: row.serial, grai: groupGrai(row.grai, settings.gs1PrefixLength), siteName: row.site,
-      customerName: row.customer, applied: row.applied, found: row.found, at: row.at ?? new Date(), timeZone: settings.timeZone,
+      operatorName: settings.operatorName,
+      serial: row.serial,
+      grai: groupGrai(row.grai, settings.gs1PrefixLength),
+      siteName: row.site,
+      customerName: row.customer,
+      applied: row.applied,
+      found: row.found,
+      at: row.at ?? new Date(),
+      timeZone: settings.timeZone,
       link: `${appUrl()}/bins/${row.grai}`,
     });
     for (const to of await plannerAddresses()) await sendMail({ to, ...mail, kind: 'seal_mismatch' });

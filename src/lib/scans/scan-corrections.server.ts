@@ -21,7 +21,18 @@ const TRIP_FIELDS_BY_ACTION: Record<string, string> = {
   collect: 'collected_at = NULL',
 };
 
-interface EventRow { id: number; asset_id: number; user_id: number | null; recorded_at: Date; action: string; client_event_id: string | null; trip_id: number | null; voided_at: Date | null; inferred: boolean; payload: { trip?: string } }
+interface EventRow {
+  id: number;
+  asset_id: number;
+  user_id: number | null;
+  recorded_at: Date;
+  action: string;
+  client_event_id: string | null;
+  trip_id: number | null;
+  voided_at: Date | null;
+  inferred: boolean;
+  payload: { trip?: string };
+}
 
 /**
  * `ownWithin`: the scanner undoing their own scan — only theirs, only within
@@ -29,14 +40,20 @@ interface EventRow { id: number; asset_id: number; user_id: number | null; recor
  */
 export async function voidScan(user: SessionUser, eventId: number, reason: string, ip: string | null, ownWithin?: { seconds: number; now: Date }) {
   return sequelize.transaction(async (t) => {
-    const [event] = await sequelize.query<EventRow>('SELECT id, asset_id, user_id, recorded_at, action, client_event_id, trip_id, voided_at, inferred, payload FROM scan_events WHERE id = $1', {
-      bind: [eventId], type: QueryTypes.SELECT, transaction: t,
-    });
+    const [event] = await sequelize.query<EventRow>(
+      'SELECT id, asset_id, user_id, recorded_at, action, client_event_id, trip_id, voided_at, inferred, payload FROM scan_events WHERE id = $1',
+      {
+        bind: [eventId],
+        type: QueryTypes.SELECT,
+        transaction: t,
+      },
+    );
     if (!event) throw new AppError('not_found', 'No such scan.');
     // Someone else's scan is not there for an undo: the same answer as no scan at all (it may be another organisation's).
     if (ownWithin && event.user_id !== user.id) throw new AppError('not_found', 'There is no scan of yours with this number. A planner voids other people’s scans with a reason.');
     if (event.voided_at) throw new AppError('conflict', 'This scan is already void.');
-    if (event.inferred || event.action === 'register') throw new AppError('unprocessable', 'Inferred steps and registrations are not voided on their own; void the scan that implied them, or retire the bin.');
+    if (event.inferred || event.action === 'register')
+      throw new AppError('unprocessable', 'Inferred steps and registrations are not voided on their own; void the scan that implied them, or retire the bin.');
     // Lock the bin so nothing is recorded on it while its state is rebuilt.
     await sequelize.query('SELECT id FROM assets WHERE id = $1 FOR UPDATE', { bind: [event.asset_id], transaction: t });
     const [latest] = await sequelize.query<{ id: number }>(
@@ -44,7 +61,8 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
       { bind: [event.asset_id], type: QueryTypes.SELECT, transaction: t },
     );
     if (ownWithin) {
-      if (latest?.id !== event.id) throw new AppError('conflict', 'Something was recorded on this bin after your scan, so it can no longer be undone. Ask a planner to void it with a reason.');
+      if (latest?.id !== event.id)
+        throw new AppError('conflict', 'Something was recorded on this bin after your scan, so it can no longer be undone. Ask a planner to void it with a reason.');
       if (undoSecondsLeft(event.recorded_at, ownWithin.now, ownWithin.seconds) === 0) {
         throw new AppError('unprocessable', 'The time to undo this scan has passed. Ask a planner to void it with a reason.');
       }
@@ -57,10 +75,26 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
       { bind: [event.id, user.id, reason, event.asset_id, event.client_event_id ?? ''], type: QueryTypes.SELECT, transaction: t },
     );
     // Its liner moves are reversed: a voided fit puts the liner back on the shelf (liner-moves.ts).
-    await reverseMovesOfEvents(voided.map((v) => Number(v.id)), user.id, `Scan voided: ${reason}`, new Date(), t);
+    await reverseMovesOfEvents(
+      voided.map((v) => Number(v.id)),
+      user.id,
+      `Scan voided: ${reason}`,
+      new Date(),
+      t,
+    );
     await undoTripEffect(event, t);
     const state = await rederiveAsset(event.asset_id, t);
-    await recordAudit({ actor: { userId: user.id, ip }, action: 'scan.void', entityType: 'scan_event', entityId: event.id, before: { action: event.action }, after: { action: event.action, voidReason: reason, status: state.status } }, { transaction: t });
+    await recordAudit(
+      {
+        actor: { userId: user.id, ip },
+        action: 'scan.void',
+        entityType: 'scan_event',
+        entityId: event.id,
+        before: { action: event.action },
+        after: { action: event.action, voidReason: reason, status: state.status },
+      },
+      { transaction: t },
+    );
     return state;
   });
 }
@@ -94,17 +128,31 @@ async function rederiveAsset(assetId: number, t: Transaction) {
     { bind: [assetId], type: QueryTypes.SELECT, transaction: t },
   );
   const s = replayState(events.map((e) => ({ occurredAt: e.occurred_at, inferred: e.inferred, voided: e.voided_at !== null, payload: e.payload })));
-  const [open] = await sequelize.query<{ id: number; customer_id: number }>(
-    `SELECT id, customer_id FROM trips WHERE asset_id = $1 AND status = 'open'`,
-    { bind: [assetId], type: QueryTypes.SELECT, transaction: t },
-  );
+  const [open] = await sequelize.query<{ id: number; customer_id: number }>(`SELECT id, customer_id FROM trips WHERE asset_id = $1 AND status = 'open'`, {
+    bind: [assetId],
+    type: QueryTypes.SELECT,
+    transaction: t,
+  });
   const lastScan = events.filter((e) => !e.voided_at).at(-1)?.occurred_at ?? null;
   await sequelize.query(
     `UPDATE assets SET status = $2, site_id = $3, site_since = $4, leg = $5, prep_checked = $6, liner_lot_id = $7, filled = $8,
             trip_count = $9, current_trip_id = $10, customer_id = $11, last_scan_at = $12, version = version + 1, updated_at = now()
       WHERE id = $1`,
     {
-      bind: [assetId, s.status, s.siteId, s.siteSince, s.leg, s.prepChecked, s.linerLotId, s.filled, s.tripCount, s.tripOpen ? (open?.id ?? null) : null, s.tripOpen ? (open?.customer_id ?? null) : null, lastScan],
+      bind: [
+        assetId,
+        s.status,
+        s.siteId,
+        s.siteSince,
+        s.leg,
+        s.prepChecked,
+        s.linerLotId,
+        s.filled,
+        s.tripCount,
+        s.tripOpen ? (open?.id ?? null) : null,
+        s.tripOpen ? (open?.customer_id ?? null) : null,
+        lastScan,
+      ],
       transaction: t,
     },
   );

@@ -83,14 +83,33 @@ export interface LogRow {
  * The log rows of one scan: each inferred step a millisecond apart just before the scan (so the
  * timeline reads in order), flagged for a planner, then the scan itself.
  */
-export function logRows(input: ScanFacts & { clientEventId: string }, occurredAt: Date, from: Status | null, d: Allowed, flags: string[], named: Record<string, unknown>): LogRow[] {
+export function logRows(
+  input: ScanFacts & { clientEventId: string },
+  occurredAt: Date,
+  from: Status | null,
+  d: Allowed,
+  flags: string[],
+  named: Record<string, unknown>,
+): LogRow[] {
   const rows: LogRow[] = d.inferred.map((step, i) => ({
-    action: step, occurredAt: new Date(occurredAt.getTime() - d.inferred.length + i), clientEventId: null, statusFrom: null,
-    statusTo: INFERRED_STATUS[step], inferred: true, flagged: true, payload: { inferredBy: input.clientEventId },
+    action: step,
+    occurredAt: new Date(occurredAt.getTime() - d.inferred.length + i),
+    clientEventId: null,
+    statusFrom: null,
+    statusTo: INFERRED_STATUS[step],
+    inferred: true,
+    flagged: true,
+    payload: { inferredBy: input.clientEventId },
   }));
   rows.push({
-    action: input.action, occurredAt, clientEventId: input.clientEventId, statusFrom: from, statusTo: d.to, inferred: false,
-    flagged: flags.length > 0, payload: { ...eventPayload(input, d, flags), ...named },
+    action: input.action,
+    occurredAt,
+    clientEventId: input.clientEventId,
+    statusFrom: from,
+    statusTo: d.to,
+    inferred: false,
+    flagged: flags.length > 0,
+    payload: { ...eventPayload(input, d, flags), ...named },
   });
   return rows;
 }
@@ -107,7 +126,13 @@ export interface TripOpening {
 }
 
 /** The trip a scan opens (a dispatch on hire, or a delivery nobody saw leave). */
-export function tripOpening(asset: Pick<AssetSnapshot, 'siteId' | 'linerLotId'>, input: ScanFacts, site: ScanSite | null, order: { id: number; customerId: number; depotSiteId: number; deliverySiteId: number } | null, at: Date): TripOpening {
+export function tripOpening(
+  asset: Pick<AssetSnapshot, 'siteId' | 'linerLotId'>,
+  input: ScanFacts,
+  site: ScanSite | null,
+  order: { id: number; customerId: number; depotSiteId: number; deliverySiteId: number } | null,
+  at: Date,
+): TripOpening {
   return {
     customerId: order?.customerId ?? (site?.kind === 'customer' ? site.organisationId : null),
     depotSiteId: asset.siteId ?? order?.depotSiteId ?? site!.id,
@@ -121,7 +146,13 @@ export function tripOpening(asset: Pick<AssetSnapshot, 'siteId' | 'linerLotId'>,
 }
 
 /** Trip columns (SQL names) a scan on an open trip sets, and any flag it raises (a seal mismatch). */
-export function tripChanges(input: ScanFacts, d: Allowed, site: ScanSite | null, sealsApplied: readonly string[], at: Date): { set: Record<string, unknown>; close: boolean; flags: string[] } {
+export function tripChanges(
+  input: ScanFacts,
+  d: Allowed,
+  site: ScanSite | null,
+  sealsApplied: readonly string[],
+  at: Date,
+): { set: Record<string, unknown>; close: boolean; flags: string[] } {
   const set: Record<string, unknown> = {};
   const flags: string[] = [];
   switch (input.action) {
@@ -202,8 +233,12 @@ export function scheduleColumns(d: Allowed): Record<string, string | null> | nul
   const s: Schedule | null | undefined = d.patch.schedule;
   if (!s) return null;
   return {
-    last_inspection_on: s.lastInspectionOn, last_leak_test_on: s.lastLeakTestOn, last_full_inspection_on: s.lastFullInspectionOn,
-    next_intermediate_due: s.nextIntermediateDue, next_full_due: s.nextFullDue, next_due: s.nextDue,
+    last_inspection_on: s.lastInspectionOn,
+    last_leak_test_on: s.lastLeakTestOn,
+    last_full_inspection_on: s.lastFullInspectionOn,
+    next_intermediate_due: s.nextIntermediateDue,
+    next_full_due: s.nextFullDue,
+    next_due: s.nextDue,
   };
 }
 

@@ -9,8 +9,15 @@ import { recordAudit } from '@/lib/audit.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 
 export interface FlaggedScan {
-  id: number; grai: string; serial: string; action: Action; occurredAt: string; site: string | null; user: string | null;
-  inferred: Action[]; flags: string[];
+  id: number;
+  grai: string;
+  serial: string;
+  action: Action;
+  occurredAt: string;
+  site: string | null;
+  user: string | null;
+  inferred: Action[];
+  flags: string[];
 }
 
 export async function listFlaggedScans(limit = 50, offset = 0): Promise<{ rows: FlaggedScan[]; total: number }> {

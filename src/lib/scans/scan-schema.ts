@@ -8,7 +8,11 @@ import { repeatedSeals } from '@/lib/trips/seal-check';
 // Registration and inspections have their own forms and endpoints (they write a record beside the scan).
 type Recordable = Exclude<(typeof ACTIONS)[number], 'register' | 'inspect'>;
 const RECORDABLE = ACTIONS.filter((a) => a !== 'register' && a !== 'inspect') as [Recordable, ...Recordable[]];
-const seal = text().trim().min(1).max(32).regex(/^[A-Za-z0-9\-/.]+$/, 'Seal numbers use letters, digits, - / and . only');
+const seal = text()
+  .trim()
+  .min(1)
+  .max(32)
+  .regex(/^[A-Za-z0-9\-/.]+$/, 'Seal numbers use letters, digits, - / and . only');
 /** Up to six seal numbers, each once: a number written twice is a typing slip or two seals read as one. */
 const sealList = z
   .array(seal)

@@ -7,11 +7,22 @@
 // store the answer under the client event id so a replay returns it again.
 // A refusal rolls everything back: it leaves no trace.
 import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
-import { Op, OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
-import { sequelize, Asset } from '@/models';
+import { OptimisticLockError, QueryTypes, type Transaction } from 'sequelize';
+import { sequelize } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { decide, checkLinerLot, type Action, type Decision, type InspectionResult, type Leg, type SiteKind, type Status } from './lifecycle';
-import { assetAfter, binState, logRows, scheduleColumns, tripChanges, tripOpening, type AssetSnapshot, type FillRecord, type ScanFacts, type ScanSite } from '@/lib/scans/scan-effects';
+import {
+  assetAfter,
+  binState,
+  logRows,
+  scheduleColumns,
+  tripChanges,
+  tripOpening,
+  type AssetSnapshot,
+  type FillRecord,
+  type ScanFacts,
+  type ScanSite,
+} from '@/lib/scans/scan-effects';
 import { localDate } from '@/lib/calendar';
 import { getSettings, type OperatorSettings } from '@/lib/settings/settings.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
@@ -111,13 +122,39 @@ function changedMeanwhile() {
 // The hot path (yard scans, offline batches, the demo generator) is plain SQL:
 // a handful of statements per scan, no model instances to build.
 interface AssetRow {
-  id: number; grai: string; bin_type_id: number; status: Status; site_id: number | null; site_kind: SiteKind | null;
-  customer_id: number | null; current_trip_id: number | null; leg: Leg | null; prep_checked: boolean;
-  liner_lot_id: number | null; filled: boolean; trip_count: number; next_due: string | null; last_scan_at: Date | null; version: number;
-  next_intermediate_due: string | null; next_full_due: string | null; intermediate_months: number; full_months: number;
+  id: number;
+  grai: string;
+  bin_type_id: number;
+  status: Status;
+  site_id: number | null;
+  site_kind: SiteKind | null;
+  customer_id: number | null;
+  current_trip_id: number | null;
+  leg: Leg | null;
+  prep_checked: boolean;
+  liner_lot_id: number | null;
+  filled: boolean;
+  trip_count: number;
+  next_due: string | null;
+  last_scan_at: Date | null;
+  version: number;
+  next_intermediate_due: string | null;
+  next_full_due: string | null;
+  intermediate_months: number;
+  full_months: number;
 }
-interface SiteRow { id: number; kind: SiteKind; organisation_id: number; active: boolean }
-interface TripRow { id: number; customer_id: number; seals_applied: string[]; delivered_at: Date | null }
+interface SiteRow {
+  id: number;
+  kind: SiteKind;
+  organisation_id: number;
+  active: boolean;
+}
+interface TripRow {
+  id: number;
+  customer_id: number;
+  seals_applied: string[];
+  delivered_at: Date | null;
+}
 
 async function one<T extends object>(sql: string, bind: unknown[], t: Transaction): Promise<T | undefined> {
   const rows = await sequelize.query<T>(sql, { bind, transaction: t, type: QueryTypes.SELECT });
@@ -176,7 +213,10 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   });
   if (!decision.ok) throw refusal(decision);
   const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
-  const override = order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire' ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t) : null;
+  const override =
+    order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire'
+      ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t)
+      : null;
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
   const flags = [...decision.flags, ...(override ? ['lapse_margin_overridden'] : [])];
@@ -187,7 +227,14 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
   const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}) };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
-    r.action, r.occurredAt, r.clientEventId, r.statusFrom, r.statusTo, r.inferred, r.flagged, JSON.stringify(r.payload),
+    r.action,
+    r.occurredAt,
+    r.clientEventId,
+    r.statusFrom,
+    r.statusTo,
+    r.inferred,
+    r.flagged,
+    JSON.stringify(r.payload),
   ]);
   const bind: unknown[] = [asset.id, site?.id ?? null, actor.id, eventTripId];
   const values = rows.map((r) => {
@@ -207,12 +254,24 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
 
   // 6. The liner ledger: a fit takes its liner off the shelf; a fitted liner taken out unused is recorded.
   const moves = movesForScan({ action: input.action, before: snapshotOf(asset), after: next, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt });
-  await insertMoves(moves.map((m) => ({ ...m, scan_event_id: eventId })), t);
+  await insertMoves(
+    moves.map((m) => ({ ...m, scan_event_id: eventId })),
+    t,
+  );
 
   const outcome: ScanOutcome = {
-    clientEventId: input.clientEventId, replayed: false, eventId, assetId: asset.id, grai: asset.grai,
-    action: input.action, statusFrom: decision.from, statusTo: decision.to, inferred: decision.inferred, flags,
-    tripId: eventTripId, version,
+    clientEventId: input.clientEventId,
+    replayed: false,
+    eventId,
+    assetId: asset.id,
+    grai: asset.grai,
+    action: input.action,
+    statusFrom: decision.from,
+    statusTo: decision.to,
+    inferred: decision.inferred,
+    flags,
+    tripId: eventTripId,
+    version,
   };
   await sequelize.query('UPDATE scan_event_keys SET outcome = $2, scan_event_id = $3 WHERE client_event_id = $1', {
     bind: [input.clientEventId, JSON.stringify(outcome), eventId],
@@ -244,7 +303,16 @@ async function scanSite(actor: Actor, input: ScanInput, t: Transaction): Promise
   return site;
 }
 
-interface OrderRow { id: number; reference: string; status: string; customer_id: number; depot_site_id: number; delivery_site_id: number; bin_type_id: number; needed_by: string }
+interface OrderRow {
+  id: number;
+  reference: string;
+  status: string;
+  customer_id: number;
+  depot_site_id: number;
+  delivery_site_id: number;
+  bin_type_id: number;
+  needed_by: string;
+}
 
 /**
  * A hire dispatch is refused for a bin whose test (or period of use) runs out before the order's wanted date
@@ -259,12 +327,20 @@ async function checkLapseBeforeDispatch(actor: Actor, assetId: number, order: Or
   if (actor.role !== 'planner' && actor.role !== 'admin') {
     throw new AppError('transition_refused', `${check.reason} Only a planner may override it.`, details);
   }
-  if (!overrideAccepted(check, input.overrideReason)) throw new AppError('validation_failed', 'Say why the bin may go anyway (at least a few words).', [{ path: 'overrideReason', message: 'Give the reason for the override.' }]);
+  if (!overrideAccepted(check, input.overrideReason))
+    throw new AppError('validation_failed', 'Say why the bin may go anyway (at least a few words).', [{ path: 'overrideReason', message: 'Give the reason for the override.' }]);
   return { code: check.code, lastDay: check.lastDay, expectedBackOn: check.expectedBackOn, reason: input.overrideReason.trim(), by: actor.id };
 }
 
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
-async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput, site: SiteRow | null, today: string, t: Transaction): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+async function checkActionInputs(
+  actor: Actor,
+  asset: AssetRow,
+  input: ScanInput,
+  site: SiteRow | null,
+  today: string,
+  t: Transaction,
+): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
   let lotNumber: string | null = null;
   if (input.action === 'fit_liner') {
     // The lot's row stays locked until the scan commits: concurrent fits from it queue here, and each
@@ -289,7 +365,9 @@ async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput
           WHERE id = ANY($1::int[]) AND purpose = 'photo' AND organisation_id = $3 AND (asset_id IS NULL OR asset_id = $2)
          RETURNING id)
        SELECT count(*)::int AS n FROM c`,
-      [ids, asset.id, actor.organisationId], t);
+      [ids, asset.id, actor.organisationId],
+      t,
+    );
     if (claimed?.n !== ids.length) {
       throw new AppError('unprocessable', 'A photo named with this scan is not one your organisation uploaded for this bin. Take the photo again.', { field: 'photoIds' });
     }
@@ -304,34 +382,61 @@ async function checkActionInputs(actor: Actor, asset: AssetRow, input: ScanInput
     return { order: null, lotNumber };
   }
   const order = await one<OrderRow>(
-    'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id, needed_by::text FROM hire_orders WHERE id = $1', [input.hireOrderId], t);
+    'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id, needed_by::text FROM hire_orders WHERE id = $1',
+    [input.hireOrderId],
+    t,
+  );
   if (!order || !countsAsDemand(order.status as OrderStatus)) {
     const why = order?.status === 'draft' ? ' it is still a draft; a planner confirms it first' : order ? ` it is ${order.status}` : '';
     throw new AppError('transition_refused', `That hire order is not open for loading${why ? `:${why}` : ''}.`, { reason: 'order_not_open', action: input.action });
   }
   if (order.bin_type_id !== asset.bin_type_id) {
     const type = await one<{ name: string }>('SELECT name FROM bin_types WHERE id = $1', [order.bin_type_id], t);
-    throw new AppError('transition_refused', `Hire order ${order.reference} asks for ${type?.name ?? 'another bin type'}; this bin is a different type.`, { reason: 'wrong_bin_type', action: input.action });
+    throw new AppError('transition_refused', `Hire order ${order.reference} asks for ${type?.name ?? 'another bin type'}; this bin is a different type.`, {
+      reason: 'wrong_bin_type',
+      action: input.action,
+    });
   }
   return { order, lotNumber };
 }
 
 function snapshotOf(a: AssetRow): AssetSnapshot {
   return {
-    status: a.status, siteId: a.site_id, siteSince: null, customerId: a.customer_id, currentTripId: a.current_trip_id, leg: a.leg,
-    prepChecked: a.prep_checked, linerLotId: a.liner_lot_id, filled: a.filled, tripCount: a.trip_count, lastScanAt: a.last_scan_at,
+    status: a.status,
+    siteId: a.site_id,
+    siteSince: null,
+    customerId: a.customer_id,
+    currentTripId: a.current_trip_id,
+    leg: a.leg,
+    prepChecked: a.prep_checked,
+    linerLotId: a.liner_lot_id,
+    filled: a.filled,
+    tripCount: a.trip_count,
+    lastScanAt: a.last_scan_at,
   };
 }
 
 const siteOf = (s: SiteRow | null): ScanSite | null => (s ? { id: s.id, kind: s.kind, organisationId: s.organisation_id } : null);
 
 /** Opens, updates or closes the bin's trip (columns from src/lib/scan/scan-effects.ts); returns the id of the trip the event belongs to. */
-async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, input: ScanInput, site: SiteRow | null, order: OrderRow | null, at: Date, t: Transaction, flags: string[]): Promise<{ tripId: number; customerId: number } | number | null> {
+async function applyTrip(
+  asset: AssetRow,
+  d: Extract<Decision, { ok: true }>,
+  input: ScanInput,
+  site: SiteRow | null,
+  order: OrderRow | null,
+  at: Date,
+  t: Transaction,
+  flags: string[],
+): Promise<{ tripId: number; customerId: number } | number | null> {
   if (d.trip === 'none') return null;
   if (d.trip === 'open') {
     const o = tripOpening(
-      { siteId: asset.site_id, linerLotId: asset.liner_lot_id }, input, siteOf(site),
-      order ? { id: order.id, customerId: order.customer_id, depotSiteId: order.depot_site_id, deliverySiteId: order.delivery_site_id } : null, at,
+      { siteId: asset.site_id, linerLotId: asset.liner_lot_id },
+      input,
+      siteOf(site),
+      order ? { id: order.id, customerId: order.customer_id, depotSiteId: order.depot_site_id, deliverySiteId: order.delivery_site_id } : null,
+      at,
     );
     if (!o.customerId) throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: input.action });
     const created = await one<{ id: number }>(
@@ -363,7 +468,13 @@ async function applyTrip(asset: AssetRow, d: Extract<Decision, { ok: true }>, in
 }
 
 /** Writes the decision's patch onto the bin; refuses when someone else changed it first. */
-async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, opened: { tripId: number; customerId: number } | null, at: Date, t: Transaction): Promise<{ version: number; next: AssetSnapshot }> {
+async function applyPatch(
+  asset: AssetRow,
+  d: Extract<Decision, { ok: true }>,
+  opened: { tripId: number; customerId: number } | null,
+  at: Date,
+  t: Transaction,
+): Promise<{ version: number; next: AssetSnapshot }> {
   const next = assetAfter(snapshotOf(asset), d, opened, at);
   const updated = await one<{ version: number }>(
     `UPDATE assets SET status = $3, site_id = $4, site_since = CASE WHEN site_id IS DISTINCT FROM $4 OR site_since IS NULL THEN $5 ELSE site_since END,
@@ -371,8 +482,19 @@ async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, o
             last_scan_at = $13, version = version + 1, updated_at = now()
       WHERE id = $1 AND version = $2 RETURNING version`,
     [
-      asset.id, asset.version, next.status, next.siteId, at, next.leg, next.prepChecked, next.linerLotId, next.filled,
-      next.currentTripId, next.customerId, next.tripCount, next.lastScanAt,
+      asset.id,
+      asset.version,
+      next.status,
+      next.siteId,
+      at,
+      next.leg,
+      next.prepChecked,
+      next.linerLotId,
+      next.filled,
+      next.currentTripId,
+      next.customerId,
+      next.tripCount,
+      next.lastScanAt,
     ],
     t,
   );
@@ -384,4 +506,3 @@ async function applyPatch(asset: AssetRow, d: Extract<Decision, { ok: true }>, o
   }
   return { version: updated.version, next };
 }
-

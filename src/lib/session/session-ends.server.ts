@@ -35,10 +35,11 @@ export async function endSession(token: Record<string, unknown> | null | undefin
  */
 export async function endAllSessions(userId: number, actor: AuditActor): Promise<{ sessionEpoch: number }> {
   return sequelize.transaction(async (transaction) => {
-    const rows = await sequelize.query<{ session_epoch: number }>(
-      'UPDATE users SET session_epoch = session_epoch + 1 WHERE id = $1 RETURNING session_epoch',
-      { bind: [userId], type: QueryTypes.SELECT, transaction },
-    );
+    const rows = await sequelize.query<{ session_epoch: number }>('UPDATE users SET session_epoch = session_epoch + 1 WHERE id = $1 RETURNING session_epoch', {
+      bind: [userId],
+      type: QueryTypes.SELECT,
+      transaction,
+    });
     const row = rows[0];
     if (!row) throw new AppError('not_found', 'There is no such person.');
     await recordAudit(
@@ -51,9 +52,9 @@ export async function endAllSessions(userId: number, actor: AuditActor): Promise
 
 /** The `ended-sessions-cleanup` job: notes whose cookies have all expired are no longer needed. */
 export async function deleteExpiredSessionEnds({ now }: { now: Date }): Promise<{ deleted: number }> {
-  const rows = await sequelize.query<{ n: number }>(
-    'WITH d AS (DELETE FROM ended_sessions WHERE expires_at < $1 RETURNING 1) SELECT count(*)::int AS n FROM d',
-    { bind: [now], type: QueryTypes.SELECT },
-  );
+  const rows = await sequelize.query<{ n: number }>('WITH d AS (DELETE FROM ended_sessions WHERE expires_at < $1 RETURNING 1) SELECT count(*)::int AS n FROM d', {
+    bind: [now],
+    type: QueryTypes.SELECT,
+  });
   return { deleted: rows[0]?.n ?? 0 };
 }

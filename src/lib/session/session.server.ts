@@ -5,8 +5,16 @@
 import { decode, encode } from '@auth/core/jwt';
 import { loadSessionUser, type SessionUser } from '@/lib/accounts/session-user.server';
 import {
-  SESSION_MAX_AGE_S, parseCookieHeader, readSessionToken, refreshDue, sessionClaims, sessionCookieClears, sessionCookieName,
-  sessionCookieWrites, usesSecureCookies, type CookieWrite,
+  SESSION_MAX_AGE_S,
+  parseCookieHeader,
+  readSessionToken,
+  refreshDue,
+  sessionClaims,
+  sessionCookieClears,
+  sessionCookieName,
+  sessionCookieWrites,
+  usesSecureCookies,
+  type CookieWrite,
 } from './session-cookie';
 
 export interface SessionCheck {

@@ -31,7 +31,9 @@ export const settingsSchema = z
   .object({
     version: z.number().int().min(0),
     operatorName: text().trim().min(1, 'Enter the operator’s name.').max(160),
-    gs1CompanyPrefix: text().trim().regex(/^\d{4,12}$/, 'A GS1 company prefix is 4 to 12 digits.'),
+    gs1CompanyPrefix: text()
+      .trim()
+      .regex(/^\d{4,12}$/, 'A GS1 company prefix is 4 to 12 digits.'),
     gs1PrefixLength: z.number().int().min(4, 'Between 4 and 12.').max(12, 'Between 4 and 12.'),
     digitalLinkBase: text()
       .trim()
@@ -45,26 +47,31 @@ export const settingsSchema = z
         }
       }, 'Enter a web address starting with https:// (no ?query or #part), e.g. https://id.pool.example')
       .transform((v) => v.replace(/\/+$/, '')),
-    timeZone: text()
-      .transform((v, ctx) => {
-        const zone = canonicalTimeZone(v);
-        if (!zone) {
-          ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'Not a time zone name. Use an IANA name such as Europe/Amsterdam.' });
-          return z.NEVER;
-        }
-        return zone;
-      }),
+    timeZone: text().transform((v, ctx) => {
+      const zone = canonicalTimeZone(v);
+      if (!zone) {
+        ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'Not a time zone name. Use an IANA name such as Europe/Amsterdam.' });
+        return z.NEVER;
+      }
+      return zone;
+    }),
     currency: text()
       .trim()
       .toUpperCase()
       .refine((v) => /^[A-Z]{3}$/.test(v) && CURRENCIES.has(v), 'Use a three-letter ISO 4217 currency code, e.g. EUR.'),
-    taxRate: text().trim().regex(/^0(\.\d{1,4})?$/, 'A fraction from 0 to 0.9999, e.g. 0.21 for 21 %.'),
+    taxRate: text()
+      .trim()
+      .regex(/^0(\.\d{1,4})?$/, 'A fraction from 0 to 0.9999, e.g. 0.21 for 21 %.'),
     mailSender: text()
       .trim()
       .max(254)
       .refine((v) => parseMailbox(v) !== null, 'An e-mail address, optionally with a name: Pool desk <pool@company.example>'),
     returnInstructions: multilineText().trim().max(2000, 'Keep it under 2,000 characters.'),
-    undoSeconds: z.number({ invalid_type_error: 'A number of seconds.' }).int('Whole seconds.').min(0, 'From 0 (no undo) to 600 seconds.').max(600, 'From 0 (no undo) to 600 seconds.'),
+    undoSeconds: z
+      .number({ invalid_type_error: 'A number of seconds.' })
+      .int('Whole seconds.')
+      .min(0, 'From 0 (no undo) to 600 seconds.')
+      .max(600, 'From 0 (no undo) to 600 seconds.'),
   })
   .superRefine((v, ctx) => {
     if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {

@@ -63,7 +63,16 @@ export function forgetSettings() {
 // Editing (admin settings page)
 
 const FIELDS = [
-  'operatorName', 'gs1CompanyPrefix', 'gs1PrefixLength', 'digitalLinkBase', 'timeZone', 'currency', 'taxRate', 'mailSender', 'returnInstructions', 'undoSeconds',
+  'operatorName',
+  'gs1CompanyPrefix',
+  'gs1PrefixLength',
+  'digitalLinkBase',
+  'timeZone',
+  'currency',
+  'taxRate',
+  'mailSender',
+  'returnInstructions',
+  'undoSeconds',
 ] as const;
 
 function snapshot(s: Setting) {

@@ -72,8 +72,15 @@ export async function reuseData(period: ReportPeriod, customerId: number | null,
     today,
     timeZone,
     bins: bins.map((b) => ({
-      assetId: b.id, grai: b.grai, serial: b.serial, binType: b.bin_type, commissionedOn: b.commissioned_on, leftOn: b.left_on,
-      rotationsTotal: totals.get(b.id) ?? 0, rotationsByYear: years.get(b.id) ?? {}, rotationsInPeriod: periodCounts.get(b.id) ?? 0,
+      assetId: b.id,
+      grai: b.grai,
+      serial: b.serial,
+      binType: b.bin_type,
+      commissionedOn: b.commissioned_on,
+      leftOn: b.left_on,
+      rotationsTotal: totals.get(b.id) ?? 0,
+      rotationsByYear: years.get(b.id) ?? {},
+      rotationsInPeriod: periodCounts.get(b.id) ?? 0,
     })),
   };
 }

@@ -149,12 +149,17 @@ export interface CsvTable {
 
 /** One row per bin counted in the period (see `figures`), in serial order; numbers with '.' and no grouping. */
 export function reuseCsv(bins: readonly ReuseBin[], period: Period, today: LocalDate, scope: ReuseScope): CsvTable {
-  const counted =
-    scope.kind === 'pool' ? bins.filter((b) => inPoolDuring(b, period.from, period.to)) : bins.filter((b) => b.rotationsInPeriod > 0);
+  const counted = scope.kind === 'pool' ? bins.filter((b) => inPoolDuring(b, period.from, period.to)) : bins.filter((b) => b.rotationsInPeriod > 0);
   const forCustomer = scope.kind === 'customer';
   const fields = [
     ...(forCustomer ? ['customer'] : []),
-    'grai', 'serial', 'bin_type', 'commissioned_on', 'left_pool_on', 'period_from', 'period_to',
+    'grai',
+    'serial',
+    'bin_type',
+    'commissioned_on',
+    'left_pool_on',
+    'period_from',
+    'period_to',
     forCustomer ? 'rotations_for_customer_in_period' : 'rotations_in_period',
     forCustomer ? 'rotations_for_customer_since_commissioning' : 'rotations_since_commissioning',
     'years_in_service',
@@ -165,9 +170,18 @@ export function reuseCsv(bins: readonly ReuseBin[], period: Period, today: Local
     const years = serviceYears(b, today);
     return [
       ...(forCustomer ? [scope.name] : []),
-      b.grai, b.serial, b.binType, b.commissionedOn, b.leftOn ?? '', period.from, period.to,
+      b.grai,
+      b.serial,
+      b.binType,
+      b.commissionedOn,
+      b.leftOn ?? '',
+      period.from,
+      period.to,
       // Numbers as numbers (src/lib/csv.ts writes them unquoted), rounded to two decimals.
-      b.rotationsInPeriod, b.rotationsTotal, Number(plainDecimal(years, 2)), years > 0 ? Number(plainDecimal(b.rotationsTotal / years, 2)) : null,
+      b.rotationsInPeriod,
+      b.rotationsTotal,
+      Number(plainDecimal(years, 2)),
+      years > 0 ? Number(plainDecimal(b.rotationsTotal / years, 2)) : null,
     ];
   });
   return { fields, rows };

@@ -66,7 +66,12 @@ const schema = z
     sort: z.enum(TRIP_SORT_KEYS, { errorMap: () => ({ message: `must be one of: ${TRIP_SORT_KEYS.join(', ')}` }) }).default('dispatched'),
     dir: z.enum(['asc', 'desc'], { errorMap: () => ({ message: 'must be asc or desc' }) }).default('desc'),
     page: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(1_000_000, 'is too large').default(1),
-    size: z.coerce.number({ invalid_type_error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(MAX_PAGE_SIZE, `must be at most ${MAX_PAGE_SIZE}`).default(DEFAULT_PAGE_SIZE),
+    size: z.coerce
+      .number({ invalid_type_error: 'must be a number' })
+      .int('must be a whole number')
+      .min(1, 'must be 1 or more')
+      .max(MAX_PAGE_SIZE, `must be at most ${MAX_PAGE_SIZE}`)
+      .default(DEFAULT_PAGE_SIZE),
     status: z.enum(['open', 'closed'], { errorMap: () => ({ message: 'must be open or closed' }) }).optional(),
     customer: id.optional(),
     depot: id.optional(),

@@ -125,10 +125,28 @@ function whereFor(query: TripListQuery, p: Params, prefixLength: number): string
 }
 
 interface Row {
-  id: number; status: 'open' | 'closed'; asset_id: number; grai: string; serial: string; customer_id: number; customer_name: string;
-  depot_name: string; customer_site_name: string | null; dispatched_at: Date; delivered_at: Date | null; collected_at: Date | null;
-  returned_at: Date | null; liner_lot_id: number | null; lot_number: string | null; fill_product: string | null; fill_volume_l: string | null;
-  fill_mass_kg: string | null; fill_temperature_c: string | null; seals_applied: string[]; seals_verified: string[]; seal_mismatch: boolean;
+  id: number;
+  status: 'open' | 'closed';
+  asset_id: number;
+  grai: string;
+  serial: string;
+  customer_id: number;
+  customer_name: string;
+  depot_name: string;
+  customer_site_name: string | null;
+  dispatched_at: Date;
+  delivered_at: Date | null;
+  collected_at: Date | null;
+  returned_at: Date | null;
+  liner_lot_id: number | null;
+  lot_number: string | null;
+  fill_product: string | null;
+  fill_volume_l: string | null;
+  fill_mass_kg: string | null;
+  fill_temperature_c: string | null;
+  seals_applied: string[];
+  seals_verified: string[];
+  seal_mismatch: boolean;
 }
 
 const iso = (v: Date | string | null) => (v === null ? null : new Date(v).toISOString());
@@ -137,13 +155,26 @@ function toRow(r: Row, timeZone: string): TripListRow {
   const times = { dispatchedAt: iso(r.dispatched_at)!, deliveredAt: iso(r.delivered_at), collectedAt: iso(r.collected_at), returnedAt: iso(r.returned_at) };
   const forStats = { assetId: String(r.asset_id), customerId: String(r.customer_id), depotId: '', ...times };
   return {
-    id: r.id, status: r.status, assetId: r.asset_id, grai: r.grai, serial: r.serial, customerId: r.customer_id, customerName: r.customer_name,
-    depotName: r.depot_name, customerSiteName: r.customer_site_name, ...times,
-    dispatchedOn: localDate(times.dispatchedAt, timeZone), returnedOn: times.returnedAt ? localDate(times.returnedAt, timeZone) : null,
-    cycleDays: cycleTimeDays(forStats, timeZone), dwell: dwellAtCustomer(forStats, timeZone),
-    linerLotId: r.liner_lot_id, linerLotNumber: r.lot_number,
+    id: r.id,
+    status: r.status,
+    assetId: r.asset_id,
+    grai: r.grai,
+    serial: r.serial,
+    customerId: r.customer_id,
+    customerName: r.customer_name,
+    depotName: r.depot_name,
+    customerSiteName: r.customer_site_name,
+    ...times,
+    dispatchedOn: localDate(times.dispatchedAt, timeZone),
+    returnedOn: times.returnedAt ? localDate(times.returnedAt, timeZone) : null,
+    cycleDays: cycleTimeDays(forStats, timeZone),
+    dwell: dwellAtCustomer(forStats, timeZone),
+    linerLotId: r.liner_lot_id,
+    linerLotNumber: r.lot_number,
     fill: fillRecordText({ product: r.fill_product, volumeL: r.fill_volume_l, massKg: r.fill_mass_kg, temperatureC: r.fill_temperature_c }),
-    sealsApplied: r.seals_applied ?? [], sealsVerified: r.seals_verified ?? [], seals: sealCheck(r.seals_applied ?? [], r.seals_verified ?? [], r.seal_mismatch),
+    sealsApplied: r.seals_applied ?? [],
+    sealsVerified: r.seals_verified ?? [],
+    seals: sealCheck(r.seals_applied ?? [], r.seals_verified ?? [], r.seal_mismatch),
   };
 }
 

@@ -13,8 +13,13 @@ import type { ReportPeriod } from './report-period';
 const LOOKBACK_DAYS = 365;
 
 interface TripRow {
-  asset_id: number; customer_id: number; depot_site_id: number;
-  dispatched_at: Date; delivered_at: Date | null; collected_at: Date | null; returned_at: Date | null;
+  asset_id: number;
+  customer_id: number;
+  depot_site_id: number;
+  dispatched_at: Date;
+  delivered_at: Date | null;
+  collected_at: Date | null;
+  returned_at: Date | null;
 }
 
 const iso = (v: Date | null) => (v === null ? null : new Date(v).toISOString());
@@ -36,8 +41,13 @@ export async function tripsForPeriod(period: ReportPeriod, timeZone: string): Pr
     { bind: [timeZone, period.from, addDays(period.to, 1), addDays(period.from, -LOOKBACK_DAYS)], type: QueryTypes.SELECT },
   );
   return rows.map((r) => ({
-    assetId: String(r.asset_id), customerId: String(r.customer_id), depotId: String(r.depot_site_id),
-    dispatchedAt: iso(r.dispatched_at)!, deliveredAt: iso(r.delivered_at), collectedAt: iso(r.collected_at), returnedAt: iso(r.returned_at),
+    assetId: String(r.asset_id),
+    customerId: String(r.customer_id),
+    depotId: String(r.depot_site_id),
+    dispatchedAt: iso(r.dispatched_at)!,
+    deliveredAt: iso(r.delivered_at),
+    collectedAt: iso(r.collected_at),
+    returnedAt: iso(r.returned_at),
   }));
 }
 
@@ -69,6 +79,9 @@ export async function tripStatistics(period: ReportPeriod, groupBy: GroupBy): Pr
   const { timeZone } = await getSettings();
   const trips = await tripsForPeriod(period, timeZone);
   const table = statsTable(trips, { groupBy, period, timeZone });
-  const names = await namesFor(groupBy, table.rows.map((r) => r.key));
+  const names = await namesFor(
+    groupBy,
+    table.rows.map((r) => r.key),
+  );
   return { ...table, names, tripsRead: trips.length, timeZone };
 }

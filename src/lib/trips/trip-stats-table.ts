@@ -38,8 +38,7 @@ export function statsTable(trips: readonly Trip[], { groupBy, period, timeZone }
   const allGaps: number[] = [];
   for (const gap of depotGaps(trips, timeZone)) {
     if (gap.dispatchedOn < period.from || gap.dispatchedOn > period.to) continue;
-    const key =
-      groupBy === 'asset' ? gap.assetId : groupBy === 'depot' ? gap.depotId : (customerOfDispatch.get(`${gap.assetId}|${gap.dispatchedOn}`) ?? '');
+    const key = groupBy === 'asset' ? gap.assetId : groupBy === 'depot' ? gap.depotId : (customerOfDispatch.get(`${gap.assetId}|${gap.dispatchedOn}`) ?? '');
     const list = gapsByKey.get(key) ?? [];
     list.push(gap.days);
     gapsByKey.set(key, list);

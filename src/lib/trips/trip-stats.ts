@@ -303,4 +303,3 @@ export function summarise(trips: readonly Trip[], { groupBy, period, timeZone }:
     };
   });
 }
-

@@ -25,8 +25,15 @@ export interface TripView {
 }
 
 interface DetailRow {
-  filled_at: Date | null; discharged_at: Date | null; order_ref: string | null; load_ref: string | null; discharge_site: string | null;
-  closing_site: string | null; supplier: string | null; expiry_date: string | null; lot_status: string | null;
+  filled_at: Date | null;
+  discharged_at: Date | null;
+  order_ref: string | null;
+  load_ref: string | null;
+  discharge_site: string | null;
+  closing_site: string | null;
+  supplier: string | null;
+  expiry_date: string | null;
+  lot_status: string | null;
 }
 
 const iso = (v: Date | string | null) => (v === null ? null : new Date(v).toISOString());

@@ -7,9 +7,26 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 import { stockAt } from '@/lib/liners/liner-ledger.server';
 
-export interface SiteOption { id: number; name: string; kind: SiteKind }
-export interface LotOption { id: number; lotNumber: string; supplier: string; expiryDate: string; onHand: number }
-export interface OrderOption { id: number; reference: string; customer: string; neededBy: string; quantity: number; loaded: number }
+export interface SiteOption {
+  id: number;
+  name: string;
+  kind: SiteKind;
+}
+export interface LotOption {
+  id: number;
+  lotNumber: string;
+  supplier: string;
+  expiryDate: string;
+  onHand: number;
+}
+export interface OrderOption {
+  id: number;
+  reference: string;
+  customer: string;
+  neededBy: string;
+  quantity: number;
+  loaded: number;
+}
 
 /** Where this user records from by default: the yard's home depot, otherwise where the bin stands. */
 export async function actingSite(user: SessionUser, binSite: SiteOption | null): Promise<SiteOption | null> {

@@ -8,8 +8,16 @@
 // is lost silently. The bookkeeping rules are pure: src/lib/yard/scan-queue-state.ts.
 import { currentUserId, yardDb } from './yard-db.client';
 import {
-  applyResults, asQueuedBody, batchFailure, batchesFor, markAttempted, verdictFor,
-  type EventResult, type QueuedScan, type RecordedOutcome, type RefusedScan,
+  applyResults,
+  asQueuedBody,
+  batchFailure,
+  batchesFor,
+  markAttempted,
+  verdictFor,
+  type EventResult,
+  type QueuedScan,
+  type RecordedOutcome,
+  type RefusedScan,
 } from './scan-queue-state';
 import type { ScanEventBody } from '@/lib/scans/scan-schema';
 
@@ -151,7 +159,8 @@ async function sendBatch(batch: QueuedScan[], timeoutMs: number): Promise<EventR
   for (const item of batch) {
     const one = await request('POST', '/api/scan-events', item.body, timeoutMs);
     if (one.ok) out.push({ clientEventId: item.clientEventId, ok: true, outcome: one.data as RecordedOutcome });
-    else if (one.status === 0) break; // the rest stays queued
+    else if (one.status === 0)
+      break; // the rest stays queued
     else out.push({ clientEventId: item.clientEventId, ok: false, status: one.status, error: one.error });
   }
   return out;

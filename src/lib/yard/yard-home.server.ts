@@ -27,12 +27,26 @@ const q = <T extends object>(sql: string, bind: unknown[]) => sequelize.query<T>
 export async function loadYardHome(depotId: number | null, userId: number): Promise<YardHome> {
   const settings = await getSettings();
   const today = localDate(new Date(), settings.timeZone);
-  const empty: YardHome = { depot: null, today, counts: [], orders: [], toPrepare: 0, preparedHere: 0, expected: { returning: 0, awaitingCollection: 0, transfersIn: 0 }, testsDue: [], testsDueCount: 0, quarantined: 0, recent: [] };
+  const empty: YardHome = {
+    depot: null,
+    today,
+    counts: [],
+    orders: [],
+    toPrepare: 0,
+    preparedHere: 0,
+    expected: { returning: 0, awaitingCollection: 0, transfersIn: 0 },
+    testsDue: [],
+    testsDueCount: 0,
+    quarantined: 0,
+    recent: [],
+  };
   if (!depotId) return empty;
   const [depot] = await q<{ id: number; name: string }>('SELECT id, name FROM sites WHERE id = $1', [depotId]);
   const [counts, orders, expected, transfers, testsDue, recent] = await Promise.all([
     // Retired bins have left the pool even when their scrap still stands in the yard.
-    q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [depotId]),
+    q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [
+      depotId,
+    ]),
     // The same list "Start a load" offers (src/pages/loads/new.astro): the card counts what it opens.
     openOrdersAt(depotId).then((list) =>
       list.map(({ id, reference, customer, neededBy, quantity, loaded, binType }) => ({ id, reference, customer, neededBy, quantity, loaded, binType })),

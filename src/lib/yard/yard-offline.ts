@@ -29,8 +29,22 @@ export interface SnapshotBin {
   where: 'here' | 'expected';
 }
 
-export interface SnapshotLot { id: number; lotNumber: string; supplier: string; expiryDate: string; onHand: number }
-export interface SnapshotOrder { id: number; reference: string; customer: string; neededBy: string; quantity: number; loaded: number; binTypeId: number }
+export interface SnapshotLot {
+  id: number;
+  lotNumber: string;
+  supplier: string;
+  expiryDate: string;
+  onHand: number;
+}
+export interface SnapshotOrder {
+  id: number;
+  reference: string;
+  customer: string;
+  neededBy: string;
+  quantity: number;
+  loaded: number;
+  binTypeId: number;
+}
 
 export interface DepotSnapshot {
   depot: { id: number; name: string; kind: SiteKind };
@@ -131,7 +145,6 @@ export function offlineActions(bin: SnapshotBin, ctx: ActingContext): Action[] {
     siteKind: ctx.site?.kind ?? null,
   });
 }
-
 
 /**
  * Today's date (YYYY-MM-DD) in the operator's time zone, through Intl only: calendar.ts's localDate() gives the

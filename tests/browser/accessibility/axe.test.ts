@@ -26,7 +26,13 @@ function pageRoutes(): string[] {
     for (const e of readdirSync(dir)) {
       const p = join(dir, e);
       if (statSync(p).isDirectory()) walk(p);
-      else if (e.endsWith('.astro')) out.push('/' + relative(base, p).replace(/\.astro$/, '').replace(/(^|\/)index$/, ''));
+      else if (e.endsWith('.astro'))
+        out.push(
+          '/' +
+            relative(base, p)
+              .replace(/\.astro$/, '')
+              .replace(/(^|\/)index$/, ''),
+        );
     }
   };
   walk(base);
@@ -45,7 +51,16 @@ function mayOpen(viewer: Viewer, path: string): boolean {
   return can(viewer, access);
 }
 
-interface Examples { anyGrai: string; customerGrai: string; tripId: number; loadRef: string; binId: number; orderId: number; inspectionId: number; depotId: number }
+interface Examples {
+  anyGrai: string;
+  customerGrai: string;
+  tripId: number;
+  loadRef: string;
+  binId: number;
+  orderId: number;
+  inspectionId: number;
+  depotId: number;
+}
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
   const mine = await one<{ grai: string }>(
@@ -87,11 +102,18 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
   return route;
 }
 
-interface Violation { id: string; impact: string | null; help: string; nodes: string[] }
+interface Violation {
+  id: string;
+  impact: string | null;
+  help: string;
+  nodes: string[];
+}
 async function axe(page: Page): Promise<Violation[]> {
   await page.evaluate(AXE_SOURCE);
   return page.evaluate(async (tags) => {
-    const w = window as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: Array<{ id: string; impact: string | null; help: string; nodes: Array<{ target: unknown[] }> }> }> } };
+    const w = window as unknown as {
+      axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: Array<{ id: string; impact: string | null; help: string; nodes: Array<{ target: unknown[] }> }> }> };
+    };
     const r = await w.axe.run(document, { runOnly: { type: 'tag', values: tags }, resultTypes: ['violations'] });
     return r.violations.map((v) => ({ id: v.id, impact: v.impact, help: v.help, nodes: v.nodes.slice(0, 5).map((n) => n.target.join(' ')) }));
   }, WCAG_TAGS);

@@ -11,7 +11,13 @@ import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 const t = useApp();
 afterAll(closeDb);
 
-interface Focused { tag: string; text: string; indicator: boolean; inView: boolean; matches: boolean }
+interface Focused {
+  tag: string;
+  text: string;
+  indicator: boolean;
+  inView: boolean;
+  matches: boolean;
+}
 
 /** Where the focus is now, whether it shows (outline or box-shadow ring) and whether it matches `selector`. */
 function focused(page: Page, selector: string): Promise<Focused> {
@@ -23,7 +29,13 @@ function focused(page: Page, selector: string): Promise<Focused> {
     const ring = cs.boxShadow !== 'none' && cs.boxShadow !== '';
     const r = el.getBoundingClientRect();
     const inView = r.width > 1 && r.height > 1 && r.bottom > 0 && r.top < innerHeight && r.right > 0 && r.left < innerWidth;
-    return { tag: el.tagName.toLowerCase(), text: (el.innerText || el.getAttribute('aria-label') || (el as HTMLInputElement).name || '').slice(0, 40), indicator: outline || ring, inView, matches: el.matches(sel) };
+    return {
+      tag: el.tagName.toLowerCase(),
+      text: (el.innerText || el.getAttribute('aria-label') || (el as HTMLInputElement).name || '').slice(0, 40),
+      indicator: outline || ring,
+      inView,
+      matches: el.matches(sel),
+    };
   }, selector);
 }
 
@@ -44,7 +56,8 @@ describe('a planner by keyboard alone', () => {
     // A bin the yard has just quarantined (newest ids, away from the bins other tests take oldest first).
     const bin = await one<{ id: number; grai: string }>(
       `SELECT a.id, a.grai FROM assets a JOIN users u ON u.home_site_id = a.site_id
-        WHERE u.email = 'yard@northmere.example' AND a.status = 'available' ORDER BY a.id DESC LIMIT 1`);
+        WHERE u.email = 'yard@northmere.example' AND a.status = 'available' ORDER BY a.id DESC LIMIT 1`,
+    );
     const yardCtx = await newContext(t.browser, t.app, 'phone');
     const yard = await yardCtx.newPage();
     await signIn(yard, 'yard@northmere.example', DEMO_PASSWORD);
@@ -85,7 +98,9 @@ describe('a planner by keyboard alone', () => {
 
     const after = await one<{ status: string; voided: number }>(
       `SELECT a.status, (SELECT count(*)::int FROM scan_events e WHERE e.asset_id = a.id AND e.voided_at IS NOT NULL AND e.void_reason LIKE 'Quarantined the wrong bin%') AS voided
-         FROM assets a WHERE a.id = $1`, [bin.id]);
+         FROM assets a WHERE a.id = $1`,
+      [bin.id],
+    );
     expect(after).toEqual({ status: 'available', voided: 1 });
   });
 });

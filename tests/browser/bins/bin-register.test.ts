@@ -1,6 +1,6 @@
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
+import { describe, test, expect } from 'vitest';
 import { readFileSync } from 'node:fs';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { newContext, screenshot, signIn, useApp } from '../support/app';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 import { OPERATOR } from '@/db/seed/scenario';
@@ -8,8 +8,6 @@ import { makeGrai, groupGrai } from '@/lib/gs1';
 import { IMPORT_COLUMNS } from '@/lib/bins/register-csv';
 
 const t = useApp();
-
-
 
 // Serials unique to this run, so the tests can run again on the same database.
 const RUN = Date.now().toString(36).slice(-5).toUpperCase();
@@ -117,7 +115,7 @@ describe('correcting a bin', () => {
       await p.locator('#bin-form').waitFor();
     }
     await expect(first.locator('#fixed-grai').textContent()).resolves.toBe(grouped(grai(serial)));
-    await expect(first.getByText('Not editable: the GRAI is the bin\'s identity').isVisible()).resolves.toBe(true);
+    await expect(first.getByText("Not editable: the GRAI is the bin's identity").isVisible()).resolves.toBe(true);
     await expect(first.getByText('Not editable here: status and place follow the scan log').isVisible()).resolves.toBe(true);
 
     await first.fill('#f-lastIntermediateTestMonth', '2026-01');
@@ -153,7 +151,11 @@ describe('importing from CSV', () => {
       await open(page, '/bins/import');
       await page.getByRole('heading', { name: 'Import bins from a CSV file' }).waitFor();
 
-      await page.setInputFiles('#import-file', { name: 'bins-with-error.csv', mimeType: 'text/csv', buffer: Buffer.from([HEADER, good[0], good[1], bad, good[2], good[3]].join('\r\n')) });
+      await page.setInputFiles('#import-file', {
+        name: 'bins-with-error.csv',
+        mimeType: 'text/csv',
+        buffer: Buffer.from([HEADER, good[0], good[1], bad, good[2], good[3]].join('\r\n')),
+      });
       await page.locator('#import-preview').waitFor();
       await expect(page.locator('#import-counts').textContent()).resolves.toMatch(/5 lines · 4 ready · 1 with problems/);
       const row = page.locator('tr[data-line="4"]');

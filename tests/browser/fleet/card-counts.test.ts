@@ -21,7 +21,9 @@ describe('a card’s number is the length of the list it opens', () => {
     await page.waitForURL('**/fleet');
     for (const overview of ['/fleet', '/fleet?stale=7']) {
       await page.goto(overview);
-      const cards = await page.$$eval('a[data-card]', (as) => as.map((a) => ({ id: a.getAttribute('data-card')!, href: a.getAttribute('href')!, n: a.querySelector('dd')!.textContent })));
+      const cards = await page.$$eval('a[data-card]', (as) =>
+        as.map((a) => ({ id: a.getAttribute('data-card')!, href: a.getAttribute('href')!, n: a.querySelector('dd')!.textContent })),
+      );
       expect(cards.map((c) => c.id)).toEqual(['in-service', 'with-customers', 'overdue', 'awaiting', 'silent']);
       for (const card of cards) {
         await page.goto(card.href);

@@ -2,7 +2,7 @@ import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import { readFileSync } from 'node:fs';
 import pg from 'pg';
 import Papa from 'papaparse';
-import type { Browser, Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { newContext, screenshot, signIn, useApp, expectNoPageOverflow } from '../support/app';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
@@ -87,9 +87,10 @@ describe('the fleet grid', () => {
     expect(parsed.errors).toEqual([]);
     expect(parsed.data).toHaveLength(onHire);
     expect(new Set(parsed.data.map((r) => r.Status))).toEqual(new Set(['On hire']));
-    const expected = (
-      await db.query(`SELECT grai, next_due::text AS due FROM assets WHERE status = 'on_hire' ORDER BY next_due ASC NULLS LAST, id ASC`)
-    ).rows as Array<{ grai: string; due: string | null }>;
+    const expected = (await db.query(`SELECT grai, next_due::text AS due FROM assets WHERE status = 'on_hire' ORDER BY next_due ASC NULLS LAST, id ASC`)).rows as Array<{
+      grai: string;
+      due: string | null;
+    }>;
     expect(parsed.data.map((r) => r.GRAI)).toEqual(expected.map((r) => r.grai));
     expect(parsed.data.map((r) => r['Next test due'] || null)).toEqual(expected.map((r) => r.due));
 
@@ -100,7 +101,10 @@ describe('the fleet grid', () => {
   test('saving a view keeps its filter and sort; it opens again by its link', async () => {
     const { ctx, page } = await signedIn('planner');
     await page.goto('/fleet/bins?view=builtin:quarantine');
-    await gridRows(page).first().waitFor({ state: 'attached' }).catch(() => undefined);
+    await gridRows(page)
+      .first()
+      .waitFor({ state: 'attached' })
+      .catch(() => undefined);
     const quarantined = Number((await db.query(`SELECT count(*)::int AS n FROM assets WHERE status = 'quarantine'`)).rows[0].n);
     await expect.poll(() => page.locator('#bin-count').textContent()).toBe(`${quarantined} ${quarantined === 1 ? 'bin' : 'bins'}`);
     await expect(page.locator('#view-select').inputValue()).resolves.toBe('builtin:quarantine');

@@ -55,7 +55,9 @@ describe('recording a 2.5-year inspection on a phone', () => {
     await expect(page.locator('[data-testid="test-mark"]').textContent()).resolves.toMatch(new RegExp(`^${bin.today.slice(5, 7)} ${bin.today.slice(2, 4)} · `));
     await screenshot(page, 'inspection-recorded-phone');
     const rec = await one<{ id: number; photo_ids: number[]; leak_test_pressure_kpa: string; next_intermediate_due: string }>(
-      `SELECT id, photo_ids, leak_test_pressure_kpa, next_intermediate_due::text FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
+      `SELECT id, photo_ids, leak_test_pressure_kpa, next_intermediate_due::text FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`,
+      [bin.id],
+    );
     expect(rec.photo_ids).toHaveLength(1);
     expect(Number(rec.leak_test_pressure_kpa)).toBe(21);
     expect(rec.next_intermediate_due).toBe(due);

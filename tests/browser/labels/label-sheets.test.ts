@@ -3,7 +3,7 @@ import { execFileSync } from 'node:child_process';
 import { mkdirSync, readFileSync, rmSync, writeFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { QueryTypes } from 'sequelize';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page } from 'playwright-core';
 import { PNG } from 'pngjs';
 import jsQR from 'jsqr';
 import { ARTIFACTS, newContext, screenshot, signIn, useApp } from '../support/app';
@@ -33,7 +33,12 @@ let ctx: BrowserContext;
 let page: Page;
 let base: string;
 
-interface BinRow { id: number; grai: string; serial: string; label_printed_at: Date | null }
+interface BinRow {
+  id: number;
+  grai: string;
+  serial: string;
+  label_printed_at: Date | null;
+}
 
 beforeAll(async () => {
   rmSync(OUT, { recursive: true, force: true });
@@ -73,18 +78,27 @@ function pdfInfo(file: string) {
 /** Word boxes per page from `pdftotext -bbox`, in points from the page's top-left corner. */
 function wordsByPage(file: string) {
   const html = execFileSync('pdftotext', ['-bbox', file, '-'], { encoding: 'utf8', maxBuffer: 64 << 20 });
-  return html.split('<page ').slice(1).map((chunk) =>
-    [...chunk.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({
-      xMin: Number(m[1]), yMin: Number(m[2]), xMax: Number(m[3]), yMax: Number(m[4]), text: m[5]!,
-    })),
-  );
+  return html
+    .split('<page ')
+    .slice(1)
+    .map((chunk) =>
+      [...chunk.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)].map((m) => ({
+        xMin: Number(m[1]),
+        yMin: Number(m[2]),
+        xMax: Number(m[3]),
+        yMax: Number(m[4]),
+        text: m[5]!,
+      })),
+    );
 }
 
 /** Rasterises every page, cuts out each label position and decodes it; null where no QR is found. */
 function decodeLabels(file: string, stock: Stock, name: string): Array<Array<string | null>> {
   const prefix = join(OUT, name);
   execFileSync('pdftoppm', ['-r', String(DPI), '-png', file, prefix]);
-  const pngs = readdirSync(OUT).filter((f) => f.startsWith(`${name}-`) && f.endsWith('.png')).sort((a, b) => Number(/-(\d+)\.png$/.exec(a)![1]) - Number(/-(\d+)\.png$/.exec(b)![1]));
+  const pngs = readdirSync(OUT)
+    .filter((f) => f.startsWith(`${name}-`) && f.endsWith('.png'))
+    .sort((a, b) => Number(/-(\d+)\.png$/.exec(a)![1]) - Number(/-(\d+)\.png$/.exec(b)![1]));
   const px = (mm: number) => Math.round((mm / 25.4) * DPI);
   return pngs.map((f) => {
     const png = PNG.sync.read(readFileSync(join(OUT, f)));
@@ -116,7 +130,9 @@ function expectTextInLabels(file: string, stock: Stock, bins: BinRow[], startAt:
     const r = slotRectMm(stock, (n % perSheet) + 1);
     const hits = words.filter((w) => w.text === bin.serial);
     // The serial stands twice: large on its own, and at the end of the grouped GRAI.
-    const inside = hits.filter((w) => w.xMin >= (r.x + stock.padX + stock.qr) * MM - 0.5 && w.xMax <= (r.x + r.w) * MM + 0.5 && w.yMin >= r.y * MM - 0.5 && w.yMax <= (r.y + r.h) * MM + 0.5);
+    const inside = hits.filter(
+      (w) => w.xMin >= (r.x + stock.padX + stock.qr) * MM - 0.5 && w.xMax <= (r.x + r.w) * MM + 0.5 && w.yMin >= r.y * MM - 0.5 && w.yMax <= (r.y + r.h) * MM + 0.5,
+    );
     expect(inside.length, `serial ${bin.serial} inside label ${n + 1}`).toBe(2);
   });
 }
@@ -156,23 +172,28 @@ describe('label sheets print to PDF with every QR readable', () => {
 
   test('viewing a sheet records nothing; "Record as printed" stamps exactly those bins', async () => {
     const ids = a4Bins.map((b) => b.id);
-    const before = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE id = ANY($1::int[]) AND label_printed_at IS NOT NULL', { bind: [ids], type: QueryTypes.SELECT });
+    const before = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE id = ANY($1::int[]) AND label_printed_at IS NOT NULL', {
+      bind: [ids],
+      type: QueryTypes.SELECT,
+    });
     expect(before[0]!.n).toBe(0);
     const othersBefore = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE label_printed_at IS NOT NULL', { type: QueryTypes.SELECT });
     await page.click('#mark-printed');
     await page.locator('#mark-result.notice-good').waitFor();
     await expect(page.locator('#mark-result').textContent()).resolves.toMatch(/Recorded: 26 labels printed/);
-    const after = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE id = ANY($1::int[]) AND label_printed_at IS NOT NULL', { bind: [ids], type: QueryTypes.SELECT });
+    const after = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE id = ANY($1::int[]) AND label_printed_at IS NOT NULL', {
+      bind: [ids],
+      type: QueryTypes.SELECT,
+    });
     expect(after[0]!.n).toBe(26);
     const othersAfter = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM assets WHERE label_printed_at IS NOT NULL', { type: QueryTypes.SELECT });
     expect(othersAfter[0]!.n - othersBefore[0]!.n).toBe(26);
   });
 
   test('US Letter, 30 bins by id in a scrambled order from label 5: 2 pages, QRs in the order given, used positions blank', async () => {
-    const bins = await sequelize.query<BinRow>(
-      `SELECT id, grai, serial, label_printed_at FROM assets WHERE status <> 'retired' ORDER BY md5(id::text) LIMIT 30`,
-      { type: QueryTypes.SELECT },
-    );
+    const bins = await sequelize.query<BinRow>(`SELECT id, grai, serial, label_printed_at FROM assets WHERE status <> 'retired' ORDER BY md5(id::text) LIMIT 30`, {
+      type: QueryTypes.SELECT,
+    });
     expect(bins).toHaveLength(30);
     await page.goto(`/labels/sheet?ids=${bins.map((b) => b.id).join(',')}&stock=letter-3x10&start=5`);
     await expect(page.locator('#label-count').textContent()).resolves.toBe('30');

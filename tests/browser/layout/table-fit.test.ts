@@ -12,19 +12,26 @@ afterAll(closeDb);
 const WIDTHS = [390, 1280, 1920] as const;
 const login = (role: string) => DEMO_LOGINS.find((l) => l.role === role)!;
 
-interface TableFit { name: string; over: boolean; scrollsInRegion: boolean; pinned: boolean }
+interface TableFit {
+  name: string;
+  over: boolean;
+  scrollsInRegion: boolean;
+  pinned: boolean;
+}
 
 async function tablesOf(page: Page): Promise<{ pageOverflow: number; tables: TableFit[] }> {
   return page.evaluate(() => {
-    const tables = [...document.querySelectorAll('table')].filter((el) => (el as HTMLElement).offsetParent !== null).map((el, i) => {
-      const box = el.parentElement!;
-      const over = el.getBoundingClientRect().width > box.clientWidth + 1;
-      const region = el.closest('[role="region"][aria-label]') as HTMLElement | null;
-      const scrollsInRegion = !!region && ['auto', 'scroll'].includes(getComputedStyle(region).overflowX);
-      const first = el.querySelector('tbody tr > :first-child');
-      const pinned = !!first && getComputedStyle(first).position === 'sticky';
-      return { name: el.getAttribute('data-testid') ?? el.id ?? `table ${i + 1}`, over, scrollsInRegion, pinned };
-    });
+    const tables = [...document.querySelectorAll('table')]
+      .filter((el) => (el as HTMLElement).offsetParent !== null)
+      .map((el, i) => {
+        const box = el.parentElement!;
+        const over = el.getBoundingClientRect().width > box.clientWidth + 1;
+        const region = el.closest('[role="region"][aria-label]') as HTMLElement | null;
+        const scrollsInRegion = !!region && ['auto', 'scroll'].includes(getComputedStyle(region).overflowX);
+        const first = el.querySelector('tbody tr > :first-child');
+        const pinned = !!first && getComputedStyle(first).position === 'sticky';
+        return { name: el.getAttribute('data-testid') ?? el.id ?? `table ${i + 1}`, over, scrollsInRegion, pinned };
+      });
     return { pageOverflow: document.documentElement.scrollWidth - document.documentElement.clientWidth, tables };
   });
 }
@@ -36,7 +43,8 @@ async function check(page: Page, path: string, width: number) {
   const { pageOverflow, tables } = await tablesOf(page);
   expect(pageOverflow, `${path} at ${width}: the page scrolls sideways`).toBeLessThanOrEqual(0);
   for (const tb of tables) {
-    if (tb.over) expect(tb.scrollsInRegion && tb.pinned, `${path} at ${width}: ${tb.name} is wider than its box without a labelled scroll region and a pinned identifier`).toBe(true);
+    if (tb.over)
+      expect(tb.scrollsInRegion && tb.pinned, `${path} at ${width}: ${tb.name} is wider than its box without a labelled scroll region and a pinned identifier`).toBe(true);
   }
   await screenshot(page, `fit${path.replace(/[/?=&]/g, '-')}-${width}`);
 }
@@ -71,7 +79,8 @@ describe('tables fit their screens', () => {
 describe('the yard bin page at desktop width', () => {
   test('its cards stack in the phone column instead of squeezing three abreast', { timeout: 120_000 }, async () => {
     const bin = await one<{ grai: string }>(
-      `SELECT a.grai FROM assets a JOIN users u ON u.home_site_id = a.site_id WHERE u.email = 'yard@northmere.example' AND a.status = 'available' ORDER BY a.id LIMIT 1`);
+      `SELECT a.grai FROM assets a JOIN users u ON u.home_site_id = a.site_id WHERE u.email = 'yard@northmere.example' AND a.status = 'available' ORDER BY a.id LIMIT 1`,
+    );
     const ctx = await t.browser.newContext({ baseURL: t.app.url, viewport: { width: 1280, height: 900 } });
     const page = await ctx.newPage();
     await signIn(page, 'yard@northmere.example', DEMO_PASSWORD);

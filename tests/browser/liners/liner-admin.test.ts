@@ -34,7 +34,8 @@ describe('liner specs and suppliers', () => {
     await page.click('dialog button[type="submit"]');
     await page.waitForSelector('p[role="status"]:has-text("Added liner spec TE-1000-DN80")');
     const stored = await one<{ valve_size: string; types: number }>(
-      `SELECT s.valve_size, (SELECT count(*)::int FROM bin_type_liner_specs b WHERE b.liner_spec_id = s.id) AS types FROM liner_specs s WHERE s.code = 'TE-1000-DN80'`);
+      `SELECT s.valve_size, (SELECT count(*)::int FROM bin_type_liner_specs b WHERE b.liner_spec_id = s.id) AS types FROM liner_specs s WHERE s.code = 'TE-1000-DN80'`,
+    );
     expect(stored).toEqual({ valve_size: 'DN80', types: 1 });
     await screenshot(page, 'liner-specs-desktop');
     await page.setViewportSize({ width: 1920, height: 1000 });

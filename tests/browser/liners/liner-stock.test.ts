@@ -19,21 +19,32 @@ describe('the liner stock page', () => {
     const supplier = await one<{ id: number }>(`SELECT id FROM liner_suppliers WHERE name = 'Polyvale Liners'`);
     const spec = await one<{ id: number }>(
       `INSERT INTO liner_specs (code, name, material, layers, nominal_capacity_l, valve_type, valve_size, gland_size, food_contact, supplier_id, article_number)
-       VALUES ('XT-1000', 'Test kit bag 1,000 L', 'PE', 1, 1000, 'ball', 'DN80', 'DN150', FALSE, $1, 'PVL-XT') RETURNING id`, [supplier.id]);
+       VALUES ('XT-1000', 'Test kit bag 1,000 L', 'PE', 1, 1000, 'ball', 'DN80', 'DN150', FALSE, $1, 'PVL-XT') RETURNING id`,
+      [supplier.id],
+    );
     await one(`INSERT INTO bin_type_liner_specs (bin_type_id, liner_spec_id) SELECT id, $1 FROM bin_types WHERE code = 'FX1000' RETURNING bin_type_id`, [spec.id]);
     const order = await one<{ id: number }>(`SELECT id FROM hire_orders WHERE depot_site_id = $1 ORDER BY id LIMIT 1`, [rtm.id]);
     const newLot = async (lotNumber: string, site: number, qty: number, expiresInDays: number) => {
       const lot = await one<{ id: number }>(
         `INSERT INTO liner_lots (supplier, lot_number, spec, quantity_received, received_on, expiry_date, site_id, liner_spec_id, supplier_id)
          VALUES ('Polyvale Liners', $1, 'PE kit bag', $2, (now() AT TIME ZONE 'Europe/Amsterdam')::date - 30, (now() AT TIME ZONE 'Europe/Amsterdam')::date + $3::int, $4, $5, $6)
-         RETURNING id`, [lotNumber, qty, expiresInDays, site, spec.id, supplier.id]);
-      await one(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at) VALUES ($1, $2, 'receipt', $3, now() - interval '30 days') RETURNING id`, [lot.id, site, qty]);
+         RETURNING id`,
+        [lotNumber, qty, expiresInDays, site, spec.id, supplier.id],
+      );
+      await one(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at) VALUES ($1, $2, 'receipt', $3, now() - interval '30 days') RETURNING id`, [
+        lot.id,
+        site,
+        qty,
+      ]);
       return lot.id;
     };
     await newLot('XP-SHORT-1', depot.id, 300, 20);
     const used = await newLot('XT-RTM-1', rtm.id, 100, 400);
     for (const daysAgo of [20, 10, 3]) {
-      await one(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at, hire_order_id, folded_bins) VALUES ($1, $2, 'kit_sent', -20, now() - make_interval(days => $3), $4, 20) RETURNING id`, [used, rtm.id, daysAgo, order.id]);
+      await one(
+        `INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at, hire_order_id, folded_bins) VALUES ($1, $2, 'kit_sent', -20, now() - make_interval(days => $3), $4, 20) RETURNING id`,
+        [used, rtm.id, daysAgo, order.id],
+      );
     }
 
     const desk = await newContext(t.browser, t.app, 'desktop');
@@ -61,9 +72,15 @@ describe('the liner stock page', () => {
     const ledger = await one<{ n: number }>(
       `SELECT COALESCE(sum(x.n), 0)::int AS n FROM (SELECT sum(m.quantity) AS n FROM liner_moves m JOIN liner_lots l ON l.id = m.lot_id
          WHERE m.site_id = $1 AND l.liner_spec_id = $2 AND l.status = 'released' AND l.expiry_date >= (now() AT TIME ZONE 'Europe/Amsterdam')::date
-         GROUP BY l.id HAVING sum(m.quantity) > 0) x`, [depot.id, spec.id]);
+         GROUP BY l.id HAVING sum(m.quantity) > 0) x`,
+      [depot.id, spec.id],
+    );
     await expect(card.locator('[data-figure="on-hand"]').textContent()).resolves.toBe(ledger.n.toLocaleString('en-GB'));
-    for (const [width, name] of [[1280, 'desktop'], [1920, '1920'], [390, '390']] as const) {
+    for (const [width, name] of [
+      [1280, 'desktop'],
+      [1920, '1920'],
+      [390, '390'],
+    ] as const) {
       await page.setViewportSize({ width, height: 900 });
       await screenshot(page, `liner-stock-depot-${name}`);
       await card.screenshot({ path: join(ARTIFACTS, 'screenshots', `liner-stock-card-${name}.png`) });

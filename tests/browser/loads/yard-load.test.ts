@@ -110,7 +110,9 @@ describe('preparing and loading bins on a phone', () => {
 
     const after = await rows<{ status: string }>(`SELECT status FROM assets WHERE grai = ANY($1)`, [bins.map((b) => b.grai)]);
     expect(after.map((a) => a.status)).toEqual(['on_hire', 'on_hire']);
-    const load = await one<{ status: string; received_by_name: string; delivery_photo_id: number | null }>(`SELECT status, received_by_name, delivery_photo_id FROM loads ORDER BY id DESC LIMIT 1`);
+    const load = await one<{ status: string; received_by_name: string; delivery_photo_id: number | null }>(
+      `SELECT status, received_by_name, delivery_photo_id FROM loads ORDER BY id DESC LIMIT 1`,
+    );
     expect(load).toMatchObject({ status: 'delivered', received_by_name: 'Mila de Boer' });
     expect(load.delivery_photo_id).not.toBeNull();
   });

@@ -53,7 +53,9 @@ describe('hire orders', () => {
     await expect(planner.locator('[data-order-status]').first().getAttribute('data-order-status')).resolves.toBe('confirmed');
     await expect(planner.locator('[data-testid="order-tariff"]').textContent()).resolves.toMatch(/Free days\s*21 days/);
     const stored = await one<{ reference: string; status: string; liner_food_contact: boolean; liner_max_fill_temp_c: number }>(
-      `SELECT reference, status, liner_food_contact, liner_max_fill_temp_c FROM hire_orders WHERE id = $1`, [orderId]);
+      `SELECT reference, status, liner_food_contact, liner_max_fill_temp_c FROM hire_orders WHERE id = $1`,
+      [orderId],
+    );
     expect(stored).toMatchObject({ status: 'confirmed', liner_food_contact: true, liner_max_fill_temp_c: 45 });
     // 1200 × 1000 mm, 1160 mm erected: 26 floor positions × 2 levels on a standard trailer (REFERENCES §9, common practice)
     await expect(planner.locator('[data-testid="order-trucks"]').textContent()).resolves.toMatch(/takes 52 of these bins \(26 floor positions × 2 high/);
@@ -62,7 +64,9 @@ describe('hire orders', () => {
     // the yard prepares one bin and loads it against the new order
     const bin = await one<{ grai: string; serial: string }>(
       `SELECT grai, serial FROM assets WHERE site_id = $1 AND status = 'available' AND NOT prep_checked AND next_due > current_date + 30
-          AND bin_type_id = $2 ORDER BY id DESC LIMIT 1`, [depot.id, type.id]);
+          AND bin_type_id = $2 ORDER BY id DESC LIMIT 1`,
+      [depot.id, type.id],
+    );
     const phone = await newContext(t.browser, t.app, 'phone');
     const yard = await phone.newPage();
     await signIn(yard, 'yard@northmere.example', DEMO_PASSWORD);
@@ -101,7 +105,9 @@ describe('hire orders', () => {
   });
 
   test('the fill planner on an order: the water example of ADR 4.1.1.4 (b) (REFERENCES §3) and a refused target', async () => {
-    const order = await one<{ id: number }>(`SELECT ho.id FROM hire_orders ho JOIN bin_types bt ON bt.id = ho.bin_type_id WHERE bt.nominal_capacity_l = 1000 ORDER BY ho.id LIMIT 1`);
+    const order = await one<{ id: number }>(
+      `SELECT ho.id FROM hire_orders ho JOIN bin_types bt ON bt.id = ho.bin_type_id WHERE bt.nominal_capacity_l = 1000 ORDER BY ho.id LIMIT 1`,
+    );
     const ctx = await newContext(t.browser, t.app, 'desktop');
     const page = await ctx.newPage();
     await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);

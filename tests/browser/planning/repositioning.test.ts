@@ -26,9 +26,9 @@ describe('repositioning empties', () => {
     console.info(`[repositioning] page answered in ${seconds.toFixed(2)} s`);
     expect(seconds).toBeLessThan(8); // the goal is 1 s on a quiet machine; this bounds a loaded one
 
-    const lanes = await page.locator('[data-testid="plan-lanes"] tbody tr').evaluateAll((trs) =>
-      trs.map((tr) => Array.from(tr.querySelectorAll('td'), (td) => td.textContent ?? '')),
-    );
+    const lanes = await page
+      .locator('[data-testid="plan-lanes"] tbody tr')
+      .evaluateAll((trs) => trs.map((tr) => Array.from(tr.querySelectorAll('td'), (td) => td.textContent ?? '')));
     const trucks = lanes.reduce((s, l) => s + num(l[3]!), 0);
     const cost = lanes.reduce((s, l) => s + num(l[5]!), 0);
     expect(num(await page.locator('[data-figure="trucks"]').textContent())).toBe(trucks);
@@ -36,9 +36,11 @@ describe('repositioning empties', () => {
     await expect(page.locator('[data-figure="solver"]').textContent()).resolves.toMatch(/Shortages: (optimal|nothing to solve)/);
 
     // Every depot short of bins gets lanes into it carrying at least its shortage, or is named as still short.
-    const rows = await page.locator('[data-testid="depot-balance"] tbody tr').evaluateAll((trs) =>
-      trs.map((tr) => ({ depot: tr.getAttribute('data-depot')!, short: Number((tr.querySelectorAll('td')[5]?.textContent ?? '').replace(/from.*$/s, '').replace(/\D/g, '')) })),
-    );
+    const rows = await page
+      .locator('[data-testid="depot-balance"] tbody tr')
+      .evaluateAll((trs) =>
+        trs.map((tr) => ({ depot: tr.getAttribute('data-depot')!, short: Number((tr.querySelectorAll('td')[5]?.textContent ?? '').replace(/from.*$/s, '').replace(/\D/g, '')) })),
+      );
     const stillShort = (await page.locator('.notice-attention li').allTextContents()).join('\n');
     const into = new Map<string, number>();
     for (const l of lanes) into.set(l[1]!.trim(), (into.get(l[1]!.trim()) ?? 0) + num(l[2]!.split('\n')[0]!.replace(/for its orders.*/s, '')));

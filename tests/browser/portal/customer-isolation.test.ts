@@ -18,7 +18,11 @@ const PAGES = join(ROOT, 'src/pages');
 const METHODS = ['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const;
 type Method = (typeof METHODS)[number];
 
-interface Route { file: string; pattern: string; methods: Method[] }
+interface Route {
+  file: string;
+  pattern: string;
+  methods: Method[];
+}
 
 /** Every page and route file, with its URL pattern and the methods it answers. */
 function routes(): Route[] {
@@ -26,10 +30,13 @@ function routes(): Route[] {
   const walk = (dir: string) => {
     for (const e of readdirSync(dir, { withFileTypes: true })) {
       const p = join(dir, e.name);
-      if (e.isDirectory()) { walk(p); continue; }
+      if (e.isDirectory()) {
+        walk(p);
+        continue;
+      }
       if (!/\.(astro|ts)$/.test(e.name)) continue;
       const rel = relative(PAGES, p);
-      const pattern = '/' + rel.replace(/\.(astro|ts)$/, '').replace(/(^|\/)index$/, '');
+      const pattern = `/${rel.replace(/\.(astro|ts)$/, '').replace(/(^|\/)index$/, '')}`;
       const src = readFileSync(p, 'utf8');
       const methods: Method[] = e.name.endsWith('.astro')
         ? ['GET', ...(/request\.method\s*===?\s*'POST'/.test(src) ? (['POST'] as const) : [])]
@@ -43,9 +50,24 @@ function routes(): Route[] {
 
 /** What belongs to organisation B (and, for contrast, a bin of A's own). */
 interface Other {
-  orgId: number; userId: number; siteId: number; binId: number; grai: string; serial: string; tripId: number; orderId: number;
-  loadRef: string; eventId: number; collectionId: number; damageId: number; photoId: number; viewId: number;
-  markers: string[]; ownGrai: string; ownBinId: number; inspectionId: number;
+  orgId: number;
+  userId: number;
+  siteId: number;
+  binId: number;
+  grai: string;
+  serial: string;
+  tripId: number;
+  orderId: number;
+  loadRef: string;
+  eventId: number;
+  collectionId: number;
+  damageId: number;
+  photoId: number;
+  viewId: number;
+  markers: string[];
+  ownGrai: string;
+  ownBinId: number;
+  inspectionId: number;
 }
 
 let other: Other;
@@ -72,13 +94,15 @@ beforeAll(async () => {
   asB = await signedIn(SECOND_CUSTOMER_LOGIN.email);
   const b = await one<{ org_id: number; user_id: number; org_name: string; contact: string; user_name: string }>(
     `SELECT o.id AS org_id, u.id AS user_id, o.name AS org_name, o.contact_email AS contact, u.name AS user_name
-       FROM users u JOIN organisations o ON o.id = u.organisation_id WHERE u.email = $1`, [SECOND_CUSTOMER_LOGIN.email]);
+       FROM users u JOIN organisations o ON o.id = u.organisation_id WHERE u.email = $1`,
+    [SECOND_CUSTOMER_LOGIN.email],
+  );
   const a = await one<{ org_id: number }>(`SELECT organisation_id AS org_id FROM users WHERE email = $1`, [customerA.email]);
   expect(a.org_id, 'the two customer logins belong to two organisations').not.toBe(b.org_id);
-  const bin = await one<{ id: number; grai: string; serial: string }>(
-    `SELECT id, grai, serial FROM assets WHERE customer_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [b.org_id]);
-  const own = await one<{ id: number; grai: string }>(
-    `SELECT id, grai FROM assets WHERE customer_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [a.org_id]);
+  const bin = await one<{ id: number; grai: string; serial: string }>(`SELECT id, grai, serial FROM assets WHERE customer_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [
+    b.org_id,
+  ]);
+  const own = await one<{ id: number; grai: string }>(`SELECT id, grai FROM assets WHERE customer_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [a.org_id]);
   const sites = await rows<{ id: number; name: string; code: string }>(`SELECT id, name, code FROM sites WHERE organisation_id = $1 ORDER BY id`, [b.org_id]);
   const trip = await one<{ id: number }>(`SELECT id FROM trips WHERE customer_id = $1 ORDER BY id DESC LIMIT 1`, [b.org_id]);
   const order = await one<{ id: number; reference: string }>(`SELECT id, reference FROM hire_orders WHERE customer_id = $1 ORDER BY id DESC LIMIT 1`, [b.org_id]);
@@ -91,24 +115,49 @@ beforeAll(async () => {
   expect(up.status(), await up.text()).toBe(201);
   const photoId = ((await up.json()) as { data: { id: number } }).data.id;
   for (const form of ['collection-request', 'damage-report']) {
-    const multipart: Record<string, string> = form === 'collection-request'
-      ? { quantity: '3', contactName: b.user_name, contactEmail: SECOND_CUSTOMER_LOGIN.email, note: 'Three folded by dock 2' }
-      : { description: 'Bent corner post after a forklift knock', contactName: b.user_name, contactEmail: SECOND_CUSTOMER_LOGIN.email };
+    const multipart: Record<string, string> =
+      form === 'collection-request'
+        ? { quantity: '3', contactName: b.user_name, contactEmail: SECOND_CUSTOMER_LOGIN.email, note: 'Three folded by dock 2' }
+        : { description: 'Bent corner post after a forklift knock', contactName: b.user_name, contactEmail: SECOND_CUSTOMER_LOGIN.email };
     const res = await asB.post(`/api/public/bins/${bin.grai}/${form}`, { multipart, headers: { Origin: t.app.url } });
     expect(res.status(), `${form}: ${await res.text()}`).toBe(201);
   }
   const collection = await one<{ id: number }>(`SELECT id FROM collection_requests WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
   const damage = await one<{ id: number }>(`SELECT id FROM damage_reports WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
   const load = await one<{ reference: string } | undefined>(
-    `SELECT l.reference FROM loads l JOIN hire_orders ho ON ho.id = l.hire_order_id WHERE ho.customer_id = $1 ORDER BY l.id DESC LIMIT 1`, [b.org_id]);
+    `SELECT l.reference FROM loads l JOIN hire_orders ho ON ho.id = l.hire_order_id WHERE ho.customer_id = $1 ORDER BY l.id DESC LIMIT 1`,
+    [b.org_id],
+  );
   const view = await one<{ id: number } | undefined>(`SELECT id FROM grid_views ORDER BY id LIMIT 1`);
   other = {
-    orgId: b.org_id, userId: b.user_id, siteId: sites[0]!.id, binId: bin.id, grai: bin.grai, serial: bin.serial, tripId: trip.id,
-    orderId: order.id, loadRef: load?.reference ?? 'LD-NONE-1', eventId: event.id, collectionId: collection.id, damageId: damage.id,
-    photoId, viewId: view?.id ?? 1, inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
+    orgId: b.org_id,
+    userId: b.user_id,
+    siteId: sites[0]!.id,
+    binId: bin.id,
+    grai: bin.grai,
+    serial: bin.serial,
+    tripId: trip.id,
+    orderId: order.id,
+    loadRef: load?.reference ?? 'LD-NONE-1',
+    eventId: event.id,
+    collectionId: collection.id,
+    damageId: damage.id,
+    photoId,
+    viewId: view?.id ?? 1,
+    inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
-    markers: [b.org_name, b.contact, SECOND_CUSTOMER_LOGIN.email, b.user_name, order.reference, ...sites.flatMap((s) => [s.name, s.code]), 'Three folded by dock 2', 'forklift knock'],
-    ownGrai: own.grai, ownBinId: own.id,
+    markers: [
+      b.org_name,
+      b.contact,
+      SECOND_CUSTOMER_LOGIN.email,
+      b.user_name,
+      order.reference,
+      ...sites.flatMap((s) => [s.name, s.code]),
+      'Three folded by dock 2',
+      'forklift knock',
+    ],
+    ownGrai: own.grai,
+    ownBinId: own.id,
   };
 });
 
@@ -145,10 +194,6 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/scan-events/[id]/void': `/api/scan-events/${o.eventId}/void`,
     '/bins/[grai]': `/bins/${o.grai}`,
     '/bins/[grai]/edit': `/bins/${o.grai}/edit`,
-    '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
-    // Inspection records are the operator's own (customers never hold the capability): any id will do.
-    '/api/inspections/[id]/amend': '/api/inspections/1/amend',
-    '/inspections/[id]': '/inspections/1',
     '/loads/[ref]': `/loads/${o.loadRef}`,
     '/loads/[ref]/note': `/loads/${o.loadRef}/note`,
     // The delivery link is a capability: whoever holds the token may confirm. A guessed one finds nothing.
@@ -180,9 +225,22 @@ function filterQueries(o: Other): string[] {
 /** A body naming B's things, sent to every route that takes one. */
 function genericBody(o: Other) {
   return {
-    clientEventId: randomUUID(), grai: o.grai, assetId: o.binId, siteId: o.siteId, customerId: o.orgId, hireOrderId: o.orderId,
-    orderId: o.orderId, tripId: o.tripId, ids: [o.binId], photoIds: [o.photoId], action: 'fold', status: 'cancelled', version: 0,
-    quantity: 1, reason: 'isolation check', email: SECOND_CUSTOMER_LOGIN.email,
+    clientEventId: randomUUID(),
+    grai: o.grai,
+    assetId: o.binId,
+    siteId: o.siteId,
+    customerId: o.orgId,
+    hireOrderId: o.orderId,
+    orderId: o.orderId,
+    tripId: o.tripId,
+    ids: [o.binId],
+    photoIds: [o.photoId],
+    action: 'fold',
+    status: 'cancelled',
+    version: 0,
+    quantity: 1,
+    reason: 'isolation check',
+    email: SECOND_CUSTOMER_LOGIN.email,
   };
 }
 
@@ -198,13 +256,36 @@ function targetedWrites(o: Other): Array<{ label: string; method: Method; path: 
     { label: "scan B's bin by its serial", method: 'POST', path: '/api/scan-events', data: scan({ grai: o.serial, action: 'fold' }) },
     { label: "scan one's own bin at B's site", method: 'POST', path: '/api/scan-events', data: scan({ grai: o.ownGrai, action: 'fold', siteId: o.siteId }) },
     { label: 'confirm a delivery with a guessed token', method: 'POST', path: '/api/public/loads/confirm', multipart: { token: 'A'.repeat(43), receivedByName: 'Someone else' } },
-    { label: "order bins to B's site", method: 'POST', path: '/portal/orders/new', multipart: { binTypeId: '1', quantity: '2', neededBy: 'TODAY', deliverySiteId: String(o.siteId) }, portal: true },
-    { label: "ask for a collection at B's site", method: 'POST', path: '/portal/collections', multipart: { siteId: String(o.siteId), quantity: '2', readyOn: 'TODAY' }, portal: true },
+    {
+      label: "order bins to B's site",
+      method: 'POST',
+      path: '/portal/orders/new',
+      multipart: { binTypeId: '1', quantity: '2', neededBy: 'TODAY', deliverySiteId: String(o.siteId) },
+      portal: true,
+    },
+    {
+      label: "ask for a collection at B's site",
+      method: 'POST',
+      path: '/portal/collections',
+      multipart: { siteId: String(o.siteId), quantity: '2', readyOn: 'TODAY' },
+      portal: true,
+    },
     { label: "report damage on B's bin", method: 'POST', path: '/portal/damage', multipart: { grai: o.grai, description: 'Bent corner post' }, portal: true },
     { label: "confirm B's load", method: 'POST', path: '/portal/deliveries', multipart: { reference: o.loadRef, receivedByName: 'Someone else' }, portal: true },
     { label: "limit B's user to a site", method: 'POST', path: '/portal/people?form=sites', multipart: { userId: String(o.userId), siteIds: String(o.siteId) }, portal: true },
-    { label: "invite a colleague limited to B's site", method: 'POST', path: '/portal/people?form=invite', multipart: { name: 'New Person', email: `new-${Date.now()}@e2e.example`, siteIds: String(o.siteId) }, portal: true },
-    { label: "B's bin inside a batch", method: 'POST', path: '/api/scan-events', data: { events: [scan({ grai: o.grai, action: 'fold' }), scan({ assetId: o.binId, action: 'discharge' })] } },
+    {
+      label: "invite a colleague limited to B's site",
+      method: 'POST',
+      path: '/portal/people?form=invite',
+      multipart: { name: 'New Person', email: `new-${Date.now()}@e2e.example`, siteIds: String(o.siteId) },
+      portal: true,
+    },
+    {
+      label: "B's bin inside a batch",
+      method: 'POST',
+      path: '/api/scan-events',
+      data: { events: [scan({ grai: o.grai, action: 'fold' }), scan({ assetId: o.binId, action: 'discharge' })] },
+    },
   ];
 }
 
@@ -231,7 +312,7 @@ const OPEN_TO_ALL: Record<string, string> = {
   '/api/public/loads/confirm': 'the delivery link: confirms only the load whose token it carries (a guessed one: below)',
   '/api/attachments': "an upload is stored as the uploader's organisation's own",
   '/bins/search': 'the find-a-bin box; it echoes only what was typed',
-  '/bins/find': 'sends a found bin to its page, anything else back to the box with the reason (checked: never to B\'s bin)',
+  '/bins/find': "sends a found bin to its page, anything else back to the box with the reason (checked: never to B's bin)",
   '/portal': "the customer's own start page",
 };
 
@@ -266,7 +347,7 @@ async function walk(ask: () => APIRequestContext, o: Other): Promise<{ problems:
       const where = `${method} ${url} → ${status}`;
       if (status >= 500) problems.push(`${where}: server error`);
       for (const m of o.markers) if (body.includes(m)) problems.push(`${where}: shows "${m}"`);
-      const location = res.headers()['location'] ?? '';
+      const location = res.headers().location ?? '';
       if (location.includes(`/bins/${o.grai}`)) problems.push(`${where}: sends the asker to the bin it may not see`);
       // A body the route's schema refuses (400) names nothing; the targeted writes send valid ones.
       const refusedUnread = method !== 'GET' && status === 400 && customerMay(url);
@@ -314,7 +395,10 @@ describe("a customer of A asks every route about B's things", () => {
     const all = routes();
     expect(all.length).toBeGreaterThan(60);
     expect(all.map((r) => r.pattern)).toContain('/api/attachments/[id]');
-    expect(all.filter((r) => r.methods.length === 0), 'every route file answers some method').toEqual([]);
+    expect(
+      all.filter((r) => r.methods.length === 0),
+      'every route file answers some method',
+    ).toEqual([]);
   });
 
   test('every route: 404 or 403, by id, by GRAI, through filters and exports; open routes show nothing of B', async () => {
@@ -350,41 +434,70 @@ describe("a user of A limited to one site asks every route about A's other site"
   let sameOrg: Other;
   beforeAll(async () => {
     const a = await one<{ org_id: number; admin_id: number; admin_name: string }>(
-      `SELECT organisation_id AS org_id, id AS admin_id, name AS admin_name FROM users WHERE email = $1`, [DEMO_LOGINS.find((l) => l.role === 'customer')!.email]);
+      `SELECT organisation_id AS org_id, id AS admin_id, name AS admin_name FROM users WHERE email = $1`,
+      [DEMO_LOGINS.find((l) => l.role === 'customer')!.email],
+    );
     // The other site: the one of A's with a bin on hire (the demo pool has bins at both).
     const sites = await rows<{ id: number; name: string; code: string; n: number }>(
       `SELECT s.id, s.name, s.code, (SELECT count(*)::int FROM assets x WHERE x.site_id = s.id AND x.status = 'on_hire') AS n
-         FROM sites s WHERE s.organisation_id = $1 ORDER BY s.id`, [a.org_id]);
+         FROM sites s WHERE s.organisation_id = $1 ORDER BY s.id`,
+      [a.org_id],
+    );
     expect(sites.length, 'the demo customer has two sites').toBeGreaterThanOrEqual(2);
     const x = sites.find((s) => s.n > 0)!;
     const mine = sites.find((s) => s.id !== x.id)!;
     const email = `limited-${Date.now().toString(36)}@haldenoils.example`;
     const user = await one<{ id: number }>(
       `INSERT INTO users (email, name, password_hash, role, organisation_id) SELECT $1, 'Site-limited colleague', password_hash, 'customer', organisation_id FROM users WHERE id = $2 RETURNING id`,
-      [email, a.admin_id]);
+      [email, a.admin_id],
+    );
     await one(`INSERT INTO user_sites (user_id, site_id) VALUES ($1, $2)`, [user.id, mine.id]);
     asL = await signedIn(email);
-    const bin = await one<{ id: number; grai: string; serial: string }>(`SELECT id, grai, serial FROM assets WHERE site_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [x.id]);
+    const bin = await one<{ id: number; grai: string; serial: string }>(`SELECT id, grai, serial FROM assets WHERE site_id = $1 AND status = 'on_hire' ORDER BY id LIMIT 1`, [
+      x.id,
+    ]);
     const own = await one<{ id: number; grai: string } | undefined>(
-      `SELECT a.id, a.grai FROM assets a JOIN trips t ON t.id = a.current_trip_id WHERE a.customer_id = $1 AND a.status = 'on_hire' AND a.site_id = $2 ORDER BY a.id LIMIT 1`, [a.org_id, mine.id]);
+      `SELECT a.id, a.grai FROM assets a JOIN trips t ON t.id = a.current_trip_id WHERE a.customer_id = $1 AND a.status = 'on_hire' AND a.site_id = $2 ORDER BY a.id LIMIT 1`,
+      [a.org_id, mine.id],
+    );
     const trip = await one<{ id: number }>(`SELECT id FROM trips WHERE customer_site_id = $1 ORDER BY id DESC LIMIT 1`, [x.id]);
     const order = await one<{ id: number; reference: string }>(`SELECT id, reference FROM hire_orders WHERE delivery_site_id = $1 ORDER BY id DESC LIMIT 1`, [x.id]);
     const event = await one<{ id: number }>(`SELECT id FROM scan_events WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
     // A photo of the other site's bin, uploaded by the organisation's admin (then belonging to that bin).
-    const up = await asA.post('/api/attachments', { multipart: { purpose: 'photo', file: { name: 'bin.png', mimeType: 'image/png', buffer: PNG } }, headers: { Origin: t.app.url } });
+    const up = await asA.post('/api/attachments', {
+      multipart: { purpose: 'photo', file: { name: 'bin.png', mimeType: 'image/png', buffer: PNG } },
+      headers: { Origin: t.app.url },
+    });
     const photoId = ((await up.json()) as { data: { id: number } }).data.id;
     await one(`UPDATE attachments SET asset_id = $1 WHERE id = $2`, [bin.id, photoId]);
-    const request = await asA.post('/portal/collections', { multipart: { siteId: String(x.id), quantity: '4', readyOn: new Date().toISOString().slice(0, 10), note: 'Four behind the other gate' }, headers: { Origin: t.app.url }, maxRedirects: 0 });
+    const request = await asA.post('/portal/collections', {
+      multipart: { siteId: String(x.id), quantity: '4', readyOn: new Date().toISOString().slice(0, 10), note: 'Four behind the other gate' },
+      headers: { Origin: t.app.url },
+      maxRedirects: 0,
+    });
     expect(request.status()).toBe(303);
     const collection = await one<{ id: number }>(`SELECT id FROM collection_requests WHERE site_id = $1 ORDER BY id DESC LIMIT 1`, [x.id]);
     const view = await one<{ id: number } | undefined>(`SELECT id FROM grid_views ORDER BY id LIMIT 1`);
     sameOrg = {
-      orgId: a.org_id, userId: a.admin_id, siteId: x.id, binId: bin.id, grai: bin.grai, serial: bin.serial, tripId: trip.id, orderId: order.id,
-      loadRef: 'LD-NONE-1', eventId: event.id, collectionId: collection.id, damageId: 0, photoId, viewId: view?.id ?? 1,
+      orgId: a.org_id,
+      userId: a.admin_id,
+      siteId: x.id,
+      binId: bin.id,
+      grai: bin.grai,
+      serial: bin.serial,
+      tripId: trip.id,
+      orderId: order.id,
+      loadRef: 'LD-NONE-1',
+      eventId: event.id,
+      collectionId: collection.id,
+      damageId: 0,
+      photoId,
+      viewId: view?.id ?? 1,
       inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
-      ownGrai: own?.grai ?? bin.grai, ownBinId: own?.id ?? bin.id,
+      ownGrai: own?.grai ?? bin.grai,
+      ownBinId: own?.id ?? bin.id,
     };
   });
 

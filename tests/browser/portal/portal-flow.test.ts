@@ -43,7 +43,9 @@ describe('the customer portal at phone size', () => {
     await expectFits(page, '/portal');
     const org = await one<{ id: number }>(`SELECT organisation_id AS id FROM users WHERE email = $1`, [customer.email]);
     const perSite = await rows<{ site_id: number; n: number }>(
-      `SELECT site_id, count(*)::int AS n FROM assets WHERE customer_id = $1 AND status IN ('on_hire', 'awaiting_collection') AND site_id IS NOT NULL GROUP BY site_id`, [org.id]);
+      `SELECT site_id, count(*)::int AS n FROM assets WHERE customer_id = $1 AND status IN ('on_hire', 'awaiting_collection') AND site_id IS NOT NULL GROUP BY site_id`,
+      [org.id],
+    );
     expect(perSite.length).toBeGreaterThan(0);
     for (const s of perSite) {
       await expect(page.locator(`[data-site="${s.site_id}"] li[data-bin]`).count(), `site ${s.site_id}`).resolves.toBe(s.n);
@@ -90,7 +92,9 @@ describe('the customer portal at phone size', () => {
     await card.locator(`[data-run-day="${id}"]`).fill(runDay.d);
     await card.locator('button[data-step="scheduled"]').click();
     await expect.poll(() => card.locator('[data-request-status]').getAttribute('data-request-status')).toBe('scheduled');
-    await expect.poll(async () => (await one<{ d: string | null }>(`SELECT to_char(planned_for, 'YYYY-MM-DD') AS d FROM collection_requests WHERE id = $1`, [id])).d).toBe(runDay.d);
+    await expect
+      .poll(async () => (await one<{ d: string | null }>(`SELECT to_char(planned_for, 'YYYY-MM-DD') AS d FROM collection_requests WHERE id = $1`, [id])).d)
+      .toBe(runDay.d);
 
     await page.reload();
     await expect(page.locator(`[data-collection="${id}"] [data-planned]`).getAttribute('data-planned')).resolves.toBe(runDay.d);
@@ -112,7 +116,9 @@ describe('the customer portal at phone size', () => {
     await page.check('input[name="linerFoodContact"]');
     await Promise.all([page.waitForURL('**/portal/orders?placed=*'), page.click('button:has-text("Send the order")')]);
     const reference = new URL(page.url()).searchParams.get('placed')!;
-    const row = await one<{ status: string; quantity: number; liner_food_contact: boolean }>(`SELECT status, quantity, liner_food_contact FROM hire_orders WHERE reference = $1`, [reference]);
+    const row = await one<{ status: string; quantity: number; liner_food_contact: boolean }>(`SELECT status, quantity, liner_food_contact FROM hire_orders WHERE reference = $1`, [
+      reference,
+    ]);
     expect(row).toEqual({ status: 'draft', quantity: 12, liner_food_contact: true });
     await expect(page.locator(`[data-order="${reference}"] [data-order-status]`).getAttribute('data-order-status')).resolves.toBe('draft');
     await screenshot(page, 'portal-orders-390');

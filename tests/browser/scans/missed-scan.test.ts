@@ -44,7 +44,9 @@ describe('a missed scan', () => {
     await screenshot(page, 'bin-voided-desktop');
     await ctx.close();
     const after = await one<{ status: string; n: number }>(
-      `SELECT a.status, (SELECT count(*)::int FROM scan_events e WHERE e.asset_id = a.id AND e.voided_at IS NOT NULL) AS n FROM assets a WHERE grai = $1`, [bin.grai]);
+      `SELECT a.status, (SELECT count(*)::int FROM scan_events e WHERE e.asset_id = a.id AND e.voided_at IS NOT NULL) AS n FROM assets a WHERE grai = $1`,
+      [bin.grai],
+    );
     expect(after).toEqual({ status: 'on_hire', n: 3 }); // the receive and its two inferred steps, kept and voided
   });
 });

@@ -18,7 +18,11 @@ let port: number;
 let ca: Buffer;
 const PASSWORD = 'https-session-password';
 
-interface Answer { status: number; headers: Record<string, string | string[] | undefined>; body: string }
+interface Answer {
+  status: number;
+  headers: Record<string, string | string[] | undefined>;
+  body: string;
+}
 function call(path: string, opts: { method?: string; headers?: Record<string, string>; body?: string } = {}): Promise<Answer> {
   return new Promise((resolve, reject) => {
     const req = request({ host: 'localhost', port, path, method: opts.method ?? 'GET', headers: opts.headers, ca, servername: 'localhost' }, (res) => {
@@ -85,7 +89,9 @@ describe('the session cookie under HTTPS', () => {
     const token = jar.get('__Secure-authjs.session-token')!;
     const views = await call('/api/fleet/views', { headers: { Cookie: `__Secure-authjs.session-token=${token}` } });
     expect(views.status).toBe(200);
-    const chunked = await call('/api/fleet/views', { headers: { Cookie: `__Secure-authjs.session-token.0=${token.slice(0, 50)}; __Secure-authjs.session-token.1=${token.slice(50)}` } });
+    const chunked = await call('/api/fleet/views', {
+      headers: { Cookie: `__Secure-authjs.session-token.0=${token.slice(0, 50)}; __Secure-authjs.session-token.1=${token.slice(50)}` },
+    });
     expect(chunked.status).toBe(200);
     // the plain name carries a token sealed with another salt: no session
     const plain = await call('/api/fleet/views', { headers: { Cookie: `authjs.session-token=${token}` } });

@@ -15,10 +15,18 @@ export async function closeDb() {
   pool = null;
 }
 
-export interface ReceivedMail { subject: string; text: string; to: string[]; receivedAt: Date }
+export interface ReceivedMail {
+  subject: string;
+  text: string;
+  to: string[];
+  receivedAt: Date;
+}
 
 /** Waits until the local mailbox has a message to `to` (newest first), received after `since`. */
-export async function waitForMail(to: string, { since = new Date(0), subject, timeoutMs = 15_000 }: { since?: Date; subject?: RegExp; timeoutMs?: number } = {}): Promise<ReceivedMail> {
+export async function waitForMail(
+  to: string,
+  { since = new Date(0), subject, timeoutMs = 15_000 }: { since?: Date; subject?: RegExp; timeoutMs?: number } = {},
+): Promise<ReceivedMail> {
   const t0 = Date.now();
   while (Date.now() - t0 < timeoutMs) {
     const { rows } = await db().query<{ subject: string; text_body: string; envelope_to: string[]; received_at: Date }>(

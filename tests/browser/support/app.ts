@@ -95,7 +95,9 @@ export async function expectNoPageOverflow(page: Page, what: string) {
     // The outermost elements that stick out, not inside a region that scrolls by itself: what to fix.
     const scrolls = (el: Element | null): boolean => !!el && el !== document.body && (getComputedStyle(el).overflowX !== 'visible' || scrolls(el.parentElement));
     const culprits = [...document.querySelectorAll('body *')]
-      .filter((el) => el.getBoundingClientRect().right > width + 1 && !scrolls(el.parentElement) && !(el.parentElement && el.parentElement.getBoundingClientRect().right > width + 1))
+      .filter(
+        (el) => el.getBoundingClientRect().right > width + 1 && !scrolls(el.parentElement) && !(el.parentElement && el.parentElement.getBoundingClientRect().right > width + 1),
+      )
       .slice(0, 5)
       .map((el) => `${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${[...el.classList].slice(0, 3).join('.')} (${Math.round(el.getBoundingClientRect().right)} px)`);
     return { scroll: document.documentElement.scrollWidth, width, culprits };

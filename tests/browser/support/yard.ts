@@ -24,7 +24,12 @@ export async function query<T extends Record<string, unknown>>(sql: string, para
   }
 }
 
-export interface PickedBin { id: number; grai: string; serial: string; version: number }
+export interface PickedBin {
+  id: number;
+  grai: string;
+  serial: string;
+  version: number;
+}
 
 /**
  * Folded, unchecked bins at the yard user's home depot, inside their test interval: a prep check and a

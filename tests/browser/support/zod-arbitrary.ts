@@ -7,10 +7,36 @@ import fc from 'fast-check';
 import { z, type ZodTypeAny } from 'zod';
 
 const HOSTILE_STRINGS = [
-  'Probe\u0000Tester', '\u0000', 'a\u0007b\u001B[2J', 'line\r\nbreak', '\u0085\u009F',
-  '0000-01-01', '9999-12-31', '2026-02-30', '9999-12-31T23:59:59Z', '0000-01-01T00:00:00Z', '+275760-09-13T00:00:00Z',
-  '=HYPERLINK("a")', "' OR 1=1 --", '"; DROP TABLE assets; --', '../../etc/passwd', '%00', '\\u0000',
-  '\uD800', '😀'.repeat(50), ' ', '', '-1', '0', '99999999999999999999', '1e309', 'NaN', 'null', 'true', '[]', '{}',
+  'Probe\u0000Tester',
+  '\u0000',
+  'a\u0007b\u001B[2J',
+  'line\r\nbreak',
+  '\u0085\u009F',
+  '0000-01-01',
+  '9999-12-31',
+  '2026-02-30',
+  '9999-12-31T23:59:59Z',
+  '0000-01-01T00:00:00Z',
+  '+275760-09-13T00:00:00Z',
+  '=HYPERLINK("a")',
+  "' OR 1=1 --",
+  '"; DROP TABLE assets; --',
+  '../../etc/passwd',
+  '%00',
+  '\\u0000',
+  '\uD800',
+  '😀'.repeat(50),
+  ' ',
+  '',
+  '-1',
+  '0',
+  '99999999999999999999',
+  '1e309',
+  'NaN',
+  'null',
+  'true',
+  '[]',
+  '{}',
   'x'.repeat(5000),
 ];
 
@@ -106,9 +132,9 @@ function shaped(schema: ZodTypeAny, depth: number): fc.Arbitrary<unknown> {
       return fc.oneof(...options.map((o) => arbitraryFor(o, depth + 1)));
     }
     case z.ZodFirstPartyTypeKind.ZodIntersection:
-      return fc.tuple(arbitraryFor(def.left, depth + 1), arbitraryFor(def.right, depth + 1)).map(([a, b]) =>
-        a && b && typeof a === 'object' && typeof b === 'object' ? { ...a, ...b } : a,
-      );
+      return fc
+        .tuple(arbitraryFor(def.left, depth + 1), arbitraryFor(def.right, depth + 1))
+        .map(([a, b]) => (a && b && typeof a === 'object' && typeof b === 'object' ? { ...a, ...b } : a));
     case z.ZodFirstPartyTypeKind.ZodObject: {
       const shape = (schema as z.AnyZodObject).shape as Record<string, ZodTypeAny>;
       const entries = Object.entries(shape).map(([k, v]) => [k, arbitraryFor(v, depth + 1)] as const);
@@ -135,7 +161,7 @@ export function queryArbitraryFor(schema: ZodTypeAny): fc.Arbitrary<Record<strin
     if (!v || typeof v !== 'object' || Array.isArray(v)) return { junk: String(v) };
     for (const [k, x] of Object.entries(v)) {
       if (x === undefined) continue;
-      out[k] = typeof x === 'string' ? x : JSON.stringify(x) ?? '';
+      out[k] = typeof x === 'string' ? x : (JSON.stringify(x) ?? '');
     }
     return out;
   });

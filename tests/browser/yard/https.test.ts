@@ -33,8 +33,11 @@ function get(host: string, path: string, at = { port, ca }): Promise<{ status: n
       res.on('data', (c) => (body += c));
       res.on('end', () =>
         resolve({
-          status: res.statusCode ?? 0, type: String(res.headers['content-type']), body,
-          hsts: res.headers['strict-transport-security'] as string | undefined, cache: res.headers['cache-control'] as string | undefined,
+          status: res.statusCode ?? 0,
+          type: String(res.headers['content-type']),
+          body,
+          hsts: res.headers['strict-transport-security'] as string | undefined,
+          cache: res.headers['cache-control'] as string | undefined,
         }),
       );
     });
@@ -101,8 +104,17 @@ describe("HTTPS with the operator's own certificate", () => {
     // A certificate not made by Loopfold's local CA stands in for the operator's (self-signed here).
     const { generate } = (await import('selfsigned')).default;
     const made = await generate([{ name: 'commonName', value: 'localhost' }], {
-      keySize: 2048, algorithm: 'sha256',
-      extensions: [{ name: 'subjectAltName', altNames: [{ type: 2, value: 'localhost' }, { type: 7, ip: '127.0.0.1' }] }],
+      keySize: 2048,
+      algorithm: 'sha256',
+      extensions: [
+        {
+          name: 'subjectAltName',
+          altNames: [
+            { type: 2, value: 'localhost' },
+            { type: 7, ip: '127.0.0.1' },
+          ],
+        },
+      ],
     });
     const dir = mkdtempSync(join(tmpdir(), 'loopfold-own-cert-'));
     writeFileSync(join(dir, 'cert.pem'), made.cert);

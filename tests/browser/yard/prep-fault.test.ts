@@ -35,7 +35,9 @@ describe('a prep check that finds a fault', () => {
     await expect(page.locator('header [data-status]').getAttribute('data-status')).resolves.toBe('quarantine');
     await page.waitForSelector('img[alt="Photo taken with this scan"]');
     const event = await one<{ payload: { photoIds?: number[]; faults?: string } }>(
-      `SELECT payload FROM scan_events WHERE asset_id = $1 AND action = 'prep_check' ORDER BY id DESC LIMIT 1`, [bin.id]);
+      `SELECT payload FROM scan_events WHERE asset_id = $1 AND action = 'prep_check' ORDER BY id DESC LIMIT 1`,
+      [bin.id],
+    );
     expect(event.payload.photoIds).toHaveLength(1);
     expect(event.payload.faults).toMatch(/Cracked floor panel/);
     const att = await one<{ content_type: string }>('SELECT content_type FROM attachments WHERE id = $1', [event.payload.photoIds![0]]);

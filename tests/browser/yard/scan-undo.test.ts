@@ -36,15 +36,19 @@ describe('saying what happened after an action on the phone', () => {
       return r.top >= 0 && r.top < window.innerHeight / 2;
     });
     expect(inView, 'the actions are at the top of the screen').toBe(true);
-    await expect(note.evaluate((el) => { const r = el.getBoundingClientRect(); return r.bottom <= window.innerHeight; })).resolves.toBe(true);
+    await expect(
+      note.evaluate((el) => {
+        const r = el.getBoundingClientRect();
+        return r.bottom <= window.innerHeight;
+      }),
+    ).resolves.toBe(true);
     await screenshot(page, 'scan-confirmation-390');
 
     await page.click('#scan-undo');
     await page.waitForSelector('#scan-confirmation[data-confirmation="undone"]', { timeout: 20_000 });
     await expect(page.locator('#scan-confirmation').textContent()).resolves.toMatch(/Prep check undone/);
     await expect(page.locator('header [data-status]').getAttribute('data-status')).resolves.toBe('available');
-    const ev = await one<{ void_reason: string }>(
-      `SELECT void_reason FROM scan_events WHERE asset_id = $1 AND action = 'prep_check' ORDER BY id DESC LIMIT 1`, [bin.id]);
+    const ev = await one<{ void_reason: string }>(`SELECT void_reason FROM scan_events WHERE asset_id = $1 AND action = 'prep_check' ORDER BY id DESC LIMIT 1`, [bin.id]);
     expect(ev.void_reason).toBe('undone by the person who scanned it');
     await expect(one<{ prep_checked: boolean }>('SELECT prep_checked FROM assets WHERE id = $1', [bin.id])).resolves.toMatchObject({ prep_checked: false });
     await ctx.close();

@@ -5,8 +5,8 @@
 // scans reach the log exactly once. A scan the server refuses on sync stays
 // listed with its reason until dismissed. Runs on http://localhost, which
 // Chromium treats as a secure context (service workers need one).
-import { describe, test, expect, beforeAll, afterAll } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import { describe, test, expect } from 'vitest';
+import type { Page } from 'playwright-core';
 import { randomUUID } from 'node:crypto';
 import { newContext, screenshot, signIn, useApp } from '../support/app';
 import { availableBinsAtHome, hydrated, query, type PickedBin } from '../support/yard';
@@ -15,8 +15,6 @@ import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 const t = useApp();
 
 const YARD = 'yard@northmere.example';
-
-
 
 const attr = (page: Page, name: string) => page.locator('[data-sync-status]').getAttribute(name);
 
@@ -128,7 +126,9 @@ describe('yard work without signal', () => {
     expect(counts[ids[1]!]).toBe(1);
     expect(counts[ids[2]!]).toBeUndefined(); // refused: nothing recorded
 
-    const states = await query<{ id: number; status: string; prep_checked: boolean }>('SELECT id, status, prep_checked FROM assets WHERE id = ANY($1::int[])', [[checkBin!.id, holdBin!.id, staleBin!.id]]);
+    const states = await query<{ id: number; status: string; prep_checked: boolean }>('SELECT id, status, prep_checked FROM assets WHERE id = ANY($1::int[])', [
+      [checkBin!.id, holdBin!.id, staleBin!.id],
+    ]);
     const byId = new Map(states.map((s) => [s.id, s]));
     expect(byId.get(checkBin!.id)).toMatchObject({ status: 'available', prep_checked: true });
     expect(byId.get(holdBin!.id)).toMatchObject({ status: 'quarantine' });

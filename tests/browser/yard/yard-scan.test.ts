@@ -155,8 +155,14 @@ describe('the live camera', () => {
       executablePath: '/usr/bin/chromium',
       headless: true,
       args: [
-        '--disable-gpu', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync',
-        '--use-fake-device-for-media-stream', '--use-fake-ui-for-media-stream', `--use-file-for-fake-video-capture=${clip}`,
+        '--disable-gpu',
+        '--no-first-run',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+        '--use-fake-device-for-media-stream',
+        '--use-fake-ui-for-media-stream',
+        `--use-file-for-fake-video-capture=${clip}`,
         // A second name for the app that is not localhost: a plain-http page there is not a secure context.
         '--host-resolver-rules=MAP yard-lan.test 127.0.0.1',
       ],
@@ -184,7 +190,11 @@ describe('the live camera', () => {
     await expect(page.locator('[data-capture-notice]').textContent()).resolves.toMatch(/secure connection/);
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(page, 'yard-camera-insecure-phone');
-    await page.setInputFiles('[data-photo-input]', { name: 'label.png', mimeType: 'image/png', buffer: await labelPng(`http://yard-lan.test:${t.app.port}/8003/${bins[1]!.grai}`) });
+    await page.setInputFiles('[data-photo-input]', {
+      name: 'label.png',
+      mimeType: 'image/png',
+      buffer: await labelPng(`http://yard-lan.test:${t.app.port}/8003/${bins[1]!.grai}`),
+    });
     await page.waitForURL((u) => u.pathname === `/bins/${bins[1]!.grai}`);
     await page.context().close();
   });

@@ -144,10 +144,12 @@ describe('invitation → set password → sign in', () => {
   test('the same e-mail cannot be invited twice; bad combinations are refused with the field named', async () => {
     await expect(invite('newbie@test.example')).rejects.toMatchObject({ code: 'duplicate' });
     await expect(invite('cust@test.example', { role: 'customer' })).rejects.toMatchObject({
-      code: 'validation_failed', details: [expect.objectContaining({ path: 'organisationId' })],
+      code: 'validation_failed',
+      details: [expect.objectContaining({ path: 'organisationId' })],
     });
     await expect(invite('yard@test.example', { role: 'yard' })).rejects.toMatchObject({
-      code: 'validation_failed', details: [expect.objectContaining({ path: 'homeSiteId' })],
+      code: 'validation_failed',
+      details: [expect.objectContaining({ path: 'homeSiteId' })],
     });
     await expect(invite('yard@test.example', { role: 'yard', homeSiteId: world.customerSite.id })).rejects.toMatchObject({ code: 'validation_failed' });
     expect(await User.count({ where: { email: ['cust@test.example', 'yard@test.example'] } })).toBe(0);
@@ -182,7 +184,9 @@ describe('invitation → set password → sign in', () => {
 describe('password reset', () => {
   function ctx(body: unknown, ip: string): APIContext {
     const request = new Request('http://pool.test/api/account/reset', {
-      method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body),
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify(body),
     });
     return { request, url: new URL(request.url), params: {}, locals: { user: null, clientAddress: ip } } as unknown as APIContext;
   }

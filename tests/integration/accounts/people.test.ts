@@ -3,7 +3,7 @@ import { resetDatabase, sequelize } from '../support/db';
 import { baseWorld, makeUser } from '../support/fixtures';
 import { listPeople, updatePerson, personById } from '@/lib/accounts/people.server';
 import { loadSessionUser } from '@/lib/accounts/session-user.server';
-import { AuditEntry, User } from '@/models';
+import { AuditEntry, type User } from '@/models';
 
 const SID = '00000000-0000-4000-8000-000000000001';
 
@@ -50,11 +50,13 @@ describe('changing a person', () => {
     const a = await updatePerson(p.id, { version: 0, homeSiteId: world.depot2.id, qualifiedInspector: true }, actor());
     expect(a).toMatchObject({ homeSiteId: world.depot2.id, homeSiteName: 'Second depot', qualifiedInspector: true });
     expect(await lastAudit(p.id)).toMatchObject({
-      before: { homeSiteId: world.depot.id, qualifiedInspector: false }, after: { homeSiteId: world.depot2.id, qualifiedInspector: true },
+      before: { homeSiteId: world.depot.id, qualifiedInspector: false },
+      after: { homeSiteId: world.depot2.id, qualifiedInspector: true },
     });
     await expect(updatePerson(p.id, { version: a.version, homeSiteId: world.customerSite.id }, actor())).rejects.toMatchObject({ code: 'validation_failed' });
     await expect(updatePerson(p.id, { version: a.version, homeSiteId: null }, actor())).rejects.toMatchObject({
-      code: 'validation_failed', details: [expect.objectContaining({ path: 'homeSiteId' })],
+      code: 'validation_failed',
+      details: [expect.objectContaining({ path: 'homeSiteId' })],
     });
   });
 

@@ -31,11 +31,13 @@ describe('document numbers under concurrency', () => {
   });
 
   test('a rolled-back issue gives its number back: the next issue takes it', async () => {
-    await expect(sequelize.transaction(async (transaction) => {
-      const taken = await takeDocumentNumber(transaction, 'invoice', 2027);
-      expect(taken.number).toBe('INV-2027-00021');
-      throw new Error('invoice could not be stored');
-    })).rejects.toThrow('invoice could not be stored');
+    await expect(
+      sequelize.transaction(async (transaction) => {
+        const taken = await takeDocumentNumber(transaction, 'invoice', 2027);
+        expect(taken.number).toBe('INV-2027-00021');
+        throw new Error('invoice could not be stored');
+      }),
+    ).rejects.toThrow('invoice could not be stored');
     expect((await issue('invoice', 2027)).number).toBe('INV-2027-00021');
   });
 

@@ -18,8 +18,20 @@ beforeAll(async () => {
   await resetDatabase();
   w = await poolWorld();
   plainType = await BinType.create({
-    code: 'T1250', name: 'Test bin 1250 L', graiAssetType: '12510', nominalCapacityL: 1250, tareKg: '98', maxGrossKg: '1500',
-    footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1330, heightFoldedMm: 420, unCode: null, policyKind: 'own', intermediateMonths: 24, fullMonths: 48,
+    code: 'T1250',
+    name: 'Test bin 1250 L',
+    graiAssetType: '12510',
+    nominalCapacityL: 1250,
+    tareKg: '98',
+    maxGrossKg: '1500',
+    footprintLengthMm: 1200,
+    footprintWidthMm: 1000,
+    heightErectedMm: 1330,
+    heightFoldedMm: 420,
+    unCode: null,
+    policyKind: 'own',
+    intermediateMonths: 24,
+    fullMonths: 48,
   });
 });
 afterAll(async () => {
@@ -33,7 +45,6 @@ const MARK = '31HA2/Y/05 24/NL/Maker 7/2313/1285';
 const HEADER = IMPORT_COLUMNS.map((c) => c.name).join(',');
 const bytes = (s: string) => new TextEncoder().encode(s);
 const sha = (b: Uint8Array) => createHash('sha256').update(b).digest('hex');
-
 
 describe('registering one bin from the form', () => {
   test('a bin with a UN mark gets its month of manufacture from the mark, due dates from its type, a register event and an audit entry', async () => {
@@ -51,7 +62,7 @@ describe('registering one bin from the form', () => {
     expect(audit?.after).toMatchObject({ grai: grai('F0001'), binType: 'T1000', depot: 'DEP-T1' });
   });
 
-  test('the GRAI can be built from the serial with the operator prefix and the bin type\'s asset type', async () => {
+  test("the GRAI can be built from the serial with the operator prefix and the bin type's asset type", async () => {
     const body = registerBody.parse({ graiMode: 'serial', serial: 'S-77', binTypeId: plainType.id, siteId: w.depot2.id, manufactureMonth: '2025-01' });
     const out = await registerFromForm(w.planner, body, null);
     expect(out.grai).toBe(grai('S-77', '12510'));
@@ -59,8 +70,14 @@ describe('registering one bin from the form', () => {
 
   test('every problem comes back at once, per field, and nothing is written', async () => {
     const before = await Asset.count();
-    const wrongCheck = grai('F0002').slice(0, 13) + String((Number(grai('F0002').charAt(13)) + 1) % 10) + 'F0002';
-    const body = registerBody.parse({ grai: wrongCheck, binTypeId: w.binType.id, siteId: w.customerSite.id, unMarking: '31HA1/Y/05 24/NL/Maker 7/2313/1285', lastFullInspectionMonth: '2019-01' });
+    const wrongCheck = `${grai('F0002').slice(0, 13) + String((Number(grai('F0002').charAt(13)) + 1) % 10)}F0002`;
+    const body = registerBody.parse({
+      grai: wrongCheck,
+      binTypeId: w.binType.id,
+      siteId: w.customerSite.id,
+      unMarking: '31HA1/Y/05 24/NL/Maker 7/2313/1285',
+      lastFullInspectionMonth: '2019-01',
+    });
     const err = await appErrorOf(registerFromForm(w.planner, body, null));
     expect(err.code).toBe('validation_failed');
     const paths = (err.details as Array<{ path: string }>).map((d) => d.path).sort();
@@ -76,8 +93,7 @@ describe('registering one bin from the form', () => {
 });
 
 describe('importing the register from CSV', () => {
-  const good = (from: number, count: number) =>
-    Array.from({ length: count }, (_, i) => `${grai(`I${from + i}`)},T1000,DEP-T1,,${MARK},,`).join('\n');
+  const good = (from: number, count: number) => Array.from({ length: count }, (_, i) => `${grai(`I${from + i}`)},T1000,DEP-T1,,${MARK},,`).join('\n');
 
   test('one bad line: the preview names it, and the commit registers nothing at all', async () => {
     const before = await Asset.count();
@@ -149,9 +165,13 @@ describe('importing the register from CSV', () => {
     const missing = await appErrorOf(previewImport(bytes(`grai,bin_type\n${grai('M1')},T1000\n`)));
     expect(missing.code).toBe('unprocessable');
     expect(missing.details).toMatchObject({ fileProblem: 'missing_columns', missingColumns: ['depot', 'manufacture_month'] });
-    const binary = await appErrorOf(commitImport(w.planner, new Uint8Array([0x50, 0x4b, 3, 4, 0, 0]), { expectedSha256: sha(new Uint8Array([0x50, 0x4b, 3, 4, 0, 0])), filename: null, ip: null }));
+    const binary = await appErrorOf(
+      commitImport(w.planner, new Uint8Array([0x50, 0x4b, 3, 4, 0, 0]), { expectedSha256: sha(new Uint8Array([0x50, 0x4b, 3, 4, 0, 0])), filename: null, ip: null }),
+    );
     expect(binary.code).toBe('unsupported_media_type');
-    const declared = await appErrorOf(readUpload(new Request('http://x/', { method: 'POST', headers: { 'content-length': String(20 * 1024 * 1024) }, body: 'x' }), 5 * 1024 * 1024));
+    const declared = await appErrorOf(
+      readUpload(new Request('http://x/', { method: 'POST', headers: { 'content-length': String(20 * 1024 * 1024) }, body: 'x' }), 5 * 1024 * 1024),
+    );
     expect(declared.code).toBe('payload_too_large');
     expect(declared.message).toMatch(/^The file is 20 MB; the limit is 5 MB/);
     // No Content-Length: the bytes are counted as they arrive.
@@ -172,24 +192,48 @@ describe('importing the register from CSV', () => {
 });
 
 describe('editing a registered bin', () => {
-  test('an edit recomputes the due dates through the bin type\'s policy and records before and after', async () => {
+  test("an edit recomputes the due dates through the bin type's policy and records before and after", async () => {
     const bin = await newBin(w, { manufactureMonth: '2024-01' });
     const shown = (await editableBin(bin.grai))!;
-    const out = await updateBin(w.planner, bin.grai, editBody.parse({
-      version: shown.version, binTypeId: plainType.id, manufactureMonth: '2024-01', unMarking: '', lastIntermediateTestMonth: '2025-06', lastFullInspectionMonth: '',
-    }), '10.1.1.1');
+    const out = await updateBin(
+      w.planner,
+      bin.grai,
+      editBody.parse({
+        version: shown.version,
+        binTypeId: plainType.id,
+        manufactureMonth: '2024-01',
+        unMarking: '',
+        lastIntermediateTestMonth: '2025-06',
+        lastFullInspectionMonth: '',
+      }),
+      '10.1.1.1',
+    );
     expect(out.changed).toBe(true);
     expect(out.version).toBe(shown.version + 1);
     const asset = (await Asset.findByPk(bin.id))!;
     // Own policy of T1250: 24 months from the test in June 2025, 48 from manufacture in January 2024.
     expect([asset.binTypeId, asset.nextIntermediateDue, asset.nextFullDue, asset.nextDue]).toEqual([plainType.id, '2027-06-30', '2028-01-31', '2027-06-30']);
     const audit = (await AuditEntry.findOne({ where: { action: 'bin.update', entityId: String(bin.id) }, order: [['id', 'DESC']] }))!;
-    expect(audit.before).toEqual({ binType: 'T1000', lastInspectionOn: null, lastLeakTestOn: null, nextIntermediateDue: '2026-07-31', nextFullDue: '2029-01-31', nextDue: '2026-07-31' });
-    expect(audit.after).toEqual({ binType: 'T1250', lastInspectionOn: '2025-06-01', lastLeakTestOn: '2025-06-01', nextIntermediateDue: '2027-06-30', nextFullDue: '2028-01-31', nextDue: '2027-06-30' });
+    expect(audit.before).toEqual({
+      binType: 'T1000',
+      lastInspectionOn: null,
+      lastLeakTestOn: null,
+      nextIntermediateDue: '2026-07-31',
+      nextFullDue: '2029-01-31',
+      nextDue: '2026-07-31',
+    });
+    expect(audit.after).toEqual({
+      binType: 'T1250',
+      lastInspectionOn: '2025-06-01',
+      lastLeakTestOn: '2025-06-01',
+      nextIntermediateDue: '2027-06-30',
+      nextFullDue: '2028-01-31',
+      nextDue: '2027-06-30',
+    });
     expect(audit.ip).toBe('10.1.1.1');
   });
 
-  test('a form opened before someone else\'s change is refused as changed meanwhile, and nothing is written', async () => {
+  test("a form opened before someone else's change is refused as changed meanwhile, and nothing is written", async () => {
     const bin = await newBin(w, { manufactureMonth: '2024-02' });
     const opened = (await editableBin(bin.grai))!;
     await updateBin(w.planner, bin.grai, editBody.parse({ version: opened.version, binTypeId: w.binType.id, manufactureMonth: '2024-03' }), null);
@@ -204,10 +248,21 @@ describe('editing a registered bin', () => {
   test('through the endpoint a stale version answers 409 changed_meanwhile', async () => {
     const bin = await newBin(w);
     const { version } = (await editableBin(bin.grai))!;
-    const user = { id: w.planner.id, email: 'p@test.example', name: 'P', role: 'planner' as const, organisationId: w.operator.id, organisationName: 'Test Pool', homeSiteId: null, qualifiedInspector: false };
+    const user = {
+      id: w.planner.id,
+      email: 'p@test.example',
+      name: 'P',
+      role: 'planner' as const,
+      organisationId: w.operator.id,
+      organisationName: 'Test Pool',
+      homeSiteId: null,
+      qualifiedInspector: false,
+    };
     const call = (v: number, month: string) => {
       const request = new Request(`http://localhost/api/bins/${bin.grai}/edit`, {
-        method: 'PATCH', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ version: v, binTypeId: w.binType.id, manufactureMonth: month }),
+        method: 'PATCH',
+        headers: { 'Content-Type': 'application/json' },
+        body: JSON.stringify({ version: v, binTypeId: w.binType.id, manufactureMonth: month }),
       });
       return PATCH({ request, url: new URL(request.url), params: { grai: bin.grai }, locals: { user, clientAddress: '127.0.0.1' } } as unknown as APIContext);
     };

@@ -35,13 +35,58 @@ interface BinSpec {
 
 const BINS: BinSpec[] = [
   // arrived 23:30 local on 30 Nov → 1 day at site today; test lapsed on 15 Nov
-  { key: 'B1', serial: 'S-001', status: 'available', site: 'depot', siteSince: '2026-11-30T22:30:00Z', lastScanAt: '2026-11-30T22:30:00Z', nextDue: '2026-11-15', lastInspectionOn: '2024-05-15', tripCount: 5 },
+  {
+    key: 'B1',
+    serial: 'S-001',
+    status: 'available',
+    site: 'depot',
+    siteSince: '2026-11-30T22:30:00Z',
+    lastScanAt: '2026-11-30T22:30:00Z',
+    nextDue: '2026-11-15',
+    lastInspectionOn: '2024-05-15',
+    tripCount: 5,
+  },
   // on hire 21 days with 14 free days; test due in 19 days
-  { key: 'B2', serial: 'S-002', status: 'on_hire', site: 'customerSite', customer: true, siteSince: '2026-11-10T10:00:00Z', deliveredAt: '2026-11-10T10:00:00Z', lastScanAt: '2026-11-10T10:00:00Z', nextDue: '2026-12-20', tripCount: 2, lot: true },
+  {
+    key: 'B2',
+    serial: 'S-002',
+    status: 'on_hire',
+    site: 'customerSite',
+    customer: true,
+    siteSince: '2026-11-10T10:00:00Z',
+    deliveredAt: '2026-11-10T10:00:00Z',
+    lastScanAt: '2026-11-10T10:00:00Z',
+    nextDue: '2026-12-20',
+    tripCount: 2,
+    lot: true,
+  },
   // on site 6 days, delivered 12 days ago (moved between two sites of the customer): inside the free days
-  { key: 'B3', serial: 'S-003', status: 'on_hire', site: 'customerSite', customer: true, siteSince: '2026-11-25T10:00:00Z', deliveredAt: '2026-11-19T10:00:00Z', lastScanAt: '2026-11-25T10:00:00Z', nextDue: '2027-06-01', tripCount: 9, lot: true },
+  {
+    key: 'B3',
+    serial: 'S-003',
+    status: 'on_hire',
+    site: 'customerSite',
+    customer: true,
+    siteSince: '2026-11-25T10:00:00Z',
+    deliveredAt: '2026-11-19T10:00:00Z',
+    lastScanAt: '2026-11-25T10:00:00Z',
+    nextDue: '2027-06-01',
+    tripCount: 9,
+    lot: true,
+  },
   // folded at the customer 30 days; last scan 00:30 local on 1 Nov → silent exactly 30 days; no periodic test
-  { key: 'B4', serial: 'X-104', status: 'awaiting_collection', site: 'customerSite', customer: true, siteSince: '2026-11-01T12:00:00Z', deliveredAt: '2026-10-20T12:00:00Z', lastScanAt: '2026-10-31T23:30:00Z', nextDue: null, tripCount: 0 },
+  {
+    key: 'B4',
+    serial: 'X-104',
+    status: 'awaiting_collection',
+    site: 'customerSite',
+    customer: true,
+    siteSince: '2026-11-01T12:00:00Z',
+    deliveredAt: '2026-10-20T12:00:00Z',
+    lastScanAt: '2026-10-31T23:30:00Z',
+    nextDue: null,
+    tripCount: 0,
+  },
   // in quarantine since 1 Sep; test due in 35 days (not "soon")
   { key: 'B5', serial: 'X-105', status: 'quarantine', site: 'depot2', siteSince: '2026-09-01T08:00:00Z', lastScanAt: '2026-09-01T08:00:00Z', nextDue: '2027-01-05', tripCount: 1 },
   // on a truck, no site; scanned 00:10 local today; test due today (due soon, not overdue)
@@ -57,9 +102,19 @@ async function insertBin(spec: BinSpec, n: number) {
      VALUES ($1, $2, $3, '2024-01-01', $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $13, $13) RETURNING id`,
     {
       bind: [
-        makeGrai('9529999', '10010', `G${String(n).padStart(5, '0')}`), spec.serial, w.binType.id, spec.status, siteId, spec.siteSince,
-        spec.customer ? w.customer.id : null, spec.leg ?? null, spec.lot ? w.lot.id : null, spec.lastScanAt, spec.tripCount,
-        spec.lastInspectionOn ?? null, spec.nextDue,
+        makeGrai('9529999', '10010', `G${String(n).padStart(5, '0')}`),
+        spec.serial,
+        w.binType.id,
+        spec.status,
+        siteId,
+        spec.siteSince,
+        spec.customer ? w.customer.id : null,
+        spec.leg ?? null,
+        spec.lot ? w.lot.id : null,
+        spec.lastScanAt,
+        spec.tripCount,
+        spec.lastInspectionOn ?? null,
+        spec.nextDue,
       ],
     },
   );
@@ -103,7 +158,15 @@ describe('one page of the fleet grid against hand-made bins', () => {
     expect(res.lastRow).toBe(7);
     expect(res.today).toBe('2026-12-01');
     const b2 = res.rows[1]!;
-    expect(b2).toMatchObject({ serial: 'S-002', status: 'on_hire', customerName: 'Test Customer', siteName: 'Customer site', binTypeCode: 'T1000', linerLot: 'TL-001', freeDays: 14 });
+    expect(b2).toMatchObject({
+      serial: 'S-002',
+      status: 'on_hire',
+      customerName: 'Test Customer',
+      siteName: 'Customer site',
+      binTypeCode: 'T1000',
+      linerLot: 'TL-001',
+      freeDays: 14,
+    });
     expect(b2.lastScanLocal).toBe('2026-11-10 11:00'); // 10:00 UTC is 11:00 in Amsterdam in November
     expect(b2.siteSinceOn).toBe('2026-11-10');
   });
@@ -136,7 +199,11 @@ describe('one page of the fleet grid against hand-made bins', () => {
   });
 
   test('status and site together; a site filter with "none" finds the bin on a truck', async () => {
-    expect(keysOf((await page({ filterModel: { status: { filterType: 'set', values: ['on_hire', 'awaiting_collection'] }, site: { filterType: 'set', values: [w.customerSite.id] } } })).rows)).toEqual(['B2', 'B3', 'B4']);
+    expect(
+      keysOf(
+        (await page({ filterModel: { status: { filterType: 'set', values: ['on_hire', 'awaiting_collection'] }, site: { filterType: 'set', values: [w.customerSite.id] } } })).rows,
+      ),
+    ).toEqual(['B2', 'B3', 'B4']);
     expect(keysOf((await page({ filterModel: { site: { filterType: 'set', values: [null] } } })).rows)).toEqual(['B6']);
   });
 
@@ -153,7 +220,12 @@ describe('one page of the fleet grid against hand-made bins', () => {
   });
 
   test('multi-sort: status (lifecycle order), then trips made descending', async () => {
-    const res = await page({ sortModel: [{ colId: 'status', sort: 'asc' }, { colId: 'tripCount', sort: 'desc' }] });
+    const res = await page({
+      sortModel: [
+        { colId: 'status', sort: 'asc' },
+        { colId: 'tripCount', sort: 'desc' },
+      ],
+    });
     expect(keysOf(res.rows)).toEqual(['B1', 'B6', 'B3', 'B2', 'B4', 'B5', 'B7']);
   });
 
@@ -161,7 +233,9 @@ describe('one page of the fleet grid against hand-made bins', () => {
     expect(keysOf((await page({ filterModel: { serial: { filterType: 'text', type: 'startsWith', filter: 'x-' } } })).rows)).toEqual(['B4', 'B5']);
     expect(keysOf((await page({ filterModel: { serial: { filterType: 'text', type: 'equals', filter: 'S-003' } } })).rows)).toEqual(['B3']);
     expect(keysOf((await page({ filterModel: { tripCount: { filterType: 'number', type: 'greaterThan', filter: 4 } } })).rows)).toEqual(['B1', 'B3', 'B7']);
-    expect(keysOf((await page({ filterModel: { nextDue: { filterType: 'date', type: 'inRange', dateFrom: '2026-12-01 00:00:00', dateTo: '2027-01-05 00:00:00' } } })).rows)).toEqual(['B2', 'B5', 'B6']);
+    expect(
+      keysOf((await page({ filterModel: { nextDue: { filterType: 'date', type: 'inRange', dateFrom: '2026-12-01 00:00:00', dateTo: '2027-01-05 00:00:00' } } })).rows),
+    ).toEqual(['B2', 'B5', 'B6']);
     // last scan "on 1 Dec" in Amsterdam: only the 00:10-local scan, not the 23:30-local one of 30 Nov
     expect(keysOf((await page({ filterModel: { lastScanAt: { filterType: 'date', type: 'equals', dateFrom: '2026-12-01' } } })).rows)).toEqual(['B6']);
     expect(keysOf((await page({ filterModel: { daysSilent: { filterType: 'number', type: 'greaterThanOrEqual', filter: 30 } } })).rows)).toEqual(['B4', 'B5', 'B7']);
@@ -190,7 +264,11 @@ describe('one page of the fleet grid against hand-made bins', () => {
 describe('the grid endpoint', () => {
   test('answers a planner with rows; refuses a customer (403)', async () => {
     const planner = sessionUser(w.planner);
-    const ok = await callRoute(binsRoute, { user: planner, path: '/api/fleet/bins', query: { startRow: '0', endRow: '50', filterModel: JSON.stringify({ status: { filterType: 'set', values: ['quarantine'] } }) } });
+    const ok = await callRoute(binsRoute, {
+      user: planner,
+      path: '/api/fleet/bins',
+      query: { startRow: '0', endRow: '50', filterModel: JSON.stringify({ status: { filterType: 'set', values: ['quarantine'] } }) },
+    });
     expect(ok.status).toBe(200);
     const body = await json<{ data: { rows: BinRow[]; lastRow: number } }>(ok);
     expect(body.data.rows.map((r) => r.serial)).toEqual(['X-105']);
@@ -225,10 +303,18 @@ describe('the grid endpoint', () => {
 describe('the count endpoint', () => {
   test('counts the filtered set; refuses unknown columns and customers', async () => {
     const planner = sessionUser(w.planner);
-    const ok = await callRoute(countRoute, { user: planner, path: '/api/fleet/bins/count', query: { filterModel: JSON.stringify({ overFreeDays: { filterType: 'boolean', value: true } }) } });
+    const ok = await callRoute(countRoute, {
+      user: planner,
+      path: '/api/fleet/bins/count',
+      query: { filterModel: JSON.stringify({ overFreeDays: { filterType: 'boolean', value: true } }) },
+    });
     expect(ok.status).toBe(200);
     expect((await json<{ data: { count: number } }>(ok)).data.count).toBe(2);
-    const bad = await callRoute(countRoute, { user: planner, path: '/api/fleet/bins/count', query: { filterModel: JSON.stringify({ secret: { filterType: 'text', type: 'equals', filter: 'x' } }) } });
+    const bad = await callRoute(countRoute, {
+      user: planner,
+      path: '/api/fleet/bins/count',
+      query: { filterModel: JSON.stringify({ secret: { filterType: 'text', type: 'equals', filter: 'x' } }) },
+    });
     expect(bad.status).toBe(400);
     expect((await callRoute(countRoute, { user: sessionUser(w.customerUser), path: '/api/fleet/bins/count' })).status).toBe(403);
   });
@@ -275,7 +361,11 @@ describe('CSV export', () => {
     const res = await callRoute(exportRoute, {
       user: sessionUser(w.planner),
       path: '/api/fleet/bins/export.csv',
-      query: { filterModel: JSON.stringify({ serial: { filterType: 'text', type: 'startsWith', filter: 'L' } }), sortModel: JSON.stringify([{ colId: 'serial', sort: 'desc' }]), columns: 'serial,tripCount' },
+      query: {
+        filterModel: JSON.stringify({ serial: { filterType: 'text', type: 'startsWith', filter: 'L' } }),
+        sortModel: JSON.stringify([{ colId: 'serial', sort: 'desc' }]),
+        columns: 'serial,tripCount',
+      },
     });
     const reader = res.body!.getReader();
     let chunks = 0;

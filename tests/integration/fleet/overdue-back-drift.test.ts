@@ -26,8 +26,13 @@ describe('overdue back: SQL and overdueBack() agree', () => {
     const A = w.customer.id; // 14 free days
     const on = (customerId: number, status: Status, deliveredAt: string | null, dispatchedAt: string, extra: { siteSince?: string; leg?: string } = {}) =>
       rawBin({
-        binTypeId: w.binType.id, status, customerId, siteId: status === 'in_transit' ? null : w.customerSite.id, siteSince: extra.siteSince ?? deliveredAt,
-        leg: extra.leg ?? null, trip: { customerId, depotSiteId: w.depot.id, dispatchedAt, deliveredAt },
+        binTypeId: w.binType.id,
+        status,
+        customerId,
+        siteId: status === 'in_transit' ? null : w.customerSite.id,
+        siteSince: extra.siteSince ?? deliveredAt,
+        leg: extra.leg ?? null,
+        trip: { customerId, depotSiteId: w.depot.id, dispatchedAt, deliveredAt },
       });
     const expected: Record<number, boolean> = {
       // delivered 23:59 local on 16 Nov → 15 days on 1 Dec, one over 14
@@ -51,13 +56,26 @@ describe('overdue back: SQL and overdueBack() agree', () => {
     // at a depot, no trip
     expected[await rawBin({ binTypeId: w.binType.id, status: 'available', siteId: w.depot.id, siteSince: '2026-01-01T10:00:00Z' })] = false;
 
-    const rows = await sqlRows<{ id: number; status: Status; free_days: number | null; delivered_at: Date | null; dispatched_at: Date | null; sql_overdue: boolean; customer: string | null }>(
+    const rows = await sqlRows<{
+      id: number;
+      status: Status;
+      free_days: number | null;
+      delivered_at: Date | null;
+      dispatched_at: Date | null;
+      sql_overdue: boolean;
+      customer: string | null;
+    }>(
       `SELECT a.id, a.status, o.free_days, o.name AS customer, t.delivered_at, t.dispatched_at, (${overdueBackSql('$1::date', '$2::text')}) IS TRUE AS sql_overdue
          FROM assets a LEFT JOIN trips t ON t.id = a.current_trip_id LEFT JOIN organisations o ON o.id = a.customer_id ORDER BY a.id`,
       [CTX.today, TZ],
     );
     const day = (d: Date | null) => (d ? localDate(d, TZ) : null);
-    const pure = new Map(rows.map((r) => [r.id, overdueBack({ status: r.status, deliveredOn: day(r.delivered_at), dispatchedOn: day(r.dispatched_at), freeDays: r.free_days ?? 0, today: CTX.today }).overdue]));
+    const pure = new Map(
+      rows.map((r) => [
+        r.id,
+        overdueBack({ status: r.status, deliveredOn: day(r.delivered_at), dispatchedOn: day(r.dispatched_at), freeDays: r.free_days ?? 0, today: CTX.today }).overdue,
+      ]),
+    );
     // the pure rule gives the hand-worked answers …
     expect(Object.fromEntries(pure)).toEqual(Object.fromEntries(Object.entries(expected).map(([k, v]) => [Number(k), v])));
     // … and every SQL form gives the pure rule's

@@ -33,19 +33,56 @@ beforeAll(async () => {
   // At depots
   await setAsset(ids.b1!, { last_scan_at: at('2026-11-20'), next_intermediate_due: '2027-01-15', next_full_due: '2029-01-01', next_due: '2027-01-15' });
   await setAsset(ids.b2!, { last_scan_at: at('2026-10-01'), next_intermediate_due: '2026-11-10', next_full_due: '2028-01-01', next_due: '2026-11-10' });
-  await setAsset(ids.b3!, { status: 'prepared', site_id: w.depot2.id, liner_lot_id: w.lot.id, last_scan_at: at('2026-11-29'), next_intermediate_due: '2027-03-10', next_full_due: '2027-03-10', next_due: '2027-03-10' });
+  await setAsset(ids.b3!, {
+    status: 'prepared',
+    site_id: w.depot2.id,
+    liner_lot_id: w.lot.id,
+    last_scan_at: at('2026-11-29'),
+    next_intermediate_due: '2027-03-10',
+    next_full_due: '2027-03-10',
+    next_due: '2027-03-10',
+  });
   await setAsset(ids.b12!, { last_scan_at: at('2026-11-25') });
   await setAsset(ids.b13!, { status: 'quarantine', last_scan_at: at('2026-11-28') });
 
   // With customers. b4: delivered 10 Nov, 14 free days → free until 24 Nov, 6 days over on 30 Nov.
-  const t4 = await handTrip({ assetId: ids.b4!, customerId: w.customer.id, depotSiteId: w.depot.id, customerSiteId: w.customerSite.id, dispatchedAt: at('2026-11-08'), deliveredAt: at('2026-11-10') });
+  const t4 = await handTrip({
+    assetId: ids.b4!,
+    customerId: w.customer.id,
+    depotSiteId: w.depot.id,
+    customerSiteId: w.customerSite.id,
+    dispatchedAt: at('2026-11-08'),
+    deliveredAt: at('2026-11-10'),
+  });
   await setAsset(ids.b4!, { status: 'on_hire', site_id: w.customerSite.id, customer_id: w.customer.id, current_trip_id: t4, last_scan_at: at('2026-11-10') });
   // b5: delivered 20 Nov → 10 days of 14, not overdue.
-  const t5 = await handTrip({ assetId: ids.b5!, customerId: w.customer.id, depotSiteId: w.depot.id, customerSiteId: w.customerSite.id, dispatchedAt: at('2026-11-18'), deliveredAt: at('2026-11-20') });
+  const t5 = await handTrip({
+    assetId: ids.b5!,
+    customerId: w.customer.id,
+    depotSiteId: w.depot.id,
+    customerSiteId: w.customerSite.id,
+    dispatchedAt: at('2026-11-18'),
+    deliveredAt: at('2026-11-20'),
+  });
   await setAsset(ids.b5!, { status: 'on_hire', site_id: w.customerSite.id, customer_id: w.customer.id, current_trip_id: t5, last_scan_at: at('2026-11-20') });
   // b6: delivered 1 Nov, 21 free days → free until 22 Nov, 8 over; emptied 15 Nov → waiting 15 days.
-  const t6 = await handTrip({ assetId: ids.b6!, customerId: c2.id, depotSiteId: w.depot.id, customerSiteId: c2site.id, dispatchedAt: at('2026-10-30'), deliveredAt: at('2026-11-01'), dischargedAt: at('2026-11-15') });
-  await setAsset(ids.b6!, { status: 'awaiting_collection', site_id: c2site.id, customer_id: c2.id, current_trip_id: t6, site_since: at('2026-11-01'), last_scan_at: at('2026-11-15') });
+  const t6 = await handTrip({
+    assetId: ids.b6!,
+    customerId: c2.id,
+    depotSiteId: w.depot.id,
+    customerSiteId: c2site.id,
+    dispatchedAt: at('2026-10-30'),
+    deliveredAt: at('2026-11-01'),
+    dischargedAt: at('2026-11-15'),
+  });
+  await setAsset(ids.b6!, {
+    status: 'awaiting_collection',
+    site_id: c2site.id,
+    customer_id: c2.id,
+    current_trip_id: t6,
+    site_since: at('2026-11-01'),
+    last_scan_at: at('2026-11-15'),
+  });
   await CollectionRequest.create({ source: 'portal', siteId: c2site.id, customerId: c2.id, quantity: 1, status: 'open' } as never);
   // b7: delivery never scanned; dispatched 5 Nov → 25 days, 21 free → 4 over, counted from the dispatch.
   const t7 = await handTrip({ assetId: ids.b7!, customerId: c2.id, depotSiteId: w.depot2.id, customerSiteId: c2site.id, dispatchedAt: at('2026-11-05') });
@@ -58,7 +95,15 @@ beforeAll(async () => {
 
   // Out of the pool. b9 declared missing 10 Mar 2026 (inside the window); b14 on 1 Oct 2025 (before it);
   // b10 retired 20 Dec 2025; b11 declared missing 1 Feb 2026 and found again 15 Feb (back at a depot).
-  await setAsset(ids.b9!, { status: 'missing', site_id: w.customerSite.id, customer_id: w.customer.id, last_scan_at: at('2026-03-10'), next_intermediate_due: '2027-01-20', next_full_due: '2029-01-01', next_due: '2027-01-20' });
+  await setAsset(ids.b9!, {
+    status: 'missing',
+    site_id: w.customerSite.id,
+    customer_id: w.customer.id,
+    last_scan_at: at('2026-03-10'),
+    next_intermediate_due: '2027-01-20',
+    next_full_due: '2029-01-01',
+    next_due: '2027-01-20',
+  });
   await logEvent({ assetId: ids.b9!, action: 'mark_missing', occurredAt: at('2026-03-10'), statusTo: 'missing' });
   await setAsset(ids.b14!, { status: 'missing', last_scan_at: at('2025-10-01') });
   await logEvent({ assetId: ids.b14!, action: 'mark_missing', occurredAt: at('2025-10-01'), statusTo: 'missing' });
@@ -124,7 +169,16 @@ describe('with customers and overdue back', () => {
 
   test('empties waiting: one at CUS-T2, emptied 15 Nov (15 days), one collection request open', () => {
     expect(overview.empties).toEqual([
-      { siteId: expect.any(Number), code: 'CUS-T2', name: 'Second customer site', customerName: 'Second Customer', count: 1, oldestSince: '2026-11-15', longestWaitDays: 15, openRequests: 1 },
+      {
+        siteId: expect.any(Number),
+        code: 'CUS-T2',
+        name: 'Second customer site',
+        customerName: 'Second Customer',
+        count: 1,
+        oldestSince: '2026-11-15',
+        longestWaitDays: 15,
+        openRequests: 1,
+      },
     ]);
   });
 });

@@ -34,7 +34,10 @@ afterAll(async () => {
 const STATE = {
   filterModel: { status: { filterType: 'set', values: ['on_hire'] } },
   sortModel: [{ colId: 'nextDue', sort: 'asc' }],
-  columns: [{ colId: 'grai', hide: false, width: 220 }, { colId: 'serial', hide: true }],
+  columns: [
+    { colId: 'grai', hide: false, width: 220 },
+    { colId: 'serial', hide: true },
+  ],
 };
 
 async function list(user: SessionUser): Promise<ViewSummary[]> {

@@ -39,7 +39,10 @@ describe('silent for N days: SQL and the pure rules agree', () => {
     for (const [status, lastScanAt] of scans) {
       const atCustomer = ['on_hire', 'awaiting_collection'].includes(status);
       await rawBin({
-        binTypeId: w.binType.id, status, lastScanAt, leg: status === 'in_transit' ? 'return' : null,
+        binTypeId: w.binType.id,
+        status,
+        lastScanAt,
+        leg: status === 'in_transit' ? 'return' : null,
         siteId: status === 'in_transit' || status === 'missing' ? null : atCustomer ? w.customerSite.id : w.depot.id,
         customerId: atCustomer ? w.customer.id : null,
       });
@@ -65,10 +68,13 @@ describe('silent for N days: SQL and the pure rules agree', () => {
     expect(overview.stale.count).toBe(stalePure.filter(Boolean).length);
 
     // The grid's "days since last scan ≥ 30" (the saved view "Silent for 30+ days") on scanned bins in service.
-    const gridCount = await countBins(parseFilterModel({
-      daysSilent: { filterType: 'number', type: 'greaterThanOrEqual', filter: N },
-      status: { filterType: 'set', values: ['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair'] },
-    }), CTX);
+    const gridCount = await countBins(
+      parseFilterModel({
+        daysSilent: { filterType: 'number', type: 'greaterThanOrEqual', filter: N },
+        status: { filterType: 'set', values: ['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair'] },
+      }),
+      CTX,
+    );
     expect(gridCount).toBe(rows.filter((r, i) => stalePure[i] && r.last_scan_at !== null).length);
   });
 });

@@ -30,7 +30,9 @@ async function preparedBin(dueInDays: number) {
 
 const dispatch = (as: 'yard' | 'planner', assetId: number, extra: Record<string, unknown> = {}) =>
   callRoute(POST, {
-    user: sessionUser(as === 'yard' ? w.yard : w.planner), path: '/api/scan-events', method: 'POST',
+    user: sessionUser(as === 'yard' ? w.yard : w.planner),
+    path: '/api/scan-events',
+    method: 'POST',
     body: { clientEventId: randomUUID(), assetId, action: 'dispatch', purpose: 'hire', hireOrderId: w.order.id, siteId: w.depot.id, ...extra },
   });
 
@@ -40,7 +42,13 @@ describe('dispatch refused for a bin whose test runs out (through the API)', () 
     for (let i = 0; i < 10; i++) {
       const b = await newBin(w);
       const out = new Date(Date.UTC(2026, i % 8, 1, 10));
-      await handTrip({ assetId: b.id, customerId: w.customer.id, depotSiteId: w.depot.id, dispatchedAt: out.toISOString(), returnedAt: new Date(out.getTime() + 30 * 86_400_000).toISOString() });
+      await handTrip({
+        assetId: b.id,
+        customerId: w.customer.id,
+        depotSiteId: w.depot.id,
+        dispatchedAt: out.toISOString(),
+        returnedAt: new Date(out.getTime() + 30 * 86_400_000).toISOString(),
+      });
     }
   });
 
@@ -62,7 +70,10 @@ describe('dispatch refused for a bin whose test runs out (through the API)', () 
     expect(body.error!.message).toContain(`runs out on ${day(3)}, before the order's wanted date ${day(7)}`);
     const forced = await dispatch('planner', bin.id, { overrideReason: 'Customer insists, it will be fine' });
     expect(forced.status).toBe(422);
-    const [{ n }] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM scan_events WHERE asset_id = $1 AND action = 'dispatch'`, { bind: [bin.id], type: QueryTypes.SELECT });
+    const [{ n }] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM scan_events WHERE asset_id = $1 AND action = 'dispatch'`, {
+      bind: [bin.id],
+      type: QueryTypes.SELECT,
+    });
     expect(n).toBe(0);
   });
 
@@ -79,10 +90,18 @@ describe('dispatch refused for a bin whose test runs out (through the API)', () 
     const ok = await dispatch('planner', bin.id, { overrideReason: 'Customer returns it within 10 days, agreed by phone' });
     expect(ok.status).toBe(201);
     const [ev] = await sequelize.query<{ flagged: boolean; payload: { override?: Record<string, unknown>; flags?: string[] } }>(
-      `SELECT flagged, payload FROM scan_events WHERE asset_id = $1 AND action = 'dispatch'`, { bind: [bin.id], type: QueryTypes.SELECT });
+      `SELECT flagged, payload FROM scan_events WHERE asset_id = $1 AND action = 'dispatch'`,
+      { bind: [bin.id], type: QueryTypes.SELECT },
+    );
     expect(ev!.flagged).toBe(true);
     expect(ev!.payload.flags).toContain('lapse_margin_overridden');
-    expect(ev!.payload.override).toMatchObject({ code: 'lapses_while_out', lastDay: day(20), expectedBackOn: day(37), reason: 'Customer returns it within 10 days, agreed by phone', by: w.planner.id });
+    expect(ev!.payload.override).toMatchObject({
+      code: 'lapses_while_out',
+      lastDay: day(20),
+      expectedBackOn: day(37),
+      reason: 'Customer returns it within 10 days, agreed by phone',
+      by: w.planner.id,
+    });
   });
 
   test('in date for the whole usual hire: dispatched', async () => {

@@ -23,14 +23,26 @@ async function inspector() {
 
 function draft(assetId: number, inspectorId: number, over: Partial<InspectionDraft & { siteId: number | null }> = {}) {
   return {
-    clientEventId: randomUUID(), assetId, siteId: w.depot.id, kind: 'intermediate' as const, performedOn: '2026-12-03', checklist: ok('intermediate'),
-    leakTest: { pressureKpa: 22, minutes: 10, passed: true }, outcome: 'pass' as const, inspectorId, inspectionBody: null, remarks: null, ...over,
+    clientEventId: randomUUID(),
+    assetId,
+    siteId: w.depot.id,
+    kind: 'intermediate' as const,
+    performedOn: '2026-12-03',
+    checklist: ok('intermediate'),
+    leakTest: { pressureKpa: 22, minutes: 10, passed: true },
+    outcome: 'pass' as const,
+    inspectorId,
+    inspectionBody: null,
+    remarks: null,
+    ...over,
   };
 }
 
 async function replayed(assetId: number) {
   const events = await sequelize.query<{ occurred_at: Date; inferred: boolean; voided_at: Date | null; payload: never }>(
-    'SELECT occurred_at, inferred, voided_at, payload FROM scan_events WHERE asset_id = $1 ORDER BY occurred_at, id', { bind: [assetId], type: QueryTypes.SELECT });
+    'SELECT occurred_at, inferred, voided_at, payload FROM scan_events WHERE asset_id = $1 ORDER BY occurred_at, id',
+    { bind: [assetId], type: QueryTypes.SELECT },
+  );
   return replayState(events.map((e) => ({ occurredAt: e.occurred_at, inferred: e.inferred, voided: e.voided_at !== null, payload: e.payload })));
 }
 
@@ -46,12 +58,32 @@ describe('recording an inspection', () => {
     expect(out.testMark).toBe('12 26 · JDV');
     expect(out.scan.statusTo).toBe('available');
     const a = (await Asset.findByPk(bin.id))!;
-    expect([a.lastLeakTestOn, a.lastFullInspectionOn, a.lastInspectionOn, a.nextIntermediateDue, a.nextFullDue, a.nextDue]).toEqual(['2026-12-03', null, '2026-12-03', '2029-06-30', '2029-01-31', '2029-01-31']);
+    expect([a.lastLeakTestOn, a.lastFullInspectionOn, a.lastInspectionOn, a.nextIntermediateDue, a.nextFullDue, a.nextDue]).toEqual([
+      '2026-12-03',
+      null,
+      '2026-12-03',
+      '2029-06-30',
+      '2029-01-31',
+      '2029-01-31',
+    ]);
     const s = await replayed(bin.id);
-    expect(s.schedule).toEqual({ lastInspectionOn: '2026-12-03', lastLeakTestOn: '2026-12-03', lastFullInspectionOn: null, nextIntermediateDue: '2029-06-30', nextFullDue: '2029-01-31', nextDue: '2029-01-31' });
+    expect(s.schedule).toEqual({
+      lastInspectionOn: '2026-12-03',
+      lastLeakTestOn: '2026-12-03',
+      lastFullInspectionOn: null,
+      nextIntermediateDue: '2029-06-30',
+      nextFullDue: '2029-01-31',
+      nextDue: '2029-01-31',
+    });
     expect(s.status).toBe(a.status);
     const rec = (await inspectionById(out.inspectionId))!;
-    expect(rec).toMatchObject({ kind: 'intermediate', outcome: 'pass', inspectorName: 'Jana de Vries', leakTest: { pressureKpa: 22, minutes: 10, passed: true }, testMark: '12 26 · JDV' });
+    expect(rec).toMatchObject({
+      kind: 'intermediate',
+      outcome: 'pass',
+      inspectorName: 'Jana de Vries',
+      leakTest: { pressureKpa: 22, minutes: 10, passed: true },
+      testMark: '12 26 · JDV',
+    });
   });
 
   test('a 5-year inspection without a leakproofness test restarts only the 5-year clock', async () => {
@@ -66,7 +98,11 @@ describe('recording an inspection', () => {
   test('a fail quarantines the bin and moves no date', async () => {
     const me = await inspector();
     const bin = await newBin(w, { manufactureMonth: '2024-01' });
-    const out = await recordInspection(me, draft(bin.id, me.id, { outcome: 'fail', leakTest: { pressureKpa: 20, minutes: 10, passed: false }, remarks: 'Leaks at the valve seat' }), { now: NOW });
+    const out = await recordInspection(
+      me,
+      draft(bin.id, me.id, { outcome: 'fail', leakTest: { pressureKpa: 20, minutes: 10, passed: false }, remarks: 'Leaks at the valve seat' }),
+      { now: NOW },
+    );
     expect(out.scan.statusTo).toBe('quarantine');
     const a = (await Asset.findByPk(bin.id))!;
     expect([a.status, a.nextDue]).toEqual(['quarantine', '2026-07-31']);
@@ -91,7 +127,9 @@ describe('recording an inspection', () => {
     const plain = await makeUser('yard', w.operator.id);
     const err = await appErrorOf(recordInspection(me, draft(bin.id, plain.id), { now: NOW }));
     expect(err.message).toMatch(/qualified inspector/);
-    const out = await recordInspection(w.planner as typeof me, draft(bin.id, null as unknown as number, { inspectorId: null, inspectionBody: 'North Test House', siteId: null }), { now: NOW });
+    const out = await recordInspection(w.planner as typeof me, draft(bin.id, null as unknown as number, { inspectorId: null, inspectionBody: 'North Test House', siteId: null }), {
+      now: NOW,
+    });
     expect(out.testMark).toBe('12 26 · North Test House');
   });
 
@@ -102,7 +140,12 @@ describe('recording an inspection', () => {
     await expect(sequelize.query('UPDATE inspections SET notes = $2 WHERE id = $1', { bind: [out.inspectionId, 'changed'] })).rejects.toThrow(/never edited/);
     await expect(sequelize.query('DELETE FROM inspections WHERE id = $1', { bind: [out.inspectionId] })).rejects.toThrow(/never deleted/);
     expect((await appErrorOf(amendInspection(me, out.inspectionId, { reason: 'x', remarks: 'y' }))).code).toBe('validation_failed');
-    const amended = await amendInspection(me, out.inspectionId, { reason: 'Pressure was misread', leakTest: { pressureKpa: 24, minutes: 12, passed: true }, remarks: 'Gauge re-read' }, { now: NOW });
+    const amended = await amendInspection(
+      me,
+      out.inspectionId,
+      { reason: 'Pressure was misread', leakTest: { pressureKpa: 24, minutes: 12, passed: true }, remarks: 'Gauge re-read' },
+      { now: NOW },
+    );
     expect(amended).toMatchObject({ id: out.inspectionId, leakTest: { pressureKpa: 24, minutes: 12, passed: true }, remarks: 'Gauge re-read' });
     expect(amended.amendments.map((a) => a.reason)).toEqual(['Pressure was misread']);
     // What decided the due dates cannot be amended away.

@@ -26,10 +26,24 @@ describe('test days at a depot', () => {
     for (let i = 0; i < 3; i++) {
       const b = await newBin(w);
       const sent = new Date(Date.UTC(2026, i, 1, 10));
-      await handTrip({ assetId: b.id, customerId: w.customer.id, depotSiteId: w.depot.id, dispatchedAt: sent.toISOString(), returnedAt: new Date(sent.getTime() + 40 * 86_400_000).toISOString() });
+      await handTrip({
+        assetId: b.id,
+        customerId: w.customer.id,
+        depotSiteId: w.depot.id,
+        dispatchedAt: sent.toISOString(),
+        returnedAt: new Date(sent.getTime() + 40 * 86_400_000).toISOString(),
+      });
     }
     const trip = await handTrip({ assetId: out.id, customerId: w.customer.id, depotSiteId: w.depot.id, customerSiteId: w.customerSite.id, dispatchedAt: `${day(-5)}T10:00:00Z` });
-    await setAsset(out.id, { status: 'on_hire', site_id: w.customerSite.id, customer_id: w.customer.id, current_trip_id: trip, next_intermediate_due: day(20), next_due: day(20), next_full_due: day(900) });
+    await setAsset(out.id, {
+      status: 'on_hire',
+      site_id: w.customerSite.id,
+      customer_id: w.customer.id,
+      current_trip_id: trip,
+      next_intermediate_due: day(20),
+      next_due: day(20),
+      next_full_due: day(900),
+    });
 
     const p = await depotTestPlan(w.depot.id, 2);
     const placed = p.plan.days.flatMap((d) => d.binIds);

@@ -1,6 +1,6 @@
 import { describe, test, expect } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import PgBoss from 'pg-boss';
+import type PgBoss from 'pg-boss';
 import { usePoolWorld, newBin, makeUser } from '../support/fixtures';
 import { recordScan } from '@/lib/scans/scan-service.server';
 import { runJobNow, JOBS } from '@/lib/jobs/registry.server';
@@ -20,7 +20,11 @@ async function onHireSince(at: string) {
   ] as const;
   let i = 0;
   for (const s of steps) {
-    await recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, occurredAt: new Date(Date.parse(at) + i++ * 60_000), ...s }, { now: new Date('2026-12-01T12:00:00Z') });
+    await recordScan(
+      w.yard,
+      { clientEventId: randomUUID(), assetId: bin.id, occurredAt: new Date(Date.parse(at) + i++ * 60_000), ...s },
+      { now: new Date('2026-12-01T12:00:00Z') },
+    );
   }
   return bin;
 }

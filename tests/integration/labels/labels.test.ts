@@ -37,8 +37,17 @@ beforeAll(async () => {
   await resetDatabase();
   w = await poolWorld();
   typeB = await BinType.create({
-    code: 'T1250', name: 'Test bin 1250 L', graiAssetType: '12510', nominalCapacityL: 1250, tareKg: '98', maxGrossKg: '1500',
-    footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1300, heightFoldedMm: 400, unCode: null,
+    code: 'T1250',
+    name: 'Test bin 1250 L',
+    graiAssetType: '12510',
+    nominalCapacityL: 1250,
+    tareKg: '98',
+    maxGrossKg: '1500',
+    footprintLengthMm: 1200,
+    footprintWidthMm: 1000,
+    heightErectedMm: 1300,
+    heightFoldedMm: 400,
+    unCode: null,
   });
   // Type A: serials 95…110 at the first depot, registered out of order; one letter serial.
   for (const s of [103, 95, 110, 99, 100, 101, 102, 96, 97, 98, 104, 105, 106, 107, 108, 109]) await bin(TYPE_A, String(s), w.binType.id, w.depot.id);
@@ -85,7 +94,7 @@ describe('a range of serials or GRAIs', () => {
   });
 
   test('a wrong GRAI at an end is reported, nothing selected', async () => {
-    const r = await run(selection({ by: 'range', from: `${TYPE_A.slice(0, 13)}3` + '100', to: '105' }));
+    const r = await run(selection({ by: 'range', from: `${TYPE_A.slice(0, 13)}3100`, to: '105' }));
     expect(r.bins).toEqual([]);
     expect(r.issues).toEqual([{ field: 'from', message: expect.stringMatching(/check digit: 3 given, 8 expected/) }]);
   });
@@ -136,7 +145,7 @@ describe('an explicit selection', () => {
       '0 9529999 10010 8 · 99', // as read off a label
       `(8003)${TYPE_A}100`,
       unregistered,
-      `${TYPE_A.slice(0, 13)}3` + '100', // wrong check digit
+      `${TYPE_A.slice(0, 13)}3100`, // wrong check digit
       `${TYPE_A}102`, // pasted twice
     ].join('\n');
     const r = await run(selection({ by: 'list', grais: pasted }));

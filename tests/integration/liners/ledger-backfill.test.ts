@@ -29,7 +29,21 @@ describe('the ledger backfill', () => {
       fits.push(await scan(bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id }));
     }
     const planner = (await User.findByPk(w.planner.id!))!;
-    await voidScan({ id: planner.id, email: planner.email, name: planner.name, role: 'planner', organisationId: planner.organisationId, organisationName: '', homeSiteId: null, qualifiedInspector: false }, fits[2]!.eventId, 'Wrong bin', null);
+    await voidScan(
+      {
+        id: planner.id,
+        email: planner.email,
+        name: planner.name,
+        role: 'planner',
+        organisationId: planner.organisationId,
+        organisationName: '',
+        homeSiteId: null,
+        qualifiedInspector: false,
+      },
+      fits[2]!.eventId,
+      'Wrong bin',
+      null,
+    );
     expect(await onHand(w.lot.id, w.depot.id)).toBe(98);
 
     // History from before the ledger: the table goes, and a lot shows more fits than it received.
@@ -42,10 +56,9 @@ describe('the ledger backfill', () => {
     );
     const extra = await newBin(w);
     for (let i = 0; i < 3; i += 1) {
-      await sequelize.query(
-        `INSERT INTO scan_events (asset_id, action, occurred_at, site_id, status_to, payload) VALUES ($1, 'fit_liner', now(), $2, 'prepared', $3::jsonb)`,
-        { bind: [extra.id, w.depot.id, JSON.stringify({ linerLotId: short!.id })] },
-      );
+      await sequelize.query(`INSERT INTO scan_events (asset_id, action, occurred_at, site_id, status_to, payload) VALUES ($1, 'fit_liner', now(), $2, 'prepared', $3::jsonb)`, {
+        bind: [extra.id, w.depot.id, JSON.stringify({ linerLotId: short!.id })],
+      });
     }
     await migration.up(qi);
 

@@ -24,15 +24,17 @@ async function checkedBin() {
 }
 
 async function negativeBalances(): Promise<number> {
-  const [r] = await sequelize.query<{ n: number }>(
-    'SELECT count(*)::int AS n FROM (SELECT lot_id, site_id FROM liner_moves GROUP BY lot_id, site_id HAVING sum(quantity) < 0) x',
-    { type: QueryTypes.SELECT },
-  );
+  const [r] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM (SELECT lot_id, site_id FROM liner_moves GROUP BY lot_id, site_id HAVING sum(quantity) < 0) x', {
+    type: QueryTypes.SELECT,
+  });
   return r!.n;
 }
 
 async function newLot(lotNumber: string, quantity: number) {
-  const { lotId } = await receiveLot({ id: null }, { supplier: 'Ledger Liners', lotNumber, spec: 'PE bag', quantity, receivedOn: '2026-10-01', expiryDate: '2028-10-01', siteId: w.depot.id });
+  const { lotId } = await receiveLot(
+    { id: null },
+    { supplier: 'Ledger Liners', lotNumber, spec: 'PE bag', quantity, receivedOn: '2026-10-01', expiryDate: '2028-10-01', siteId: w.depot.id },
+  );
   return lotId;
 }
 
@@ -74,8 +76,13 @@ describe('the liner stock ledger', () => {
     await scan(w.yard, bin.id, { action: 'fold', siteId: w.depot.id });
     expect(await onHand(w.lot.id, w.depot.id)).toBe(before - 1);
     const moves = await sequelize.query<{ kind: string; quantity: number; reason: string | null }>(
-      'SELECT kind, quantity, reason FROM liner_moves WHERE asset_id = $1 ORDER BY id', { bind: [bin.id], type: QueryTypes.SELECT });
-    expect(moves.map((m) => [m.kind, m.quantity])).toEqual([['fitted', -1], ['fitted_discarded', 0]]);
+      'SELECT kind, quantity, reason FROM liner_moves WHERE asset_id = $1 ORDER BY id',
+      { bind: [bin.id], type: QueryTypes.SELECT },
+    );
+    expect(moves.map((m) => [m.kind, m.quantity])).toEqual([
+      ['fitted', -1],
+      ['fitted_discarded', 0],
+    ]);
     expect(moves[1]!.reason).toMatch(/folded at the depot/);
   });
 
@@ -89,15 +96,30 @@ describe('the liner stock ledger', () => {
 
   test('a voided fit puts its liner back on the shelf', async () => {
     const planner = (await User.findByPk(w.planner.id!))!;
-    const me: SessionUser = { id: planner.id, email: planner.email, name: planner.name, role: planner.role, organisationId: planner.organisationId, organisationName: '', homeSiteId: null, qualifiedInspector: false };
+    const me: SessionUser = {
+      id: planner.id,
+      email: planner.email,
+      name: planner.name,
+      role: planner.role,
+      organisationId: planner.organisationId,
+      organisationName: '',
+      homeSiteId: null,
+      qualifiedInspector: false,
+    };
     const bin = await checkedBin();
     const before = await onHand(w.lot.id, w.depot.id);
     const fit = await scan(w.yard, bin.id, { action: 'fit_liner', linerLotId: w.lot.id, siteId: w.depot.id });
     expect(await onHand(w.lot.id, w.depot.id)).toBe(before - 1);
     await voidScan(me, fit.eventId, 'Wrong bin scanned', '127.0.0.1');
     expect(await onHand(w.lot.id, w.depot.id)).toBe(before);
-    const moves = await sequelize.query<{ kind: string; quantity: number }>('SELECT kind, quantity FROM liner_moves WHERE asset_id = $1 ORDER BY id', { bind: [bin.id], type: QueryTypes.SELECT });
-    expect(moves).toEqual([{ kind: 'fitted', quantity: -1 }, { kind: 'reversal', quantity: 1 }]);
+    const moves = await sequelize.query<{ kind: string; quantity: number }>('SELECT kind, quantity FROM liner_moves WHERE asset_id = $1 ORDER BY id', {
+      bind: [bin.id],
+      type: QueryTypes.SELECT,
+    });
+    expect(moves).toEqual([
+      { kind: 'fitted', quantity: -1 },
+      { kind: 'reversal', quantity: 1 },
+    ]);
   });
 
   test('a lot with no stock at the fitting depot is refused, and the refusal leaves no trace', async () => {
@@ -122,7 +144,9 @@ describe('the liner stock ledger', () => {
 
     await sendKits({ id: w.planner.id }, { lotId, siteId: w.depot.id, hireOrderId: w.order.id, quantity: 12, foldedBins: 12 });
     expect(await onHand(lotId, w.depot.id)).toBe(58);
-    expect((await appErrorOf(scrapLiners({ id: null }, { lotId, siteId: w.depot.id, quantity: 59, reason: 'Water damage' }))).message).toMatch(/Only 58 liners of lot LL-MOVES are left/);
+    expect((await appErrorOf(scrapLiners({ id: null }, { lotId, siteId: w.depot.id, quantity: 59, reason: 'Water damage' }))).message).toMatch(
+      /Only 58 liners of lot LL-MOVES are left/,
+    );
     await scrapLiners({ id: null }, { lotId, siteId: w.depot.id, quantity: 3, reason: 'Water damage' });
     const count = await recordCount({ id: w.yard.id }, { lotId, siteId: w.depot.id, counted: 52 });
     expect(count).toMatchObject({ counted: 52, expected: 55, quantity: -3 });
@@ -143,7 +167,9 @@ describe('the liner stock ledger', () => {
         return (e as { parent?: { constraint?: string } }).parent?.constraint ?? 'other';
       }
     };
-    expect(await sqlError(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at, reason) VALUES ($1, $2, 'scrapped', -3, now(), 'x')`, [lotId, w.depot.id])).toBe('liner_moves_never_negative');
+    expect(await sqlError(`INSERT INTO liner_moves (lot_id, site_id, kind, quantity, occurred_at, reason) VALUES ($1, $2, 'scrapped', -3, now(), 'x')`, [lotId, w.depot.id])).toBe(
+      'liner_moves_never_negative',
+    );
     expect(await sqlError('UPDATE liner_moves SET quantity = 5 WHERE lot_id = $1', [lotId])).toBe('liner_moves_append_only');
     expect(await sqlError('DELETE FROM liner_moves WHERE lot_id = $1', [lotId])).toBe('liner_moves_append_only');
     expect(await onHand(lotId, w.depot.id)).toBe(2);

@@ -17,12 +17,26 @@ const scan = (assetId: number, input: Omit<ScanInput, 'clientEventId' | 'assetId
   recordScan(w.yard, { clientEventId: randomUUID(), assetId, occurredAt: new Date(Date.UTC(2026, 10, 20, 8, minute++)), ...input }, { now: NOW });
 
 const base: SpecInput = {
-  code: 'X', name: 'Test bag', material: 'PE', layers: 1, nominalCapacityL: 1000, valveType: 'butterfly', valveSize: 'DN50', glandSize: 'DN150',
-  foodContact: true, maxFillTempC: 60, supplierId: null, articleNumber: null, binTypeIds: [],
+  code: 'X',
+  name: 'Test bag',
+  material: 'PE',
+  layers: 1,
+  nominalCapacityL: 1000,
+  valveType: 'butterfly',
+  valveSize: 'DN50',
+  glandSize: 'DN150',
+  foodContact: true,
+  maxFillTempC: 60,
+  supplierId: null,
+  articleNumber: null,
+  binTypeIds: [],
 };
 
 async function lotOf(specId: number, lotNumber: string) {
-  const { lotId } = await receiveLot({ id: null }, { supplier: 'Spec Liners', lotNumber, spec: 'see spec', quantity: 10, receivedOn: '2026-10-01', expiryDate: '2028-10-01', siteId: w.depot.id, linerSpecId: specId });
+  const { lotId } = await receiveLot(
+    { id: null },
+    { supplier: 'Spec Liners', lotNumber, spec: 'see spec', quantity: 10, receivedOn: '2026-10-01', expiryDate: '2028-10-01', siteId: w.depot.id, linerSpecId: specId },
+  );
   return lotId;
 }
 async function checkedBin() {
@@ -33,7 +47,10 @@ async function checkedBin() {
 
 describe('liner specs and the fit', () => {
   test('a lot of a listed spec fits; capacity, valve and gland mismatches are refused with the reason, online and from the offline queue', async () => {
-    const supplier = await createSupplier({ name: 'Spec Liners', orderEmail: 'orders@spec.example', leadTimeDays: 12, orderCost: 80, packSize: 50, minOrderQty: 200, pricePerLiner: 6.5 }, ACTOR);
+    const supplier = await createSupplier(
+      { name: 'Spec Liners', orderEmail: 'orders@spec.example', leadTimeDays: 12, orderCost: 80, packSize: 50, minOrderQty: 200, pricePerLiner: 6.5 },
+      ACTOR,
+    );
     const good = await createSpec({ ...base, code: 'OK-1000', supplierId: supplier.id, articleNumber: 'A-1', binTypeIds: [w.binType.id] }, ACTOR);
     const big = await createSpec({ ...base, code: 'BIG-1250', nominalCapacityL: 1250 }, ACTOR);
     const dn80 = await createSpec({ ...base, code: 'V-DN80', valveSize: 'DN80' }, ACTOR);
@@ -54,7 +71,16 @@ describe('liner specs and the fit', () => {
       [twin.id, 'SP-TW', 'liner_not_listed', /not listed for this bin type/],
     ];
     const planner = (await User.findByPk(w.yard.id!))!;
-    const me: SessionUser = { id: planner.id, email: planner.email, name: planner.name, role: planner.role, organisationId: planner.organisationId, organisationName: '', homeSiteId: planner.homeSiteId, qualifiedInspector: false };
+    const me: SessionUser = {
+      id: planner.id,
+      email: planner.email,
+      name: planner.name,
+      role: planner.role,
+      organisationId: planner.organisationId,
+      organisationName: '',
+      homeSiteId: planner.homeSiteId,
+      qualifiedInspector: false,
+    };
     for (const [specId, lotNumber, code, reason] of cases) {
       const lotId = await lotOf(specId, lotNumber);
       const bin = await checkedBin();
@@ -63,7 +89,16 @@ describe('liner specs and the fit', () => {
       expect(online.message).toMatch(reason);
       expect(online.message).toContain('Test bin 1000 L');
       // The same fit queued on a phone without signal and sent an hour later.
-      const queued = await appErrorOf(recordScanFromClient(me, { clientEventId: randomUUID(), assetId: bin.id, action: 'fit_liner', linerLotId: lotId, siteId: w.depot.id, occurredAt: new Date(NOW.getTime() - 3_600_000).toISOString() } as never));
+      const queued = await appErrorOf(
+        recordScanFromClient(me, {
+          clientEventId: randomUUID(),
+          assetId: bin.id,
+          action: 'fit_liner',
+          linerLotId: lotId,
+          siteId: w.depot.id,
+          occurredAt: new Date(NOW.getTime() - 3_600_000).toISOString(),
+        } as never),
+      );
       expect((queued.details as { reason: string }).reason).toBe(code);
       expect(await onHand(lotId, w.depot.id)).toBe(10);
     }
@@ -84,8 +119,18 @@ describe('liner specs and the fit', () => {
 
   test('supplier terms are edited with their version', async () => {
     const s = await createSupplier({ name: 'Terms Ltd', orderEmail: null, leadTimeDays: 5, orderCost: 50, packSize: 25, minOrderQty: 100, pricePerLiner: 5 }, ACTOR);
-    const next = await updateSupplier(s.id, { name: 'Terms Ltd', orderEmail: 'buy@terms.example', leadTimeDays: 7, orderCost: 55.5, packSize: 25, minOrderQty: 100, pricePerLiner: 5.25, version: s.version }, ACTOR);
+    const next = await updateSupplier(
+      s.id,
+      { name: 'Terms Ltd', orderEmail: 'buy@terms.example', leadTimeDays: 7, orderCost: 55.5, packSize: 25, minOrderQty: 100, pricePerLiner: 5.25, version: s.version },
+      ACTOR,
+    );
     expect(next).toMatchObject({ orderEmail: 'buy@terms.example', leadTimeDays: 7, orderCost: '55.50', pricePerLiner: '5.25' });
-    expect((await appErrorOf(updateSupplier(s.id, { name: 'Terms Ltd', orderEmail: null, leadTimeDays: 7, orderCost: 1, packSize: 1, minOrderQty: 1, pricePerLiner: 1, version: s.version }, ACTOR))).code).toBe('changed_meanwhile');
+    expect(
+      (
+        await appErrorOf(
+          updateSupplier(s.id, { name: 'Terms Ltd', orderEmail: null, leadTimeDays: 7, orderCost: 1, packSize: 1, minOrderQty: 1, pricePerLiner: 1, version: s.version }, ACTOR),
+        )
+      ).code,
+    ).toBe('changed_meanwhile');
   });
 });

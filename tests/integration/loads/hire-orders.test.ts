@@ -14,7 +14,18 @@ const w = usePoolWorld();
 describe('open hire orders at a depot', () => {
   test('confirmed and loading ones (never drafts), soonest first, with the bins gone out on each; filters by type, day and count', async () => {
     const order = (reference: string, neededBy: string, status: string, depotSiteId = w.depot.id) =>
-      HireOrder.create({ reference, customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId, binTypeId: w.binType.id, quantity: 5, neededBy, product: null, notes: null, status } as never);
+      HireOrder.create({
+        reference,
+        customerId: w.customer.id,
+        deliverySiteId: w.customerSite.id,
+        depotSiteId,
+        binTypeId: w.binType.id,
+        quantity: 5,
+        neededBy,
+        product: null,
+        notes: null,
+        status,
+      } as never);
     const loading = await order('HO-B', '2026-12-05', 'loading');
     await order('HO-C', '2026-12-20', 'confirmed');
     await order('HO-F', '2026-12-03', 'draft'); // a draft counts nowhere
@@ -25,8 +36,19 @@ describe('open hire orders at a depot', () => {
     await HireOrder.sequelize!.query('UPDATE trips SET hire_order_id = $1 WHERE id = $2', { bind: [loading.id, tripId] });
 
     const all = await openOrdersAt(w.depot.id);
-    expect(all.map((o) => [o.reference, o.loaded])).toEqual([['HO-B', 1], ['HO-TEST-1', 0], ['HO-C', 0]]); // HO-TEST-1 needed 10 Dec
-    expect(all[0]).toMatchObject({ customer: 'Test Customer', neededBy: '2026-12-05', quantity: 5, binType: 'Test bin 1000 L', deliverySite: 'Customer site', binTypeId: w.binType.id });
+    expect(all.map((o) => [o.reference, o.loaded])).toEqual([
+      ['HO-B', 1],
+      ['HO-TEST-1', 0],
+      ['HO-C', 0],
+    ]); // HO-TEST-1 needed 10 Dec
+    expect(all[0]).toMatchObject({
+      customer: 'Test Customer',
+      neededBy: '2026-12-05',
+      quantity: 5,
+      binType: 'Test bin 1000 L',
+      deliverySite: 'Customer site',
+      binTypeId: w.binType.id,
+    });
     expect((await openOrdersAt(w.depot.id, { neededBy: '2026-12-10' })).map((o) => o.reference)).toEqual(['HO-B', 'HO-TEST-1']);
     expect((await openOrdersAt(w.depot.id, { limit: 1 })).map((o) => o.reference)).toEqual(['HO-B']);
     expect(await openOrdersAt(w.depot.id, { binTypeId: w.binType.id + 999 })).toEqual([]);
@@ -39,7 +61,16 @@ describe('open hire orders at a depot', () => {
   });
 
   test('depot choices: active depots only, by name', async () => {
-    await Site.create({ organisationId: w.operator.id, code: 'DEP-OLD', name: 'Closed depot', kind: 'depot', address: null, latitude: null, longitude: null, active: false } as never);
+    await Site.create({
+      organisationId: w.operator.id,
+      code: 'DEP-OLD',
+      name: 'Closed depot',
+      kind: 'depot',
+      address: null,
+      latitude: null,
+      longitude: null,
+      active: false,
+    } as never);
     expect((await depotChoices()).map((d) => d.name)).toEqual(['Second depot', 'Test depot']);
   });
 });

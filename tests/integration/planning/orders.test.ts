@@ -37,15 +37,38 @@ async function preparedBin() {
 
 function input(extra: Record<string, unknown> = {}) {
   return orderInputSchema.parse({
-    customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, binTypeId: w.binType.id,
-    quantity: 3, neededBy: addDays(today(), 2), ...extra,
+    customerId: w.customer.id,
+    deliverySiteId: w.customerSite.id,
+    depotSiteId: w.depot.id,
+    binTypeId: w.binType.id,
+    quantity: 3,
+    neededBy: addDays(today(), 2),
+    ...extra,
   });
 }
 
 beforeAll(async () => {
   // The customer's tariffs: an old one up to yesterday, the current one open-ended.
-  await Tariff.create({ customerId: w.customer.id, freeDays: 10, dailyRate: '1.50', perTripFee: '20.00', lostBinFee: '700.00', currency: 'EUR', validFrom: '2020-01-01', validTo: addDays(today(), -1) });
-  await Tariff.create({ customerId: w.customer.id, freeDays: 14, dailyRate: '1.75', perTripFee: '22.00', lostBinFee: '750.00', currency: 'EUR', validFrom: today(), validTo: null });
+  await Tariff.create({
+    customerId: w.customer.id,
+    freeDays: 10,
+    dailyRate: '1.50',
+    perTripFee: '20.00',
+    lostBinFee: '700.00',
+    currency: 'EUR',
+    validFrom: '2020-01-01',
+    validTo: addDays(today(), -1),
+  });
+  await Tariff.create({
+    customerId: w.customer.id,
+    freeDays: 14,
+    dailyRate: '1.75',
+    perTripFee: '22.00',
+    lostBinFee: '750.00',
+    currency: 'EUR',
+    validFrom: today(),
+    validTo: null,
+  });
 });
 
 describe('tariffs with effective dates', () => {
@@ -88,8 +111,12 @@ describe('a draft counts nowhere', () => {
     expect((await ordersAt(w.depot.id, w.binType.id)).map((o) => o.id)).toContain(confirmed.id);
     await expect(startLoad({ ...w.yard, id: w.yard.id! }, { purpose: 'hire', hireOrderId: draft.id })).rejects.toMatchObject({ code: 'unprocessable' });
     const bin = await preparedBin();
-    await refused(recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'dispatch', siteId: w.depot.id, purpose: 'hire', hireOrderId: draft.id }), 'transition_refused', /still a draft/);
-    const [{ n }] = (await sel<{ n: number }>(`SELECT count(*)::int AS n FROM trips WHERE hire_order_id = $1`, [draft.id]));
+    await refused(
+      recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'dispatch', siteId: w.depot.id, purpose: 'hire', hireOrderId: draft.id }),
+      'transition_refused',
+      /still a draft/,
+    );
+    const [{ n }] = await sel<{ n: number }>(`SELECT count(*)::int AS n FROM trips WHERE hire_order_id = $1`, [draft.id]);
     expect(n).toBe(0);
 
     // once confirmed it is demand
@@ -124,14 +151,20 @@ describe("an order's status follows its loads", () => {
     view = await orderView(order.id);
     expect(view!.status).toBe('dispatched');
     expect(view!.progress).toEqual({ quantity: 2, loaded: 2, dispatched: 2 });
-    expect(view!.loads.map((l) => [l.status, l.bins])).toEqual([['dispatched', 1], ['dispatched', 1]]);
+    expect(view!.loads.map((l) => [l.status, l.bins])).toEqual([
+      ['dispatched', 1],
+      ['dispatched', 1],
+    ]);
     expect(view!.commands.map((c) => c.command)).toEqual(['close']);
 
     // a stale copy is refused, the current one closes it
     await expect(commandOrder(order.id, { command: 'close', version: view!.version - 1 }, actor())).rejects.toMatchObject({ code: 'changed_meanwhile' });
     const closed = await commandOrder(order.id, { command: 'close', version: view!.version }, actor());
     expect(closed.status).toBe('closed');
-    const audit = await sequelize.query(`SELECT action FROM audit_entries WHERE entity_type = 'hire_order' AND entity_id = $1 ORDER BY id`, { bind: [String(order.id)], type: 'SELECT' });
+    const audit = await sequelize.query(`SELECT action FROM audit_entries WHERE entity_type = 'hire_order' AND entity_id = $1 ORDER BY id`, {
+      bind: [String(order.id)],
+      type: 'SELECT',
+    });
     expect(audit.map((a) => (a as { action: string }).action)).toEqual(['order.create', 'order.close']);
   });
 
@@ -161,7 +194,7 @@ describe('the fill planner reads the order and its bin type', () => {
     expect(data.linerMaxFillTempC).toBe(30);
     expect(data.usualMark).toBe('31HA2/Y/03 26/D/Faltwerk 12/10800/1285');
     expect(data.binsWithUsualMark).toBe(2);
-    const [{ n }] = (await sel<{ n: number }>(`SELECT count(*)::int AS n FROM assets WHERE status <> 'retired'`, []));
+    const [{ n }] = await sel<{ n: number }>(`SELECT count(*)::int AS n FROM assets WHERE status <> 'retired'`, []);
     expect(data.binsOfType).toBe(n);
     expect(await fillPlannerData(999_999)).toBeNull();
   });
@@ -171,7 +204,7 @@ describe('the database keeps the statuses', () => {
   test("the old word 'open' is gone and a new order starts as a draft", async () => {
     const code = await sqlErrorCode(`UPDATE hire_orders SET status = 'open' WHERE id = $1`, [w.order.id]);
     expect(code).toBe('23514');
-    const [row] = (await sel<{ column_default: string }>(`SELECT column_default FROM information_schema.columns WHERE table_name = 'hire_orders' AND column_name = 'status'`, []));
+    const [row] = await sel<{ column_default: string }>(`SELECT column_default FROM information_schema.columns WHERE table_name = 'hire_orders' AND column_name = 'status'`, []);
     expect(row.column_default).toContain('draft');
   });
 });
@@ -179,10 +212,10 @@ describe('the database keeps the statuses', () => {
 describe('the order list and the API', () => {
   test('filters and paging happen in the database', async () => {
     const all = await listOrders(DEFAULT_ORDER_LIST);
-    const [{ n }] = (await sel<{ n: number }>(`SELECT count(*)::int AS n FROM hire_orders`, []));
+    const [{ n }] = await sel<{ n: number }>(`SELECT count(*)::int AS n FROM hire_orders`, []);
     expect(all.total).toBe(n);
     const drafts = await listOrders({ ...DEFAULT_ORDER_LIST, filters: { status: 'draft' } });
-    const [{ d }] = (await sel<{ d: number }>(`SELECT count(*)::int AS d FROM hire_orders WHERE status = 'draft'`, []));
+    const [{ d }] = await sel<{ d: number }>(`SELECT count(*)::int AS d FROM hire_orders WHERE status = 'draft'`, []);
     expect(drafts.total).toBe(d);
     expect(drafts.rows.every((r) => r.status === 'draft')).toBe(true);
     const demand = await listOrders({ ...DEFAULT_ORDER_LIST, filters: { status: 'demand' } });
@@ -214,15 +247,29 @@ describe('the order list and the API', () => {
     expect((await json(invalid)).error?.code).toBe('validation_failed');
     // a site of another customer does not fit
     const depotAsSite = await callRoute(listRoute.POST, {
-      user: planner, path: '/api/planning/orders', method: 'POST',
+      user: planner,
+      path: '/api/planning/orders',
+      method: 'POST',
       body: { customerId: w.customer.id, deliverySiteId: w.depot2.id, depotSiteId: w.depot.id, binTypeId: w.binType.id, quantity: 2, neededBy: addDays(today(), 3) },
     });
     expect(depotAsSite.status).toBe(400);
     expect(JSON.stringify((await json(depotAsSite)).error?.details)).toContain('deliverySiteId');
     const before = await HireOrder.count();
     const created = await callRoute(listRoute.POST, {
-      user: planner, path: '/api/planning/orders', method: 'POST',
-      body: { customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, binTypeId: w.binType.id, quantity: 2, neededBy: addDays(today(), 3), linerFoodContact: true, linerMaxFillTempC: 40, confirm: true },
+      user: planner,
+      path: '/api/planning/orders',
+      method: 'POST',
+      body: {
+        customerId: w.customer.id,
+        deliverySiteId: w.customerSite.id,
+        depotSiteId: w.depot.id,
+        binTypeId: w.binType.id,
+        quantity: 2,
+        neededBy: addDays(today(), 3),
+        linerFoodContact: true,
+        linerMaxFillTempC: 40,
+        confirm: true,
+      },
     });
     expect(created.status).toBe(201);
     const body = (await json<{ data: { id: number; reference: string; status: string } }>(created)).data;
@@ -232,11 +279,29 @@ describe('the order list and the API', () => {
     const stored = (await HireOrder.findByPk(body.id))!;
     expect([stored.linerFoodContact, stored.linerMaxFillTempC, stored.createdBy]).toEqual([true, 40, w.planner.id]);
 
-    const refused = await callRoute(statusRoute.POST, { user: planner, path: `/api/planning/orders/${body.id}/status`, method: 'POST', params: { id: String(body.id) }, body: { command: 'confirm', version: stored.version } });
+    const refused = await callRoute(statusRoute.POST, {
+      user: planner,
+      path: `/api/planning/orders/${body.id}/status`,
+      method: 'POST',
+      params: { id: String(body.id) },
+      body: { command: 'confirm', version: stored.version },
+    });
     expect(refused.status).toBe(422);
-    const missing = await callRoute(statusRoute.POST, { user: planner, path: '/api/planning/orders/abc/status', method: 'POST', params: { id: 'abc' }, body: { command: 'cancel', version: 0 } });
+    const missing = await callRoute(statusRoute.POST, {
+      user: planner,
+      path: '/api/planning/orders/abc/status',
+      method: 'POST',
+      params: { id: 'abc' },
+      body: { command: 'cancel', version: 0 },
+    });
     expect(missing.status).toBe(404);
-    const cancelled = await callRoute(statusRoute.POST, { user: planner, path: `/api/planning/orders/${body.id}/status`, method: 'POST', params: { id: String(body.id) }, body: { command: 'cancel', version: stored.version } });
+    const cancelled = await callRoute(statusRoute.POST, {
+      user: planner,
+      path: `/api/planning/orders/${body.id}/status`,
+      method: 'POST',
+      params: { id: String(body.id) },
+      body: { command: 'cancel', version: stored.version },
+    });
     expect(cancelled.status).toBe(200);
     expect((await HireOrder.findByPk(body.id))!.status).toBe('cancelled');
   });

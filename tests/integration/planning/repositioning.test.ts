@@ -34,7 +34,9 @@ describe('the repositioning plan on the demo pool', () => {
     for (const r of view.rows) {
       const n = await count(
         `SELECT count(*)::int n FROM assets a JOIN sites s ON s.id = a.site_id JOIN bin_types t ON t.id = a.bin_type_id
-          WHERE s.id = $1 AND t.name = $2 AND a.status IN ('available', 'prepared')`, [Number(r.key), r.type]);
+          WHERE s.id = $1 AND t.name = $2 AND a.status IN ('available', 'prepared')`,
+        [Number(r.key), r.type],
+      );
       expect(n, `${r.name} · ${r.type}`).toBe(r.onHand);
     }
   });
@@ -44,13 +46,17 @@ describe('the repositioning plan on the demo pool', () => {
       const n = await count(
         `SELECT coalesce(sum(greatest(ho.quantity - (SELECT count(*) FROM trips tr WHERE tr.hire_order_id = ho.id), 0)), 0)::int n
            FROM hire_orders ho JOIN bin_types t ON t.id = ho.bin_type_id
-          WHERE ho.depot_site_id = $1 AND t.name = $2 AND ho.status IN ('confirmed', 'loading') AND ho.needed_by <= $3::date`, [Number(r.key), r.type, view.horizonEnd]);
+          WHERE ho.depot_site_id = $1 AND t.name = $2 AND ho.status IN ('confirmed', 'loading') AND ho.needed_by <= $3::date`,
+        [Number(r.key), r.type, view.horizonEnd],
+      );
       expect(n, `${r.name} · ${r.type}`).toBe(r.needed);
     }
   });
 
   it('every folded empty waiting at a customer is collected, and no depot sends more than it may spare', async () => {
-    const waiting = await count(`SELECT count(*)::int n FROM assets a JOIN sites s ON s.id = a.site_id WHERE s.kind = 'customer' AND a.status = 'awaiting_collection' AND s.latitude IS NOT NULL`);
+    const waiting = await count(
+      `SELECT count(*)::int n FROM assets a JOIN sites s ON s.id = a.site_id WHERE s.kind = 'customer' AND a.status = 'awaiting_collection' AND s.latitude IS NOT NULL`,
+    );
     const lanes = view.result.plan.lanes;
     expect(lanes.filter((l) => l.fromKind === 'site').reduce((n, l) => n + l.bins.reduce((a, b) => a + b, 0), 0)).toBe(waiting);
     for (const l of lanes.filter((x) => x.fromKind === 'depot')) {

@@ -8,7 +8,14 @@ import * as route from '@/pages/api/admin/tariffs';
 
 const w = usePoolWorld();
 const body = (extra: Record<string, unknown> = {}) => ({
-  customerId: w.customer.id, freeDays: 14, dailyRate: '1.60', perTripFee: '24.00', lostBinFee: '780.00', currency: 'EUR', validFrom: '2026-01-01', ...extra,
+  customerId: w.customer.id,
+  freeDays: 14,
+  dailyRate: '1.60',
+  perTripFee: '24.00',
+  lostBinFee: '780.00',
+  currency: 'EUR',
+  validFrom: '2026-01-01',
+  ...extra,
 });
 
 describe('entering tariffs (admin)', () => {

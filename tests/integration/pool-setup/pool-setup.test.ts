@@ -20,7 +20,8 @@ async function lastAudit(entityType: string, id: number) {
 describe('customers', () => {
   test('a new customer starts with its first tariff from today; both audited', async () => {
     const input = customerCreateSchema.parse({
-      name: '  Harbour Coatings ', contactEmail: 'Desk@Harbour.example',
+      name: '  Harbour Coatings ',
+      contactEmail: 'Desk@Harbour.example',
       terms: { freeDays: 21, dailyRate: '1.40', perTripFee: '12.00', lostBinFee: '450.00', currency: 'EUR' },
     });
     const row = await createCustomer(input, actor());
@@ -32,7 +33,10 @@ describe('customers', () => {
   });
 
   test('a stale copy is refused (changed_meanwhile) and changes nothing; a rename keeps only what changed', async () => {
-    const c = await createCustomer(customerCreateSchema.parse({ name: 'Delta Resins', terms: { freeDays: 14, dailyRate: '1.00', perTripFee: '0', lostBinFee: '300', currency: 'EUR' } }), actor());
+    const c = await createCustomer(
+      customerCreateSchema.parse({ name: 'Delta Resins', terms: { freeDays: 14, dailyRate: '1.00', perTripFee: '0', lostBinFee: '300', currency: 'EUR' } }),
+      actor(),
+    );
     const renamed = await updateCustomer(c.id, { version: 0, name: 'Delta Resins BV' }, actor());
     expect(renamed.version).toBe(1);
     expect(await lastAudit('customer', c.id)).toMatchObject({ action: 'customer.update', before: { name: 'Delta Resins' }, after: { name: 'Delta Resins BV' } });
@@ -56,7 +60,11 @@ describe('customers', () => {
   });
 
   test('bad input is refused with the field named', () => {
-    const bad = customerCreateSchema.safeParse({ name: '', contactEmail: 'not-mail', terms: { freeDays: -1, dailyRate: '1,50', perTripFee: '0', lostBinFee: '0', currency: 'eur' } });
+    const bad = customerCreateSchema.safeParse({
+      name: '',
+      contactEmail: 'not-mail',
+      terms: { freeDays: -1, dailyRate: '1,50', perTripFee: '0', lostBinFee: '0', currency: 'eur' },
+    });
     expect(bad.success).toBe(false);
     const paths = bad.error!.issues.map((i) => i.path.join('.'));
     expect(paths).toEqual(expect.arrayContaining(['name', 'contactEmail', 'terms.freeDays', 'terms.dailyRate', 'terms.currency']));
@@ -72,16 +80,19 @@ describe('sites', () => {
   });
 
   test('a depot cannot belong to a customer, nor a customer site to the operator', async () => {
-    await expect(createSite(siteCreateSchema.parse({ organisationId: w.customer.id, code: 'DEP-X', name: 'X', kind: 'depot', latitude: null, longitude: null }), actor()))
-      .rejects.toMatchObject({ code: 'validation_failed', details: [expect.objectContaining({ path: 'kind' })] });
-    await expect(createSite(siteCreateSchema.parse({ organisationId: w.operator.id, code: 'CUS-X', name: 'X', kind: 'customer', latitude: null, longitude: null }), actor()))
-      .rejects.toMatchObject({ code: 'validation_failed', details: [expect.objectContaining({ path: 'organisationId' })] });
+    await expect(
+      createSite(siteCreateSchema.parse({ organisationId: w.customer.id, code: 'DEP-X', name: 'X', kind: 'depot', latitude: null, longitude: null }), actor()),
+    ).rejects.toMatchObject({ code: 'validation_failed', details: [expect.objectContaining({ path: 'kind' })] });
+    await expect(
+      createSite(siteCreateSchema.parse({ organisationId: w.operator.id, code: 'CUS-X', name: 'X', kind: 'customer', latitude: null, longitude: null }), actor()),
+    ).rejects.toMatchObject({ code: 'validation_failed', details: [expect.objectContaining({ path: 'organisationId' })] });
     expect(await Site.count({ where: { code: ['DEP-X', 'CUS-X'] } })).toBe(0);
   });
 
   test('a code in use, half a position, or a latitude off the globe is refused', async () => {
-    await expect(createSite(siteCreateSchema.parse({ organisationId: w.operator.id, code: 'DEP-T1', name: 'Again', kind: 'depot', latitude: null, longitude: null }), actor()))
-      .rejects.toMatchObject({ details: [expect.objectContaining({ path: 'code' })] });
+    await expect(
+      createSite(siteCreateSchema.parse({ organisationId: w.operator.id, code: 'DEP-T1', name: 'Again', kind: 'depot', latitude: null, longitude: null }), actor()),
+    ).rejects.toMatchObject({ details: [expect.objectContaining({ path: 'code' })] });
     const half = siteCreateSchema.safeParse({ organisationId: w.operator.id, code: 'DEP-H', name: 'Half', kind: 'depot', latitude: 51, longitude: null });
     expect(half.error?.issues.map((i) => i.path.join('.'))).toEqual(['longitude']);
     const off = siteCreateSchema.safeParse({ organisationId: w.operator.id, code: 'DEP-O', name: 'Off', kind: 'depot', latitude: 91, longitude: 4 });
@@ -96,7 +107,8 @@ describe('sites', () => {
     await expect(updateSite(depot!.id, { version: depot!.version, name: 'Stale' }, actor())).rejects.toMatchObject({ code: 'changed_meanwhile' });
     expect((await Site.findByPk(depot!.id))!.name).toBe('Second depot');
     await expect(updateSite(depot!.id, { version: moved.version, latitude: null }, actor())).rejects.toMatchObject({
-      code: 'validation_failed', details: [expect.objectContaining({ path: 'latitude' })],
+      code: 'validation_failed',
+      details: [expect.objectContaining({ path: 'latitude' })],
     });
     expect(Number((await Site.findByPk(depot!.id))!.latitude)).toBe(51.45);
   });
@@ -112,9 +124,20 @@ describe('sites', () => {
 
 describe('bin types', () => {
   const folding = {
-    code: 'fx1250', name: 'Folding IBC 1250 L', graiAssetType: '10020', nominalCapacityL: 1250, tareKg: 98.5, maxGrossKg: 1600,
-    footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1340, heightFoldedMm: 420, unCode: '31ha1', policyKind: 'un',
-    intermediateMonths: 30, fullMonths: 60,
+    code: 'fx1250',
+    name: 'Folding IBC 1250 L',
+    graiAssetType: '10020',
+    nominalCapacityL: 1250,
+    tareKg: 98.5,
+    maxGrossKg: 1600,
+    footprintLengthMm: 1200,
+    footprintWidthMm: 1000,
+    heightErectedMm: 1340,
+    heightFoldedMm: 420,
+    unCode: '31ha1',
+    policyKind: 'un',
+    intermediateMonths: 30,
+    fullMonths: 60,
   };
 
   test('a new type, its code and UN code in capitals; audited', async () => {
@@ -124,9 +147,10 @@ describe('bin types', () => {
   });
 
   test('an edit merged onto the row must still hold together: folded above erected is refused', async () => {
-    const b = (await binTypeById((await createBinType(binTypeCreateSchema.parse({ ...folding, code: 'FX-B', graiAssetType: '10021' }), actor())).id));
+    const b = await binTypeById((await createBinType(binTypeCreateSchema.parse({ ...folding, code: 'FX-B', graiAssetType: '10021' }), actor())).id);
     await expect(updateBinType(b.id, { version: b.version, heightFoldedMm: 1400 }, actor())).rejects.toMatchObject({
-      code: 'validation_failed', details: [expect.objectContaining({ path: 'heightFoldedMm' })],
+      code: 'validation_failed',
+      details: [expect.objectContaining({ path: 'heightFoldedMm' })],
     });
     await expect(updateBinType(b.id, { version: b.version, intermediateMonths: 36 }, actor())).rejects.toMatchObject({
       details: [expect.objectContaining({ path: 'intermediateMonths' })],

@@ -30,16 +30,39 @@ beforeAll(async () => {
   other = await addSecondCustomer(w);
   a = await scopeOf(w.customerUser.id!);
   b = await scopeOf(other.user.id);
-  await Tariff.create({ customerId: w.customer.id, freeDays: 14, dailyRate: '1.50', perTripFee: '20.00', lostBinFee: '700.00', currency: 'EUR', validFrom: '2020-01-01', validTo: null });
+  await Tariff.create({
+    customerId: w.customer.id,
+    freeDays: 14,
+    dailyRate: '1.50',
+    perTripFee: '20.00',
+    lostBinFee: '700.00',
+    currency: 'EUR',
+    validFrom: '2020-01-01',
+    validTo: null,
+  });
 });
 
 describe('orders from the portal', () => {
   test('a draft for one of their own sites, confirmed by the planner; the other customer sees none of it', async () => {
-    const input = portalOrderFields('2026-12-03').parse({ binTypeId: String(w.binType.id), quantity: '6', neededBy: '2026-12-20', deliverySiteId: String(w.customerSite.id), linerFoodContact: 'yes', linerMaxFillTempC: '60' });
+    const input = portalOrderFields('2026-12-03').parse({
+      binTypeId: String(w.binType.id),
+      quantity: '6',
+      neededBy: '2026-12-20',
+      deliverySiteId: String(w.customerSite.id),
+      linerFoodContact: 'yes',
+      linerMaxFillTempC: '60',
+    });
     const placed = await placePortalOrder(a, input, actor);
     expect(placed.status).toBe('draft');
     const row = (await HireOrder.findByPk(placed.id))!;
-    expect(row).toMatchObject({ customerId: w.customer.id, deliverySiteId: w.customerSite.id, depotSiteId: w.depot.id, quantity: 6, linerFoodContact: true, linerMaxFillTempC: 60 });
+    expect(row).toMatchObject({
+      customerId: w.customer.id,
+      deliverySiteId: w.customerSite.id,
+      depotSiteId: w.depot.id,
+      quantity: 6,
+      linerFoodContact: true,
+      linerMaxFillTempC: 60,
+    });
     expect((await listPortalOrders(a)).map((o) => o.reference)).toContain(placed.reference);
     expect((await listPortalOrders(b)).map((o) => o.reference)).not.toContain(placed.reference);
     expect((await listPortalOrders(a)).map((o) => o.reference)).not.toContain('HO-OTHER-1');
@@ -104,14 +127,19 @@ describe('deliveries and damage from the portal', () => {
     await dispatchLoad(load.id, { carrier: 'Test Haulage', vehicleRegistration: 'AB-123-C', trailerSeals: [] });
 
     const onTheWay = (await loadPortalHome(a)).onTheRoad;
-    expect(onTheWay.filter((r) => r.leg === 'outbound').map((r) => r.serial).sort()).toEqual(bins.map((x) => x.serial).sort());
+    expect(
+      onTheWay
+        .filter((r) => r.leg === 'outbound')
+        .map((r) => r.serial)
+        .sort(),
+    ).toEqual(bins.map((x) => x.serial).sort());
     expect((await portalDeliveries(a)).map((l) => l.reference)).toContain(load.reference);
     expect(await portalDeliveries(b)).toEqual([]);
     expect((await appErrorOf(confirmFromPortal(b, { reference: load.reference, receivedByName: 'Not theirs' }, null))).code).toBe('not_found');
 
     const done = await confirmFromPortal(a, { reference: load.reference, receivedByName: 'R. Receiver' }, { bytes: PNG, filename: 'load.png' });
     expect(done).toMatchObject({ delivered: 2, already: false });
-    for (const bin of bins) expect((await Asset.findByPk(bin.id))).toMatchObject({ status: 'on_hire', siteId: w.customerSite.id, customerId: w.customer.id });
+    for (const bin of bins) expect(await Asset.findByPk(bin.id)).toMatchObject({ status: 'on_hire', siteId: w.customerSite.id, customerId: w.customer.id });
     const home = await loadPortalHome(a);
     const site = home.sites.find((s) => s.id === w.customerSite.id)!;
     expect(site.bins.map((x) => x.serial).sort()).toEqual(bins.map((x) => x.serial).sort());
@@ -136,7 +164,15 @@ describe('people of the customer', () => {
     const { inviteColleague, listColleagues, setColleagueSites } = await import('@/lib/portal/portal-people.server');
     const { inviteColleagueFields } = await import('@/lib/portal/portal-forms');
     const { Site } = await import('@/models');
-    const second = await Site.create({ organisationId: w.customer.id, code: 'CUS-T2', name: 'Customer second site', kind: 'customer', address: null, latitude: '51.7', longitude: '4.5' });
+    const second = await Site.create({
+      organisationId: w.customer.id,
+      code: 'CUS-T2',
+      name: 'Customer second site',
+      kind: 'customer',
+      address: null,
+      latitude: '51.7',
+      longitude: '4.5',
+    });
     const adminRow = (await User.findByPk(w.customerUser.id!))!;
     const plain = { ...(await scopeOf(adminRow.id)), role: 'customer' as const, organisationId: w.customer.id, id: adminRow.id };
     const inviter = { userId: adminRow.id, ip: null, name: adminRow.name };
@@ -174,7 +210,7 @@ describe('people of the customer', () => {
     expect((await appErrorOf(setColleagueSites(admin, { userId: other.user.id, siteIds: [] }, actor))).code).toBe('not_found');
   });
 
-  test('the database refuses a site limit naming another organisation\'s site', async () => {
+  test("the database refuses a site limit naming another organisation's site", async () => {
     const { sqlErrorCode } = await import('../support/db');
     expect(await sqlErrorCode('INSERT INTO user_sites (user_id, site_id) VALUES ($1, $2)', [w.customerUser.id, other.site.id])).toBe('23514');
   });

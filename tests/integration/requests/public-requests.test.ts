@@ -28,8 +28,14 @@ beforeAll(async () => {
   smtp = await startSmtpCapture();
   w = await poolWorld();
   plannerUser = {
-    id: w.planner.id!, email: 'p@test.example', name: 'Test planner', role: 'planner', organisationId: w.operator.id,
-    organisationName: 'Test Pool', homeSiteId: null, qualifiedInspector: false,
+    id: w.planner.id!,
+    email: 'p@test.example',
+    name: 'Test planner',
+    role: 'planner',
+    organisationId: w.operator.id,
+    organisationName: 'Test Pool',
+    homeSiteId: null,
+    qualifiedInspector: false,
   };
   secondPlannerEmail = (await makeUser('planner', w.operator.id, { email: 'second-planner@test.example' })).email;
   await makeUser('planner', w.operator.id, { email: 'former-planner@test.example', active: false });
@@ -86,13 +92,20 @@ async function submit(grai: string, form: 'collection-request' | 'damage-report'
 
 async function patch(kind: string, id: number, body: unknown, user: SessionUser | null = plannerUser): Promise<Response> {
   const request = new Request(`http://pool.test/api/requests/${kind}/${id}`, { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
-  return statusPatch({ request, url: new URL(request.url), params: { kind, id: String(id) }, locals: { user, clientAddress: '192.0.2.9' } } as unknown as APIContext) as Promise<Response>;
+  return statusPatch({
+    request,
+    url: new URL(request.url),
+    params: { kind, id: String(id) },
+    locals: { user, clientAddress: '192.0.2.9' },
+  } as unknown as APIContext) as Promise<Response>;
 }
 
 const errorOf = async (res: Response) => ((await res.json()) as { error: { code: string; message: string; details?: Array<{ path: string; message: string }> } }).error;
 const collectionFields = { quantity: '6', locationNote: 'Gate 3, beside the weighbridge', contactName: 'Mila de Boer', contactPhone: '+31 6 1234 5678' };
 const counts = async () => ({
-  collections: await CollectionRequest.count(), damages: await DamageReport.count(), attachments: await Attachment.count(),
+  collections: await CollectionRequest.count(),
+  damages: await DamageReport.count(),
+  attachments: await Attachment.count(),
 });
 
 describe('public collection request', () => {
@@ -106,8 +119,17 @@ describe('public collection request', () => {
 
     const row = await CollectionRequest.findOne({ where: { assetId: bin.id } });
     expect(row).toMatchObject({
-      source: 'public', siteId: w.customerSite.id, customerId: w.customer.id, quantity: 6, locationNote: 'Gate 3, beside the weighbridge',
-      contactName: 'Mila de Boer', contactPhone: '+31 6 1234 5678', contactEmail: null, status: 'open', requesterIp: '198.51.100.1', requestedBy: null,
+      source: 'public',
+      siteId: w.customerSite.id,
+      customerId: w.customer.id,
+      quantity: 6,
+      locationNote: 'Gate 3, beside the weighbridge',
+      contactName: 'Mila de Boer',
+      contactPhone: '+31 6 1234 5678',
+      contactEmail: null,
+      status: 'open',
+      requesterIp: '198.51.100.1',
+      requestedBy: null,
     });
 
     // the mail goes out after the answer: one message per active planner, none to the inactive one or the admin
@@ -144,7 +166,12 @@ describe('public collection request', () => {
     expect((await errorOf(await submit('12345', 'collection-request', multipart(collectionFields), '198.51.100.3'))).message).toMatch(/not a valid bin identity/);
     const bin = await binAwaitingCollection();
     const request = new Request(`http://pool.test/x`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(collectionFields) });
-    const res = (await publicPost({ request, url: new URL(request.url), params: { grai: bin.grai, form: 'collection-request' }, locals: { user: null, clientAddress: '198.51.100.3' } } as unknown as APIContext)) as Response;
+    const res = (await publicPost({
+      request,
+      url: new URL(request.url),
+      params: { grai: bin.grai, form: 'collection-request' },
+      locals: { user: null, clientAddress: '198.51.100.3' },
+    } as unknown as APIContext)) as Response;
     expect(res.status).toBe(415);
   });
 
@@ -173,12 +200,27 @@ describe('public damage report', () => {
   test('a photo is stored with the type sniffed from its bytes, not the one the phone claimed', async () => {
     const bin = await binAwaitingCollection();
     const bytes = png();
-    const res = await submit(bin.grai, 'damage-report', multipart({ description: 'Cracked floor panel near the valve', contactEmail: 'driver@haulier.example' }, {
-      photo: { bytes, name: 'IMG_0042.jpg', type: 'image/jpeg' },
-    }), '198.51.100.10');
+    const res = await submit(
+      bin.grai,
+      'damage-report',
+      multipart(
+        { description: 'Cracked floor panel near the valve', contactEmail: 'driver@haulier.example' },
+        {
+          photo: { bytes, name: 'IMG_0042.jpg', type: 'image/jpeg' },
+        },
+      ),
+      '198.51.100.10',
+    );
     expect(res.status).toBe(201);
     const report = await DamageReport.findOne({ where: { assetId: bin.id } });
-    expect(report).toMatchObject({ source: 'public', siteId: w.customerSite.id, customerId: w.customer.id, description: 'Cracked floor panel near the valve', contactEmail: 'driver@haulier.example', status: 'open' });
+    expect(report).toMatchObject({
+      source: 'public',
+      siteId: w.customerSite.id,
+      customerId: w.customer.id,
+      description: 'Cracked floor panel near the valve',
+      contactEmail: 'driver@haulier.example',
+      status: 'open',
+    });
     const photo = await Attachment.scope('withContent').findByPk(report!.photoId!);
     expect(photo).toMatchObject({ contentType: 'image/png', byteSize: bytes.byteLength, purpose: 'photo', organisationId: null, filename: 'IMG_0042.jpg' });
     expect(Buffer.compare(photo!.content, bytes)).toBe(0);
@@ -191,14 +233,21 @@ describe('public damage report', () => {
     const bin = await binAwaitingCollection();
     const before = await counts();
     const fake = new TextEncoder().encode('#!/bin/sh\necho this is not a photo\n');
-    const res = await submit(bin.grai, 'damage-report', multipart({ description: 'Leaking valve' }, { photo: { bytes: fake, name: 'photo.png', type: 'image/png' } }), '198.51.100.11');
+    const res = await submit(
+      bin.grai,
+      'damage-report',
+      multipart({ description: 'Leaking valve' }, { photo: { bytes: fake, name: 'photo.png', type: 'image/png' } }),
+      '198.51.100.11',
+    );
     expect(res.status).toBe(415);
     const error = await errorOf(res);
     expect(error.message).toMatch(/not a photo/);
     expect(error.details).toEqual([{ path: 'photo', message: expect.stringMatching(/not a photo/) }]);
     // a PDF is a real file type, but not a photo
     const pdf = new TextEncoder().encode('%PDF-1.4\n1 0 obj <<>> endobj\ntrailer <<>>\n%%EOF\n');
-    expect((await submit(bin.grai, 'damage-report', multipart({ description: 'Leaking valve' }, { photo: { bytes: pdf, name: 'a.jpg', type: 'image/jpeg' } }), '198.51.100.11')).status).toBe(415);
+    expect(
+      (await submit(bin.grai, 'damage-report', multipart({ description: 'Leaking valve' }, { photo: { bytes: pdf, name: 'a.jpg', type: 'image/jpeg' } }), '198.51.100.11')).status,
+    ).toBe(415);
     expect(await counts()).toEqual(before);
   });
 
@@ -211,9 +260,16 @@ describe('public damage report', () => {
     expect(res.status).toBe(413);
     expect((await errorOf(res)).message).toMatch(/at most 10 MB/);
     const announced = new Request(`http://pool.test/api/public/bins/${bin.grai}/damage-report`, {
-      method: 'POST', headers: { 'content-type': 'multipart/form-data; boundary=x', 'content-length': String(20 * 1024 * 1024) }, body: 'ignored',
+      method: 'POST',
+      headers: { 'content-type': 'multipart/form-data; boundary=x', 'content-length': String(20 * 1024 * 1024) },
+      body: 'ignored',
     });
-    const early = (await publicPost({ request: announced, url: new URL(announced.url), params: { grai: bin.grai, form: 'damage-report' }, locals: { user: null, clientAddress: '198.51.100.13' } } as unknown as APIContext)) as Response;
+    const early = (await publicPost({
+      request: announced,
+      url: new URL(announced.url),
+      params: { grai: bin.grai, form: 'damage-report' },
+      locals: { user: null, clientAddress: '198.51.100.13' },
+    } as unknown as APIContext)) as Response;
     expect(early.status).toBe(413);
     expect(await counts()).toEqual(before);
   });
@@ -232,9 +288,10 @@ describe('flood protection', () => {
     const bins = [await binAwaitingCollection(), await binAwaitingCollection(), await binAwaitingCollection()];
     const ip = '203.0.113.50';
     for (let i = 0; i < 5; i += 1) {
-      const res = i % 2 === 0
-        ? await submit(bins[i % 3]!.grai, 'collection-request', multipart(collectionFields), ip)
-        : await submit(bins[i % 3]!.grai, 'damage-report', multipart({ description: `Dent number ${i}` }), ip);
+      const res =
+        i % 2 === 0
+          ? await submit(bins[i % 3]!.grai, 'collection-request', multipart(collectionFields), ip)
+          : await submit(bins[i % 3]!.grai, 'damage-report', multipart({ description: `Dent number ${i}` }), ip);
       expect(res.status).toBe(201);
     }
     const before = await counts();
@@ -267,7 +324,12 @@ describe('flood protection', () => {
   test('the page and the API share the same intake (the form named in the body)', async () => {
     const bin = await binAwaitingCollection();
     const request = new Request('http://pool.test/8003/x', { method: 'POST', body: multipart({ form: 'damage', description: 'Lid missing' }) });
-    const result = await receivePublicReport({ bin: { id: bin.id, grai: bin.grai, serial: bin.serial, customerId: w.customer.id }, request, clientAddress: '198.51.100.77', userId: null });
+    const result = await receivePublicReport({
+      bin: { id: bin.id, grai: bin.grai, serial: bin.serial, customerId: w.customer.id },
+      request,
+      clientAddress: '198.51.100.77',
+      userId: null,
+    });
     expect(result.ok).toBe(true);
     if (result.ok) expect(await result.delivery).toHaveLength(2);
     expect(await DamageReport.count({ where: { assetId: bin.id, description: 'Lid missing' } })).toBe(1);
@@ -278,8 +340,16 @@ describe('planners move requests on', () => {
   test('a status step bumps the version and is audited; a stale version gets 409 and changes nothing', async () => {
     const bin = await binAwaitingCollection();
     const { id, delivery } = await createCollectionRequest({
-      source: 'planner', assetId: bin.id, quantity: 3, locationNote: null, contactName: 'Desk', contactPhone: null, contactEmail: null, note: null,
-      requestedBy: w.planner.id!, requesterIp: null,
+      source: 'planner',
+      assetId: bin.id,
+      quantity: 3,
+      locationNote: null,
+      contactName: 'Desk',
+      contactPhone: null,
+      contactEmail: null,
+      note: null,
+      requestedBy: w.planner.id!,
+      requesterIp: null,
     });
     await delivery;
     const loaded = (await CollectionRequest.findByPk(id))!;
@@ -318,7 +388,18 @@ describe('planners move requests on', () => {
 
   test('only planners and admins may change a status', async () => {
     const bin = await binAwaitingCollection();
-    const { id, delivery } = await createCollectionRequest({ source: 'portal', assetId: bin.id, quantity: 1, locationNote: null, contactName: 'Buyer', contactPhone: null, contactEmail: 'b@test.example', note: null, requestedBy: w.customerUser.id!, requesterIp: null });
+    const { id, delivery } = await createCollectionRequest({
+      source: 'portal',
+      assetId: bin.id,
+      quantity: 1,
+      locationNote: null,
+      contactName: 'Buyer',
+      contactPhone: null,
+      contactEmail: 'b@test.example',
+      note: null,
+      requestedBy: w.customerUser.id!,
+      requesterIp: null,
+    });
     await delivery;
     const customer: SessionUser = { ...plannerUser, id: w.customerUser.id!, role: 'customer', organisationId: w.customer.id };
     const yard: SessionUser = { ...plannerUser, id: w.yard.id!, role: 'yard' };
@@ -328,13 +409,18 @@ describe('planners move requests on', () => {
     expect((await CollectionRequest.findByPk(id))!.status).toBe('open');
   });
 
-  test('the planners\' lists are newest first and hide finished requests unless asked for all', async () => {
+  test("the planners' lists are newest first and hide finished requests unless asked for all", async () => {
     const all = await listCollectionRequests({ filter: 'all' });
     const times = all.rows.map((r) => r.createdAt);
     expect([...times].sort().reverse()).toEqual(times);
     const unfinished = await listCollectionRequests();
     expect(unfinished.rows.every((r) => r.status === 'open' || r.status === 'scheduled')).toBe(true);
     expect(all.total).toBeGreaterThan(unfinished.total);
-    expect(all.rows[0]).toMatchObject({ kind: 'collection', bin: { grai: expect.any(String), serial: expect.any(String) }, site: { name: 'Customer site' }, customer: { name: 'Test Customer' } });
+    expect(all.rows[0]).toMatchObject({
+      kind: 'collection',
+      bin: { grai: expect.any(String), serial: expect.any(String) },
+      site: { name: 'Customer site' },
+      customer: { name: 'Test Customer' },
+    });
   });
 });

@@ -32,12 +32,40 @@ describe('the generated demo history', () => {
     let tested = 0;
     for (const a of assets) {
       const s = replayState((byAsset.get(a.id) ?? []).map((e) => ({ occurredAt: e.occurred_at, inferred: e.inferred, voided: e.voided_at !== null, payload: e.payload })));
-      const stored = { status: a.status, siteId: a.siteId, siteSince: a.siteSince, leg: a.leg, prepChecked: a.prepChecked, linerLotId: a.linerLotId, filled: a.filled, tripCount: a.tripCount, tripOpen: a.currentTripId !== null };
-      expect({ grai: a.grai, ...stored }).toEqual({ grai: a.grai, status: s.status, siteId: s.siteId, siteSince: s.siteSince, leg: s.leg, prepChecked: s.prepChecked, linerLotId: s.linerLotId, filled: s.filled, tripCount: s.tripCount, tripOpen: s.tripOpen });
+      const stored = {
+        status: a.status,
+        siteId: a.siteId,
+        siteSince: a.siteSince,
+        leg: a.leg,
+        prepChecked: a.prepChecked,
+        linerLotId: a.linerLotId,
+        filled: a.filled,
+        tripCount: a.tripCount,
+        tripOpen: a.currentTripId !== null,
+      };
+      expect({ grai: a.grai, ...stored }).toEqual({
+        grai: a.grai,
+        status: s.status,
+        siteId: s.siteId,
+        siteSince: s.siteSince,
+        leg: s.leg,
+        prepChecked: s.prepChecked,
+        linerLotId: s.linerLotId,
+        filled: s.filled,
+        tripCount: s.tripCount,
+        tripOpen: s.tripOpen,
+      });
       // the test columns follow the last passed inspection in the log (as registered when there is none)
       if (s.schedule) {
-        expect({ grai: a.grai, lastInspectionOn: a.lastInspectionOn, lastLeakTestOn: a.lastLeakTestOn, lastFullInspectionOn: a.lastFullInspectionOn, nextIntermediateDue: a.nextIntermediateDue, nextFullDue: a.nextFullDue, nextDue: a.nextDue })
-          .toEqual({ grai: a.grai, ...s.schedule });
+        expect({
+          grai: a.grai,
+          lastInspectionOn: a.lastInspectionOn,
+          lastLeakTestOn: a.lastLeakTestOn,
+          lastFullInspectionOn: a.lastFullInspectionOn,
+          nextIntermediateDue: a.nextIntermediateDue,
+          nextFullDue: a.nextFullDue,
+          nextDue: a.nextDue,
+        }).toEqual({ grai: a.grai, ...s.schedule });
         tested += 1;
       }
       // the bin's open trip is the one its log opened last and did not close
@@ -102,7 +130,16 @@ describe('voiding a wrong scan', () => {
     expect(asset).not.toBeNull();
     const yard = (await User.findOne({ where: { role: 'yard', homeSiteId: asset!.siteId! } })) ?? planner;
     const before = { status: asset!.status, prepChecked: asset!.prepChecked };
-    const me = (u: User): SessionUser => ({ id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisationId, organisationName: '', homeSiteId: u.homeSiteId, qualifiedInspector: u.qualifiedInspector });
+    const me = (u: User): SessionUser => ({
+      id: u.id,
+      email: u.email,
+      name: u.name,
+      role: u.role,
+      organisationId: u.organisationId,
+      organisationName: '',
+      homeSiteId: u.homeSiteId,
+      qualifiedInspector: u.qualifiedInspector,
+    });
     const out = await recordScan(me(yard!), { clientEventId: randomUUID(), assetId: asset!.id, action: 'quarantine', siteId: asset!.siteId }, { now: new Date() });
     expect(out.statusTo).toBe('quarantine');
     await voidScan(me(planner!), out.eventId, 'Scanned the wrong bin', '127.0.0.1');

@@ -14,7 +14,16 @@ const NOW = { now: new Date('2026-12-01T12:00:00Z') };
 const PNG = Buffer.from('89504e470d0a1a0a0000000d4948445200000001000000010806000000', 'hex');
 
 async function photo(organisationId: number | null, uploadedBy: number | null = null) {
-  const row = await Attachment.create({ content: PNG, contentType: 'image/png', byteSize: PNG.byteLength, sha256: 'a'.repeat(64), filename: 'p.png', purpose: 'photo', organisationId, uploadedBy });
+  const row = await Attachment.create({
+    content: PNG,
+    contentType: 'image/png',
+    byteSize: PNG.byteLength,
+    sha256: 'a'.repeat(64),
+    filename: 'p.png',
+    purpose: 'photo',
+    organisationId,
+    uploadedBy,
+  });
   return row.id;
 }
 
@@ -33,7 +42,11 @@ async function binOnHire() {
 }
 
 const fill = (assetId: number, photoIds: number[]): ScanInput => ({
-  clientEventId: randomUUID(), assetId, action: 'fill_seal', siteId: w.customerSite.id, photoIds,
+  clientEventId: randomUUID(),
+  assetId,
+  action: 'fill_seal',
+  siteId: w.customerSite.id,
+  photoIds,
   fill: { product: 'Test oil', seals: ['TP1', 'TP2'] },
 });
 
@@ -84,10 +97,22 @@ describe('photos named by a scan', () => {
   test('operator staff cannot name a customer’s photo either (organisation, not role)', async () => {
     const bin = await newBin(w);
     const customers = await photo(w.customer.id);
-    const err = await refusal(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'prep_check', prepResult: 'fail', faults: 'Dent', photoIds: [customers], siteId: w.depot.id });
+    const err = await refusal(w.yard, {
+      clientEventId: randomUUID(),
+      assetId: bin.id,
+      action: 'prep_check',
+      prepResult: 'fail',
+      faults: 'Dent',
+      photoIds: [customers],
+      siteId: w.depot.id,
+    });
     expect(err.code).toBe('unprocessable');
     const ours = await photo(w.operator.id);
-    const ok = await recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'prep_check', prepResult: 'fail', faults: 'Dent', photoIds: [ours], siteId: w.depot.id }, NOW);
+    const ok = await recordScan(
+      w.yard,
+      { clientEventId: randomUUID(), assetId: bin.id, action: 'prep_check', prepResult: 'fail', faults: 'Dent', photoIds: [ours], siteId: w.depot.id },
+      NOW,
+    );
     expect(ok.replayed).toBe(false);
   });
 });

@@ -14,7 +14,16 @@ beforeAll(async () => {
   await resetDatabase();
   w = await poolWorld();
   const u = await User.findByPk(w.planner.id!);
-  planner = { id: u!.id, email: u!.email, name: u!.name, role: 'planner', organisationId: u!.organisationId, organisationName: 'Test Pool', homeSiteId: null, qualifiedInspector: false };
+  planner = {
+    id: u!.id,
+    email: u!.email,
+    name: u!.name,
+    role: 'planner',
+    organisationId: u!.organisationId,
+    organisationName: 'Test Pool',
+    homeSiteId: null,
+    qualifiedInspector: false,
+  };
   process.env.SMTP_HOST = '127.0.0.1';
   process.env.SMTP_PORT = '1'; // nobody listens: the outbox records each attempt
 });
@@ -52,10 +61,31 @@ describe('seal mismatch (story 3): planners are alerted at once', () => {
     const bin = await newBin(w);
     await toOnHire(bin.id);
     const cust = await User.findByPk(w.customerUser.id!);
-    const customer: SessionUser = { id: cust!.id, email: cust!.email, name: cust!.name, role: 'customer', organisationId: cust!.organisationId, organisationName: 'Test Customer', homeSiteId: null, qualifiedInspector: false };
-    await recordScanFromClient(customer, { clientEventId: randomUUID(), assetId: bin.id, action: 'fill_seal', siteId: w.customerSite.id, fill: { product: 'Oil', seals: ['TE500', 'TE501'] } });
+    const customer: SessionUser = {
+      id: cust!.id,
+      email: cust!.email,
+      name: cust!.name,
+      role: 'customer',
+      organisationId: cust!.organisationId,
+      organisationName: 'Test Customer',
+      homeSiteId: null,
+      qualifiedInspector: false,
+    };
+    await recordScanFromClient(customer, {
+      clientEventId: randomUUID(),
+      assetId: bin.id,
+      action: 'fill_seal',
+      siteId: w.customerSite.id,
+      fill: { product: 'Oil', seals: ['TE500', 'TE501'] },
+    });
     const before = await MailMessage.count({ where: { kind: 'seal_mismatch' } });
-    const out = await recordScanFromClient(customer, { clientEventId: randomUUID(), assetId: bin.id, action: 'discharge', siteId: w.customerSite.id, sealsVerified: ['TE500', 'TE777'] });
+    const out = await recordScanFromClient(customer, {
+      clientEventId: randomUUID(),
+      assetId: bin.id,
+      action: 'discharge',
+      siteId: w.customerSite.id,
+      sealsVerified: ['TE500', 'TE777'],
+    });
     expect(out.flags).toContain('seal_mismatch');
     const mails = await MailMessage.findAll({ where: { kind: 'seal_mismatch' }, order: [['id', 'ASC']] });
     expect(mails.length - before).toBe(2);

@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { usePoolWorld, newBin, appErrorOf } from '../support/fixtures';
 import { recordScan, type ScanInput } from '@/lib/scans/scan-service.server';
 import { Asset, ScanEvent, ScanEventKey, Trip } from '@/models';
-import { AppError } from '@/lib/api-errors';
+import type { AppError } from '@/lib/api-errors';
 import { sealState } from '@/lib/trips/seal-check';
 
 const w = usePoolWorld();
@@ -13,7 +13,6 @@ const NOW = { now: at('2026-12-01T12:00:00Z') };
 function scan(assetId: number, input: Omit<ScanInput, 'clientEventId' | 'assetId'>, id = randomUUID()): ScanInput {
   return { clientEventId: id, assetId, ...input };
 }
-
 
 describe('a full rotation through the scan service', () => {
   test('prep check → liner → dispatch → deliver → fill → discharge → fold → collect → receive closes one trip', async () => {
@@ -71,7 +70,7 @@ describe('idempotency', () => {
     expect(await ScanEvent.count({ where: { assetId: bin.id, action: 'prep_check' } })).toBe(1);
   });
 
-  test('another user cannot reuse someone else\'s event id', async () => {
+  test("another user cannot reuse someone else's event id", async () => {
     const bin = await newBin(w);
     const input = scan(bin.id, { action: 'prep_check', prepResult: 'pass', siteId: w.depot.id });
     await recordScan(w.yard, input, NOW);
@@ -160,7 +159,13 @@ describe('missed scans are inferred and flagged', () => {
     }
     const out = await recordScan(w.yard, scan(bin.id, { action: 'receive', siteId: w.depot.id }), NOW);
     expect(out.inferred).toEqual(['fold', 'collect']);
-    const inferred = await ScanEvent.findAll({ where: { assetId: bin.id, inferred: true }, order: [['occurredAt', 'ASC'], ['id', 'ASC']] });
+    const inferred = await ScanEvent.findAll({
+      where: { assetId: bin.id, inferred: true },
+      order: [
+        ['occurredAt', 'ASC'],
+        ['id', 'ASC'],
+      ],
+    });
     expect(inferred.map((e) => e.action)).toEqual(['fold', 'collect']);
     expect(inferred.every((e) => e.flagged)).toBe(true);
     const asset = await Asset.findByPk(bin.id);

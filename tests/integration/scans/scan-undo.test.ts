@@ -13,7 +13,16 @@ const w = usePoolWorld();
 
 async function sessionOf(id: number): Promise<SessionUser> {
   const u = (await User.findByPk(id))!;
-  return { id: u.id, email: u.email, name: u.name, role: u.role, organisationId: u.organisationId, organisationName: 'Test Pool', homeSiteId: u.homeSiteId, qualifiedInspector: false };
+  return {
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    role: u.role,
+    organisationId: u.organisationId,
+    organisationName: 'Test Pool',
+    homeSiteId: u.homeSiteId,
+    qualifiedInspector: false,
+  };
 }
 const prep = (assetId: number) => recordScan(w.yard, { clientEventId: randomUUID(), assetId, action: 'prep_check', prepResult: 'pass', siteId: w.depot.id });
 

@@ -151,7 +151,12 @@ describe('the session slides as it is used (as Auth.js’s session handler does)
     vi.setSystemTime(t0);
     const jar = await authSignIn(HTTP, planner.email);
     const claims = await getToken({ req: get(HTTP, jar), secret: process.env.AUTH_SECRET!, secureCookie: false });
-    const big = await encode({ token: { ...claims, padding: 'p'.repeat(CHUNK_SIZE * 1.5) }, secret: process.env.AUTH_SECRET!, salt: 'authjs.session-token', maxAge: SESSION_MAX_AGE_S });
+    const big = await encode({
+      token: { ...claims, padding: 'p'.repeat(CHUNK_SIZE * 1.5) },
+      secret: process.env.AUTH_SECRET!,
+      salt: 'authjs.session-token',
+      maxAge: SESSION_MAX_AGE_S,
+    });
     vi.setSystemTime(t0 + SESSION_REFRESH_AFTER_S * 1000);
     const s = await checkSession(new Request(`${HTTP}/`, { headers: { Cookie: `authjs.session-token=${big}` } }));
     expect(s.user?.id).toBe(planner.id);
@@ -194,10 +199,14 @@ describe('ending sessions', () => {
     const csrf = await Auth(new Request(`${HTTP}/api/auth/csrf`, { headers: { Cookie: header(desk) } }), config);
     take(csrf, desk);
     const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-    const out = await Auth(new Request(`${HTTP}/api/auth/signout`, {
-      method: 'POST', headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: header(desk) },
-      body: new URLSearchParams({ csrfToken, callbackUrl: '/login' }),
-    }), config);
+    const out = await Auth(
+      new Request(`${HTTP}/api/auth/signout`, {
+        method: 'POST',
+        headers: { 'Content-Type': 'application/x-www-form-urlencoded', Cookie: header(desk) },
+        body: new URLSearchParams({ csrfToken, callbackUrl: '/login' }),
+      }),
+      config,
+    );
     take(out, desk);
     expect(sessionCookies(desk)).toEqual([]);
     expect((await checkSession(get(HTTP, copy))).user).toBeNull();
@@ -227,7 +236,8 @@ describe('ending sessions', () => {
     const token = await decoded(jar);
     const now = new Date(Date.now() + 48 * 3600 * 1000); // after every other test's notes have lapsed
     expect(await endSession(token, now)).toBe(true);
-    const count = async () => (await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ended_sessions WHERE session_id = '${token.sid}'`, { type: 'SELECT' as never }))[0]!.n;
+    const count = async () =>
+      (await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM ended_sessions WHERE session_id = '${token.sid}'`, { type: 'SELECT' as never }))[0]!.n;
     await deleteExpiredSessionEnds({ now: new Date(now.getTime() + (SESSION_MAX_AGE_S - 60) * 1000) });
     expect(await count()).toBe(1);
     expect(await runJobNow('ended-sessions-cleanup', { now: new Date(now.getTime() + (SESSION_MAX_AGE_S + 60) * 1000) })).toEqual({ deleted: 1 });

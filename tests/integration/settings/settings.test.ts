@@ -14,8 +14,14 @@ beforeAll(async () => {
   const world = await baseWorld();
   const admin = await makeUser('admin', world.operator.id);
   adminUser = {
-    id: admin.id, email: admin.email, name: admin.name, role: 'admin', organisationId: world.operator.id,
-    organisationName: 'Test Pool', homeSiteId: null, qualifiedInspector: false,
+    id: admin.id,
+    email: admin.email,
+    name: admin.name,
+    role: 'admin',
+    organisationId: world.operator.id,
+    organisationName: 'Test Pool',
+    homeSiteId: null,
+    qualifiedInspector: false,
   };
 });
 afterAll(async () => {
@@ -36,7 +42,10 @@ describe('operator settings', () => {
     expect(data.settings).toMatchObject({ operatorName: 'Renamed Pool', taxRate: '0.0900', timeZone: 'Europe/Brussels', version: current.version + 1 });
     const entry = await AuditEntry.findOne({ where: { action: 'settings.update' }, order: [['id', 'DESC']] });
     expect(entry).toMatchObject({
-      userId: adminUser.id, ip: '192.0.2.44', entityType: 'settings', entityId: '1',
+      userId: adminUser.id,
+      ip: '192.0.2.44',
+      entityType: 'settings',
+      entityId: '1',
       before: { operatorName: 'Test Pool', taxRate: '0.2100', timeZone: 'Europe/Amsterdam' },
       after: { operatorName: 'Renamed Pool', taxRate: '0.0900', timeZone: 'Europe/Brussels' },
     });
@@ -50,7 +59,8 @@ describe('operator settings', () => {
     const stale = await put({ ...loaded, returnInstructions: 'Leave it by the gate.' });
     expect(stale.status).toBe(409);
     expect(((await stale.json()) as { error: { code: string; message: string } }).error).toMatchObject({
-      code: 'changed_meanwhile', message: expect.stringMatching(/changed the settings while you were editing/),
+      code: 'changed_meanwhile',
+      message: expect.stringMatching(/changed the settings while you were editing/),
     });
     const now = await readSettings();
     expect(now).toMatchObject({ currency: 'GBP', returnInstructions: '' });

@@ -77,7 +77,7 @@ describe('the build completion stamp', () => {
     rmSync(join(root, 'dist/client/sw.js'));
     expect(buildState(root, opts)).toEqual({ fresh: false, reason: 'build output missing: dist/client/sw.js' });
     // A build that exits non-zero writes no stamp.
-    writeFileSync(join(root, 'fake-build.mjs'), "process.exit(3);");
+    writeFileSync(join(root, 'fake-build.mjs'), 'process.exit(3);');
     const failed = await runBuild(0);
     expect(failed.out).toContain('FAILED build failed (exit 3)');
     expect(existsSync(join(root, STAMP))).toBe(false);

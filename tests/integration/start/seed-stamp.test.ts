@@ -62,7 +62,13 @@ describe('the seed completion stamp', () => {
       expect(again.code).toBe(0);
       expect(again.out).toContain('interrupted half-way');
       const full = await counts();
-      expect(full).toMatchObject({ orgs: CUSTOMERS.length + 1, users: DEMO_LOGINS.length + 1 + EXTRA_STAFF.length /* + the second customer's login */, bins: BINS, runs: 1, finished: 1 });
+      expect(full).toMatchObject({
+        orgs: CUSTOMERS.length + 1,
+        users: DEMO_LOGINS.length + 1 + EXTRA_STAFF.length /* + the second customer's login */,
+        bins: BINS,
+        runs: 1,
+        finished: 1,
+      });
       expect(full.events).toBeGreaterThan(BINS * 5);
       expect(await seedState()).toBe('seeded');
 

@@ -44,9 +44,22 @@ export async function handTrip(t: HandTrip): Promise<number> {
      VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16) RETURNING id`,
     {
       bind: [
-        t.assetId, t.customerId, t.depotSiteId, t.customerSiteId ?? null, t.linerLotId ?? null, t.dispatchedAt, t.deliveredAt ?? null,
-        t.dischargedAt ?? null, t.collectedAt ?? null, t.returnedAt ?? null, t.fillProduct ?? null, t.fillVolumeL ?? null,
-        t.sealsApplied ?? [], t.sealsVerified ?? [], t.sealMismatch ?? false, t.returnedAt ? 'closed' : 'open',
+        t.assetId,
+        t.customerId,
+        t.depotSiteId,
+        t.customerSiteId ?? null,
+        t.linerLotId ?? null,
+        t.dispatchedAt,
+        t.deliveredAt ?? null,
+        t.dischargedAt ?? null,
+        t.collectedAt ?? null,
+        t.returnedAt ?? null,
+        t.fillProduct ?? null,
+        t.fillVolumeL ?? null,
+        t.sealsApplied ?? [],
+        t.sealsVerified ?? [],
+        t.sealMismatch ?? false,
+        t.returnedAt ? 'closed' : 'open',
       ],
       type: QueryTypes.SELECT,
     },
@@ -72,8 +85,14 @@ let rawSerial = 0;
  * current trip: for drift tests that compare an SQL restatement of a rule with the pure rule on many states.
  */
 export async function rawBin(b: {
-  binTypeId: number; status: string; siteId?: number | null; siteSince?: string | null; customerId?: number | null; leg?: string | null;
-  lastScanAt?: string | null; nextDue?: string | null;
+  binTypeId: number;
+  status: string;
+  siteId?: number | null;
+  siteSince?: string | null;
+  customerId?: number | null;
+  leg?: string | null;
+  lastScanAt?: string | null;
+  nextDue?: string | null;
   trip?: { customerId: number; depotSiteId: number; dispatchedAt: string; deliveredAt?: string | null };
 }): Promise<number> {
   rawSerial += 1;
@@ -83,7 +102,18 @@ export async function rawBin(b: {
                          next_intermediate_due, next_full_due, next_due)
      VALUES ($1, $2, $3, '2024-01-01', $4, $5, $6, $7, $8, $9, $10, $10, $10) RETURNING id`,
     {
-      bind: [makeGrai('9529999', '10010', serial), serial, b.binTypeId, b.status, b.siteId ?? null, b.siteSince ?? null, b.customerId ?? null, b.leg ?? null, b.lastScanAt ?? null, b.nextDue ?? null],
+      bind: [
+        makeGrai('9529999', '10010', serial),
+        serial,
+        b.binTypeId,
+        b.status,
+        b.siteId ?? null,
+        b.siteSince ?? null,
+        b.customerId ?? null,
+        b.leg ?? null,
+        b.lastScanAt ?? null,
+        b.nextDue ?? null,
+      ],
       type: QueryTypes.SELECT,
     },
   );

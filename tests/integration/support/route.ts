@@ -6,7 +6,16 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 import type { Role } from '@/lib/permissions';
 
 export function sessionUser(u: { id: number | null; role: Role; organisationId: number; homeSiteId?: number | null }, name = `Test ${u.role}`): SessionUser {
-  return { id: u.id ?? 0, email: `${u.role}-${u.id}@test.example`, name, role: u.role, organisationId: u.organisationId, organisationName: 'Test', homeSiteId: u.homeSiteId ?? null, qualifiedInspector: false };
+  return {
+    id: u.id ?? 0,
+    email: `${u.role}-${u.id}@test.example`,
+    name,
+    role: u.role,
+    organisationId: u.organisationId,
+    organisationName: 'Test',
+    homeSiteId: u.homeSiteId ?? null,
+    qualifiedInspector: false,
+  };
 }
 
 export async function callRoute(

@@ -4,7 +4,11 @@ import { SMTPServer } from 'smtp-server';
 import { simpleParser, type ParsedMail } from 'mailparser';
 import type { AddressInfo } from 'node:net';
 
-export interface CapturedMail { to: string[]; from: string | null; parsed: ParsedMail }
+export interface CapturedMail {
+  to: string[];
+  from: string | null;
+  parsed: ParsedMail;
+}
 
 export async function startSmtpCapture() {
   const received: CapturedMail[] = [];

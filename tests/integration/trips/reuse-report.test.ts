@@ -35,11 +35,26 @@ beforeAll(async () => {
   const B4 = await bin('100003', '2024-01-10');
   // Closed trips, each dispatched ten days before it came back (customer, return date).
   const rotations: Array<[number, number, string]> = [
-    [B1, C2, '2024-08-01'], [B1, C2, '2024-09-15'], [B1, C2, '2024-11-01'],
-    [B1, C2, '2025-02-01'], [B1, C2, '2025-05-01'], [B1, C1, '2025-08-01'], [B1, C2, '2025-12-05'], [B1, C2, '2025-12-20'],
-    [B1, C1, '2026-03-01'], [B1, C1, '2026-09-01'],
-    [B2, C1, '2025-04-15'], [B2, C2, '2025-06-01'], [B2, C2, '2025-09-01'], [B2, C2, '2025-12-10'],
-    [B4, C2, '2024-02-01'], [B4, C2, '2024-03-01'], [B4, C2, '2024-04-01'], [B4, C2, '2024-05-01'], [B4, C2, '2024-06-01'], [B4, C2, '2025-03-01'],
+    [B1, C2, '2024-08-01'],
+    [B1, C2, '2024-09-15'],
+    [B1, C2, '2024-11-01'],
+    [B1, C2, '2025-02-01'],
+    [B1, C2, '2025-05-01'],
+    [B1, C1, '2025-08-01'],
+    [B1, C2, '2025-12-05'],
+    [B1, C2, '2025-12-20'],
+    [B1, C1, '2026-03-01'],
+    [B1, C1, '2026-09-01'],
+    [B2, C1, '2025-04-15'],
+    [B2, C2, '2025-06-01'],
+    [B2, C2, '2025-09-01'],
+    [B2, C2, '2025-12-10'],
+    [B4, C2, '2024-02-01'],
+    [B4, C2, '2024-03-01'],
+    [B4, C2, '2024-04-01'],
+    [B4, C2, '2024-05-01'],
+    [B4, C2, '2024-06-01'],
+    [B4, C2, '2025-03-01'],
   ];
   for (const [assetId, customerId, back] of rotations) {
     const out = new Date(Date.parse(at(back)) - 10 * 86_400_000).toISOString();
@@ -55,7 +70,16 @@ beforeAll(async () => {
   const p = await makeUser('planner', w.operator.id);
   planner = { id: p.id, email: p.email, name: p.name, role: 'planner', organisationId: w.operator.id, organisationName: 'Test Pool', homeSiteId: null, qualifiedInspector: false };
   const c = await makeUser('customer', w.customer.id);
-  customerUser = { id: c.id, email: c.email, name: c.name, role: 'customer', organisationId: w.customer.id, organisationName: 'Test Customer', homeSiteId: null, qualifiedInspector: false };
+  customerUser = {
+    id: c.id,
+    email: c.email,
+    name: c.name,
+    role: 'customer',
+    organisationId: w.customer.id,
+    organisationName: 'Test Customer',
+    homeSiteId: null,
+    qualifiedInspector: false,
+  };
 });
 afterAll(async () => {
   await sequelize.close();
@@ -70,7 +94,13 @@ describe('the rows behind the report', () => {
   test('commissioning and leaving dates come from the log; rotations by year and in the period from the trips', async () => {
     const data = await reuseData(PERIOD, null, NOW);
     const bySerial = Object.fromEntries(data!.bins.map((b) => [b.serial, b]));
-    expect(bySerial['100001']).toMatchObject({ commissionedOn: '2024-06-15', leftOn: null, rotationsTotal: 10, rotationsByYear: { 2024: 3, 2025: 5, 2026: 2 }, rotationsInPeriod: 4 });
+    expect(bySerial['100001']).toMatchObject({
+      commissionedOn: '2024-06-15',
+      leftOn: null,
+      rotationsTotal: 10,
+      rotationsByYear: { 2024: 3, 2025: 5, 2026: 2 },
+      rotationsInPeriod: 4,
+    });
     expect(bySerial['100002']).toMatchObject({ commissionedOn: '2025-03-01', leftOn: '2026-02-10', rotationsTotal: 4, rotationsByYear: { 2025: 4 }, rotationsInPeriod: 1 });
     expect(bySerial['100010']).toMatchObject({ commissionedOn: '2026-11-20', leftOn: null, rotationsTotal: 0, rotationsInPeriod: 0 });
     expect(bySerial['100003']).toMatchObject({ commissionedOn: '2024-01-10', leftOn: '2025-05-01', rotationsTotal: 6, rotationsByYear: { 2024: 5, 2025: 1 } });
@@ -115,7 +145,9 @@ describe('GET /api/fleet/reuse.csv', () => {
     expect([...bytes.slice(0, 3)]).toEqual([0xef, 0xbb, 0xbf]); // the UTF-8 byte-order mark
     const text = new TextDecoder().decode(bytes); // decoding drops the mark
     const lines = text.trimEnd().split('\r\n');
-    expect(lines[0]).toBe('grai,serial,bin_type,commissioned_on,left_pool_on,period_from,period_to,rotations_in_period,rotations_since_commissioning,years_in_service,rotations_per_year_in_service');
+    expect(lines[0]).toBe(
+      'grai,serial,bin_type,commissioned_on,left_pool_on,period_from,period_to,rotations_in_period,rotations_since_commissioning,years_in_service,rotations_per_year_in_service',
+    );
     // B3 joined in 2026: not in the pool in 2025. B4 left on 1 May 2025: in the pool for part of the year.
     const rows = lines.slice(1).map((l) => l.split(','));
     expect(rows.map((r) => r.slice(0, 9))).toEqual([
@@ -125,7 +157,11 @@ describe('GET /api/fleet/reuse.csv', () => {
     ]);
     for (const r of rows) expect(r.slice(9).every((v) => /^\d+(\.\d{1,2})?$/.test(v))).toBe(true); // numbers, at most two decimals
     // The same text read by a general CSV parser gives the same table.
-    expect(Papa.parse<string[]>(text.trimEnd(), { newline: '\r\n' }).data.slice(1).map((r) => r.slice(0, 9))).toEqual(rows.map((r) => r.slice(0, 9)));
+    expect(
+      Papa.parse<string[]>(text.trimEnd(), { newline: '\r\n' })
+        .data.slice(1)
+        .map((r) => r.slice(0, 9)),
+    ).toEqual(rows.map((r) => r.slice(0, 9)));
   });
 
   test('one customer: their name on every row and in the file name', async () => {

@@ -36,10 +36,18 @@ describe('seal state: SQL and sealState() agree', () => {
     const ids: number[] = [];
     for (const [i, [applied, verified, flagged]] of CASES.entries()) {
       const day = String(i + 1).padStart(2, '0');
-      ids.push(await handTrip({
-        assetId: bin.id, customerId: w.customer.id, depotSiteId: w.depot.id, dispatchedAt: `2026-03-${day}T10:00:00Z`, returnedAt: `2026-03-${day}T16:00:00Z`,
-        sealsApplied: applied, sealsVerified: verified, sealMismatch: flagged,
-      }));
+      ids.push(
+        await handTrip({
+          assetId: bin.id,
+          customerId: w.customer.id,
+          depotSiteId: w.depot.id,
+          dispatchedAt: `2026-03-${day}T10:00:00Z`,
+          returnedAt: `2026-03-${day}T16:00:00Z`,
+          sealsApplied: applied,
+          sealsVerified: verified,
+          sealMismatch: flagged,
+        }),
+      );
     }
     const rows = await sqlRows<{ id: number; seals_applied: string[]; seals_verified: string[]; seal_mismatch: boolean; sql_mismatch: boolean }>(
       `SELECT t.id, t.seals_applied, t.seals_verified, t.seal_mismatch, (${sealMismatchSql('t')}) IS TRUE AS sql_mismatch FROM trips t ORDER BY t.id`,

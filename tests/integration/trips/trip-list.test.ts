@@ -45,19 +45,77 @@ beforeAll(async () => {
   for (const serial of ['10', '7', '100']) bins[serial] = (await handBin(w.planner, { serial, binTypeId: w.binType.id, siteId: w.depot.id, registeredAt: at('2026-01-05') })).id;
   const A = w.customer.id; // "Test Customer"
   const B = customerB.id;
-  trip.t1 = await handTrip({ assetId: bins['10']!, customerId: A, depotSiteId: w.depot.id, customerSiteId: w.customerSite.id, linerLotId: w.lot.id, dispatchedAt: at('2026-03-02'), deliveredAt: at('2026-03-03'), collectedAt: at('2026-03-20'), returnedAt: at('2026-03-22'), fillProduct: 'Test oil', fillVolumeL: 900, sealsApplied: ['A1', 'A2'], sealsVerified: ['A2', 'A1'] });
-  trip.t2 = await handTrip({ assetId: bins['7']!, customerId: B, depotSiteId: w.depot2.id, dispatchedAt: at('2026-04-10'), deliveredAt: at('2026-04-12'), collectedAt: at('2026-04-30'), returnedAt: at('2026-05-02'), sealsApplied: ['B1'], sealsVerified: ['B9'], sealMismatch: true });
-  trip.t3 = await handTrip({ assetId: bins['100']!, customerId: A, depotSiteId: w.depot.id, dispatchedAt: at('2026-05-05'), collectedAt: at('2026-05-15'), returnedAt: at('2026-05-16') });
+  trip.t1 = await handTrip({
+    assetId: bins['10']!,
+    customerId: A,
+    depotSiteId: w.depot.id,
+    customerSiteId: w.customerSite.id,
+    linerLotId: w.lot.id,
+    dispatchedAt: at('2026-03-02'),
+    deliveredAt: at('2026-03-03'),
+    collectedAt: at('2026-03-20'),
+    returnedAt: at('2026-03-22'),
+    fillProduct: 'Test oil',
+    fillVolumeL: 900,
+    sealsApplied: ['A1', 'A2'],
+    sealsVerified: ['A2', 'A1'],
+  });
+  trip.t2 = await handTrip({
+    assetId: bins['7']!,
+    customerId: B,
+    depotSiteId: w.depot2.id,
+    dispatchedAt: at('2026-04-10'),
+    deliveredAt: at('2026-04-12'),
+    collectedAt: at('2026-04-30'),
+    returnedAt: at('2026-05-02'),
+    sealsApplied: ['B1'],
+    sealsVerified: ['B9'],
+    sealMismatch: true,
+  });
+  trip.t3 = await handTrip({
+    assetId: bins['100']!,
+    customerId: A,
+    depotSiteId: w.depot.id,
+    dispatchedAt: at('2026-05-05'),
+    collectedAt: at('2026-05-15'),
+    returnedAt: at('2026-05-16'),
+  });
   trip.t4 = await handTrip({ assetId: bins['10']!, customerId: B, depotSiteId: w.depot.id, dispatchedAt: at('2026-06-01'), deliveredAt: at('2026-06-02') });
-  trip.t5 = await handTrip({ assetId: bins['7']!, customerId: A, depotSiteId: w.depot2.id, dispatchedAt: at('2026-05-20'), returnedAt: at('2026-06-10'), sealsApplied: ['C1'], sealsVerified: ['c1'] });
+  trip.t5 = await handTrip({
+    assetId: bins['7']!,
+    customerId: A,
+    depotSiteId: w.depot2.id,
+    dispatchedAt: at('2026-05-20'),
+    returnedAt: at('2026-06-10'),
+    sealsApplied: ['C1'],
+    sealsVerified: ['c1'],
+  });
   await setAsset(bins['10']!, { status: 'on_hire', site_id: w.customerSite.id, customer_id: B, current_trip_id: trip.t4 });
   await logEvent({ assetId: bins['7']!, action: 'dispatch', occurredAt: at('2026-04-10'), statusTo: 'in_transit', tripId: trip.t2, siteId: w.depot2.id });
   await logEvent({ assetId: bins['7']!, action: 'discharge', occurredAt: at('2026-04-28'), statusTo: 'on_hire', tripId: trip.t2 });
 
   const plannerRow = await makeUser('planner', w.operator.id);
-  planner = { id: plannerRow.id, email: plannerRow.email, name: plannerRow.name, role: 'planner', organisationId: w.operator.id, organisationName: 'Test Pool', homeSiteId: null, qualifiedInspector: false };
+  planner = {
+    id: plannerRow.id,
+    email: plannerRow.email,
+    name: plannerRow.name,
+    role: 'planner',
+    organisationId: w.operator.id,
+    organisationName: 'Test Pool',
+    homeSiteId: null,
+    qualifiedInspector: false,
+  };
   const customerRow = await makeUser('customer', w.customer.id);
-  customerUser = { id: customerRow.id, email: customerRow.email, name: customerRow.name, role: 'customer', organisationId: w.customer.id, organisationName: 'Test Customer', homeSiteId: null, qualifiedInspector: false };
+  customerUser = {
+    id: customerRow.id,
+    email: customerRow.email,
+    name: customerRow.name,
+    role: 'customer',
+    organisationId: w.customer.id,
+    organisationName: 'Test Customer',
+    homeSiteId: null,
+    qualifiedInspector: false,
+  };
 });
 afterAll(async () => {
   await sequelize.close();
@@ -73,7 +131,16 @@ describe('the figures on each row', () => {
       [null, null, null],
       [21, true, 21],
     ]);
-    expect(rows[0]).toMatchObject({ serial: '10', customerName: 'Test Customer', depotName: 'Test depot', linerLotNumber: 'TL-001', fill: 'Test oil · 900\u00a0L', status: 'closed', dispatchedOn: '2026-03-02', returnedOn: '2026-03-22' });
+    expect(rows[0]).toMatchObject({
+      serial: '10',
+      customerName: 'Test Customer',
+      depotName: 'Test depot',
+      linerLotNumber: 'TL-001',
+      fill: 'Test oil · 900\u00a0L',
+      status: 'closed',
+      dispatchedOn: '2026-03-02',
+      returnedOn: '2026-03-22',
+    });
     expect(rows.map((r) => r.seals.state)).toEqual(['match', 'mismatch', 'not_sealed', 'not_sealed', 'mismatch']);
   });
 });

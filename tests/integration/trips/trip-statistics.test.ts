@@ -34,11 +34,35 @@ beforeAll(async () => {
   const bin = async (serial: string) => (await handBin(w.planner, { serial, binTypeId: w.binType.id, siteId: depot1, registeredAt: at('2024-12-01') })).id;
   const [A, B, C] = [await bin('A1'), await bin('B1'), await bin('C1')];
   await handTrip({ assetId: A, customerId: C1, depotSiteId: depot1, dispatchedAt: at('2026-03-01'), returnedAt: at('2026-03-25') });
-  await handTrip({ assetId: A, customerId: C1, depotSiteId: depot1, dispatchedAt: at('2026-04-02'), deliveredAt: at('2026-04-03'), collectedAt: at('2026-04-15'), returnedAt: at('2026-04-17') });
+  await handTrip({
+    assetId: A,
+    customerId: C1,
+    depotSiteId: depot1,
+    dispatchedAt: at('2026-04-02'),
+    deliveredAt: at('2026-04-03'),
+    collectedAt: at('2026-04-15'),
+    returnedAt: at('2026-04-17'),
+  });
   await handTrip({ assetId: A, customerId: C2, depotSiteId: depot2, dispatchedAt: at('2026-04-20'), deliveredAt: at('2026-04-21') });
-  await handTrip({ assetId: B, customerId: C2, depotSiteId: depot1, dispatchedAt: at('2026-04-05'), deliveredAt: at('2026-04-06'), collectedAt: at('2026-04-26'), returnedAt: at('2026-04-28') });
+  await handTrip({
+    assetId: B,
+    customerId: C2,
+    depotSiteId: depot1,
+    dispatchedAt: at('2026-04-05'),
+    deliveredAt: at('2026-04-06'),
+    collectedAt: at('2026-04-26'),
+    returnedAt: at('2026-04-28'),
+  });
   await handTrip({ assetId: C, customerId: C1, depotSiteId: depot2, dispatchedAt: at('2025-01-10'), returnedAt: at('2025-02-01') });
-  await handTrip({ assetId: C, customerId: C1, depotSiteId: depot2, dispatchedAt: at('2026-04-10'), deliveredAt: at('2026-04-11'), collectedAt: at('2026-04-20'), returnedAt: at('2026-04-22') });
+  await handTrip({
+    assetId: C,
+    customerId: C1,
+    depotSiteId: depot2,
+    dispatchedAt: at('2026-04-10'),
+    deliveredAt: at('2026-04-11'),
+    collectedAt: at('2026-04-20'),
+    returnedAt: at('2026-04-22'),
+  });
   // B's next trip starts after April; the open trip a2 forbids another open trip on A, so bx goes on B after b1.
   await handTrip({ assetId: B, customerId: C1, depotSiteId: depot1, dispatchedAt: at('2026-05-05') });
 });
@@ -53,7 +77,7 @@ test('the hand-worked day counts agree with date-fns differenceInCalendarDays', 
   expect([d('2026-03-25', '2026-04-02'), d('2026-04-17', '2026-04-20')]).toEqual([8, 3]);
 });
 
-test('reads the period\'s trips and each bin\'s last trip back within a year before it — nothing else', async () => {
+test("reads the period's trips and each bin's last trip back within a year before it — nothing else", async () => {
   const trips = await tripsForPeriod(APRIL, 'Europe/Amsterdam');
   expect(trips.map((t) => t.dispatchedAt.slice(0, 10)).sort()).toEqual(['2026-03-01', '2026-04-02', '2026-04-05', '2026-04-10', '2026-04-20']);
 });

@@ -30,7 +30,10 @@ describe('the depot snapshot a yard phone keeps', () => {
     await scan(w.planner, elsewhere.id, { action: 'dispatch', purpose: 'transfer', siteId: w.depot.id });
     await scan(w.planner, elsewhere.id, { action: 'receive', siteId: w.depot2.id });
     const earlier = { lotNumber: 'TL-000' };
-    await receiveLot({ id: null }, { supplier: 'Test Liners', lotNumber: 'TL-000', spec: 'PE bag', quantity: 50, receivedOn: '2026-02-01', expiryDate: '2027-03-01', siteId: w.depot.id });
+    await receiveLot(
+      { id: null },
+      { supplier: 'Test Liners', lotNumber: 'TL-000', spec: 'PE bag', quantity: 50, receivedOn: '2026-02-01', expiryDate: '2027-03-01', siteId: w.depot.id },
+    );
 
     const s = await loadDepotSnapshot(w.depot.id, NOW);
     expect(s).not.toBeNull();
@@ -38,7 +41,16 @@ describe('the depot snapshot a yard phone keeps', () => {
     expect(s!.today).toBe('2026-12-01');
     expect(s!.timeZone).toBe('Europe/Amsterdam');
     const byId = new Map(s!.bins.map((b) => [b.id, b]));
-    expect(byId.get(here.id)).toMatchObject({ grai: here.grai, status: 'available', where: 'here', siteId: w.depot.id, siteKind: 'depot', prepChecked: false, tripOpen: false, binTypeId: w.binType.id });
+    expect(byId.get(here.id)).toMatchObject({
+      grai: here.grai,
+      status: 'available',
+      where: 'here',
+      siteId: w.depot.id,
+      siteKind: 'depot',
+      prepChecked: false,
+      tripOpen: false,
+      binTypeId: w.binType.id,
+    });
     expect(byId.get(checked.id)).toMatchObject({ status: 'available', prepChecked: true, where: 'here' });
     expect(byId.get(out.id)).toMatchObject({ status: 'on_hire', where: 'expected', siteKind: 'customer', tripOpen: true, linerLotId: w.lot.id });
     expect(byId.has(elsewhere.id)).toBe(false);

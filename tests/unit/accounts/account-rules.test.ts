@@ -1,9 +1,7 @@
 import { describe, test, expect } from 'vitest';
-import {
-  accountLinkUrl, linkLifetimeMs, linkProblemMessage, passwordProblem, setPasswordSchema, resetRequestSchema, TOKEN_PATTERN,
-} from '@/lib/accounts/account-rules';
+import { accountLinkUrl, linkLifetimeMs, linkProblemMessage, passwordProblem, setPasswordSchema, resetRequestSchema, TOKEN_PATTERN } from '@/lib/accounts/account-rules';
 
-const TOKEN = 'A'.repeat(21) + '-_' + 'z'.repeat(20); // 43 base64url characters
+const TOKEN = `${'A'.repeat(21)}-_${'z'.repeat(20)}`; // 43 base64url characters
 
 describe('one-time links', () => {
   test('invite links last 7 days, reset links 1 hour', () => {

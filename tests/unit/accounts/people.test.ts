@@ -16,11 +16,18 @@ describe('who may be assigned what', () => {
     expect(assignmentProblems({ role: 'yard', organisationKind: 'operator', homeSite: null, qualifiedInspector: true }).map((p) => p.path)).toEqual(['homeSiteId']);
     expect(assignmentProblems({ role: 'yard', organisationKind: 'operator', homeSite: depot, qualifiedInspector: true })).toEqual([]);
     expect(assignmentProblems({ role: 'planner', organisationKind: 'operator', homeSite: depot, qualifiedInspector: false })).toEqual([]);
-    expect(assignmentProblems({ role: 'yard', organisationKind: 'operator', homeSite: { kind: 'customer', operatorOwned: false }, qualifiedInspector: false }).map((p) => p.path)).toEqual(['homeSiteId']);
-    expect(assignmentProblems({ role: 'yard', organisationKind: 'operator', homeSite: { kind: 'repair', operatorOwned: true }, qualifiedInspector: false }).map((p) => p.path)).toEqual(['homeSiteId']);
+    expect(
+      assignmentProblems({ role: 'yard', organisationKind: 'operator', homeSite: { kind: 'customer', operatorOwned: false }, qualifiedInspector: false }).map((p) => p.path),
+    ).toEqual(['homeSiteId']);
+    expect(
+      assignmentProblems({ role: 'yard', organisationKind: 'operator', homeSite: { kind: 'repair', operatorOwned: true }, qualifiedInspector: false }).map((p) => p.path),
+    ).toEqual(['homeSiteId']);
   });
   test('customers get neither a depot nor the inspector flag', () => {
-    expect(assignmentProblems({ role: 'customer', organisationKind: 'customer', homeSite: depot, qualifiedInspector: true }).map((p) => p.path)).toEqual(['homeSiteId', 'qualifiedInspector']);
+    expect(assignmentProblems({ role: 'customer', organisationKind: 'customer', homeSite: depot, qualifiedInspector: true }).map((p) => p.path)).toEqual([
+      'homeSiteId',
+      'qualifiedInspector',
+    ]);
   });
 });
 
@@ -40,7 +47,12 @@ describe('status of a person', () => {
 describe('input shapes', () => {
   test('an invitation normalises the e-mail and defaults the optional fields', () => {
     expect(inviteSchema.parse({ name: ' Ada ', email: ' Ada@X.Example', role: 'planner', organisationId: 1 })).toEqual({
-      name: 'Ada', email: 'ada@x.example', role: 'planner', organisationId: 1, homeSiteId: null, qualifiedInspector: false,
+      name: 'Ada',
+      email: 'ada@x.example',
+      role: 'planner',
+      organisationId: 1,
+      homeSiteId: null,
+      qualifiedInspector: false,
     });
     expect(inviteSchema.safeParse({ name: 'A', email: 'a@x.example', role: 'driver', organisationId: 1 }).success).toBe(false);
   });

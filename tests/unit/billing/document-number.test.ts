@@ -26,7 +26,7 @@ describe('document numbers', () => {
     }
   });
 
-  test('the year is the operator\'s local year at issue: 31 Dec 2027 23:30 UTC is 1 Jan 2028 in Berlin (UTC+1)', () => {
+  test("the year is the operator's local year at issue: 31 Dec 2027 23:30 UTC is 1 Jan 2028 in Berlin (UTC+1)", () => {
     expect(numberingYear('2027-12-31T23:30:00Z', 'Europe/Berlin')).toBe(2028);
     expect(numberingYear('2027-12-31T22:30:00Z', 'Europe/Berlin')).toBe(2027);
     expect(numberingYear(new Date('2027-12-31T23:30:00Z'), 'America/New_York')).toBe(2027);

@@ -8,15 +8,30 @@ import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import { addDays as fnsAddDays, differenceInCalendarDays, format, parseISO } from 'date-fns';
 import {
-  BillingInputError, REVERSE_CHARGE_NOTE, adjustmentLines, statementFor, taxTreatmentFor,
-  type StatementInput, type StatementLine, type TariffVersion, type TripRecord,
+  BillingInputError,
+  REVERSE_CHARGE_NOTE,
+  adjustmentLines,
+  statementFor,
+  taxTreatmentFor,
+  type StatementInput,
+  type StatementLine,
+  type TariffVersion,
+  type TripRecord,
 } from '@/lib/billing/hire-billing';
 import { ROUNDING, applyRate, formatMoney } from '@/lib/billing/money';
 
 const ZONE = 'Europe/Berlin';
 const V1: TariffVersion = {
-  effectiveFrom: '2027-01-01', currency: 'EUR', freeDaysPerTrip: 14, dailyRateMinor: 250, tripFeeMinor: 1500,
-  lostBinFeeMinor: 48000, hireStartsAt: 'delivery', hireStopsAt: 'collection', firstDayCounts: false, lastDayCounts: true,
+  effectiveFrom: '2027-01-01',
+  currency: 'EUR',
+  freeDaysPerTrip: 14,
+  dailyRateMinor: 250,
+  tripFeeMinor: 1500,
+  lostBinFeeMinor: 48000,
+  hireStartsAt: 'delivery',
+  hireStopsAt: 'collection',
+  firstDayCounts: false,
+  lastDayCounts: true,
 };
 const V2: TariffVersion = { ...V1, effectiveFrom: '2027-03-20', dailyRateMinor: 300 };
 const MARCH = { from: '2027-03-01', to: '2027-03-31' };
@@ -25,8 +40,13 @@ const VAT19 = { kind: 'rate' as const, rateBasisPoints: 1900 };
 
 function trip(over: Partial<TripRecord> & { tripId: string }): TripRecord {
   return {
-    binId: `B-${over.tripId}`, dispatchedAt: '2027-02-27T07:00:00+01:00', deliveredAt: null, readyNoticeAt: null,
-    collectedAt: null, receivedAt: null, ...over,
+    binId: `B-${over.tripId}`,
+    dispatchedAt: '2027-02-27T07:00:00+01:00',
+    deliveredAt: null,
+    readyNoticeAt: null,
+    collectedAt: null,
+    receivedAt: null,
+    ...over,
   };
 }
 
@@ -108,10 +128,12 @@ describe('statement lines worked by hand', () => {
     // Both ends count, no free days, 4.00 a day: 31 Oct in October, 1 Nov in November.
     const tariff = { ...V1, freeDaysPerTrip: 0, dailyRateMinor: 400, tripFeeMinor: 0, firstDayCounts: true };
     const t = trip({ tripId: 'T5', dispatchedAt: '2027-10-30T06:00:00Z', deliveredAt: '2027-10-30T22:30:00Z', collectedAt: '2027-10-31T23:30:00Z' });
-    expect(brief(run({ trips: [t], tariffs: [tariff], period: { from: '2027-10-01', to: '2027-10-31' } }).lines))
-      .toEqual([['hire', 'T5', '2027-10-31', '2027-10-31', '1-1', 1, 400, 400]]);
-    expect(brief(run({ trips: [t], tariffs: [tariff], period: { from: '2027-11-01', to: '2027-11-30' } }).lines))
-      .toEqual([['hire', 'T5', '2027-11-01', '2027-11-01', '2-2', 1, 400, 400]]);
+    expect(brief(run({ trips: [t], tariffs: [tariff], period: { from: '2027-10-01', to: '2027-10-31' } }).lines)).toEqual([
+      ['hire', 'T5', '2027-10-31', '2027-10-31', '1-1', 1, 400, 400],
+    ]);
+    expect(brief(run({ trips: [t], tariffs: [tariff], period: { from: '2027-11-01', to: '2027-11-30' } }).lines)).toEqual([
+      ['hire', 'T5', '2027-11-01', '2027-11-01', '2-2', 1, 400, 400],
+    ]);
   });
 
   test('a lost bin found again: hire stops at the declaration, fee charged, then credited in the month it turns up', () => {
@@ -141,7 +163,13 @@ describe('statement lines worked by hand', () => {
   test('which event stops the hire is a tariff term; a missing notice falls back to the collection', () => {
     // Notice 10 Mar, collected 14 Mar, received at the depot 17 Mar; delivered 1 Mar, no free days, 1.00 a day.
     const tariff = { ...V1, freeDaysPerTrip: 0, dailyRateMinor: 100, tripFeeMinor: 0 };
-    const t = trip({ tripId: 'T7', deliveredAt: '2027-03-01T09:00:00+01:00', readyNoticeAt: '2027-03-10T16:00:00+01:00', collectedAt: '2027-03-14T09:00:00+01:00', receivedAt: '2027-03-17T12:00:00+01:00' });
+    const t = trip({
+      tripId: 'T7',
+      deliveredAt: '2027-03-01T09:00:00+01:00',
+      readyNoticeAt: '2027-03-10T16:00:00+01:00',
+      collectedAt: '2027-03-14T09:00:00+01:00',
+      receivedAt: '2027-03-17T12:00:00+01:00',
+    });
     const days = (over: Partial<TariffVersion>, tr = t) => run({ trips: [tr], tariffs: [{ ...tariff, ...over }] }).lines.map((l) => [l.from, l.to, l.quantity]);
     expect(days({ hireStopsAt: 'ready_notice' })).toEqual([['2027-03-02', '2027-03-10', 9]]);
     expect(days({ hireStopsAt: 'collection' })).toEqual([['2027-03-02', '2027-03-14', 13]]);
@@ -183,7 +211,9 @@ describe('statement lines worked by hand', () => {
         { tripId: 'T9', binId: 'B-T9', at: '2027-04-03T08:00:00+02:00', quantity: 1, unitPriceMinor: 420, linerLot: null },
       ],
       truckRuns: [{ runId: 'R-5', at: '2027-03-31T21:30:00Z', description: 'delivery run, 12 bins', amountMinor: 9500 }], // 21:30 UTC = 23:30 CEST, still 31 Mar
-      damages: [{ repairOrderId: 'RO-9', binId: 'B-T9', tripId: 'T9', at: '2027-03-12T14:00:00+01:00', costMinor: 12_345, photoIds: ['p1', 'p2'], description: 'valve housing cracked' }],
+      damages: [
+        { repairOrderId: 'RO-9', binId: 'B-T9', tripId: 'T9', at: '2027-03-12T14:00:00+01:00', costMinor: 12_345, photoIds: ['p1', 'p2'], description: 'valve housing cracked' },
+      ],
     });
     // 2 × 4.20 = 8.40; run 95.00; repair 123.45 → net 226.85; VAT 19 % = 43.1015 → 43.10; gross 269.95.
     expect(brief(s.lines)).toEqual([
@@ -196,7 +226,7 @@ describe('statement lines worked by hand', () => {
     expect(s.totals).toMatchObject({ netMinor: 22_685, taxMinor: 4310, grossMinor: 26_995 });
   });
 
-  test('reverse charge: no VAT, the note and the customer\'s VAT number on the statement', () => {
+  test("reverse charge: no VAT, the note and the customer's VAT number on the statement", () => {
     const tax = taxTreatmentFor('DE', { country: 'NL', business: true, vatId: 'NL000099998B57' }, 1900);
     expect(tax).toEqual({ kind: 'reverse_charge', customerVatId: 'NL000099998B57' });
     expect(taxTreatmentFor('DE', { country: 'DE', business: true, vatId: 'DE000000000' }, 1900)).toEqual(VAT19);
@@ -235,9 +265,9 @@ describe('adjustments for an issued period', () => {
     const adjustments = adjustmentLines(issued, now, { period: MARCH, currency: 'EUR', on: '2027-04-01', reason: 'collection scan of 31 Mar voided; collected 25 Mar' });
     expect(brief(adjustments)).toEqual([['adjustment', 'T1', '2027-04-01', '2027-04-01', null, 1, -1800, -1800]]);
     expect(adjustments[0]!.text).toBe(
-      'Correction to 1 Mar 2027 – 31 Mar 2027: Bin B-T1, trip T1, hire days at 3.00 EUR a day: '
-      + 'was 12 days (20 Mar 2027 – 31 Mar 2027), 36.00 EUR, now 6 days (20 Mar 2027 – 25 Mar 2027), 18.00 EUR; '
-      + 'difference -18.00 EUR. Reason: collection scan of 31 Mar voided; collected 25 Mar.',
+      'Correction to 1 Mar 2027 – 31 Mar 2027: Bin B-T1, trip T1, hire days at 3.00 EUR a day: ' +
+        'was 12 days (20 Mar 2027 – 31 Mar 2027), 36.00 EUR, now 6 days (20 Mar 2027 – 25 Mar 2027), 18.00 EUR; ' +
+        'difference -18.00 EUR. Reason: collection scan of 31 Mar voided; collected 25 Mar.',
     );
     // The April statement carries it: the trip has no April days, so April = the adjustment alone.
     const april = run({ trips: [{ ...issuedTrip, collectedAt: '2027-03-25T10:00:00+01:00' }], period: APRIL });
@@ -264,10 +294,14 @@ describe('adjustments for an issued period', () => {
 
 describe('bad input is refused with every problem named', () => {
   test('no tariff in force, mixed currencies, bad amounts, unknown trips', () => {
-    const bad = () => run({
-      tariffs: [{ ...V1, effectiveFrom: '2027-03-10' }, { ...V2, currency: 'CHF', dailyRateMinor: 2.5 }],
-      trips: [trip({ tripId: 'T1', deliveredAt: '2027-03-01T09:00:00+01:00' })],
-    });
+    const bad = () =>
+      run({
+        tariffs: [
+          { ...V1, effectiveFrom: '2027-03-10' },
+          { ...V2, currency: 'CHF', dailyRateMinor: 2.5 },
+        ],
+        trips: [trip({ tripId: 'T1', deliveredAt: '2027-03-01T09:00:00+01:00' })],
+      });
     expect(bad).toThrow(BillingInputError);
     try {
       bad();
@@ -277,10 +311,12 @@ describe('bad input is refused with every problem named', () => {
         'tariff from 2027-03-20: daily rate must be a whole number of minor units ≥ 0, got 2.5',
       ]);
     }
-    expect(() => run({ tariffs: [{ ...V1, effectiveFrom: '2027-03-10' }], trips: [trip({ tripId: 'T1' })] }))
-      .toThrow('no tariff is in force on 2027-02-27 (the first takes effect on 2027-03-10)');
-    expect(() => run({ found: [{ tripId: 'T1', foundAt: '2027-03-05T10:00:00Z' }], trips: [trip({ tripId: 'T1' })] }))
-      .toThrow('trip T1 is found again but was never declared missing');
+    expect(() => run({ tariffs: [{ ...V1, effectiveFrom: '2027-03-10' }], trips: [trip({ tripId: 'T1' })] })).toThrow(
+      'no tariff is in force on 2027-02-27 (the first takes effect on 2027-03-10)',
+    );
+    expect(() => run({ found: [{ tripId: 'T1', foundAt: '2027-03-05T10:00:00Z' }], trips: [trip({ tripId: 'T1' })] })).toThrow(
+      'trip T1 is found again but was never declared missing',
+    );
     expect(() => run({ trips: [trip({ tripId: 'T1', deliveredAt: '2027-03-01T09:00' })] })).toThrow("trip T1 delivery: Instant needs a 'Z'");
     expect(() => run({ period: { from: '2027-03-31', to: '2027-03-01' } })).toThrow('period starts (2027-03-31) after it ends (2027-03-01)');
     expect(() => run({ timeZone: 'Mars/Olympus' })).toThrow('Unknown time zone');
@@ -289,7 +325,7 @@ describe('bad input is refused with every problem named', () => {
 });
 
 describe('period splits against date-fns (second opinion)', () => {
-  test('monthly statements of random trips add up to the trip\'s days, free days first, the rate split at its date', () => {
+  test("monthly statements of random trips add up to the trip's days, free days first, the rate split at its date", () => {
     const iso = (d: Date) => format(d, 'yyyy-MM-dd');
     const months = Array.from({ length: 19 }, (_, i) => {
       const from = new Date(Date.UTC(2026, 11 + i, 1));
@@ -298,8 +334,12 @@ describe('period splits against date-fns (second opinion)', () => {
     });
     fc.assert(
       fc.property(
-        fc.integer({ min: 0, max: 300 }), fc.integer({ min: 0, max: 200 }), fc.integer({ min: 0, max: 40 }),
-        fc.integer({ min: 0, max: 300 }), fc.boolean(), fc.boolean(),
+        fc.integer({ min: 0, max: 300 }),
+        fc.integer({ min: 0, max: 200 }),
+        fc.integer({ min: 0, max: 40 }),
+        fc.integer({ min: 0, max: 300 }),
+        fc.boolean(),
+        fc.boolean(),
         (startOffset, length, freeDays, changeOffset, firstDayCounts, lastDayCounts) => {
           const start = fnsAddDays(parseISO('2027-01-01'), startOffset);
           const stop = fnsAddDays(start, length);
@@ -319,8 +359,12 @@ describe('period splits against date-fns (second opinion)', () => {
           expect(sum('free_days')).toBe(Math.min(freeDays, total));
           // Charged days before the change: counted dates from day freeDays+1 up to the day before the change.
           const firstCharged = fnsAddDays(first, freeDays);
-          const beforeChange = length === 0 ? (total > 0 && freeDays === 0 && start < change ? 1 : 0)
-            : Math.max(0, differenceInCalendarDays(fnsAddDays(last < fnsAddDays(change, -1) ? last : fnsAddDays(change, -1), 1), firstCharged));
+          const beforeChange =
+            length === 0
+              ? total > 0 && freeDays === 0 && start < change
+                ? 1
+                : 0
+              : Math.max(0, differenceInCalendarDays(fnsAddDays(last < fnsAddDays(change, -1) ? last : fnsAddDays(change, -1), 1), firstCharged));
           expect(sum('hire', 250)).toBe(beforeChange);
           // No line crosses a month end or the change date, and days never repeat across periods.
           for (const l of lines) {

@@ -5,9 +5,7 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import { addDays as fnsAddDays, differenceInCalendarDays, format, max as fnsMax, min as fnsMin, parseISO } from 'date-fns';
-import {
-  DEFAULT_DAY_COUNT, clipRange, firstHireDay, hireDayNumber, hireDayRange, hireDaysThrough, hireDaysThroughSql, lastFreeDay,
-} from '@/lib/billing/hire-days';
+import { DEFAULT_DAY_COUNT, clipRange, firstHireDay, hireDayNumber, hireDayRange, hireDaysThrough, hireDaysThroughSql, lastFreeDay } from '@/lib/billing/hire-days';
 import { overdueBack } from '@/lib/fleet/overdue-return';
 
 const BOTH = { firstDayCounts: true, lastDayCounts: true };
@@ -96,8 +94,7 @@ describe('hire days: which dates of a hire count', () => {
           // Clipped to a period [pFrom, pTo]: the overlap of the two ranges, counted by date-fns.
           const pFrom = fnsAddDays(start, periodOffset);
           const pTo = fnsAddDays(pFrom, periodLength);
-          const overlap = expected === 0 || length === 0 ? 0
-            : Math.max(0, differenceInCalendarDays(fnsMin([last, pTo]), fnsMax([first, pFrom])) + 1);
+          const overlap = expected === 0 || length === 0 ? 0 : Math.max(0, differenceInCalendarDays(fnsMin([last, pTo]), fnsMax([first, pFrom])) + 1);
           if (length > 0) expect(clipRange(range, iso(pFrom), iso(pTo)).days).toBe(overlap);
         },
       ),

@@ -43,10 +43,19 @@ describe('PATCH /api/bins/<grai>/edit checks bins.edit itself', () => {
 
   function call(role: Role | null) {
     const user: SessionUser | null = role && {
-      id: 7, email: `${role}@test.example`, name: role, role, organisationId: 2, organisationName: 'Org', homeSiteId: null, qualifiedInspector: false,
+      id: 7,
+      email: `${role}@test.example`,
+      name: role,
+      role,
+      organisationId: 2,
+      organisationName: 'Org',
+      homeSiteId: null,
+      qualifiedInspector: false,
     };
     const request = new Request('http://localhost/api/bins/00614141123452400/edit', {
-      method: 'PATCH', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ version: 0, binTypeId: 1 }),
+      method: 'PATCH',
+      headers: { 'Content-Type': 'application/json' },
+      body: JSON.stringify({ version: 0, binTypeId: 1 }),
     });
     const ctx = { request, url: new URL(request.url), params: { grai: '00614141123452400' }, locals: { user, clientAddress: '127.0.0.1' } };
     return PATCH(ctx as unknown as APIContext);

@@ -1,8 +1,18 @@
 import { describe, test, expect } from 'vitest';
 import Papa from 'papaparse';
 import {
-  exportCsvChunk, graisInLines, importCounts, parseRegisterCsv, templateCsv, validateImportLines,
-  EXPORT_COLUMNS, IMPORT_COLUMNS, type CsvLine, type ExportRow, type ImportLine, type RegisterLookups,
+  exportCsvChunk,
+  graisInLines,
+  importCounts,
+  parseRegisterCsv,
+  templateCsv,
+  validateImportLines,
+  EXPORT_COLUMNS,
+  IMPORT_COLUMNS,
+  type CsvLine,
+  type ExportRow,
+  type ImportLine,
+  type RegisterLookups,
 } from '@/lib/bins/register-csv';
 
 // EPC Tag Data Standard translation test vector (REFERENCES §4): company
@@ -97,14 +107,21 @@ describe('parseRegisterCsv: the file', () => {
     expect(result[0]!.cells).toMatchObject({ grai: G1, bin_type: 'T1250', depot: 'DEP-A', manufacture_month: '2024-05' });
   });
 
-  test('a byte-order mark and CRLF line ends (a spreadsheet\'s CSV UTF-8) are read', () => {
+  test("a byte-order mark and CRLF line ends (a spreadsheet's CSV UTF-8) are read", () => {
     const result = lines(`\uFEFF${HEADER}\r\n${G1},T1250,DEP-A,2024-05,,,\r\n${G2},T1250,DEP-A,2024-06,,,\r\n`);
-    expect(result.map((l) => [l.line, l.cells.grai, l.cells.last_full_inspection_month])).toEqual([[2, G1, ''], [3, G2, '']]);
+    expect(result.map((l) => [l.line, l.cells.grai, l.cells.last_full_inspection_month])).toEqual([
+      [2, G1, ''],
+      [3, G2, ''],
+    ]);
   });
 
   test('a file that mixes CRLF and LF line ends (edited by hand) is read line by line', () => {
     const result = lines(`${HEADER}\r\n${G1},T1250,DEP-A,2024-05,,,\n${G2},T1250,DEP-A,2024-06,,,\r\n${G3},T1250,DEP-A,2024-07,,,`);
-    expect(result.map((l) => [l.line, l.cells.manufacture_month])).toEqual([[2, '2024-05'], [3, '2024-06'], [4, '2024-07']]);
+    expect(result.map((l) => [l.line, l.cells.manufacture_month])).toEqual([
+      [2, '2024-05'],
+      [3, '2024-06'],
+      [4, '2024-07'],
+    ]);
   });
 
   test('quoted fields: commas, doubled quotes and a line break inside stay one cell, and one spreadsheet row', () => {
@@ -191,11 +208,14 @@ describe('validateImportLines: every kind of line problem, with its line number'
     expect(problemsOf(result, 12)).toEqual(['manufacture_month: Month of manufacture must look like 2024-03.']);
     expect(problemsOf(result, 13)).toEqual(['last_intermediate_test_month: A test month looks like 2025-06 and is not before manufacture.']);
   });
-  test('a malformed UN mark gives the parser\'s reason', () => {
-    expect(problemsOf(result, 14)).toEqual(['un_marking: Packing-group letter "Q" is not X, Y or Z', 'manufacture_month: Give the month of manufacture (YYYY-MM) or a UN mark that carries it.']);
+  test("a malformed UN mark gives the parser's reason", () => {
+    expect(problemsOf(result, 14)).toEqual([
+      'un_marking: Packing-group letter "Q" is not X, Y or Z',
+      'manufacture_month: Give the month of manufacture (YYYY-MM) or a UN mark that carries it.',
+    ]);
   });
-  test('a UN mark of another type code than the bin type\'s', () => {
-    expect(problemsOf(result, 15)).toEqual(['un_marking: The mark\'s type code is 31HA2, but bin type T1000 is 31HA1.']);
+  test("a UN mark of another type code than the bin type's", () => {
+    expect(problemsOf(result, 15)).toEqual(["un_marking: The mark's type code is 31HA2, but bin type T1000 is 31HA1."]);
   });
   test('a month of manufacture that contradicts the UN mark', () => {
     expect(problemsOf(result, 16)).toEqual(['manufacture_month: The UN mark says manufactured 2001-05, not 2001-06.']);
@@ -205,7 +225,9 @@ describe('validateImportLines: every kind of line problem, with its line number'
   });
   test('a GRAI a spreadsheet turned into a number, or one without serial', () => {
     expect(problemsOf(result, 18)[0]).toMatch(/^grai: .*The spreadsheet turned this GRAI into a number/);
-    expect(problemsOf(result, 19)).toEqual(['grai: Too short: a GRAI needs 14 digits before the serial (filler 0, 12 digits of company prefix and asset type, check digit); got 13']);
+    expect(problemsOf(result, 19)).toEqual([
+      'grai: Too short: a GRAI needs 14 digits before the serial (filler 0, 12 digits of company prefix and asset type, check digit); got 13',
+    ]);
   });
   test('no month of manufacture and no mark that carries one', () => {
     expect(problemsOf(result, 20)).toEqual(['manufacture_month: Give the month of manufacture (YYYY-MM) or a UN mark that carries it.']);
@@ -213,7 +235,15 @@ describe('validateImportLines: every kind of line problem, with its line number'
   test('codes in small letters and a month a spreadsheet turned into a date are fine', () => {
     const ok = result.find((l) => l.line === 21)!;
     expect(ok.issues).toEqual([]);
-    expect(ok.input).toEqual({ grai: grai('OK21'), binTypeId: 2, siteId: 10, unMarking: null, manufactureMonth: '2024-05', lastIntermediateTestMonth: null, lastFullInspectionMonth: null });
+    expect(ok.input).toEqual({
+      grai: grai('OK21'),
+      binTypeId: 2,
+      siteId: 10,
+      unMarking: null,
+      manufactureMonth: '2024-05',
+      lastIntermediateTestMonth: null,
+      lastFullInspectionMonth: null,
+    });
   });
   test('only lines without problems carry what to register', () => {
     expect(result.filter((l) => l.input).map((l) => l.line)).toEqual([21]);
@@ -230,8 +260,13 @@ describe('a clean line registers with the month from its UN mark', () => {
     const [line] = check(`${HEADER}\n${TDS_GRAI},T1000,DEP-A,,${COMPOSITE_MARK},,2010-03\n`);
     expect(line!.issues).toEqual([]);
     expect(line!.input).toEqual({
-      grai: TDS_GRAI, binTypeId: 1, siteId: 10, unMarking: COMPOSITE_MARK,
-      manufactureMonth: null, lastIntermediateTestMonth: null, lastFullInspectionMonth: '2010-03',
+      grai: TDS_GRAI,
+      binTypeId: 1,
+      siteId: 10,
+      unMarking: COMPOSITE_MARK,
+      manufactureMonth: null,
+      lastIntermediateTestMonth: null,
+      lastFullInspectionMonth: '2010-03',
     });
   });
   test('graisInLines collects the canonical GRAIs to look up, grouped or not', () => {
@@ -244,7 +279,10 @@ describe('templateCsv', () => {
   test('the template reads back through the importer with no problems', () => {
     const csv = templateCsv({
       companyPrefix: '0614141',
-      binTypes: [{ code: 'T1000', graiAssetType: '12345', unCode: '31HA1' }, { code: 'T1250', graiAssetType: '12345', unCode: null }],
+      binTypes: [
+        { code: 'T1000', graiAssetType: '12345', unCode: '31HA1' },
+        { code: 'T1250', graiAssetType: '12345', unCode: null },
+      ],
       depotCode: 'DEP-A',
     });
     expect(csv.split('\r\n')[0]).toBe(HEADER);
@@ -256,9 +294,20 @@ describe('templateCsv', () => {
 
 describe('exportCsvChunk', () => {
   const row: ExportRow = {
-    grai: TDS_GRAI, serial: '400', bin_type: 'T1000', status: 'on_hire', site: 'CUS-1', customer: '=HYPERLINK("x"), Ltd',
-    manufacture_month: '2001-05', un_marking: COMPOSITE_MARK, trip_count: 12, last_inspection_on: '2024-03-01',
-    last_full_inspection_on: null, next_intermediate_due: '2026-09-30', next_full_due: '2029-03-31', next_due: '2026-09-30',
+    grai: TDS_GRAI,
+    serial: '400',
+    bin_type: 'T1000',
+    status: 'on_hire',
+    site: 'CUS-1',
+    customer: '=HYPERLINK("x"), Ltd',
+    manufacture_month: '2001-05',
+    un_marking: COMPOSITE_MARK,
+    trip_count: 12,
+    last_inspection_on: '2024-03-01',
+    last_full_inspection_on: null,
+    next_intermediate_due: '2026-09-30',
+    next_full_due: '2029-03-31',
+    next_due: '2026-09-30',
   };
   test('the header comes only with the first chunk', () => {
     const first = exportCsvChunk([row], true);
@@ -269,6 +318,21 @@ describe('exportCsvChunk', () => {
   });
   test('cells read back unchanged, except a formula is escaped for spreadsheets', () => {
     const back = Papa.parse<string[]>(exportCsvChunk([row], true), { skipEmptyLines: true }).data;
-    expect(back[1]).toEqual([TDS_GRAI, '400', 'T1000', 'on_hire', 'CUS-1', '\'=HYPERLINK("x"), Ltd', '2001-05', COMPOSITE_MARK, '12', '2024-03-01', '', '2026-09-30', '2029-03-31', '2026-09-30']);
+    expect(back[1]).toEqual([
+      TDS_GRAI,
+      '400',
+      'T1000',
+      'on_hire',
+      'CUS-1',
+      '\'=HYPERLINK("x"), Ltd',
+      '2001-05',
+      COMPOSITE_MARK,
+      '12',
+      '2024-03-01',
+      '',
+      '2026-09-30',
+      '2029-03-31',
+      '2026-09-30',
+    ]);
   });
 });

@@ -1,7 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import {
-  checkBinType, checkDepot, checkMarkAgainstType, checkRegistration, graiFromSerial, normaliseMonth, testColumns, testMonthsOf,
-} from '@/lib/bins/registration-check';
+import { checkBinType, checkDepot, checkMarkAgainstType, checkRegistration, graiFromSerial, normaliseMonth, testColumns, testMonthsOf } from '@/lib/bins/registration-check';
 
 // EPC Tag Data Standard translation test vector (REFERENCES §4).
 const TDS_GRAI = '00614141123452400';

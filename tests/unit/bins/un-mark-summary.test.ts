@@ -34,7 +34,7 @@ describe('decodeUnMark', () => {
     expect(f.stackingLoad).toBe('0 kg (not for stacking)');
     expect(f.onTop).toBe('None: not designed for stacking');
   });
-  test('a malformed mark gives the parser\'s reason', () => {
+  test("a malformed mark gives the parser's reason", () => {
     expect(decodeUnMark('31HA1/Y/13 01/D/Maker 7/10800/1200')).toEqual({ ok: false, message: 'Month of manufacture 13 is outside 01–12' });
     expect(decodeUnMark('31HA1/Y')).toMatchObject({ ok: false, message: expect.stringContaining('fields') });
   });

@@ -1,8 +1,19 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import {
-  Binds, GridQueryError, binsCountQuery, binsExportQuery, binsPageQuery, orderBy, parseFilterModel, parseGridRequest, parseSortModel, whereClause,
-  BIN_COLUMN_IDS, MAX_PAGE_ROWS, type QueryContext,
+  Binds,
+  GridQueryError,
+  binsCountQuery,
+  binsExportQuery,
+  binsPageQuery,
+  orderBy,
+  parseFilterModel,
+  parseGridRequest,
+  parseSortModel,
+  whereClause,
+  BIN_COLUMN_IDS,
+  MAX_PAGE_ROWS,
+  type QueryContext,
 } from '@/lib/fleet/grid-query';
 import { BUILTIN_VIEWS, parseViewState } from '@/lib/fleet/grid-views';
 
@@ -102,7 +113,14 @@ describe('filter model → WHERE fragment with bind values', () => {
 
   test('combined conditions join with the given operator; several columns join with AND', () => {
     const r = where({
-      serial: { filterType: 'text', operator: 'OR', conditions: [{ filterType: 'text', type: 'startsWith', filter: 'A' }, { filterType: 'text', type: 'startsWith', filter: 'B' }] },
+      serial: {
+        filterType: 'text',
+        operator: 'OR',
+        conditions: [
+          { filterType: 'text', type: 'startsWith', filter: 'A' },
+          { filterType: 'text', type: 'startsWith', filter: 'B' },
+        ],
+      },
       status: { filterType: 'set', values: ['quarantine'] },
     });
     expect(r.sql).toBe('(a.serial ILIKE $1::text OR a.serial ILIKE $2::text)\n   AND a.status = ANY($3::text[])');
@@ -134,7 +152,9 @@ describe('refusals name the problem and what is allowed', () => {
   });
 
   test('an operator the column does not offer', () => {
-    expect(refusal(() => parseFilterModel({ grai: { filterType: 'text', type: 'regex', filter: '.*' } })).message).toMatch(/text operator "regex" is not supported here; use one of contains/);
+    expect(refusal(() => parseFilterModel({ grai: { filterType: 'text', type: 'regex', filter: '.*' } })).message).toMatch(
+      /text operator "regex" is not supported here; use one of contains/,
+    );
     expect(refusal(() => parseFilterModel({ tripCount: { filterType: 'number', type: 'contains', filter: 1 } })).message).toMatch(/number operator "contains"/);
     expect(refusal(() => parseFilterModel({ serial: { filterType: 'text', operator: 'XOR', conditions: [] } })).message).toMatch(/operator "XOR"/);
   });
@@ -156,7 +176,14 @@ describe('refusals name the problem and what is allowed', () => {
 
   test('sorting: flags are not sortable, a column once, directions asc/desc only', () => {
     expect(refusal(() => parseSortModel([{ colId: 'overdue', sort: 'asc' }])).message).toMatch(/cannot be sorted/);
-    expect(refusal(() => parseSortModel([{ colId: 'grai', sort: 'asc' }, { colId: 'grai', sort: 'desc' }])).message).toMatch(/sorted twice/);
+    expect(
+      refusal(() =>
+        parseSortModel([
+          { colId: 'grai', sort: 'asc' },
+          { colId: 'grai', sort: 'desc' },
+        ]),
+      ).message,
+    ).toMatch(/sorted twice/);
     expect(refusal(() => parseSortModel([{ colId: 'grai', sort: 'up' }])).message).toMatch(/"asc" or "desc"/);
   });
 
@@ -171,9 +198,23 @@ describe('refusals name the problem and what is allowed', () => {
 describe('ordering', () => {
   test('defaults to GRAI; otherwise the sort terms, then the id (walking the same way as the first term)', () => {
     expect(orderBy([])).toBe('a.grai ASC');
-    expect(orderBy(parseSortModel([{ colId: 'nextDue', sort: 'asc' }, { colId: 'site', sort: 'desc' }]))).toBe('a.next_due ASC, s.name DESC, a.id ASC');
+    expect(
+      orderBy(
+        parseSortModel([
+          { colId: 'nextDue', sort: 'asc' },
+          { colId: 'site', sort: 'desc' },
+        ]),
+      ),
+    ).toBe('a.next_due ASC, s.name DESC, a.id ASC');
     expect(orderBy(parseSortModel([{ colId: 'nextDue', sort: 'desc' }]))).toBe('a.next_due DESC, a.id DESC');
-    expect(orderBy(parseSortModel([{ colId: 'tripCount', sort: 'desc' }, { colId: 'grai', sort: 'asc' }]))).toBe('a.trip_count DESC, a.grai ASC');
+    expect(
+      orderBy(
+        parseSortModel([
+          { colId: 'tripCount', sort: 'desc' },
+          { colId: 'grai', sort: 'asc' },
+        ]),
+      ),
+    ).toBe('a.trip_count DESC, a.grai ASC');
   });
 
   test('more days at site = an earlier arrival, so the day count sorts on the instant, reversed', () => {
@@ -184,9 +225,14 @@ describe('ordering', () => {
 
 describe('whole statements', () => {
   test('the page picks its ids first, then joins only those rows; the count shares the filter', () => {
-    const req = parseGridRequest({ startRow: 200, endRow: 300, sortModel: [{ colId: 'nextDue', sort: 'asc' }], filterModel: { status: { filterType: 'set', values: ['on_hire'] } } });
+    const req = parseGridRequest({
+      startRow: 200,
+      endRow: 300,
+      sortModel: [{ colId: 'nextDue', sort: 'asc' }],
+      filterModel: { status: { filterType: 'set', values: ['on_hire'] } },
+    });
     const page = binsPageQuery(req, CTX);
-    expect(page.text).toMatch(/WHERE a\.id = ANY\(ARRAY\(\n  SELECT a\.id FROM assets a/);
+    expect(page.text).toMatch(/WHERE a\.id = ANY\(ARRAY\(\n {2}SELECT a\.id FROM assets a/);
     expect(page.text).toContain('LIMIT $2::int OFFSET $3::int');
     expect(page.values.slice(0, 3)).toEqual([['on_hire'], 100, 200]);
     expect(page.values).toContain('Europe/Amsterdam');
@@ -208,9 +254,14 @@ describe('whole statements', () => {
 
   test('every placeholder in a statement has exactly one bind value', () => {
     const req = parseGridRequest({
-      startRow: 0, endRow: 100,
+      startRow: 0,
+      endRow: 100,
       sortModel: [{ colId: 'daysAtSite', sort: 'desc' }],
-      filterModel: { daysSilent: { filterType: 'number', type: 'greaterThan', filter: 3 }, overFreeDays: { filterType: 'boolean', value: true }, lastScanAt: { filterType: 'date', type: 'inRange', dateFrom: '2026-01-01', dateTo: '2026-06-30' } },
+      filterModel: {
+        daysSilent: { filterType: 'number', type: 'greaterThan', filter: 3 },
+        overFreeDays: { filterType: 'boolean', value: true },
+        lastScanAt: { filterType: 'date', type: 'inRange', dateFrom: '2026-01-01', dateTo: '2026-06-30' },
+      },
     });
     for (const s of [binsPageQuery(req, CTX), binsCountQuery(req.filterModel, CTX), binsExportQuery(req, CTX)]) {
       const used = new Set([...s.text.matchAll(/\$(\d+)/g)].map((m) => Number(m[1])));

@@ -14,7 +14,12 @@ describe('overdue back: more days since delivery than the free days', () => {
   test('delivered 1 Mar, 14 free days: 15 Mar is day 14 (still free), 16 Mar is one day over', () => {
     expect(lastFreeDay('2026-03-01', 14)).toBe('2026-03-15');
     expect(overdueBack({ ...base, today: '2026-03-15' })).toEqual({
-      applies: true, daysWithCustomer: 14, daysOver: 0, overdue: false, estimated: false, freeUntil: '2026-03-15',
+      applies: true,
+      daysWithCustomer: 14,
+      daysOver: 0,
+      overdue: false,
+      estimated: false,
+      freeUntil: '2026-03-15',
     });
     expect(overdueBack({ ...base, today: '2026-03-16' })).toMatchObject({ daysWithCustomer: 15, daysOver: 1, overdue: true });
   });
@@ -33,7 +38,12 @@ describe('overdue back: more days since delivery than the free days', () => {
   test('a missed delivery scan counts from the dispatch and says so', () => {
     // Dispatched 27 Feb 2026; 14 free days → free until 13 Mar; 16 Mar is 17 days, 3 over.
     expect(overdueBack({ ...base, deliveredOn: null, today: '2026-03-16' })).toEqual({
-      applies: true, daysWithCustomer: 17, daysOver: 3, overdue: true, estimated: true, freeUntil: '2026-03-13',
+      applies: true,
+      daysWithCustomer: 17,
+      daysOver: 3,
+      overdue: true,
+      estimated: true,
+      freeUntil: '2026-03-13',
     });
   });
 

@@ -11,7 +11,11 @@ const frame = { width: 600, height: 400, padding: 20 };
 describe('equirectangular projection fitted to the frame', () => {
   test('at a standard parallel of 60°, a degree of longitude is drawn half as long as a degree of latitude', () => {
     // Points 59.5°–60.5° N, 0°–1° E: the middle latitude is 60°, cos 60° = 0.5.
-    const points = [{ lat: 59.5, lon: 0 }, { lat: 60.5, lon: 0 }, { lat: 60, lon: 1 }];
+    const points = [
+      { lat: 59.5, lon: 0 },
+      { lat: 60.5, lon: 0 },
+      { lat: 60, lon: 1 },
+    ];
     const p = fitProjection(points, frame);
     expect(p.standardParallel).toBe(60);
     const a = p.project({ lat: 60, lon: 0 });
@@ -25,7 +29,13 @@ describe('equirectangular projection fitted to the frame', () => {
   test('north is up, east is right, and the points fill the frame inside its padding with one scale', () => {
     // At the equator cos 0° = 1: 2° of longitude × 1° of latitude is a 2:1 box; the frame inside the padding
     // is 560 × 360, so the width decides: 280 px per degree, and the 280 px tall picture is centred vertically.
-    const p = fitProjection([{ lat: -0.5, lon: 10 }, { lat: 0.5, lon: 12 }], frame);
+    const p = fitProjection(
+      [
+        { lat: -0.5, lon: 10 },
+        { lat: 0.5, lon: 12 },
+      ],
+      frame,
+    );
     expect(p.pixelsPerDegree).toBeCloseTo(280, 9);
     const sw = p.project({ lat: -0.5, lon: 10 });
     const ne = p.project({ lat: 0.5, lon: 12 });

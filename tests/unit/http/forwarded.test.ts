@@ -8,8 +8,18 @@ import { arrivedOverHttps, clientAddressFrom, HSTS_VALUE, hstsHeader, normaliseA
 
 describe('TRUST_PROXY', () => {
   test.each([
-    [undefined, 0], ['', 0], ['0', 0], ['false', 0], ['true', 0], ['-1', 0], ['1.5', 0], ['abc', 0],
-    ['1', 1], ['2', 2], [' 3 ', 3], ['10', 10],
+    [undefined, 0],
+    ['', 0],
+    ['0', 0],
+    ['false', 0],
+    ['true', 0],
+    ['-1', 0],
+    ['1.5', 0],
+    ['abc', 0],
+    ['1', 1],
+    ['2', 2],
+    [' 3 ', 3],
+    ['10', 10],
   ] as const)('%j → %i trusted hops', (value, hops) => {
     expect(trustedHops(value)).toBe(hops);
   });

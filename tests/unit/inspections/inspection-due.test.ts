@@ -51,9 +51,7 @@ describe('nextDue: hand-worked schedules', () => {
   });
 
   test('null and missing test months mean the same thing', () => {
-    expect(nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: null, lastFullInspectionMonth: null }, ADR)).toEqual(
-      nextDue({ manufactureMonth: '2024-01' }, ADR),
-    );
+    expect(nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: null, lastFullInspectionMonth: null }, ADR)).toEqual(nextDue({ manufactureMonth: '2024-01' }, ADR));
   });
 
   test('leap years: a due month of February ends on the 29th only in a leap year', () => {
@@ -100,18 +98,27 @@ describe('nextDue: hand-worked schedules', () => {
     // ADR 6.5.4.4.1(a) / 6.5.4.4.2: the 5-year inspection is design type, marks and internal condition; the
     // 2.5-year clock is the leakproofness test. Full inspection 2029-01 without a leakproofness test, last
     // leakproofness test 2028-10: 2.5-year 2028-10 + 30 = 2031-04 → 2031-04-30; 5-year 2029-01 + 60 = 2034-01 → 2034-01-31.
-    expect(
-      nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: '2028-10', lastFullInspectionMonth: '2029-01' }, ADR),
-    ).toEqual({ intermediateDue: '2031-04-30', fullDue: '2034-01-31', nextDue: '2031-04-30', nextKind: 'intermediate' });
+    expect(nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: '2028-10', lastFullInspectionMonth: '2029-01' }, ADR)).toEqual({
+      intermediateDue: '2031-04-30',
+      fullDue: '2034-01-31',
+      nextDue: '2031-04-30',
+      nextKind: 'intermediate',
+    });
     // Done with a leakproofness test, the same inspection counts for both clocks (both months 2029-01):
     // 2029-01 + 30 = 2031-07 → 2031-07-31.
-    expect(
-      nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: '2029-01', lastFullInspectionMonth: '2029-01' }, ADR),
-    ).toEqual({ intermediateDue: '2031-07-31', fullDue: '2034-01-31', nextDue: '2031-07-31', nextKind: 'intermediate' });
+    expect(nextDue({ manufactureMonth: '2024-01', lastIntermediateTestMonth: '2029-01', lastFullInspectionMonth: '2029-01' }, ADR)).toEqual({
+      intermediateDue: '2031-07-31',
+      fullDue: '2034-01-31',
+      nextDue: '2031-07-31',
+      nextKind: 'intermediate',
+    });
     // A 5-year inspection alone on a bin never leak-tested since manufacture 2020-05: the 2.5-year clock still
     // runs from manufacture, 2020-05 + 30 = 2022-11 → 2022-11-30, and that is what falls due next.
     expect(nextDue({ manufactureMonth: '2020-05', lastFullInspectionMonth: '2024-03' }, ADR)).toEqual({
-      intermediateDue: '2022-11-30', fullDue: '2029-03-31', nextDue: '2022-11-30', nextKind: 'intermediate',
+      intermediateDue: '2022-11-30',
+      fullDue: '2029-03-31',
+      nextDue: '2022-11-30',
+      nextKind: 'intermediate',
     });
   });
 
@@ -326,17 +333,50 @@ describe('clocksRestartedBy: each clock only from the test that covers it (6.5.4
   const good = { pressureKpa: 20, minutes: 10, passed: true };
   test('literal table', () => {
     const rows: Array<[Parameters<typeof clocksRestartedBy>[0], { intermediate: boolean; full: boolean }]> = [
-      [{ kind: 'intermediate', outcome: 'pass', leakTest: good }, { intermediate: true, full: false }],
-      [{ kind: 'intermediate', outcome: 'pass', leakTest: null }, { intermediate: false, full: false }],
-      [{ kind: 'full', outcome: 'pass', leakTest: good }, { intermediate: true, full: true }],
-      [{ kind: 'full', outcome: 'pass', leakTest: null }, { intermediate: false, full: true }],
-      [{ kind: 'full', outcome: 'pass', leakTest: { ...good, passed: false } }, { intermediate: false, full: true }],
-      [{ kind: 'after_repair', outcome: 'pass', leakTest: good }, { intermediate: true, full: false }],
-      [{ kind: 'intermediate', outcome: 'pass', leakTest: { pressureKpa: 15, minutes: 10, passed: true } }, { intermediate: false, full: false }],
-      [{ kind: 'intermediate', outcome: 'pass', leakTest: { pressureKpa: 20, minutes: 5, passed: true } }, { intermediate: false, full: false }],
-      [{ kind: 'intermediate', outcome: 'fail', leakTest: good }, { intermediate: false, full: false }],
-      [{ kind: 'full', outcome: 'repair', leakTest: good }, { intermediate: false, full: false }],
-      [{ kind: 'prep_check', outcome: 'pass', leakTest: good }, { intermediate: false, full: false }],
+      [
+        { kind: 'intermediate', outcome: 'pass', leakTest: good },
+        { intermediate: true, full: false },
+      ],
+      [
+        { kind: 'intermediate', outcome: 'pass', leakTest: null },
+        { intermediate: false, full: false },
+      ],
+      [
+        { kind: 'full', outcome: 'pass', leakTest: good },
+        { intermediate: true, full: true },
+      ],
+      [
+        { kind: 'full', outcome: 'pass', leakTest: null },
+        { intermediate: false, full: true },
+      ],
+      [
+        { kind: 'full', outcome: 'pass', leakTest: { ...good, passed: false } },
+        { intermediate: false, full: true },
+      ],
+      [
+        { kind: 'after_repair', outcome: 'pass', leakTest: good },
+        { intermediate: true, full: false },
+      ],
+      [
+        { kind: 'intermediate', outcome: 'pass', leakTest: { pressureKpa: 15, minutes: 10, passed: true } },
+        { intermediate: false, full: false },
+      ],
+      [
+        { kind: 'intermediate', outcome: 'pass', leakTest: { pressureKpa: 20, minutes: 5, passed: true } },
+        { intermediate: false, full: false },
+      ],
+      [
+        { kind: 'intermediate', outcome: 'fail', leakTest: good },
+        { intermediate: false, full: false },
+      ],
+      [
+        { kind: 'full', outcome: 'repair', leakTest: good },
+        { intermediate: false, full: false },
+      ],
+      [
+        { kind: 'prep_check', outcome: 'pass', leakTest: good },
+        { intermediate: false, full: false },
+      ],
     ];
     for (const [record, expected] of rows) expect(clocksRestartedBy(record), JSON.stringify(record)).toEqual(expected);
   });

@@ -7,8 +7,15 @@ import { CHECKLIST, inspectionProblems, leakTestRequired, testMark, initialsOf, 
 
 const allTrue = (kind: InspectionDraft['kind']) => Object.fromEntries(CHECKLIST[kind].map((i) => [i.key, true]));
 const draft = (over: Partial<InspectionDraft> = {}): InspectionDraft => ({
-  kind: 'intermediate', performedOn: '2026-12-03', checklist: allTrue('intermediate'), leakTest: { pressureKpa: 20, minutes: 10, passed: true },
-  outcome: 'pass', inspectorId: 7, inspectionBody: null, remarks: null, ...over,
+  kind: 'intermediate',
+  performedOn: '2026-12-03',
+  checklist: allTrue('intermediate'),
+  leakTest: { pressureKpa: 20, minutes: 10, passed: true },
+  outcome: 'pass',
+  inspectorId: 7,
+  inspectionBody: null,
+  remarks: null,
+  ...over,
 });
 const fields = (d: InspectionDraft) => inspectionProblems(d, '2026-12-03', '2024-01').map((p) => p.field);
 

@@ -27,10 +27,19 @@ describe('planTestDays: hand-worked', () => {
     // From Thu 2026-12-03. A due Mon 2026-12-07, B due Sun 2026-12-06 → Fri 12-04 (Sat/Sun closed),
     // C due Thu 2026-12-31 (a month end) → 12-31.
     const plan = planTestDays({
-      from: '2026-12-03', capacity: WEEKDAYS_2,
-      bins: [{ id: 'A', dueOn: '2026-12-07', availableFrom: '2026-12-03' }, { id: 'B', dueOn: '2026-12-06', availableFrom: '2026-12-03' }, { id: 'C', dueOn: '2026-12-31', availableFrom: '2026-12-03' }],
+      from: '2026-12-03',
+      capacity: WEEKDAYS_2,
+      bins: [
+        { id: 'A', dueOn: '2026-12-07', availableFrom: '2026-12-03' },
+        { id: 'B', dueOn: '2026-12-06', availableFrom: '2026-12-03' },
+        { id: 'C', dueOn: '2026-12-31', availableFrom: '2026-12-03' },
+      ],
     });
-    expect(plan.days).toEqual([{ date: '2026-12-04', binIds: ['B'] }, { date: '2026-12-07', binIds: ['A'] }, { date: '2026-12-31', binIds: ['C'] }]);
+    expect(plan.days).toEqual([
+      { date: '2026-12-04', binIds: ['B'] },
+      { date: '2026-12-07', binIds: ['A'] },
+      { date: '2026-12-31', binIds: ['C'] },
+    ]);
     expect(plan.flagged).toEqual([]);
   });
 
@@ -49,7 +58,8 @@ describe('planTestDays: hand-worked', () => {
 
   test('flags the impossible with why', () => {
     const plan = planTestDays({
-      from: '2026-12-03', capacity: { perWeekday: [0, 1, 1, 1, 1, 1, 0], closed: ['2026-12-04'] },
+      from: '2026-12-03',
+      capacity: { perWeekday: [0, 1, 1, 1, 1, 1, 0], closed: ['2026-12-04'] },
       bins: [
         { id: 'lapsed', dueOn: '2026-11-30', availableFrom: '2026-11-01' },
         { id: 'late', dueOn: '2026-12-15', availableFrom: '2026-12-20' },
@@ -59,14 +69,19 @@ describe('planTestDays: hand-worked', () => {
       ],
     });
     expect(plan.days).toEqual([{ date: '2026-12-03', binIds: ['x1'] }]);
-    expect(plan.flagged.map((f) => [f.id, f.code])).toEqual([['lapsed', 'lapsed'], ['late', 'back_after_due'], ['x2', 'no_capacity']]);
+    expect(plan.flagged.map((f) => [f.id, f.code])).toEqual([
+      ['lapsed', 'lapsed'],
+      ['late', 'back_after_due'],
+      ['x2', 'no_capacity'],
+    ]);
     expect(plan.flagged[1]!.reason).toMatch(/2026-12-20, after its due date 2026-12-15/);
   });
 
   test('across the 2028 leap day', () => {
     // Due Tue 2028-02-29, capacity 1 on weekdays: 29 Feb, Mon 28 Feb, Fri 25 Feb.
     const plan = planTestDays({
-      from: '2028-02-01', capacity: { perWeekday: [0, 1, 1, 1, 1, 1, 0] },
+      from: '2028-02-01',
+      capacity: { perWeekday: [0, 1, 1, 1, 1, 1, 0] },
       bins: ['a', 'b', 'c'].map((id) => ({ id, dueOn: '2028-02-29', availableFrom: '2028-02-01' })),
     });
     expect(plan.days.map((d) => d.date)).toEqual(['2028-02-25', '2028-02-28', '2028-02-29']);
@@ -93,7 +108,10 @@ function maxPlaceable(from: string, capacity: TestCapacity, bins: BinToTest[]): 
     for (let s = 0; s < slots.length; s++) {
       if (seen[s] || !fits(bins[i]!, slots[s]!)) continue;
       seen[s] = true;
-      if (owner[s] === -1 || tryBin(owner[s]!, seen)) { owner[s] = i; return true; }
+      if (owner[s] === -1 || tryBin(owner[s]!, seen)) {
+        owner[s] = i;
+        return true;
+      }
     }
     return false;
   };

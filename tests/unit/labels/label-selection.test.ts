@@ -1,7 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import {
-  MAX_LABELS_PER_RUN, formatIdList, labelQueryString, parseIdList, parseLabelQuery, resolveRange, splitPastedList, statusesFor,
-} from '@/lib/labels/label-selection';
+import { MAX_LABELS_PER_RUN, formatIdList, labelQueryString, parseIdList, parseLabelQuery, resolveRange, splitPastedList, statusesFor } from '@/lib/labels/label-selection';
 
 // Input handling of label runs. GRAI test values: company prefix 9521234 (GS1 prefix 952 is reserved for
 // demonstrations [memory]); body 952123410010 has check digit 2 by the GS1 mod-10 rule (GS1 General
@@ -40,9 +38,7 @@ describe('compact id lists', () => {
 
 describe('pasted lists', () => {
   test('one entry per line, comma, semicolon or cell; grouped GRAIs stay whole', () => {
-    expect(splitPastedList(`${g('1')}\r\n0 9521234 10010 8 · 2\n\n  ;${g('3')},${g('4')}\t${g('5')}  `)).toEqual([
-      g('1'), '0 9521234 10010 8 · 2', g('3'), g('4'), g('5'),
-    ]);
+    expect(splitPastedList(`${g('1')}\r\n0 9521234 10010 8 · 2\n\n  ;${g('3')},${g('4')}\t${g('5')}  `)).toEqual([g('1'), '0 9521234 10010 8 · 2', g('3'), g('4'), g('5')]);
   });
 });
 

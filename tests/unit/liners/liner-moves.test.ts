@@ -20,7 +20,9 @@ describe('the moves a scan writes', () => {
 
   test('a liner that left on a trip was used there: no move when it comes out', () => {
     expect(movesForScan({ action: 'fold', before: { ...lined, currentTripId: 4 }, after: { linerLotId: null }, assetId: 1, siteId: 8, userId: 9, occurredAt: AT })).toEqual([]);
-    expect(movesForScan({ action: 'collect', before: { ...lined, currentTripId: 4, filled: true }, after: { linerLotId: null }, assetId: 1, siteId: null, userId: 9, occurredAt: AT })).toEqual([]);
+    expect(
+      movesForScan({ action: 'collect', before: { ...lined, currentTripId: 4, filled: true }, after: { linerLotId: null }, assetId: 1, siteId: null, userId: 9, occurredAt: AT }),
+    ).toEqual([]);
   });
 
   test('scans that leave the liner alone write nothing', () => {
@@ -30,7 +32,15 @@ describe('the moves a scan writes', () => {
 
   test('a reversal has the opposite quantity and names the move it undoes (a voided fit puts its liner back)', () => {
     expect(reversalOf({ id: 12, lot_id: 7, site_id: 3, quantity: -1, asset_id: 1 }, AT, 9, 'Scan voided')).toEqual({
-      lot_id: 7, site_id: 3, kind: 'reversal', quantity: 1, occurred_at: AT, user_id: 9, asset_id: 1, reverses_move_id: 12, reason: 'Scan voided',
+      lot_id: 7,
+      site_id: 3,
+      kind: 'reversal',
+      quantity: 1,
+      occurred_at: AT,
+      user_id: 9,
+      asset_id: 1,
+      reverses_move_id: 12,
+      reason: 'Scan voided',
     });
   });
 });

@@ -5,7 +5,15 @@ import { specSchema, supplierSchema } from '@/lib/liners/liner-schemas';
 const listed: SpecFacts = { id: 1, code: 'A', nominalCapacityL: 1000, valveType: 'butterfly', valveSize: 'DN50', glandSize: 'DN150' };
 
 describe('connection sizes', () => {
-  test.each([['dn50', 'DN50'], [' DN 80 ', 'DN80'], ['s60x6', 'S60x6'], ['S60X6', 'S60x6'], ['60mm', null], ['DN5', null], ['S60', null]])('%s → %s', (typed, written) => {
+  test.each([
+    ['dn50', 'DN50'],
+    [' DN 80 ', 'DN80'],
+    ['s60x6', 'S60x6'],
+    ['S60X6', 'S60x6'],
+    ['60mm', null],
+    ['DN5', null],
+    ['S60', null],
+  ])('%s → %s', (typed, written) => {
     expect(connectionSize(typed)).toBe(written);
   });
 });
@@ -34,12 +42,28 @@ describe('grades', () => {
     expect(specMeetsGrade({ foodContact: false, maxFillTempC: null }, { foodContact: false, maxFillTempC: null })).toBe(true);
   });
   test('a one-line description', () => {
-    expect(describeSpec({ ...listed, material: 'PE/PA', layers: 2, foodContact: true, maxFillTempC: 60 })).toBe('1,000 L PE/PA, 2 layers, DN50 butterfly valve, gland DN150, food contact to 60 °C');
+    expect(describeSpec({ ...listed, material: 'PE/PA', layers: 2, foodContact: true, maxFillTempC: 60 })).toBe(
+      '1,000 L PE/PA, 2 layers, DN50 butterfly valve, gland DN150, food contact to 60 °C',
+    );
   });
 });
 
 describe('the admin schemas', () => {
-  const spec = { code: 'pv-1', name: 'Bag', material: 'PE', layers: 1, nominalCapacityL: 1000, valveType: 'butterfly', valveSize: 'dn50', glandSize: 's60x6', foodContact: false, maxFillTempC: null, supplierId: null, articleNumber: null, binTypeIds: [] };
+  const spec = {
+    code: 'pv-1',
+    name: 'Bag',
+    material: 'PE',
+    layers: 1,
+    nominalCapacityL: 1000,
+    valveType: 'butterfly',
+    valveSize: 'dn50',
+    glandSize: 's60x6',
+    foodContact: false,
+    maxFillTempC: null,
+    supplierId: null,
+    articleNumber: null,
+    binTypeIds: [],
+  };
   test('sizes are normalised, the code upper-cased', () => {
     expect(specSchema.parse(spec)).toMatchObject({ code: 'PV-1', valveSize: 'DN50', glandSize: 'S60x6' });
   });

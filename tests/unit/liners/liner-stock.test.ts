@@ -32,11 +32,17 @@ describe('economic order quantity', () => {
   });
   test('the EOQ is where the annual cost is least (any other quantity costs more)', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 100_000 }), fc.integer({ min: 1, max: 500 }), fc.double({ min: 0.05, max: 20, noNaN: true }), fc.double({ min: 0.5, max: 2, noNaN: true }), (d, s, h, f) => {
-        const q = eoq(d, s, h);
-        const cost = (x: number) => annualOrderingAndHoldingCost({ annualDemand: d, orderCost: s, holdingCostPerUnitYear: h, orderQuantity: x });
-        expect(cost(q * f)).toBeGreaterThanOrEqual(cost(q) - 1e-9 * cost(q));
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 100_000 }),
+        fc.integer({ min: 1, max: 500 }),
+        fc.double({ min: 0.05, max: 20, noNaN: true }),
+        fc.double({ min: 0.5, max: 2, noNaN: true }),
+        (d, s, h, f) => {
+          const q = eoq(d, s, h);
+          const cost = (x: number) => annualOrderingAndHoldingCost({ annualDemand: d, orderCost: s, holdingCostPerUnitYear: h, orderQuantity: x });
+          expect(cost(q * f)).toBeGreaterThanOrEqual(cost(q) - 1e-9 * cost(q));
+        },
+      ),
     );
   });
   test('nonsense inputs are refused with a message', () => {
@@ -149,7 +155,15 @@ describe('known demand from the order book', () => {
     expect(days).toEqual([0, 0, 10, 0, 0]);
   });
   test('without lined bins every bin counts', () => {
-    expect(knownDemandByDay([{ neededBy: '2027-01-01', bins: 3 }, { neededBy: '2027-01-02', bins: 2 }], { today: '2027-01-01', horizonDays: 2 })).toEqual([3, 2]);
+    expect(
+      knownDemandByDay(
+        [
+          { neededBy: '2027-01-01', bins: 3 },
+          { neededBy: '2027-01-02', bins: 2 },
+        ],
+        { today: '2027-01-01', horizonDays: 2 },
+      ),
+    ).toEqual([3, 2]);
   });
   test('a malformed day is refused', () => {
     expect(() => knownDemandByDay([{ neededBy: '3 Jan', bins: 1 }], { today: '2027-01-01', horizonDays: 2 })).toThrow(/YYYY-MM-DD/);
@@ -169,7 +183,13 @@ describe('forecast from recent unplanned use', () => {
     expect(forecastFromDaily([7])).toEqual({ mean: 7, sd: 0 });
   });
   test('unplanned is what was used beyond what the order book asked for, never below zero', () => {
-    expect(unplannedDaily([{ consumed: 12, planned: 10 }, { consumed: 3, planned: 8 }, { consumed: 5, planned: 0 }])).toEqual([2, 0, 5]);
+    expect(
+      unplannedDaily([
+        { consumed: 12, planned: 10 },
+        { consumed: 3, planned: 8 },
+        { consumed: 5, planned: 0 },
+      ]),
+    ).toEqual([2, 0, 5]);
   });
 });
 
@@ -180,7 +200,11 @@ describe('reorder plan with a known and a forecast part (hand-worked)', () => {
   //   position 40 ≤ ROP → want 52.58 + 357.42 − 40 = 370.0 → packs of 25 → 375.
   const input = {
     demand: { known: [10, 0, 20, 0, 0, 0, 0, 0, 0, 0], forecast: { mean: 4, sd: 2 } },
-    leadTimeDays: 4, serviceLevel: 0.95, orderCost: 50, holdingCostPerUnitYear: 2, pack: { packSize: 25, minimumOrder: 100 },
+    leadTimeDays: 4,
+    serviceLevel: 0.95,
+    orderCost: 50,
+    holdingCostPerUnitYear: 2,
+    pack: { packSize: 25, minimumOrder: 100 },
   };
   test('order due: the parts, the reorder point and the rounded quantity', () => {
     const plan = planReorder({ ...input, inventoryPosition: 40 });
@@ -237,18 +261,27 @@ describe('first expiry, first out (hand-worked)', () => {
   // still wants 0.5 more; Q: 20, expires 4 Jun, gives that 0.5 on 3 Jun and 3.5 on 4 Jun → 16 left at risk.
   test('fractional rates: whole liners at risk', () => {
     const p = projectFefo([lot(1, 10, '2027-06-03'), lot(2, 20, '2027-06-04')], { known: [], forecast: { mean: 3.5, sd: 0 } }, { today: '2027-06-01' });
-    expect(p.map((l) => [l.usedUpOn, l.atRisk])).toEqual([['2027-06-03', 0], [null, 16]]);
+    expect(p.map((l) => [l.usedUpOn, l.atRisk])).toEqual([
+      ['2027-06-03', 0],
+      [null, 16],
+    ]);
   });
 
   test('no use at all: every liner is at risk; an already expired lot is at risk in full; 60 days is "soon"', () => {
     const p = projectFefo([lot(1, 40, '2027-03-02'), lot(2, 5, '2026-12-31')], { known: [], forecast: { mean: 0, sd: 0 } }, { today: '2027-01-01' });
-    expect(p.map((l) => [l.lotNumber, l.atRisk, l.expiresSoon])).toEqual([['L2', 5, true], ['L1', 40, true]]);
+    expect(p.map((l) => [l.lotNumber, l.atRisk, l.expiresSoon])).toEqual([
+      ['L2', 5, true],
+      ['L1', 40, true],
+    ]);
     expect(projectFefo([lot(1, 40, '2027-03-03')], { known: [], forecast: { mean: 0, sd: 0 } }, { today: '2027-01-01' })[0]!.expiresSoon).toBe(false);
   });
 
   test('ties in expiry go to the lower lot id first', () => {
     const p = projectFefo([lot(9, 5, '2027-01-05'), lot(4, 5, '2027-01-05')], { known: [], forecast: { mean: 5, sd: 0 } }, { today: '2027-01-01' });
-    expect(p.map((l) => [l.lotId, l.usedUpOn])).toEqual([[4, '2027-01-01'], [9, '2027-01-02']]);
+    expect(p.map((l) => [l.lotId, l.usedUpOn])).toEqual([
+      [4, '2027-01-01'],
+      [9, '2027-01-02'],
+    ]);
   });
 
   test('property: nothing is used after its expiry, and used + at risk never exceeds what was on hand', () => {

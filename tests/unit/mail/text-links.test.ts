@@ -25,7 +25,9 @@ describe('splitting links out of plain text', () => {
     fc.assert(
       fc.property(fc.array(fc.oneof(fc.string(), fc.constantFrom('https://a.example/p?q=1', 'http://b.example', ' ', '\n', '.'))), (parts) => {
         const text = parts.join('');
-        const joined = splitLinks(text).map((s) => (s.kind === 'link' ? s.href : s.text)).join('');
+        const joined = splitLinks(text)
+          .map((s) => (s.kind === 'link' ? s.href : s.text))
+          .join('');
         expect(joined).toBe(text);
       }),
     );

@@ -39,9 +39,25 @@ describe('naive plan (each shortage from its nearest source)', () => {
   it('worked by hand: serving X first from the nearest source leaves Y a far one; the optimum swaps them', async () => {
     // A and B hold 10 bins each (10 a truck). X wants 10: A 100, B 110 a truck. Y wants 10: A 100, B 300.
     // Naive: X ← A (100), then Y ← B (300) = 400. Optimum: X ← B (110), Y ← A (100) = 210. Saving 190.
-    const input = { supplies: [[10], [10]], demands: [[10], [10]], truckCosts: [[100, 100], [110, 300]], truckCapacity: [10] };
+    const input = {
+      supplies: [[10], [10]],
+      demands: [[10], [10]],
+      truckCosts: [
+        [100, 100],
+        [110, 300],
+      ],
+      truckCapacity: [10],
+    };
     const naive = naiveTruckPlan(input);
-    expect(naive).toMatchObject({ totalCost: 400, totalTrucks: 2, trucks: [[1, 0], [0, 1]], unmetDemand: [[0], [0]] });
+    expect(naive).toMatchObject({
+      totalCost: 400,
+      totalTrucks: 2,
+      trucks: [
+        [1, 0],
+        [0, 1],
+      ],
+      unmetDemand: [[0], [0]],
+    });
     const best = await solveTruckPlan(input, { mipRelGap: 0 });
     expect(best.totalCost).toBe(210);
     expect(naive.totalCost - best.totalCost).toBe(190);

@@ -70,8 +70,11 @@ describe('a new tariff among the old ones (hand-worked dates)', () => {
     expect(planNewTariff([], { validFrom: '2026-03-01', validTo: null }, dayBefore)).toEqual({ ok: true, endPrevious: null });
     expect(planNewTariff([old], { validFrom: '2024-01-01', validTo: '2024-12-31' }, dayBefore)).toEqual({ ok: true, endPrevious: null });
   });
-  test('an overlap with a closed period, or a start on the open one\'s first day, is refused with the period', () => {
-    expect(planNewTariff([old, current], { validFrom: '2026-03-01', validTo: null }, dayBefore)).toEqual({ ok: false, message: expect.stringContaining('1 Jan 2025 to 30 Jun 2026') });
+  test("an overlap with a closed period, or a start on the open one's first day, is refused with the period", () => {
+    expect(planNewTariff([old, current], { validFrom: '2026-03-01', validTo: null }, dayBefore)).toEqual({
+      ok: false,
+      message: expect.stringContaining('1 Jan 2025 to 30 Jun 2026'),
+    });
     expect(planNewTariff([current], { validFrom: '2026-07-01', validTo: null }, dayBefore)).toMatchObject({ ok: false });
     expect(planNewTariff([], { validFrom: '2026-07-01', validTo: '2026-06-01' }, dayBefore)).toMatchObject({ ok: false });
   });

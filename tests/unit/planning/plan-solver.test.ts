@@ -26,9 +26,18 @@ describe('planning solver on a worker thread', () => {
 
   it('answers a truck plan exactly as the in-thread solver does, with status and gap', async () => {
     const input = {
-      supplies: [[10, 5], [0, 8]],
-      demands: [[6, 3], [4, 10]],
-      truckCosts: [[100, 150], [120, 90]],
+      supplies: [
+        [10, 5],
+        [0, 8],
+      ],
+      demands: [
+        [6, 3],
+        [4, 10],
+      ],
+      truckCosts: [
+        [100, 150],
+        [120, 90],
+      ],
       truckCapacity: [10, 5],
     };
     const options = { timeLimit: 5, mipRelGap: 0 };
@@ -47,7 +56,7 @@ describe('planning solver on a worker thread', () => {
     const m = 40;
     const n = 400;
     let seed = 7;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const rand = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
     const input = {
       supplies: Array.from({ length: m }, () => 100 + Math.floor(rand() * 400)),
       demands: Array.from({ length: n }, () => 10 + Math.floor(rand() * 40)),

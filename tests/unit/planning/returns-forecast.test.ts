@@ -176,10 +176,7 @@ describe('forecast per depot', () => {
 
   it('sums the bins out at each depot: expected returns per day and cumulative, with the exact band', () => {
     // History at one site: 10 trips came back after 2 days, 10 after 4 days.
-    const history = [
-      ...Array.from({ length: 10 }, () => trip('S', '2027-01-01', '2027-01-03')),
-      ...Array.from({ length: 10 }, () => trip('S', '2027-01-01', '2027-01-05')),
-    ];
+    const history = [...Array.from({ length: 10 }, () => trip('S', '2027-01-01', '2027-01-03')), ...Array.from({ length: 10 }, () => trip('S', '2027-01-01', '2027-01-05'))];
     const model = fitReturnModel(history, '2027-02-01', { minReturns: 1 });
     // S(2) = 1/2, S(4) = 0. A bin out 1 day: back on day +1 (its 2nd day) w.p. 1/2, on day +3 w.p. 1/2.
     // A bin out 3 days: S(3) = 1/2, so it is back on day +1 (its 4th day) for sure.
@@ -202,7 +199,12 @@ describe('forecast per depot', () => {
   });
 
   it('knows where each site usually returns its bins', () => {
-    const trips = [trip('S', '2027-01-01', '2027-01-03', 'D2'), trip('S', '2027-01-01', '2027-01-04', 'D2'), trip('S', '2027-01-01', '2027-01-04', 'D1'), trip('R', '2027-01-01', null, null)];
+    const trips = [
+      trip('S', '2027-01-01', '2027-01-03', 'D2'),
+      trip('S', '2027-01-01', '2027-01-04', 'D2'),
+      trip('S', '2027-01-01', '2027-01-04', 'D1'),
+      trip('R', '2027-01-01', null, null),
+    ];
     const m = usualReturnDepots(trips, '2027-02-01');
     expect(m.get('S')).toBe('D2');
     expect(m.has('R')).toBe(false);

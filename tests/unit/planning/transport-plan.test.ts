@@ -75,7 +75,15 @@ describe('solveTransportation', () => {
     const r = await solveTransportation({ supplies: PT.supplies, demands: [80, 65, 70], costs });
     const u = [0, -97, 0];
     const v = [449, 513, 388, 0]; // w1–w3, then the dummy
-    expect(dualBound(u, v, PT.supplies, [80, 65, 70, 85], costs.map((row) => [...row, 0]))).toBe(84_300);
+    expect(
+      dualBound(
+        u,
+        v,
+        PT.supplies,
+        [80, 65, 70, 85],
+        costs.map((row) => [...row, 0]),
+      ),
+    ).toBe(84_300);
     expect(r.totalCost).toBe(84_300);
     expect(flowMatrix(r, 3, 3)).toEqual([
       [0, 20, 0],
@@ -181,7 +189,15 @@ describe('solveTruckPlan (whole trucks, one commodity per bin type)', () => {
   });
 
   it('refuses fractional bins, zero truck capacity and a bad gap', async () => {
-    await expect(solveTruckPlan({ ...CASE, supplies: [[1.5, 0], [0, 0]] })).rejects.toThrow(/whole number/);
+    await expect(
+      solveTruckPlan({
+        ...CASE,
+        supplies: [
+          [1.5, 0],
+          [0, 0],
+        ],
+      }),
+    ).rejects.toThrow(/whole number/);
     await expect(solveTruckPlan({ ...CASE, truckCapacity: [10, 0] })).rejects.toThrow(/truckCapacity\[1\]/);
     await expect(solveTruckPlan(CASE, { mipRelGap: 2 })).rejects.toThrow(/mipRelGap/);
   });
@@ -192,7 +208,7 @@ describe('solveTruckPlan under a time limit', () => {
     // 20 sources × 100 destinations, two bin types (seeded). In 0.5 s HiGHS cannot prove the optimum; the
     // answer must still be a feasible plan (the rounded first plan at least) with a gap above 0.
     let seed = 11;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const rand = () => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
     const int = (lo: number, hi: number) => lo + Math.floor(rand() * (hi - lo + 1));
     const supplies = Array.from({ length: 20 }, () => [int(100, 300), int(50, 150)]);
     const demands = Array.from({ length: 100 }, () => [int(0, 60), int(0, 30)]);

@@ -7,7 +7,14 @@ import { driveOrder, routeKm, suggestRuns, waitDays, type CollectionStop } from 
 
 const DEG = 111.195;
 const depot = { lat: 0, lon: 0 };
-const stop = (key: string, lat: number, lon: number, bins: number, readyOn: string, minimum?: number): CollectionStop => ({ key, name: `Site ${key}`, point: { lat, lon }, bins, readyOn, minimum });
+const stop = (key: string, lat: number, lon: number, bins: number, readyOn: string, minimum?: number): CollectionStop => ({
+  key,
+  name: `Site ${key}`,
+  point: { lat, lon },
+  bins,
+  readyOn,
+  minimum,
+});
 const opts = { depot, truckCapacity: 26, windowDays: 3, maxDetourKm: 30, roadFactor: 1 };
 
 function permutations<T>(xs: T[]): T[][] {
@@ -17,7 +24,10 @@ function permutations<T>(xs: T[]): T[][] {
 
 describe('route order', () => {
   test('nearest first from the depot: A (0.1° E) before B (0.2° E); depot → A → B → depot = 0.4° ≈ 44.5 km', () => {
-    const pts = [{ lat: 0, lon: 0.2 }, { lat: 0, lon: 0.1 }];
+    const pts = [
+      { lat: 0, lon: 0.2 },
+      { lat: 0, lon: 0.1 },
+    ];
     expect(driveOrder(depot, pts, 1)).toEqual([1, 0]);
     expect(routeKm(depot, [pts[1]!, pts[0]!], 1)).toBeCloseTo(0.4 * DEG, 1);
   });
@@ -25,8 +35,22 @@ describe('route order', () => {
     const angles = [200, 40, 310, 120, 260, 80];
     const pts = angles.map((a) => ({ lat: 0.5 + 0.5 * Math.sin((a * Math.PI) / 180), lon: 0.5 * Math.cos((a * Math.PI) / 180) }));
     const at = { lat: 0, lon: 0 }; // on the same circle (angle 270°): the points are in convex position
-    const best = Math.min(...permutations(pts.map((_, i) => i)).map((o) => routeKm(at, o.map((i) => pts[i]!), 1)));
-    expect(routeKm(at, driveOrder(at, pts, 1).map((i) => pts[i]!), 1)).toBeCloseTo(best, 6);
+    const best = Math.min(
+      ...permutations(pts.map((_, i) => i)).map((o) =>
+        routeKm(
+          at,
+          o.map((i) => pts[i]!),
+          1,
+        ),
+      ),
+    );
+    expect(
+      routeKm(
+        at,
+        driveOrder(at, pts, 1).map((i) => pts[i]!),
+        1,
+      ),
+    ).toBeCloseTo(best, 6);
   });
 });
 
@@ -54,7 +78,10 @@ describe('suggestRuns', () => {
   test('a detour longer than allowed starts a truck of its own', () => {
     const { runs } = suggestRuns([A, B], { ...opts, maxDetourKm: 20 });
     // B's detour from A is ≈ 22.2 km > 20: A leaves alone on 4 Dec, B on 5 Dec
-    expect(runs.map((r) => [r.stops.map((s) => s.key), r.leavesOn])).toEqual([[['A'], '2026-12-04'], [['B'], '2026-12-05']]);
+    expect(runs.map((r) => [r.stops.map((s) => s.key), r.leavesOn])).toEqual([
+      [['A'], '2026-12-04'],
+      [['B'], '2026-12-05'],
+    ]);
   });
 
   test('a site below its minimum waits with what it lacks; a site with more than a truckload gets full trucks first', () => {
@@ -62,7 +89,11 @@ describe('suggestRuns', () => {
     const F = stop('F', -0.1, 0, 60, '2026-12-06');
     const { runs, waiting } = suggestRuns([E, F], opts);
     expect(waiting).toEqual([{ key: 'E', name: 'Site E', bins: 3, short: 2 }]);
-    expect(runs.map((r) => [r.stops[0]!.key, r.bins, r.fullTruck])).toEqual([['F', 26, true], ['F', 26, true], ['F', 8, false]]);
+    expect(runs.map((r) => [r.stops[0]!.key, r.bins, r.fullTruck])).toEqual([
+      ['F', 26, true],
+      ['F', 26, true],
+      ['F', 8, false],
+    ]);
   });
 
   test('refuses what cannot be planned', () => {

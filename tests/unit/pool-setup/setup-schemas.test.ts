@@ -3,9 +3,20 @@ import { describe, test, expect } from 'vitest';
 import { binTypeCreateSchema, binTypeProblems, positionProblems, siteCreateSchema, sitePatchSchema, siteOwnerKind } from '@/lib/pool-setup/setup-schemas';
 
 const ok = {
-  code: 'FX1000', name: 'Folding IBC 1000 L', graiAssetType: '10010', nominalCapacityL: 1000, tareKg: 86, maxGrossKg: 1285,
-  footprintLengthMm: 1200, footprintWidthMm: 1000, heightErectedMm: 1160, heightFoldedMm: 380, unCode: '31HA1', policyKind: 'un' as const,
-  intermediateMonths: 30, fullMonths: 60,
+  code: 'FX1000',
+  name: 'Folding IBC 1000 L',
+  graiAssetType: '10010',
+  nominalCapacityL: 1000,
+  tareKg: 86,
+  maxGrossKg: 1285,
+  footprintLengthMm: 1200,
+  footprintWidthMm: 1000,
+  heightErectedMm: 1160,
+  heightFoldedMm: 380,
+  unCode: '31HA1',
+  policyKind: 'un' as const,
+  intermediateMonths: 30,
+  fullMonths: 60,
 };
 const paths = (r: { success: boolean; error?: { issues: { path: (string | number)[] }[] } }) => r.error?.issues.map((i) => i.path.join('.')) ?? [];
 

@@ -5,9 +5,24 @@ import { remindedThisWeek, remindersDue, REMINDER_INTERVAL_DAYS, type ReminderBi
 
 const NOW = new Date('2026-12-10T07:00:00Z');
 const contact = (over: Partial<ReminderContact>): ReminderContact => ({
-  userId: 1, email: 'a@x.example', name: 'A', organisationId: 10, siteIds: null, optedOut: false, lastRemindedAt: null, ...over,
+  userId: 1,
+  email: 'a@x.example',
+  name: 'A',
+  organisationId: 10,
+  siteIds: null,
+  optedOut: false,
+  lastRemindedAt: null,
+  ...over,
 });
-const bin = (serial: string, over: Partial<ReminderBin> = {}): ReminderBin => ({ grai: `G${serial}`, serial, organisationId: 10, siteId: 100, siteName: 'North', daysOver: 3, ...over });
+const bin = (serial: string, over: Partial<ReminderBin> = {}): ReminderBin => ({
+  grai: `G${serial}`,
+  serial,
+  organisationId: 10,
+  siteId: 100,
+  siteName: 'North',
+  daysOver: 3,
+  ...over,
+});
 
 describe('once a week at most', () => {
   test('the week is seven days to the millisecond since the last reminder', () => {
@@ -26,7 +41,7 @@ describe('who gets what', () => {
     expect(rest).toEqual([]);
     expect(r!.bins.map((b) => b.serial)).toEqual(['001', '002', '003']);
   });
-  test('a site-limited contact gets only their sites\' bins; the minimum days over is the setting', () => {
+  test("a site-limited contact gets only their sites' bins; the minimum days over is the setting", () => {
     expect(remindersDue([contact({ siteIds: [200] })], bins, NOW)[0]!.bins.map((b) => b.serial)).toEqual(['002']);
     expect(remindersDue([contact({})], bins, NOW, 5)[0]!.bins.map((b) => b.serial)).toEqual(['001', '002']);
     expect(remindersDue([contact({})], bins, NOW, 10)).toEqual([]);

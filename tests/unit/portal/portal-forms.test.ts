@@ -10,7 +10,14 @@ describe('the order form', () => {
   const base = { binTypeId: '2', quantity: '12', neededBy: '2026-12-20', deliverySiteId: '7' };
   test('strings become numbers, a ticked box true, empty optional fields null', () => {
     expect(form.parse({ ...base, linerFoodContact: 'yes', linerMaxFillTempC: '60', product: '  Syrup ', notes: '' })).toEqual({
-      binTypeId: 2, quantity: 12, neededBy: '2026-12-20', deliverySiteId: 7, product: 'Syrup', linerFoodContact: true, linerMaxFillTempC: 60, notes: null,
+      binTypeId: 2,
+      quantity: 12,
+      neededBy: '2026-12-20',
+      deliverySiteId: 7,
+      product: 'Syrup',
+      linerFoodContact: true,
+      linerMaxFillTempC: 60,
+      notes: null,
     });
     expect(form.parse(base)).toMatchObject({ linerFoodContact: false, linerMaxFillTempC: null, product: null });
   });
@@ -22,8 +29,13 @@ describe('the order form', () => {
     expect(form.safeParse({ ...base, neededBy: '2026-12-02' }).success).toBe(false);
   });
   test.each([
-    [{ quantity: '0' }, 'quantity'], [{ quantity: '2.5' }, 'quantity'], [{ quantity: '201' }, 'quantity'], [{ neededBy: '2026-13-01' }, 'neededBy'],
-    [{ linerMaxFillTempC: '101' }, 'linerMaxFillTempC'], [{ linerMaxFillTempC: 'hot' }, 'linerMaxFillTempC'], [{ deliverySiteId: '' }, 'deliverySiteId'],
+    [{ quantity: '0' }, 'quantity'],
+    [{ quantity: '2.5' }, 'quantity'],
+    [{ quantity: '201' }, 'quantity'],
+    [{ neededBy: '2026-13-01' }, 'neededBy'],
+    [{ linerMaxFillTempC: '101' }, 'linerMaxFillTempC'],
+    [{ linerMaxFillTempC: 'hot' }, 'linerMaxFillTempC'],
+    [{ deliverySiteId: '' }, 'deliverySiteId'],
     [{ product: 'a\u0000b' }, 'product'],
   ])('%o is refused at %s', (change, field) => {
     const r = form.safeParse({ ...base, ...change });
@@ -38,7 +50,12 @@ describe('the order form', () => {
 describe('the collection form', () => {
   const form = collectionFields(TODAY);
   test('a count, a site and a ready day from today', () => {
-    expect(form.parse({ siteId: '4', quantity: '7', readyOn: '2026-12-05', note: 'Gate 2\nleft side' })).toEqual({ siteId: 4, quantity: 7, readyOn: '2026-12-05', note: 'Gate 2\nleft side' });
+    expect(form.parse({ siteId: '4', quantity: '7', readyOn: '2026-12-05', note: 'Gate 2\nleft side' })).toEqual({
+      siteId: 4,
+      quantity: 7,
+      readyOn: '2026-12-05',
+      note: 'Gate 2\nleft side',
+    });
     expect(form.safeParse({ siteId: '4', quantity: '501', readyOn: TODAY }).success).toBe(false);
     expect(form.safeParse({ siteId: '4', quantity: '7', readyOn: '2026-12-01' }).error!.issues[0]!.message).toMatch(/passed/);
     expect(form.safeParse({ siteId: '4', quantity: '7' }).error!.issues[0]!.path).toEqual(['readyOn']);

@@ -1,6 +1,12 @@
 import { describe, test, expect } from 'vitest';
 import {
-  collectionRequestFields, damageReportFields, fieldProblems, isHoneypotFilled, phoneProblem, textFields, HONEYPOT_FIELD,
+  collectionRequestFields,
+  damageReportFields,
+  fieldProblems,
+  isHoneypotFilled,
+  phoneProblem,
+  textFields,
+  HONEYPOT_FIELD,
   MAX_EMAIL_CHARS,
 } from '@/lib/requests/report-forms';
 
@@ -80,9 +86,15 @@ describe('"report damage" form', () => {
 });
 
 describe('form plumbing', () => {
-  test('textFields keeps only the form\'s own text fields, first value wins, files are left out', () => {
+  test("textFields keeps only the form's own text fields, first value wins, files are left out", () => {
     const file = new File(['x'], 'x.png');
-    const out = textFields('damage', [['description', 'Leak'], ['description', 'second'], ['photo', file], ['quantity', '9'], ['contactName', 'Ann']]);
+    const out = textFields('damage', [
+      ['description', 'Leak'],
+      ['description', 'second'],
+      ['photo', file],
+      ['quantity', '9'],
+      ['contactName', 'Ann'],
+    ]);
     expect(out).toEqual({ description: 'Leak', contactName: 'Ann' });
   });
   test('the honeypot counts only when something was typed into it', () => {

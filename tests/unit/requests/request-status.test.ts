@@ -1,7 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import {
-  COLLECTION_STATUSES, DAMAGE_STATUSES, canMove, isStatusOf, needsConfirmation, nextStatuses, refusalReason, statusLook, stepLabel,
-} from '@/lib/requests/request-status';
+import { COLLECTION_STATUSES, DAMAGE_STATUSES, canMove, isStatusOf, needsConfirmation, nextStatuses, refusalReason, statusLook, stepLabel } from '@/lib/requests/request-status';
 
 describe('collection request steps', () => {
   test('open → scheduled → done, or cancelled from either; collected on the spot is allowed too', () => {

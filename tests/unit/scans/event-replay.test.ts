@@ -2,7 +2,13 @@ import { describe, test, expect } from 'vitest';
 import { replayState, type LoggedEvent } from '@/lib/scans/event-replay';
 
 // Hand-written logs: what the rule table recorded for each scan (patch + trip effect).
-const ev = (at: string, patch: LoggedEvent['payload'], extra: Partial<LoggedEvent> = {}): LoggedEvent => ({ occurredAt: at, inferred: false, voided: false, payload: patch, ...extra });
+const ev = (at: string, patch: LoggedEvent['payload'], extra: Partial<LoggedEvent> = {}): LoggedEvent => ({
+  occurredAt: at,
+  inferred: false,
+  voided: false,
+  payload: patch,
+  ...extra,
+});
 
 describe('re-deriving a bin from its log', () => {
   const rotation: LoggedEvent[] = [
@@ -24,7 +30,10 @@ describe('re-deriving a bin from its log', () => {
       ...rotation,
       ev('2026-01-20T07:59:59.998Z', null, { inferred: true }),
       ev('2026-01-20T07:59:59.999Z', null, { inferred: true }),
-      ev('2026-01-20T08:00:00Z', { patch: { status: 'available', siteId: '2', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false }, trip: 'close' }),
+      ev('2026-01-20T08:00:00Z', {
+        patch: { status: 'available', siteId: '2', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false },
+        trip: 'close',
+      }),
       ev('2026-01-21T08:00:00Z', { patch: { status: 'quarantine', linerLotId: null, prepChecked: false }, trip: 'none' }, { voided: true }),
     ];
     expect(replayState(log)).toMatchObject({ status: 'available', siteId: 2, tripOpen: false, tripCount: 1, linerLotId: null });

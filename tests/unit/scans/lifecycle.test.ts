@@ -1,8 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import {
-  ACTIONS, ACTION_LABELS, ROLES, STATUSES, STATUS_LABELS,
-  allowedActions, checkLinerLot, decide, isInspectionLapsed,
-} from '@/lib/scans/lifecycle';
+import { ACTIONS, ACTION_LABELS, ROLES, STATUSES, STATUS_LABELS, allowedActions, checkLinerLot, decide, isInspectionLapsed } from '@/lib/scans/lifecycle';
 import type { Action, ActionContext, BinState, Role, Status } from '@/lib/scans/lifecycle';
 
 // Every expected outcome below is written out by hand: the rule table in src/lib/scans/lifecycle.ts is the
@@ -14,49 +11,88 @@ const NOT_DUE = '2027-06-30'; // next periodic test far ahead: nothing is lapsed
 
 // One fixed baseline state per status. D1 and D2 are depots, C1 and C2 customer sites, R1 a repair shop.
 const BASE: Record<Status | 'unregistered', BinState> = {
-  unregistered:        { status: null, siteId: null, siteKind: null, leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: null },
-  available:           { status: 'available', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
-  prepared:            { status: 'prepared', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: true, linerLotId: 'LOT-A', filled: false, tripOpen: false, nextDue: NOT_DUE },
-  in_transit:          { status: 'in_transit', siteId: null, siteKind: null, leg: 'outbound', prepChecked: false, linerLotId: 'LOT-A', filled: false, tripOpen: true, nextDue: NOT_DUE },
-  on_hire:             { status: 'on_hire', siteId: 'C1', siteKind: 'customer', leg: null, prepChecked: false, linerLotId: 'LOT-A', filled: false, tripOpen: true, nextDue: NOT_DUE },
-  awaiting_collection: { status: 'awaiting_collection', siteId: 'C1', siteKind: 'customer', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: true, nextDue: NOT_DUE },
-  quarantine:          { status: 'quarantine', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
-  in_repair:           { status: 'in_repair', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
+  unregistered: { status: null, siteId: null, siteKind: null, leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: null },
+  available: { status: 'available', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
+  prepared: { status: 'prepared', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: true, linerLotId: 'LOT-A', filled: false, tripOpen: false, nextDue: NOT_DUE },
+  in_transit: { status: 'in_transit', siteId: null, siteKind: null, leg: 'outbound', prepChecked: false, linerLotId: 'LOT-A', filled: false, tripOpen: true, nextDue: NOT_DUE },
+  on_hire: { status: 'on_hire', siteId: 'C1', siteKind: 'customer', leg: null, prepChecked: false, linerLotId: 'LOT-A', filled: false, tripOpen: true, nextDue: NOT_DUE },
+  awaiting_collection: {
+    status: 'awaiting_collection',
+    siteId: 'C1',
+    siteKind: 'customer',
+    leg: null,
+    prepChecked: false,
+    linerLotId: null,
+    filled: false,
+    tripOpen: true,
+    nextDue: NOT_DUE,
+  },
+  quarantine: { status: 'quarantine', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
+  in_repair: { status: 'in_repair', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
   // last seen empty at customer C1 during an open trip
-  missing:             { status: 'missing', siteId: 'C1', siteKind: 'customer', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: true, nextDue: NOT_DUE },
-  retired:             { status: 'retired', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
+  missing: { status: 'missing', siteId: 'C1', siteKind: 'customer', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: true, nextDue: NOT_DUE },
+  retired: { status: 'retired', siteId: 'D1', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false, nextDue: NOT_DUE },
 };
 
-const at = (role: Role, siteId: string | null, siteKind: ActionContext['siteKind'], extra: Partial<ActionContext> = {}): ActionContext =>
-  ({ role, today: TODAY, siteId, siteKind, ...extra });
+const at = (role: Role, siteId: string | null, siteKind: ActionContext['siteKind'], extra: Partial<ActionContext> = {}): ActionContext => ({
+  role,
+  today: TODAY,
+  siteId,
+  siteKind,
+  ...extra,
+});
 const DESK = (role: Role = 'planner') => at(role, null, null);
 
 // Where and by whom each action is scanned in the main table: always a role allowed to do it.
 // `fold` is scanned where the bin is (a prepared bin folds at its depot, an on-hire bin at the customer).
 function scanFor(action: Action, state: BinState): ActionContext {
   switch (action) {
-    case 'register': return at('planner', 'D1', 'depot');
-    case 'receive': return at('yard', 'D2', 'depot'); // arrival at another depot than D1
-    case 'prep_check': return at('yard', 'D1', 'depot', { prepResult: 'pass' });
-    case 'fit_liner': return at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' });
-    case 'dispatch': return at('yard', 'D1', 'depot', { purpose: 'hire' });
-    case 'deliver': return at('customer', 'C1', 'customer');
-    case 'fill_seal': return at('customer', 'C1', 'customer');
-    case 'discharge': return at('customer', 'C1', 'customer');
-    case 'fold': return at('yard', state.siteId, state.siteKind);
-    case 'collect': return at('yard', 'C1', 'customer');
-    case 'quarantine': return at('yard', 'D1', 'depot');
-    case 'send_to_repair': return at('yard', 'D1', 'depot');
-    case 'release': return DESK();
-    case 'retire': return DESK();
-    case 'mark_missing': return DESK();
-    case 'mark_found': return at('yard', 'D1', 'depot');
-    case 'inspect': return at('yard', 'D1', 'depot', { inspection: PASS_2_5 });
+    case 'register':
+      return at('planner', 'D1', 'depot');
+    case 'receive':
+      return at('yard', 'D2', 'depot'); // arrival at another depot than D1
+    case 'prep_check':
+      return at('yard', 'D1', 'depot', { prepResult: 'pass' });
+    case 'fit_liner':
+      return at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' });
+    case 'dispatch':
+      return at('yard', 'D1', 'depot', { purpose: 'hire' });
+    case 'deliver':
+      return at('customer', 'C1', 'customer');
+    case 'fill_seal':
+      return at('customer', 'C1', 'customer');
+    case 'discharge':
+      return at('customer', 'C1', 'customer');
+    case 'fold':
+      return at('yard', state.siteId, state.siteKind);
+    case 'collect':
+      return at('yard', 'C1', 'customer');
+    case 'quarantine':
+      return at('yard', 'D1', 'depot');
+    case 'send_to_repair':
+      return at('yard', 'D1', 'depot');
+    case 'release':
+      return DESK();
+    case 'retire':
+      return DESK();
+    case 'mark_missing':
+      return DESK();
+    case 'mark_found':
+      return at('yard', 'D1', 'depot');
+    case 'inspect':
+      return at('yard', 'D1', 'depot', { inspection: PASS_2_5 });
   }
 }
 
 // A passed 2.5-year inspection with a leakproofness test, and the schedule the scan service works out for it.
-const SCHEDULE = { lastInspectionOn: TODAY, lastLeakTestOn: TODAY, lastFullInspectionOn: null, nextIntermediateDue: '2028-11-30', nextFullDue: '2029-01-31', nextDue: '2028-11-30' };
+const SCHEDULE = {
+  lastInspectionOn: TODAY,
+  lastLeakTestOn: TODAY,
+  lastFullInspectionOn: null,
+  nextIntermediateDue: '2028-11-30',
+  nextFullDue: '2029-01-31',
+  nextDue: '2028-11-30',
+};
 const PASS_2_5 = { kind: 'intermediate' as const, outcome: 'pass' as const, scheduleAfter: SCHEDULE };
 
 type Expect = `REFUSED:${string}` | [to: Status, inferred: Action[], trip: 'open' | 'close' | 'keep' | 'none'];
@@ -67,24 +103,37 @@ const NO = 'REFUSED:not_allowed_from_status' as const;
 const MAIN_TABLE: Row[] = [
   // not registered yet: only registration
   ['unregistered', 'register', ['available', [], 'none']],
-  ['unregistered', 'receive', NO], ['unregistered', 'prep_check', NO], ['unregistered', 'fit_liner', NO],
-  ['unregistered', 'dispatch', NO], ['unregistered', 'deliver', NO], ['unregistered', 'fill_seal', NO],
-  ['unregistered', 'discharge', NO], ['unregistered', 'fold', NO], ['unregistered', 'collect', NO],
-  ['unregistered', 'quarantine', NO], ['unregistered', 'send_to_repair', NO], ['unregistered', 'release', NO],
-  ['unregistered', 'retire', NO], ['unregistered', 'mark_missing', NO], ['unregistered', 'mark_found', NO],
+  ['unregistered', 'receive', NO],
+  ['unregistered', 'prep_check', NO],
+  ['unregistered', 'fit_liner', NO],
+  ['unregistered', 'dispatch', NO],
+  ['unregistered', 'deliver', NO],
+  ['unregistered', 'fill_seal', NO],
+  ['unregistered', 'discharge', NO],
+  ['unregistered', 'fold', NO],
+  ['unregistered', 'collect', NO],
+  ['unregistered', 'quarantine', NO],
+  ['unregistered', 'send_to_repair', NO],
+  ['unregistered', 'release', NO],
+  ['unregistered', 'retire', NO],
+  ['unregistered', 'mark_missing', NO],
+  ['unregistered', 'mark_found', NO],
   ['unregistered', 'inspect', NO],
 
   // available: folded at D1, not yet prep-checked
   ['available', 'register', 'REFUSED:already_registered'],
-  ['available', 'receive', ['available', [], 'none']],           // a move from D1 to D2
+  ['available', 'receive', ['available', [], 'none']], // a move from D1 to D2
   ['available', 'prep_check', ['available', [], 'none']],
   ['available', 'fit_liner', 'REFUSED:prep_check_needed'],
-  ['available', 'dispatch', NO],                                 // hire needs a prepared bin
-  ['available', 'deliver', NO], ['available', 'fill_seal', NO], ['available', 'discharge', NO],
-  ['available', 'fold', NO],                                     // already folded
+  ['available', 'dispatch', NO], // hire needs a prepared bin
+  ['available', 'deliver', NO],
+  ['available', 'fill_seal', NO],
+  ['available', 'discharge', NO],
+  ['available', 'fold', NO], // already folded
   ['available', 'collect', NO],
   ['available', 'quarantine', ['quarantine', [], 'none']],
-  ['available', 'send_to_repair', NO], ['available', 'release', NO],
+  ['available', 'send_to_repair', NO],
+  ['available', 'release', NO],
   ['available', 'retire', ['retired', [], 'none']],
   ['available', 'mark_missing', ['missing', [], 'none']],
   ['available', 'mark_found', NO],
@@ -92,25 +141,37 @@ const MAIN_TABLE: Row[] = [
 
   // prepared: lined at D1
   ['prepared', 'register', 'REFUSED:already_registered'],
-  ['prepared', 'receive', NO], ['prepared', 'prep_check', NO], ['prepared', 'fit_liner', NO],
+  ['prepared', 'receive', NO],
+  ['prepared', 'prep_check', NO],
+  ['prepared', 'fit_liner', NO],
   ['prepared', 'dispatch', ['in_transit', [], 'open']],
-  ['prepared', 'deliver', ['on_hire', ['dispatch'], 'open']],     // dispatch scan was missed
-  ['prepared', 'fill_seal', NO], ['prepared', 'discharge', NO],
-  ['prepared', 'fold', ['available', [], 'none']],               // liner taken out again
+  ['prepared', 'deliver', ['on_hire', ['dispatch'], 'open']], // dispatch scan was missed
+  ['prepared', 'fill_seal', NO],
+  ['prepared', 'discharge', NO],
+  ['prepared', 'fold', ['available', [], 'none']], // liner taken out again
   ['prepared', 'collect', NO],
   ['prepared', 'quarantine', ['quarantine', [], 'none']],
-  ['prepared', 'send_to_repair', NO], ['prepared', 'release', NO], ['prepared', 'retire', NO],
-  ['prepared', 'mark_missing', NO], ['prepared', 'mark_found', NO],
+  ['prepared', 'send_to_repair', NO],
+  ['prepared', 'release', NO],
+  ['prepared', 'retire', NO],
+  ['prepared', 'mark_missing', NO],
+  ['prepared', 'mark_found', NO],
   ['prepared', 'inspect', NO],
 
   // in_transit: outbound to a customer, trip open
   ['in_transit', 'register', 'REFUSED:already_registered'],
-  ['in_transit', 'receive', ['available', [], 'close']],         // came back undelivered
-  ['in_transit', 'prep_check', NO], ['in_transit', 'fit_liner', NO], ['in_transit', 'dispatch', NO],
+  ['in_transit', 'receive', ['available', [], 'close']], // came back undelivered
+  ['in_transit', 'prep_check', NO],
+  ['in_transit', 'fit_liner', NO],
+  ['in_transit', 'dispatch', NO],
   ['in_transit', 'deliver', ['on_hire', [], 'keep']],
   ['in_transit', 'fill_seal', ['on_hire', ['deliver'], 'keep']], // delivery confirmation was missed
-  ['in_transit', 'discharge', NO], ['in_transit', 'fold', NO], ['in_transit', 'collect', NO],
-  ['in_transit', 'quarantine', NO], ['in_transit', 'send_to_repair', NO], ['in_transit', 'release', NO],
+  ['in_transit', 'discharge', NO],
+  ['in_transit', 'fold', NO],
+  ['in_transit', 'collect', NO],
+  ['in_transit', 'quarantine', NO],
+  ['in_transit', 'send_to_repair', NO],
+  ['in_transit', 'release', NO],
   ['in_transit', 'retire', NO],
   ['in_transit', 'mark_missing', ['missing', [], 'keep']],
   ['in_transit', 'mark_found', NO],
@@ -119,12 +180,18 @@ const MAIN_TABLE: Row[] = [
   // on_hire: at customer C1, not filled, trip open
   ['on_hire', 'register', 'REFUSED:already_registered'],
   ['on_hire', 'receive', ['available', ['fold', 'collect'], 'close']],
-  ['on_hire', 'prep_check', NO], ['on_hire', 'fit_liner', NO], ['on_hire', 'dispatch', NO], ['on_hire', 'deliver', NO],
+  ['on_hire', 'prep_check', NO],
+  ['on_hire', 'fit_liner', NO],
+  ['on_hire', 'dispatch', NO],
+  ['on_hire', 'deliver', NO],
   ['on_hire', 'fill_seal', ['on_hire', [], 'keep']],
   ['on_hire', 'discharge', 'REFUSED:not_filled'],
   ['on_hire', 'fold', ['awaiting_collection', [], 'keep']],
   ['on_hire', 'collect', ['in_transit', ['fold'], 'keep']],
-  ['on_hire', 'quarantine', NO], ['on_hire', 'send_to_repair', NO], ['on_hire', 'release', NO], ['on_hire', 'retire', NO],
+  ['on_hire', 'quarantine', NO],
+  ['on_hire', 'send_to_repair', NO],
+  ['on_hire', 'release', NO],
+  ['on_hire', 'retire', NO],
   ['on_hire', 'mark_missing', ['missing', [], 'keep']],
   ['on_hire', 'mark_found', NO],
   ['on_hire', 'inspect', NO],
@@ -132,55 +199,96 @@ const MAIN_TABLE: Row[] = [
   // awaiting_collection: folded at customer C1, trip open
   ['awaiting_collection', 'register', 'REFUSED:already_registered'],
   ['awaiting_collection', 'receive', ['available', ['collect'], 'close']],
-  ['awaiting_collection', 'prep_check', NO], ['awaiting_collection', 'fit_liner', NO], ['awaiting_collection', 'dispatch', NO],
-  ['awaiting_collection', 'deliver', NO], ['awaiting_collection', 'fill_seal', NO], ['awaiting_collection', 'discharge', NO],
+  ['awaiting_collection', 'prep_check', NO],
+  ['awaiting_collection', 'fit_liner', NO],
+  ['awaiting_collection', 'dispatch', NO],
+  ['awaiting_collection', 'deliver', NO],
+  ['awaiting_collection', 'fill_seal', NO],
+  ['awaiting_collection', 'discharge', NO],
   ['awaiting_collection', 'fold', NO],
   ['awaiting_collection', 'collect', ['in_transit', [], 'keep']],
-  ['awaiting_collection', 'quarantine', NO], ['awaiting_collection', 'send_to_repair', NO],
-  ['awaiting_collection', 'release', NO], ['awaiting_collection', 'retire', NO],
+  ['awaiting_collection', 'quarantine', NO],
+  ['awaiting_collection', 'send_to_repair', NO],
+  ['awaiting_collection', 'release', NO],
+  ['awaiting_collection', 'retire', NO],
   ['awaiting_collection', 'mark_missing', ['missing', [], 'keep']],
   ['awaiting_collection', 'mark_found', NO],
   ['awaiting_collection', 'inspect', NO],
 
   // quarantine: held at D1
   ['quarantine', 'register', 'REFUSED:already_registered'],
-  ['quarantine', 'receive', NO], ['quarantine', 'prep_check', NO], ['quarantine', 'fit_liner', NO],
-  ['quarantine', 'dispatch', NO], ['quarantine', 'deliver', NO], ['quarantine', 'fill_seal', NO],
-  ['quarantine', 'discharge', NO], ['quarantine', 'fold', NO], ['quarantine', 'collect', NO], ['quarantine', 'quarantine', NO],
+  ['quarantine', 'receive', NO],
+  ['quarantine', 'prep_check', NO],
+  ['quarantine', 'fit_liner', NO],
+  ['quarantine', 'dispatch', NO],
+  ['quarantine', 'deliver', NO],
+  ['quarantine', 'fill_seal', NO],
+  ['quarantine', 'discharge', NO],
+  ['quarantine', 'fold', NO],
+  ['quarantine', 'collect', NO],
+  ['quarantine', 'quarantine', NO],
   ['quarantine', 'send_to_repair', ['in_repair', [], 'none']],
   ['quarantine', 'release', ['available', [], 'none']],
   ['quarantine', 'retire', ['retired', [], 'none']],
-  ['quarantine', 'mark_missing', NO], ['quarantine', 'mark_found', NO],
+  ['quarantine', 'mark_missing', NO],
+  ['quarantine', 'mark_found', NO],
   ['quarantine', 'inspect', ['quarantine', [], 'none']],
 
   // in_repair: at D1 (in-house repair)
   ['in_repair', 'register', 'REFUSED:already_registered'],
-  ['in_repair', 'receive', NO], ['in_repair', 'prep_check', NO], ['in_repair', 'fit_liner', NO],
-  ['in_repair', 'dispatch', NO], ['in_repair', 'deliver', NO], ['in_repair', 'fill_seal', NO],
-  ['in_repair', 'discharge', NO], ['in_repair', 'fold', NO], ['in_repair', 'collect', NO],
-  ['in_repair', 'quarantine', NO], ['in_repair', 'send_to_repair', NO],
+  ['in_repair', 'receive', NO],
+  ['in_repair', 'prep_check', NO],
+  ['in_repair', 'fit_liner', NO],
+  ['in_repair', 'dispatch', NO],
+  ['in_repair', 'deliver', NO],
+  ['in_repair', 'fill_seal', NO],
+  ['in_repair', 'discharge', NO],
+  ['in_repair', 'fold', NO],
+  ['in_repair', 'collect', NO],
+  ['in_repair', 'quarantine', NO],
+  ['in_repair', 'send_to_repair', NO],
   ['in_repair', 'release', ['available', [], 'none']],
   ['in_repair', 'retire', ['retired', [], 'none']],
-  ['in_repair', 'mark_missing', NO], ['in_repair', 'mark_found', NO],
+  ['in_repair', 'mark_missing', NO],
+  ['in_repair', 'mark_found', NO],
   ['in_repair', 'inspect', ['in_repair', [], 'none']],
 
   // missing: last seen empty at C1, trip open
   ['missing', 'register', 'REFUSED:already_registered'],
   ['missing', 'receive', ['available', ['mark_found', 'collect'], 'close']],
-  ['missing', 'prep_check', NO], ['missing', 'fit_liner', NO], ['missing', 'dispatch', NO], ['missing', 'deliver', NO],
-  ['missing', 'fill_seal', NO], ['missing', 'discharge', NO], ['missing', 'fold', NO], ['missing', 'collect', NO],
-  ['missing', 'quarantine', NO], ['missing', 'send_to_repair', NO], ['missing', 'release', NO],
-  ['missing', 'retire', ['retired', [], 'close']],               // written off: the hire settles
+  ['missing', 'prep_check', NO],
+  ['missing', 'fit_liner', NO],
+  ['missing', 'dispatch', NO],
+  ['missing', 'deliver', NO],
+  ['missing', 'fill_seal', NO],
+  ['missing', 'discharge', NO],
+  ['missing', 'fold', NO],
+  ['missing', 'collect', NO],
+  ['missing', 'quarantine', NO],
+  ['missing', 'send_to_repair', NO],
+  ['missing', 'release', NO],
+  ['missing', 'retire', ['retired', [], 'close']], // written off: the hire settles
   ['missing', 'mark_missing', NO],
   ['missing', 'mark_found', ['available', ['collect'], 'close']], // turned up at depot D1
   ['missing', 'inspect', NO],
 
   // retired: terminal
   ['retired', 'register', 'REFUSED:already_registered'],
-  ['retired', 'receive', NO], ['retired', 'prep_check', NO], ['retired', 'fit_liner', NO], ['retired', 'dispatch', NO],
-  ['retired', 'deliver', NO], ['retired', 'fill_seal', NO], ['retired', 'discharge', NO], ['retired', 'fold', NO],
-  ['retired', 'collect', NO], ['retired', 'quarantine', NO], ['retired', 'send_to_repair', NO], ['retired', 'release', NO],
-  ['retired', 'retire', NO], ['retired', 'mark_missing', NO], ['retired', 'mark_found', NO],
+  ['retired', 'receive', NO],
+  ['retired', 'prep_check', NO],
+  ['retired', 'fit_liner', NO],
+  ['retired', 'dispatch', NO],
+  ['retired', 'deliver', NO],
+  ['retired', 'fill_seal', NO],
+  ['retired', 'discharge', NO],
+  ['retired', 'fold', NO],
+  ['retired', 'collect', NO],
+  ['retired', 'quarantine', NO],
+  ['retired', 'send_to_repair', NO],
+  ['retired', 'release', NO],
+  ['retired', 'retire', NO],
+  ['retired', 'mark_missing', NO],
+  ['retired', 'mark_found', NO],
   ['retired', 'inspect', NO],
 ];
 
@@ -211,7 +319,25 @@ describe('lifecycle: every status × action (main table)', () => {
 describe('lifecycle: names fixed for the rest of the app', () => {
   test('statuses, actions and roles', () => {
     expect([...STATUSES]).toEqual(['available', 'prepared', 'in_transit', 'on_hire', 'awaiting_collection', 'quarantine', 'in_repair', 'missing', 'retired']);
-    expect([...ACTIONS]).toEqual(['register', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect', 'quarantine', 'send_to_repair', 'release', 'retire', 'mark_missing', 'mark_found', 'inspect']);
+    expect([...ACTIONS]).toEqual([
+      'register',
+      'receive',
+      'prep_check',
+      'fit_liner',
+      'dispatch',
+      'deliver',
+      'fill_seal',
+      'discharge',
+      'fold',
+      'collect',
+      'quarantine',
+      'send_to_repair',
+      'release',
+      'retire',
+      'mark_missing',
+      'mark_found',
+      'inspect',
+    ]);
     expect([...ROLES]).toEqual(['admin', 'planner', 'yard', 'customer']);
   });
 
@@ -370,8 +496,11 @@ describe('lifecycle: periodic test lapsed (ADR/RID 4.1.2.2, 49 CFR 180.352)', ()
 
   // prettier-ignore
   const DATES: [string | null, string, boolean][] = [
-    ['2026-03-14', '2026-03-14', false], ['2026-03-14', '2026-03-15', true], ['2026-12-31', '2027-01-01', true],
-    ['2028-02-29', '2028-02-28', false], [null, '2099-01-01', false],
+    ['2026-03-14', '2026-03-14', false],
+    ['2026-03-14', '2026-03-15', true],
+    ['2026-12-31', '2027-01-01', true],
+    ['2028-02-29', '2028-02-28', false],
+    [null, '2099-01-01', false],
   ];
   test.each(DATES)('isInspectionLapsed(%s, %s) = %s', (due, today, lapsedNow) => {
     expect(isInspectionLapsed(due, today)).toBe(lapsedNow);
@@ -389,7 +518,16 @@ describe('lifecycle: prep check before lining', () => {
     expect(check).toMatchObject({ ok: true, to: 'available', patch: { status: 'available', prepChecked: true } });
     const afterCheck: BinState = { ...BASE.available, prepChecked: true };
     const fit = decide(afterCheck, 'fit_liner', at('yard', 'D1', 'depot', { linerLotId: 'LOT-B' }));
-    expect(fit).toEqual({ ok: true, action: 'fit_liner', from: 'available', to: 'prepared', inferred: [], patch: { status: 'prepared', linerLotId: 'LOT-B' }, trip: 'none', flags: [] });
+    expect(fit).toEqual({
+      ok: true,
+      action: 'fit_liner',
+      from: 'available',
+      to: 'prepared',
+      inferred: [],
+      patch: { status: 'prepared', linerLotId: 'LOT-B' },
+      trip: 'none',
+      flags: [],
+    });
   });
 
   test('a failed prep check sends the bin to quarantine in the same step (story 1)', () => {
@@ -401,7 +539,13 @@ describe('lifecycle: prep check before lining', () => {
   const ROWS: [string, BinState, Action, ActionContext, Expect][] = [
     ['no liner lot named', { ...BASE.available, prepChecked: true }, 'fit_liner', at('yard', 'D1', 'depot'), 'REFUSED:no_liner_lot'],
     ['no prep result given', BASE.available, 'prep_check', at('yard', 'D1', 'depot'), 'REFUSED:no_prep_result'],
-    ['checked at D1 but now scanned at D2: the arrival is inferred and the check must be redone', { ...BASE.available, prepChecked: true }, 'fit_liner', at('yard', 'D2', 'depot', { linerLotId: 'LOT-B' }), 'REFUSED:prep_check_needed'],
+    [
+      'checked at D1 but now scanned at D2: the arrival is inferred and the check must be redone',
+      { ...BASE.available, prepChecked: true },
+      'fit_liner',
+      at('yard', 'D2', 'depot', { linerLotId: 'LOT-B' }),
+      'REFUSED:prep_check_needed',
+    ],
     ['prep check at a customer site', BASE.available, 'prep_check', at('yard', 'C1', 'customer', { prepResult: 'pass' }), 'REFUSED:wrong_site_kind'],
   ];
   test.each(ROWS)('%s', (_name, state, action, ctx, expected) => {
@@ -425,7 +569,7 @@ describe('lifecycle: liner lot checks', () => {
   // prettier-ignore
   const ROWS: [status: 'released' | 'on_hold' | 'recalled', expiry: string, expected: 'ok' | 'lot_on_hold' | 'lot_recalled' | 'lot_expired'][] = [
     ['released', '2026-12-31', 'ok'],
-    ['released', TODAY, 'ok'],                  // expires today: still usable today
+    ['released', TODAY, 'ok'], // expires today: still usable today
     ['released', '2026-05-03', 'lot_expired'],
     ['on_hold', '2026-12-31', 'lot_on_hold'],
     ['recalled', '2026-12-31', 'lot_recalled'],
@@ -450,9 +594,14 @@ describe('lifecycle: dispatch as a transfer of empties', () => {
   const ROWS: [Status | 'unregistered', Expect][] = [
     ['unregistered', NO],
     ['available', ['in_transit', [], 'none']],
-    ['prepared', NO],                           // lined: fold it first, or dispatch it for hire
-    ['in_transit', NO], ['on_hire', NO], ['awaiting_collection', NO], ['quarantine', NO],
-    ['in_repair', NO], ['missing', NO], ['retired', NO],
+    ['prepared', NO], // lined: fold it first, or dispatch it for hire
+    ['in_transit', NO],
+    ['on_hire', NO],
+    ['awaiting_collection', NO],
+    ['quarantine', NO],
+    ['in_repair', NO],
+    ['missing', NO],
+    ['retired', NO],
   ];
   test.each(ROWS)('transfer from %s', (from, expected) => {
     expectOutcome(BASE[from], 'dispatch', transfer, expected);
@@ -491,9 +640,27 @@ describe('lifecycle: missed scans are inferred in cycle order (story 10)', () =>
     ['on hire and filled, received at a depot', filled(BASE.on_hire), 'receive', at('yard', 'D2', 'depot'), ['available', ['discharge', 'fold', 'collect'], 'close']],
     ['awaiting collection, received at a depot', BASE.awaiting_collection, 'receive', at('yard', 'D2', 'depot'), ['available', ['collect'], 'close']],
     ['missing (last seen empty at a customer), received', BASE.missing, 'receive', at('yard', 'D2', 'depot'), ['available', ['mark_found', 'collect'], 'close']],
-    ['missing (last seen filled at a customer), received', filled(BASE.missing), 'receive', at('yard', 'D2', 'depot'), ['available', ['mark_found', 'discharge', 'fold', 'collect'], 'close']],
-    ['missing (last seen at depot D1), received at D2', { ...BASE.missing, siteId: 'D1', siteKind: 'depot', tripOpen: false }, 'receive', at('yard', 'D2', 'depot'), ['available', ['mark_found'], 'none']],
-    ['missing (last seen on a return truck), received', { ...BASE.missing, siteId: null, siteKind: null, leg: 'return' }, 'receive', at('yard', 'D2', 'depot'), ['available', ['mark_found'], 'close']],
+    [
+      'missing (last seen filled at a customer), received',
+      filled(BASE.missing),
+      'receive',
+      at('yard', 'D2', 'depot'),
+      ['available', ['mark_found', 'discharge', 'fold', 'collect'], 'close'],
+    ],
+    [
+      'missing (last seen at depot D1), received at D2',
+      { ...BASE.missing, siteId: 'D1', siteKind: 'depot', tripOpen: false },
+      'receive',
+      at('yard', 'D2', 'depot'),
+      ['available', ['mark_found'], 'none'],
+    ],
+    [
+      'missing (last seen on a return truck), received',
+      { ...BASE.missing, siteId: null, siteKind: null, leg: 'return' },
+      'receive',
+      at('yard', 'D2', 'depot'),
+      ['available', ['mark_found'], 'close'],
+    ],
     ['filled, folded', filled(BASE.on_hire), 'fold', at('customer', 'C1', 'customer'), ['awaiting_collection', ['discharge'], 'keep']],
     ['on hire, collected', BASE.on_hire, 'collect', at('yard', 'C1', 'customer'), ['in_transit', ['fold'], 'keep']],
     ['filled, collected', filled(BASE.on_hire), 'collect', at('yard', 'C1', 'customer'), ['in_transit', ['discharge', 'fold'], 'keep']],
@@ -516,7 +683,13 @@ describe('lifecycle: missed scans are inferred in cycle order (story 10)', () =>
   test('a received trip leaves the bin folded, empty, unlined and unchecked at the depot', () => {
     const d = decide(filled(BASE.on_hire), 'receive', at('yard', 'D2', 'depot'));
     expect(d).toEqual({
-      ok: true, action: 'receive', from: 'on_hire', to: 'available', inferred: ['discharge', 'fold', 'collect'], trip: 'close', flags: ['inferred_steps'],
+      ok: true,
+      action: 'receive',
+      from: 'on_hire',
+      to: 'available',
+      inferred: ['discharge', 'fold', 'collect'],
+      trip: 'close',
+      flags: ['inferred_steps'],
       patch: { status: 'available', siteId: 'D2', siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false },
     });
   });
@@ -587,7 +760,10 @@ describe('lifecycle: inspection at the test bench (ADR 6.5.4.4; 4.1.2.2 lets a l
   });
   test('refusals: no result, a lined bin, a customer site, a yard hand at a desk', () => {
     expect(decide(BASE.available, 'inspect', at('yard', 'D1', 'depot'))).toMatchObject({ ok: false, code: 'no_inspection_result' });
-    expect(decide(BASE.prepared, 'inspect', at('yard', 'D1', 'depot', { inspection: PASS_2_5 }))).toMatchObject({ ok: false, reason: expect.stringContaining('take the liner out first') });
+    expect(decide(BASE.prepared, 'inspect', at('yard', 'D1', 'depot', { inspection: PASS_2_5 }))).toMatchObject({
+      ok: false,
+      reason: expect.stringContaining('take the liner out first'),
+    });
     expect(decide(BASE.available, 'inspect', at('yard', 'C1', 'customer', { inspection: PASS_2_5 }))).toMatchObject({ ok: false, code: 'wrong_site_kind' });
     expect(decide(BASE.available, 'inspect', at('yard', null, null, { inspection: PASS_2_5 }))).toMatchObject({ ok: false, code: 'wrong_site_kind' });
     expect(decide(BASE.available, 'inspect', DESK()).ok).toBe(false);
@@ -598,8 +774,18 @@ describe('lifecycle: inspection at the test bench (ADR 6.5.4.4; 4.1.2.2 lets a l
 describe('lifecycle: the bin page buttons', () => {
   // prettier-ignore
   const ROWS: [string, BinState, Omit<ActionContext, 'prepResult' | 'linerLotId' | 'purpose'>, Action[]][] = [
-    ['yard at D1, folded bin not yet checked', BASE.available, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['prep_check', 'dispatch', 'quarantine', 'inspect']],
-    ['yard at D1, checked bin', { ...BASE.available, prepChecked: true }, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['prep_check', 'fit_liner', 'dispatch', 'quarantine', 'inspect']],
+    [
+      'yard at D1, folded bin not yet checked',
+      BASE.available,
+      { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' },
+      ['prep_check', 'dispatch', 'quarantine', 'inspect'],
+    ],
+    [
+      'yard at D1, checked bin',
+      { ...BASE.available, prepChecked: true },
+      { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' },
+      ['prep_check', 'fit_liner', 'dispatch', 'quarantine', 'inspect'],
+    ],
     ['yard at D1, prepared bin', BASE.prepared, { role: 'yard', today: TODAY, siteId: 'D1', siteKind: 'depot' }, ['dispatch', 'fold', 'quarantine']],
     ['yard at D2, bin on hire elsewhere', BASE.on_hire, { role: 'yard', today: TODAY, siteId: 'D2', siteKind: 'depot' }, ['receive']],
     ['customer at C1, empty bin on hire', BASE.on_hire, { role: 'customer', today: TODAY, siteId: 'C1', siteKind: 'customer' }, ['fill_seal', 'fold']],
@@ -617,22 +803,23 @@ describe('lifecycle: invariants over every status × action × role', () => {
   const CYCLE: Action[] = ['mark_found', 'receive', 'prep_check', 'fit_liner', 'dispatch', 'deliver', 'fill_seal', 'discharge', 'fold', 'collect'];
   const states = Object.values(BASE);
   test('a refusal carries a reason and no change; a success patches the status it names', () => {
-    for (const state of states) for (const action of ACTIONS) for (const role of ROLES) {
-      for (const ctx of [scanFor(action, state), at(role, 'D1', 'depot'), at(role, 'C1', 'customer'), DESK(role)]) {
-        const d = decide(state, action, { ...ctx, role });
-        if (d.ok) {
-          expect(d.patch.status).toBe(d.to);
-          expect(d.from).toBe(state.status);
-          // inferred steps are cycle steps, listed in the order the cycle runs (a find comes first:
-          // it is what brings a missing bin back into the cycle)
-          const order = d.inferred.map((a) => CYCLE.indexOf(a));
-          expect(order.every((i, k) => i >= 0 && (k === 0 || i > order[k - 1]!) )).toBe(true);
-        } else {
-          expect(d.reason.length).toBeGreaterThan(10);
-          expect(Object.keys(d).sort()).toEqual(['action', 'code', 'ok', 'reason']);
+    for (const state of states)
+      for (const action of ACTIONS)
+        for (const role of ROLES) {
+          for (const ctx of [scanFor(action, state), at(role, 'D1', 'depot'), at(role, 'C1', 'customer'), DESK(role)]) {
+            const d = decide(state, action, { ...ctx, role });
+            if (d.ok) {
+              expect(d.patch.status).toBe(d.to);
+              expect(d.from).toBe(state.status);
+              // inferred steps are cycle steps, listed in the order the cycle runs (a find comes first:
+              // it is what brings a missing bin back into the cycle)
+              const order = d.inferred.map((a) => CYCLE.indexOf(a));
+              expect(order.every((i, k) => i >= 0 && (k === 0 || i > order[k - 1]!))).toBe(true);
+            } else {
+              expect(d.reason.length).toBeGreaterThan(10);
+              expect(Object.keys(d).sort()).toEqual(['action', 'code', 'ok', 'reason']);
+            }
+          }
         }
-      }
-    }
   });
 });
-

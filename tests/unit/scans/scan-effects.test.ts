@@ -6,8 +6,17 @@ import { replayState } from '@/lib/scans/event-replay';
 // Hand-worked cases: what one allowed scan writes. The rule table itself is tested in lifecycle.test.ts.
 const at = new Date('2026-05-04T10:00:00Z');
 const depotBin: AssetSnapshot = {
-  status: 'prepared', siteId: 3, siteSince: new Date('2026-05-01T08:00:00Z'), customerId: null, currentTripId: null, leg: null,
-  prepChecked: true, linerLotId: 9, filled: false, tripCount: 2, lastScanAt: new Date('2026-05-02T08:00:00Z'),
+  status: 'prepared',
+  siteId: 3,
+  siteSince: new Date('2026-05-01T08:00:00Z'),
+  customerId: null,
+  currentTripId: null,
+  leg: null,
+  prepChecked: true,
+  linerLotId: 9,
+  filled: false,
+  tripCount: 2,
+  lastScanAt: new Date('2026-05-02T08:00:00Z'),
 };
 const allowed = (state: BinState, action: Parameters<typeof decide>[1], ctx: Partial<Parameters<typeof decide>[2]>): Allowed => {
   const d = decide(state, action, { role: 'planner', today: '2026-05-04', siteId: null, siteKind: null, ...ctx });
@@ -18,7 +27,13 @@ const allowed = (state: BinState, action: Parameters<typeof decide>[1], ctx: Par
 describe('scan effects', () => {
   test('a hire dispatch opens a trip from the bin’s depot to the order’s delivery site and puts the bin on the road', () => {
     const d = allowed(binState(depotBin, 'depot', '2027-01-01'), 'dispatch', { siteId: '3', siteKind: 'depot', purpose: 'hire' });
-    const o = tripOpening(depotBin, { action: 'dispatch', hireOrderId: 5 }, { id: 3, kind: 'depot', organisationId: 1 }, { id: 5, customerId: 7, depotSiteId: 3, deliverySiteId: 12 }, at);
+    const o = tripOpening(
+      depotBin,
+      { action: 'dispatch', hireOrderId: 5 },
+      { id: 3, kind: 'depot', organisationId: 1 },
+      { id: 5, customerId: 7, depotSiteId: 3, deliverySiteId: 12 },
+      at,
+    );
     expect(o).toEqual({ customerId: 7, depotSiteId: 3, customerSiteId: 12, linerLotId: 9, dispatchedAt: at, deliveredAt: null, hireOrderId: 5, loadId: null });
     const next = assetAfter(depotBin, d, { tripId: 40, customerId: 7 }, at);
     expect(next).toMatchObject({ status: 'in_transit', siteId: null, siteSince: at, currentTripId: 40, customerId: 7, tripCount: 2, lastScanAt: at });
@@ -36,7 +51,11 @@ describe('scan effects', () => {
   });
 
   test('an offline scan older than the last one keeps the later last-scan time', () => {
-    const d = allowed(binState({ ...depotBin, status: 'available', prepChecked: false, linerLotId: null }, 'depot', '2027-01-01'), 'prep_check', { siteId: '3', siteKind: 'depot', prepResult: 'pass' });
+    const d = allowed(binState({ ...depotBin, status: 'available', prepChecked: false, linerLotId: null }, 'depot', '2027-01-01'), 'prep_check', {
+      siteId: '3',
+      siteKind: 'depot',
+      prepResult: 'pass',
+    });
     const early = new Date('2026-05-01T09:00:00Z');
     expect(assetAfter({ ...depotBin, status: 'available' }, d, null, early).lastScanAt).toEqual(depotBin.lastScanAt);
   });
@@ -54,6 +73,10 @@ describe('scan effects', () => {
       { occurredAt: depotBin.siteSince!, inferred: false, voided: false, payload: { patch: { status: 'awaiting_collection', siteId: '12' }, trip: 'open' } },
       ...rows.map((r) => ({ occurredAt: r.occurredAt, inferred: r.inferred, voided: false, payload: r.payload as never })),
     ]);
-    expect({ status: replayed.status, siteId: replayed.siteId, tripOpen: replayed.tripOpen }).toEqual({ status: next.status, siteId: next.siteId, tripOpen: next.currentTripId !== null });
+    expect({ status: replayed.status, siteId: replayed.siteId, tripOpen: replayed.tripOpen }).toEqual({
+      status: next.status,
+      siteId: next.siteId,
+      tripOpen: next.currentTripId !== null,
+    });
   });
 });

@@ -1,7 +1,14 @@
 import { describe, test, expect } from 'vitest';
 import {
-  CHUNK_SIZE, SESSION_REFRESH_AFTER_S, parseCookieHeader, readSessionToken, refreshDue, sessionClaims, sessionCookieName,
-  sessionCookieWrites, usesSecureCookies,
+  CHUNK_SIZE,
+  SESSION_REFRESH_AFTER_S,
+  parseCookieHeader,
+  readSessionToken,
+  refreshDue,
+  sessionClaims,
+  sessionCookieName,
+  sessionCookieWrites,
+  usesSecureCookies,
 } from '@/lib/session/session-cookie';
 
 // Names and sizes are Auth.js's (@auth/core 0.37, lib/utils/cookie.js:
@@ -22,7 +29,12 @@ describe('session cookie names', () => {
 describe('reading the Cookie header (RFC 6265 §5.4)', () => {
   test('pairs, spaces, quotes, percent-encoding; the first of a duplicate name wins', () => {
     const c = parseCookieHeader('a=1; b = two ;c="q"; d=%41%42; a=later; bad; =x');
-    expect([...c]).toEqual([['a', '1'], ['b', 'two'], ['c', 'q'], ['d', 'AB']]);
+    expect([...c]).toEqual([
+      ['a', '1'],
+      ['b', 'two'],
+      ['c', 'q'],
+      ['d', 'AB'],
+    ]);
   });
   test('an empty or missing header', () => {
     expect(parseCookieHeader('').size).toBe(0);
@@ -33,7 +45,15 @@ describe('reading the Cookie header (RFC 6265 §5.4)', () => {
 describe('chunked tokens', () => {
   const name = 'authjs.session-token';
   test('one cookie is the token', () => {
-    expect(readSessionToken(new Map([[name, 'abc'], ['other', 'x']]), name)).toEqual({ token: 'abc', names: [name] });
+    expect(
+      readSessionToken(
+        new Map([
+          [name, 'abc'],
+          ['other', 'x'],
+        ]),
+        name,
+      ),
+    ).toEqual({ token: 'abc', names: [name] });
   });
   test('chunks are joined by numeric suffix, not by text order (10 after 9)', () => {
     const cookies = new Map<string, string>();
@@ -41,7 +61,12 @@ describe('chunked tokens', () => {
     expect(readSessionToken(cookies, name).token).toBe('abcdefghijk');
   });
   test('cookies that only look alike are not part of it', () => {
-    const cookies = new Map([[`${name}.x`, 'no'], [`${name}x`, 'no'], [`__Secure-${name}`, 'no'], [`${name}.0`, 'yes']]);
+    const cookies = new Map([
+      [`${name}.x`, 'no'],
+      [`${name}x`, 'no'],
+      [`__Secure-${name}`, 'no'],
+      [`${name}.0`, 'yes'],
+    ]);
     expect(readSessionToken(cookies, name)).toEqual({ token: 'yes', names: [`${name}.0`] });
   });
   test('no token', () => {
@@ -51,13 +76,25 @@ describe('chunked tokens', () => {
     const token = 'x'.repeat(CHUNK_SIZE * 2 + 5);
     const writes = sessionCookieWrites(name, token, [`${name}.0`, `${name}.1`, `${name}.2`, `${name}.3`], 100);
     expect(writes.map((w) => [w.name, w.value.length, w.maxAge])).toEqual([
-      [`${name}.0`, CHUNK_SIZE, 100], [`${name}.1`, CHUNK_SIZE, 100], [`${name}.2`, 5, 100], [`${name}.3`, 0, 0],
+      [`${name}.0`, CHUNK_SIZE, 100],
+      [`${name}.1`, CHUNK_SIZE, 100],
+      [`${name}.2`, 5, 100],
+      [`${name}.3`, 0, 0],
     ]);
-    expect(writes.filter((w) => w.maxAge > 0).map((w) => w.value).join('')).toBe(token);
+    expect(
+      writes
+        .filter((w) => w.maxAge > 0)
+        .map((w) => w.value)
+        .join(''),
+    ).toBe(token);
   });
   test('a short token after a chunked one: one cookie, every chunk cleared', () => {
     const writes = sessionCookieWrites(name, 'short', [`${name}.0`, `${name}.1`]);
-    expect(writes.map((w) => [w.name, w.maxAge > 0])).toEqual([[name, true], [`${name}.0`, false], [`${name}.1`, false]]);
+    expect(writes.map((w) => [w.name, w.maxAge > 0])).toEqual([
+      [name, true],
+      [`${name}.0`, false],
+      [`${name}.1`, false],
+    ]);
   });
   test('exactly one chunk’s worth stays one cookie', () => {
     expect(sessionCookieWrites(name, 'y'.repeat(CHUNK_SIZE), []).map((w) => w.name)).toEqual([name]);

@@ -3,8 +3,17 @@ import { canonicalTimeZone, parseMailbox, settingsSchema } from '@/lib/settings/
 import { fractionToPercent, percentToFraction } from '@/lib/percent';
 
 const valid = {
-  version: 0, operatorName: 'Example Pool', gs1CompanyPrefix: '9521234', gs1PrefixLength: 7, digitalLinkBase: 'https://id.pool.example/',
-  timeZone: 'Europe/Amsterdam', currency: 'eur', taxRate: '0.21', mailSender: 'Pool desk <pool@pool.example>', returnInstructions: ' Fold it. ', undoSeconds: 30,
+  version: 0,
+  operatorName: 'Example Pool',
+  gs1CompanyPrefix: '9521234',
+  gs1PrefixLength: 7,
+  digitalLinkBase: 'https://id.pool.example/',
+  timeZone: 'Europe/Amsterdam',
+  currency: 'eur',
+  taxRate: '0.21',
+  mailSender: 'Pool desk <pool@pool.example>',
+  returnInstructions: ' Fold it. ',
+  undoSeconds: 30,
 };
 
 describe('settings form', () => {
@@ -55,11 +64,23 @@ describe('mail sender', () => {
 
 describe('percent ↔ fraction, as decimal strings', () => {
   test.each([
-    ['0.2100', '21'], ['0.0550', '5.5'], ['0.0700', '7'], ['0.0000', '0'], ['0', '0'], ['0.9999', '99.99'], ['0.2', '20'],
+    ['0.2100', '21'],
+    ['0.0550', '5.5'],
+    ['0.0700', '7'],
+    ['0.0000', '0'],
+    ['0', '0'],
+    ['0.9999', '99.99'],
+    ['0.2', '20'],
   ])('%s → %s %%', (f, p) => {
     expect(fractionToPercent(f)).toBe(p);
   });
-  test.each([['21', '0.2100'], ['5.5', '0.0550'], ['7', '0.0700'], ['0', '0.0000'], ['99,99', '0.9999']])('%s %% → %s', (p, f) => {
+  test.each([
+    ['21', '0.2100'],
+    ['5.5', '0.0550'],
+    ['7', '0.0700'],
+    ['0', '0.0000'],
+    ['99,99', '0.9999'],
+  ])('%s %% → %s', (p, f) => {
     expect(percentToFraction(p)).toBe(f);
   });
   test('out of range or too precise', () => {

@@ -1,7 +1,10 @@
 // A small reader of RFC 4180 CSV written for the tests, so checks of the app's
 // CSV writer (which uses papaparse) do not lean on the same library. Returns
 // each cell's text and whether it was quoted.
-export interface ReadCell { text: string; quoted: boolean }
+export interface ReadCell {
+  text: string;
+  quoted: boolean;
+}
 
 export function readCsv(input: string): ReadCell[][] {
   const text = input.startsWith('\uFEFF') ? input.slice(1) : input;

@@ -9,7 +9,17 @@ const period = { from: '2025-12-02', to: today }; // 365 days
 const pool = { kind: 'pool' as const };
 
 function bin(serial: string, fields: Partial<ReuseBin> & Pick<ReuseBin, 'commissionedOn'>): ReuseBin {
-  return { assetId: Number(serial), grai: `0952123410010${serial.slice(-1)}${serial}`, serial, binType: 'FX1000', leftOn: null, rotationsTotal: 0, rotationsByYear: {}, rotationsInPeriod: 0, ...fields };
+  return {
+    assetId: Number(serial),
+    grai: `0952123410010${serial.slice(-1)}${serial}`,
+    serial,
+    binType: 'FX1000',
+    leftOn: null,
+    rotationsTotal: 0,
+    rotationsByYear: {},
+    rotationsInPeriod: 0,
+    ...fields,
+  };
 }
 
 // B1 in service since mid-2024; B2 declared missing on 10 Feb 2026; B3 new in November 2026; B4 retired 1 May 2025.
@@ -44,7 +54,16 @@ test('days in the pool inside a range: B1 all 365, B2 71 (2 Dec → 10 Feb), B3 
 describe('the pool', () => {
   test('period: 3 bins in the pool, 2 reused (2/3), 5 rotations over 448 bin-days; since commissioning 20 / 4 = 5', () => {
     const s = reuseSummary(bins, period, today, pool);
-    expect(s).toMatchObject({ days: 365, binDays: 448, bins: 3, binsReused: 2, rotations: 5, binsEverCommissioned: 4, rotationsSinceCommissioning: 20, averageRotationsSinceCommissioning: 5 });
+    expect(s).toMatchObject({
+      days: 365,
+      binDays: 448,
+      bins: 3,
+      binsReused: 2,
+      rotations: 5,
+      binsEverCommissioned: 4,
+      rotationsSinceCommissioning: 20,
+      averageRotationsSinceCommissioning: 5,
+    });
     expect(s.shareReused).toBeCloseTo(2 / 3, 12);
     // 448 bin-days = 448 / 365 bin-years; 5 / (448 / 365) = 4.07 rotations per bin-year
     expect(s.rotationsPerBinPerYear).toBeCloseTo(5 / (448 / 365), 12);
@@ -73,8 +92,17 @@ describe('the pool', () => {
   test('CSV: one row per bin in the pool during the period, serials in number order', () => {
     const csv = reuseCsv(bins, period, today, pool);
     expect(csv.fields).toEqual([
-      'grai', 'serial', 'bin_type', 'commissioned_on', 'left_pool_on', 'period_from', 'period_to',
-      'rotations_in_period', 'rotations_since_commissioning', 'years_in_service', 'rotations_per_year_in_service',
+      'grai',
+      'serial',
+      'bin_type',
+      'commissioned_on',
+      'left_pool_on',
+      'period_from',
+      'period_to',
+      'rotations_in_period',
+      'rotations_since_commissioning',
+      'years_in_service',
+      'rotations_per_year_in_service',
     ]);
     // years: 899/365 = 2.463 → 2.46, 10 / 2.463 = 4.060 → 4.06; 346/365 = 0.948 → 0.95, 4 / 0.948 = 4.220 → 4.22; 11/365 = 0.030 → 0.03
     expect(csv.rows).toEqual([
@@ -86,7 +114,14 @@ describe('the pool', () => {
   });
 
   test('an empty pool: no rates, no years', () => {
-    expect(reuseSummary([], period, today, pool)).toMatchObject({ bins: 0, binDays: 0, shareReused: null, rotationsPerBinPerYear: null, averageRotationsSinceCommissioning: null, rotationsPerServiceYear: null });
+    expect(reuseSummary([], period, today, pool)).toMatchObject({
+      bins: 0,
+      binDays: 0,
+      shareReused: null,
+      rotationsPerBinPerYear: null,
+      averageRotationsSinceCommissioning: null,
+      rotationsPerServiceYear: null,
+    });
     expect(reuseByYear([], today, pool)).toEqual([]);
   });
 });
@@ -102,7 +137,16 @@ describe('one customer', () => {
 
   test('bins = those that made a rotation for the customer; no share of the pool', () => {
     const s = reuseSummary(forCustomer, period, today, customer);
-    expect(s).toMatchObject({ bins: 1, binDays: 365, binsReused: 1, shareReused: null, rotations: 2, binsEverCommissioned: 2, rotationsSinceCommissioning: 4, averageRotationsSinceCommissioning: 2 });
+    expect(s).toMatchObject({
+      bins: 1,
+      binDays: 365,
+      binsReused: 1,
+      shareReused: null,
+      rotations: 2,
+      binsEverCommissioned: 2,
+      rotationsSinceCommissioning: 4,
+      averageRotationsSinceCommissioning: 2,
+    });
     expect(s.rotationsPerBinPerYear).toBeCloseTo(2, 12); // B1 served all 365 days
   });
 

@@ -84,8 +84,16 @@ describe('a repeated number within one list is refused at input', () => {
 describe('the planners alert names what differs, counted as multisets', () => {
   test('[TE1, TE2] fitted, [TE1, TE1] found: TE2 not found, one TE1 unexpected', () => {
     const mail = sealMismatchMail({
-      operatorName: 'Op', serial: '17', grai: '0 9520123 45678 8 · 17', siteName: null, customerName: null,
-      applied: ['TE1', 'TE2'], found: ['TE1', 'TE1'], at: new Date('2027-03-14T09:00:00Z'), timeZone: 'UTC', link: 'https://x/b',
+      operatorName: 'Op',
+      serial: '17',
+      grai: '0 9520123 45678 8 · 17',
+      siteName: null,
+      customerName: null,
+      applied: ['TE1', 'TE2'],
+      found: ['TE1', 'TE1'],
+      at: new Date('2027-03-14T09:00:00Z'),
+      timeZone: 'UTC',
+      link: 'https://x/b',
     });
     expect(mail.text).toContain('Not found: TE2');
     expect(mail.text).toContain('Unexpected: TE1');

@@ -1,8 +1,6 @@
 // The trip list's query string: whitelisted sort columns and filters, paging, links that round-trip.
 import { describe, test, expect } from 'vitest';
-import {
-  DEFAULT_TRIP_LIST, TRIP_SORT_KEYS, nextSort, pageCount, parseTripListQuery, tripListSearch,
-} from '@/lib/trips/trip-list-query.ts';
+import { DEFAULT_TRIP_LIST, TRIP_SORT_KEYS, nextSort, pageCount, parseTripListQuery, tripListSearch } from '@/lib/trips/trip-list-query.ts';
 
 describe('parsing', () => {
   test('nothing given: newest dispatch first, page 1 of 50', () => {
@@ -17,7 +15,10 @@ describe('parsing', () => {
     expect(r).toEqual({
       ok: true,
       query: {
-        sort: 'dwell', dir: 'asc', page: 3, size: 25,
+        sort: 'dwell',
+        dir: 'asc',
+        page: 3,
+        size: 25,
         filters: { status: 'closed', customer: 4, depot: 2, bin: '100017', lot: 'PV26', from: '2026-01-01', to: '2026-06-30', mismatch: true },
       },
     });
@@ -40,8 +41,15 @@ describe('parsing', () => {
 
   test('malformed values: a SQL fragment as a direction, a letter id, a page 0, a huge page size, a bad date, a reversed range', () => {
     for (const bad of [
-      { dir: 'asc; drop table trips' }, { customer: 'abc' }, { customer: '1.5' }, { page: '0' }, { size: '5000' },
-      { from: '2026-02-30' }, { status: 'lost' }, { mismatch: 'yes' }, { bin: 'x'.repeat(81) },
+      { dir: 'asc; drop table trips' },
+      { customer: 'abc' },
+      { customer: '1.5' },
+      { page: '0' },
+      { size: '5000' },
+      { from: '2026-02-30' },
+      { status: 'lost' },
+      { mismatch: 'yes' },
+      { bin: 'x'.repeat(81) },
     ]) {
       expect(parseTripListQuery(bad).ok, JSON.stringify(bad)).toBe(false);
     }

@@ -13,9 +13,25 @@ const at = (date: string) => `${date}T12:00:00Z`;
 // Bin A: a0 came back before April (only there to give the first depot gap), a1 a full rotation in April,
 // a2 out since 20 April from the second depot. Bin B: one full rotation in April.
 const a0: Trip = { assetId: 'A', customerId: 'C1', depotId: 'D1', dispatchedAt: at('2026-03-01'), returnedAt: at('2026-03-25') };
-const a1: Trip = { assetId: 'A', customerId: 'C1', depotId: 'D1', dispatchedAt: at('2026-04-02'), deliveredAt: at('2026-04-03'), collectedAt: at('2026-04-15'), returnedAt: at('2026-04-17') };
+const a1: Trip = {
+  assetId: 'A',
+  customerId: 'C1',
+  depotId: 'D1',
+  dispatchedAt: at('2026-04-02'),
+  deliveredAt: at('2026-04-03'),
+  collectedAt: at('2026-04-15'),
+  returnedAt: at('2026-04-17'),
+};
 const a2: Trip = { assetId: 'A', customerId: 'C2', depotId: 'D2', dispatchedAt: at('2026-04-20'), deliveredAt: at('2026-04-21') };
-const b1: Trip = { assetId: 'B', customerId: 'C2', depotId: 'D1', dispatchedAt: at('2026-04-05'), deliveredAt: at('2026-04-06'), collectedAt: at('2026-04-26'), returnedAt: at('2026-04-28') };
+const b1: Trip = {
+  assetId: 'B',
+  customerId: 'C2',
+  depotId: 'D1',
+  dispatchedAt: at('2026-04-05'),
+  deliveredAt: at('2026-04-06'),
+  collectedAt: at('2026-04-26'),
+  returnedAt: at('2026-04-28'),
+};
 const trips = [a2, b1, a0, a1];
 const opts = { period: APRIL, timeZone: 'UTC' };
 

@@ -1,7 +1,15 @@
 import { describe, test, expect } from 'vitest';
 import {
-  applyResults, asQueuedBody, batchFailure, batchesFor, markAttempted, retryDelayMs, verdictFor,
-  type EventResult, type QueuedScan, type QueueState,
+  applyResults,
+  asQueuedBody,
+  batchFailure,
+  batchesFor,
+  markAttempted,
+  retryDelayMs,
+  verdictFor,
+  type EventResult,
+  type QueuedScan,
+  type QueueState,
 } from '@/lib/yard/scan-queue-state';
 import { ERROR_STATUS } from '@/lib/api-errors';
 
@@ -10,16 +18,27 @@ function item(extra: Partial<QueuedScan> = {}): QueuedScan {
   n += 1;
   const id = `00000000-0000-4000-8000-${String(n).padStart(12, '0')}`;
   return {
-    clientEventId: id, userId: 7, body: { clientEventId: id, assetId: n, action: 'prep_check', prepResult: 'pass' },
-    label: { grai: null, serial: `S${n}`, action: 'prep_check' }, seq: n, queuedAt: '2026-12-01T08:00:00.000Z', attempts: 0, lastError: null, ...extra,
+    clientEventId: id,
+    userId: 7,
+    body: { clientEventId: id, assetId: n, action: 'prep_check', prepResult: 'pass' },
+    label: { grai: null, serial: `S${n}`, action: 'prep_check' },
+    seq: n,
+    queuedAt: '2026-12-01T08:00:00.000Z',
+    attempts: 0,
+    lastError: null,
+    ...extra,
   };
 }
 const ok = (q: QueuedScan, replayed = false): EventResult => ({
-  clientEventId: q.clientEventId, ok: true,
+  clientEventId: q.clientEventId,
+  ok: true,
   outcome: { clientEventId: q.clientEventId, replayed, assetId: 1, grai: 'g', action: 'prep_check', statusTo: 'available', inferred: [] },
 });
 const fail = (q: QueuedScan, code: keyof typeof ERROR_STATUS, details?: unknown): EventResult => ({
-  clientEventId: q.clientEventId, ok: false, status: ERROR_STATUS[code], error: { code, message: `${code} message`, ...(details ? { details } : {}) },
+  clientEventId: q.clientEventId,
+  ok: false,
+  status: ERROR_STATUS[code],
+  error: { code, message: `${code} message`, ...(details ? { details } : {}) },
 });
 
 describe('what an answer means for a queued scan', () => {
@@ -60,7 +79,13 @@ describe('folding a sync into the queue', () => {
     expect(r.state.pending[0]).toMatchObject({ attempts: 1, lastError: 'internal message' });
     expect(r.state.pending[1]).toEqual(d); // not in this sync: untouched
     expect(r.newlyRefused).toHaveLength(1);
-    expect(r.state.refused[0]).toMatchObject({ clientEventId: b!.clientEventId, code: 'transition_refused', reason: 'inspection_lapsed', message: 'transition_refused message', refusedAt: '2026-12-01T09:00:00.000Z' });
+    expect(r.state.refused[0]).toMatchObject({
+      clientEventId: b!.clientEventId,
+      code: 'transition_refused',
+      reason: 'inspection_lapsed',
+      message: 'transition_refused message',
+      refusedAt: '2026-12-01T09:00:00.000Z',
+    });
   });
 
   test('earlier refusals stay listed until dismissed', () => {
@@ -98,11 +123,23 @@ describe('sending', () => {
     const batches = batchesFor([...mine, theirs], 7, 2);
     expect(batches.map((b) => b.map((q) => q.seq))).toEqual([[10, 20], [30]]);
     expect(batchesFor([theirs], 7)).toEqual([]);
-    expect(batchesFor(Array.from({ length: 120 }, () => item()), 7).map((b) => b.length)).toEqual([50, 50, 20]);
+    expect(
+      batchesFor(
+        Array.from({ length: 120 }, () => item()),
+        7,
+      ).map((b) => b.length),
+    ).toEqual([50, 50, 20]);
   });
 
   test.each([
-    [0, 'offline'], [401, 'signed_out'], [403, 'signed_out'], [400, 'split'], [413, 'split'], [500, 'retry'], [503, 'retry'], [429, 'retry'],
+    [0, 'offline'],
+    [401, 'signed_out'],
+    [403, 'signed_out'],
+    [400, 'split'],
+    [413, 'split'],
+    [500, 'retry'],
+    [503, 'retry'],
+    [429, 'retry'],
   ] as const)('a whole batch failing with %s → %s', (status, kind) => {
     expect(batchFailure(status)).toBe(kind);
   });

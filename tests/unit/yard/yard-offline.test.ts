@@ -11,13 +11,35 @@ const ctx: ActingContext = { role: 'yard', today: '2026-12-01', site: { id: DEPO
 
 function bin(extra: Partial<SnapshotBin> = {}): SnapshotBin {
   return {
-    id: 10, grai: '09521234100102T00001', serial: 'T00001', binTypeId: 1, binType: 'Test 1000 L', status: 'available',
-    siteId: DEPOT.id, siteKind: 'depot', leg: null, prepChecked: false, linerLotId: null, filled: false, tripOpen: false,
-    nextDue: '2027-06-30', version: 3, where: 'here', ...extra,
+    id: 10,
+    grai: '09521234100102T00001',
+    serial: 'T00001',
+    binTypeId: 1,
+    binType: 'Test 1000 L',
+    status: 'available',
+    siteId: DEPOT.id,
+    siteKind: 'depot',
+    leg: null,
+    prepChecked: false,
+    linerLotId: null,
+    filled: false,
+    tripOpen: false,
+    nextDue: '2027-06-30',
+    version: 3,
+    where: 'here',
+    ...extra,
   };
 }
 
-const snapshot = (bins: SnapshotBin[]): DepotSnapshot => ({ depot: DEPOT, generatedAt: '2026-12-01T07:00:00Z', today: '2026-12-01', timeZone: 'Europe/Amsterdam', bins, lots: [], orders: [] });
+const snapshot = (bins: SnapshotBin[]): DepotSnapshot => ({
+  depot: DEPOT,
+  generatedAt: '2026-12-01T07:00:00Z',
+  today: '2026-12-01',
+  timeZone: 'Europe/Amsterdam',
+  bins,
+  lots: [],
+  orders: [],
+});
 
 describe('finding a bin in the phone’s snapshot', () => {
   const a = bin();
@@ -42,17 +64,28 @@ describe('projecting waiting scans through the rule table', () => {
     const afterCheck = projectBin(b, [{ assetId: 10, action: 'prep_check', prepResult: 'pass', siteId: 1 }], ctx);
     expect(afterCheck).toMatchObject({ applied: 1, blocked: null, bin: { status: 'available', prepChecked: true } });
     expect(offlineActions(afterCheck.bin, ctx)).toContain('fit_liner');
-    const afterLiner = projectBin(b, [
-      { assetId: 10, action: 'prep_check', prepResult: 'pass', siteId: 1 },
-      { assetId: 10, action: 'fit_liner', linerLotId: 7, siteId: 1 },
-    ], ctx);
+    const afterLiner = projectBin(
+      b,
+      [
+        { assetId: 10, action: 'prep_check', prepResult: 'pass', siteId: 1 },
+        { assetId: 10, action: 'fit_liner', linerLotId: 7, siteId: 1 },
+      ],
+      ctx,
+    );
     expect(afterLiner.bin).toMatchObject({ status: 'prepared', linerLotId: 7 });
     expect(afterLiner.applied).toBe(2);
   });
 
   test('scans for other bins (by id or by GRAI) leave this one alone', () => {
     const b = bin();
-    const p = projectBin(b, [{ assetId: 99, action: 'quarantine' }, { grai: '09521234100102T00009', action: 'quarantine' }], ctx);
+    const p = projectBin(
+      b,
+      [
+        { assetId: 99, action: 'quarantine' },
+        { grai: '09521234100102T00009', action: 'quarantine' },
+      ],
+      ctx,
+    );
     expect(p).toMatchObject({ applied: 0, blocked: null, bin: { status: 'available' } });
     expect(projectBin(b, [{ grai: b.grai, action: 'quarantine', siteId: 1 }], ctx).bin.status).toBe('quarantine');
   });
@@ -72,8 +105,13 @@ describe('projecting waiting scans through the rule table', () => {
   });
 
   test('the offline buttons are exactly what the bin page would offer (same rule table)', () => {
-    for (const b of [bin(), bin({ prepChecked: true }), bin({ status: 'prepared', linerLotId: 4, prepChecked: true }), bin({ nextDue: '2026-11-01' }),
-      bin({ status: 'in_transit', siteId: null, siteKind: null, leg: 'return', tripOpen: true, where: 'expected' })]) {
+    for (const b of [
+      bin(),
+      bin({ prepChecked: true }),
+      bin({ status: 'prepared', linerLotId: 4, prepChecked: true }),
+      bin({ nextDue: '2026-11-01' }),
+      bin({ status: 'in_transit', siteId: null, siteKind: null, leg: 'return', tripOpen: true, where: 'expected' }),
+    ]) {
       expect(offlineActions(b, ctx)).toEqual(allowedActions(binStateOf(b), { role: 'yard', today: ctx.today, siteId: '1', siteKind: 'depot' }));
     }
   });

@@ -10,6 +10,4 @@ const query = z.object({ customer: z.coerce.number().int().positive().max(2_147_
 export const GET = endpoint({ capability: 'tariffs.manage', query }, async ({ query }) => tariffsOf(query.customer));
 
 /** A new tariff; an open-ended one it succeeds is ended the day before. */
-export const POST = endpoint({ capability: 'tariffs.manage', body: tariffInputSchema, status: 201 }, async ({ ctx, body }) =>
-  addTariff(body, actorFrom(ctx.locals)),
-);
+export const POST = endpoint({ capability: 'tariffs.manage', body: tariffInputSchema, status: 201 }, async ({ ctx, body }) => addTariff(body, actorFrom(ctx.locals)));

@@ -9,7 +9,6 @@ import { parseReportPeriod } from '@/lib/trips/report-period';
 import { localDate } from '@/lib/calendar';
 import { csvTable } from '@/lib/csv';
 import { csvResponse } from '@/lib/http/csv-response';
-import Papa from 'papaparse';
 
 const query = z
   .object({
@@ -21,7 +20,13 @@ const query = z
 
 /** The slug of a customer's name for the file name: letters and digits only. */
 function slug(name: string): string {
-  return name.normalize('NFKD').replace(/[^A-Za-z0-9]+/g, '-').replace(/^-|-$/g, '').toLowerCase() || 'customer';
+  return (
+    name
+      .normalize('NFKD')
+      .replace(/[^A-Za-z0-9]+/g, '-')
+      .replace(/^-|-$/g, '')
+      .toLowerCase() || 'customer'
+  );
 }
 
 /**

@@ -18,8 +18,19 @@ export const GET = endpoint({ capability: 'liners.view', query }, async ({ ctx, 
   const { timeZone } = await getSettings();
   const moves = await ledgerAt({ siteId: q.depot, ...parsed.value, limit: 100_000 });
   const rows = moves.map((m) => [
-    m.id, formatMomentAbsolute(m.occurredAt.toISOString(), timeZone), m.kind, MOVE_LABEL[m.kind as keyof typeof MOVE_LABEL], m.lotNumber, m.quantity,
-    m.counted, m.expected, m.grai, m.otherSite, m.orderRef, m.reason, m.who,
+    m.id,
+    formatMomentAbsolute(m.occurredAt.toISOString(), timeZone),
+    m.kind,
+    MOVE_LABEL[m.kind as keyof typeof MOVE_LABEL],
+    m.lotNumber,
+    m.quantity,
+    m.counted,
+    m.expected,
+    m.grai,
+    m.otherSite,
+    m.orderRef,
+    m.reason,
+    m.who,
   ]);
   const fields = ['move', 'when', 'kind', 'move_label', 'lot', 'liners', 'counted', 'expected', 'bin', 'other_depot', 'hire_order', 'reason', 'by'];
   return csvResponse(csvTable(fields, rows), `liner-moves-depot-${q.depot}.csv`);

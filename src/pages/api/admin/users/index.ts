@@ -8,6 +8,4 @@ import { actorFrom } from '@/lib/audit.server';
 export const GET = endpoint({ capability: 'users.manage' }, async () => ({ people: await listPeople() }));
 
 /** Invite someone: the account is created without a password and a one-time link is mailed. */
-export const POST = endpoint({ capability: 'users.manage', body: inviteSchema, status: 201 }, async ({ ctx, body }) =>
-  invitePerson(body, actorFrom(ctx.locals)),
-);
+export const POST = endpoint({ capability: 'users.manage', body: inviteSchema, status: 201 }, async ({ ctx, body }) => invitePerson(body, actorFrom(ctx.locals)));

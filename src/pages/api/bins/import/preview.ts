@@ -8,6 +8,4 @@ import { previewImport, readUpload } from '@/lib/bins/register-import.server';
  * (any Content-Type; its bytes are sniffed). Too large → 413, not CSV text →
  * 415, header problems → 422; otherwise every line with its problems.
  */
-export const POST = endpoint({ capability: 'bins.import', query: z.object({ name: text().max(200).optional() }) }, async ({ ctx }) =>
-  previewImport(await readUpload(ctx.request)),
-);
+export const POST = endpoint({ capability: 'bins.import', query: z.object({ name: text().max(200).optional() }) }, async ({ ctx }) => previewImport(await readUpload(ctx.request)));

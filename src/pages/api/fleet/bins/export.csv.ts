@@ -8,7 +8,10 @@ import { csvResponse } from '@/lib/http/csv-response';
 
 function exportColumns(list: string | undefined): BinColumnId[] {
   if (!list) return [...DEFAULT_VISIBLE];
-  const ids = list.split(',').map((c) => c.trim()).filter(Boolean);
+  const ids = list
+    .split(',')
+    .map((c) => c.trim())
+    .filter(Boolean);
   const unknown = ids.filter((c) => !(EXPORTABLE_COLUMNS as string[]).includes(c));
   if (unknown.length || ids.length === 0) {
     throw new AppError('validation_failed', `Cannot export column(s) ${unknown.join(', ') || '(none)'}; the columns are ${EXPORTABLE_COLUMNS.join(', ')}.`);

@@ -22,9 +22,7 @@ const patchSchema = z
   .strict();
 
 /** Rename, share or unshare, or overwrite the saved state of one's own view. */
-export const PATCH = endpoint({ capability: 'fleet.view', body: patchSchema }, async ({ ctx, user, body }) =>
-  updateView(user, viewId(ctx.params.id), body),
-);
+export const PATCH = endpoint({ capability: 'fleet.view', body: patchSchema }, async ({ ctx, user, body }) => updateView(user, viewId(ctx.params.id), body));
 
 export const DELETE = endpoint({ capability: 'fleet.view' }, async ({ ctx, user }) => {
   await deleteView(user, viewId(ctx.params.id));

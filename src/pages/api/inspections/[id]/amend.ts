@@ -5,4 +5,5 @@ import { amendInspection } from '@/lib/inspections/inspection-records.server';
 
 /** Correct a record: a new amendment with its reason; the original stays as it was. */
 export const POST = endpoint({ capability: 'inspections.record', params: idParams('Inspection'), body: amendBody, status: 201 }, async ({ user, params, body }) =>
-  amendInspection(user, params.id, body));
+  amendInspection(user, params.id, body),
+);

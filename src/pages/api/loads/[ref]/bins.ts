@@ -26,5 +26,10 @@ export const POST = endpoint({ capability: 'loads.manage', body, status: 201 }, 
     if (found.kind !== 'found') throw new AppError('not_found', found.kind === 'none' ? found.message : 'Several bins have that serial; scan the label or type the GRAI.');
     assetId = found.assetId;
   }
-  return addBinToLoad(user, loadId, { clientEventId: body.clientEventId, assetId, occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined, overrideReason: body.overrideReason });
+  return addBinToLoad(user, loadId, {
+    clientEventId: body.clientEventId,
+    assetId,
+    occurredAt: body.occurredAt ? new Date(body.occurredAt) : undefined,
+    overrideReason: body.overrideReason,
+  });
 });

@@ -6,7 +6,11 @@ import { dispatchLoad, loadIdByReference } from '@/lib/loads/load-service.server
 const body = z
   .object({
     carrier: text().trim().min(2, 'Name the carrier.').max(120),
-    vehicleRegistration: text().trim().min(2, 'Give the vehicle registration.').max(20).regex(/^[A-Za-z0-9 \-]+$/, 'Registrations use letters, digits, spaces and hyphens.'),
+    vehicleRegistration: text()
+      .trim()
+      .min(2, 'Give the vehicle registration.')
+      .max(20)
+      .regex(/^[A-Za-z0-9 -]+$/, 'Registrations use letters, digits, spaces and hyphens.'),
     driverName: text().trim().max(120).optional(),
     trailerSeals: z.array(text().trim().min(1).max(32)).max(6).default([]),
   })

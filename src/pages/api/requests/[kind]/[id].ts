@@ -33,5 +33,10 @@ export const PATCH = endpoint({ capability: 'requests.view', body, params }, asy
       { path: 'status', message: 'Unknown status.' },
     ]);
   }
-  return changeRequestStatus(kind, id, { status: change.status, version: change.version, ...(change.plannedFor !== undefined ? { plannedFor: change.plannedFor } : {}) }, actorFrom(ctx.locals));
+  return changeRequestStatus(
+    kind,
+    id,
+    { status: change.status, version: change.version, ...(change.plannedFor !== undefined ? { plannedFor: change.plannedFor } : {}) },
+    actorFrom(ctx.locals),
+  );
 });
