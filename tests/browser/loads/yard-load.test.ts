@@ -4,24 +4,16 @@
 // sends the truck and prints the note; the receiving end confirms delivery
 // through the note's link with a name and a photo.
 import { describe, test, expect, afterAll } from 'vitest';
-import type { Page } from 'playwright-core';
 import QRCode from 'qrcode';
 import { useApp, newContext, signIn, screenshot } from '../support/app';
+import { recordAction } from '../support/yard';
 import { one, rows, closeDb } from '../support/db';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
 afterAll(closeDb);
 
-async function record(page: Page, action: string, fill?: (p: Page) => Promise<void>) {
-  await page.click(`button[data-action="${action}"]`);
-  await page.waitForSelector(`form[data-form="${action}"]`);
-  if (fill) await fill(page);
-  await page.click(`form[data-form="${action}"] button[type="submit"]`);
-  await page.waitForSelector('p[role="status"]:has-text("Recorded")');
-  await page.waitForLoadState('load');
-  await page.waitForTimeout(1200); // the page reloads itself after a recorded action
-}
+const record = recordAction;
 
 describe('preparing and loading bins on a phone', () => {
   test('receive → prep check → fit liner on the bin page, then a load of two with the note and delivery confirmation', { timeout: 120_000 }, async () => {

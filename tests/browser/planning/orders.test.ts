@@ -1,22 +1,15 @@
 // A planner enters a hire order on the desktop and confirms it; the yard prepares a bin, loads it
 // against that order on a phone and sends the truck; the planner's order page then shows it fulfilled.
 import { describe, test, expect, afterAll } from 'vitest';
-import type { Page } from 'playwright-core';
 import { useApp, newContext, signIn, screenshot } from '../support/app';
+import { recordAction } from '../support/yard';
 import { one, closeDb } from '../support/db';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
 afterAll(closeDb);
 
-async function record(page: Page, action: string) {
-  await page.click(`button[data-action="${action}"]`);
-  await page.waitForSelector(`form[data-form="${action}"]`);
-  await page.click(`form[data-form="${action}"] button[type="submit"]`);
-  await page.waitForSelector('p[role="status"]:has-text("Recorded")');
-  await page.waitForLoadState('load');
-  await page.waitForTimeout(1200); // the page reloads itself after a recorded action
-}
+const record = recordAction;
 
 describe('hire orders', () => {
   test('a planner enters an order, the yard loads and dispatches it, the order shows dispatched', { timeout: 150_000 }, async () => {

@@ -85,3 +85,18 @@ export function gzipSizeOf(urlPath: string): number {
   if (!existsSync(file)) throw new Error(`${urlPath} is not in the client build`);
   return gzipSync(readFileSync(file)).length;
 }
+
+/**
+ * Records an action on the bin page the way a person does (open its form, fill it, send it) and waits for the
+ * page's own reload after the confirmation, so the next step sees the new state. No fixed sleep: the reload comes
+ * 600 ms after the confirmation shows, and the wait starts before the form is sent.
+ */
+export async function recordAction(page: Page, action: string, fill?: (p: Page) => Promise<void>): Promise<void> {
+  await page.click(`button[data-action="${action}"]`);
+  await page.waitForSelector(`form[data-form="${action}"]`);
+  if (fill) await fill(page);
+  const reloaded = page.waitForEvent('load');
+  await page.click(`form[data-form="${action}"] button[type="submit"]`);
+  await page.waitForSelector('p[role="status"]:has-text("Recorded")');
+  await reloaded;
+}

@@ -29,9 +29,10 @@ describe('a prep check that finds a fault', () => {
     const photo = await QRCode.toBuffer('stand-in photo of a cracked panel', { type: 'png', width: 300 });
     await form.locator('#fault-photos').setInputFiles({ name: 'panel.png', mimeType: 'image/png', buffer: photo });
     await screenshot(page, 'prep-check-fault-phone');
+    const reloaded = page.waitForEvent('load'); // the page reloads itself after the confirmation
     await form.locator('button[type="submit"]').click();
     await page.waitForSelector('p[role="status"]:has-text("quarantine")');
-    await page.waitForTimeout(1500); // the page reloads itself
+    await reloaded;
     await expect(page.locator('header [data-status]').getAttribute('data-status')).resolves.toBe('quarantine');
     await page.waitForSelector('img[alt="Photo taken with this scan"]');
     const event = await one<{ payload: { photoIds?: number[]; faults?: string } }>(
