@@ -92,14 +92,15 @@ try {
     }
   });
 
+  // Every suite runs even when an earlier one failed (`failed ||= …` would skip the rest), so one run shows all.
   if (suites.includes('lint')) {
-    failed ||= !timed('lint', lint);
+    failed = !timed('lint', lint) || failed;
   }
   if (suites.includes('unit')) {
-    failed ||= !timed('unit', () => vitest('unit', env));
+    failed = !timed('unit', () => vitest('unit', env)) || failed;
   }
   if (suites.includes('integration')) {
-    failed ||= !timed('integration', () => vitest('integration', { ...env, DATABASE_URL: testDb }));
+    failed = !timed('integration', () => vitest('integration', { ...env, DATABASE_URL: testDb })) || failed;
   }
   if (suites.includes('browser')) {
     const t0 = Date.now();
@@ -109,7 +110,7 @@ try {
     const smtpPort = process.env.LOOPFOLD_TEST_SMTP_PORT ?? '2526';
     startChild('test mail server', process.execPath, ['src/cli/mail-fake.mjs'], { LOOPFOLD_SMTP_PORT: smtpPort, DATABASE_URL: e2eDb });
     await new Promise((r) => setTimeout(r, 800));
-    failed ||= !timed('browser', () => vitest('browser', { ...env, DATABASE_URL: e2eDb, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' }));
+    failed = !timed('browser', () => vitest('browser', { ...env, DATABASE_URL: e2eDb, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' })) || failed;
   }
 } catch (err) {
   console.error(`\n[loopfold] test set-up failed: ${err.message}`);

@@ -34,7 +34,7 @@ describe('entering tariffs (admin)', () => {
 
     const overlap = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ validFrom: '2026-06-01', validTo: '2026-06-30' }) });
     expect(overlap.status).toBe(422);
-    expect((await json(overlap)).error?.message).toContain('2026-01-01 to 2027-02-28');
+    expect((await json(overlap)).error?.message).toContain('1 Jan 2026 to 28 Feb 2027');
     const bad = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ dailyRate: '1.605', currency: 'eur' }) });
     expect(bad.status).toBe(400);
     expect(await Tariff.count({ where: { customerId: w.customer.id } })).toBe(2);
