@@ -22,7 +22,7 @@ describe('a card’s number is the length of the list it opens', () => {
     for (const overview of ['/fleet', '/fleet?stale=7']) {
       await page.goto(overview);
       const cards = await page.$$eval('a[data-card]', (as) =>
-        as.map((a) => ({ id: a.getAttribute('data-card')!, href: a.getAttribute('href')!, n: a.querySelector('dd')!.textContent })),
+        as.map((a) => ({ id: a.getAttribute('data-card')!, href: a.getAttribute('href')!, n: a.querySelector('[data-testid^="count-"]')!.textContent })),
       );
       expect(cards.map((c) => c.id)).toEqual(['in-service', 'with-customers', 'overdue', 'awaiting', 'silent']);
       for (const card of cards) {

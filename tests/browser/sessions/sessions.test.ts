@@ -133,7 +133,7 @@ describe('post-sign-in destination (open redirect)', () => {
 describe('deny by default', () => {
   test('a path no rule names answers 403, page or API, signed in or not', async () => {
     const c = await device((await person('admin')).email);
-    const page = await c.fetch('/liners');
+    const page = await c.fetch('/purchasing');
     expect(page.status).toBe(403);
     expect(await page.text()).toContain('not open to your role');
     const api = await c.fetch('/api/billing/invoices');
