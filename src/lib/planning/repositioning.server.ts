@@ -7,7 +7,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { getSettings } from '@/lib/settings/settings.server';
 import { addDays, localDate, type LocalDate } from '@/lib/calendar';
-import { DEMAND_STATUSES_SQL } from './order-status';
+import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 import { loadTripHistory } from './returns-forecast.server';
 import { binsOutAsOf, fitReturnModel, forecastReturns, type DepotForecast } from './returns-forecast';
 import { loadCapacity, STANDARD_TRAILER } from './load-plan';
@@ -26,12 +26,6 @@ interface CountRow {
   site_id: number;
   bin_type_id: number;
   n: number;
-}
-interface NeedRow {
-  depot_site_id: number;
-  bin_type_id: number;
-  needed_by: LocalDate;
-  bins: number;
 }
 interface TypeRow {
   id: number;
@@ -78,20 +72,13 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
   const { timeZone } = await getSettings();
   const today = localDate(now, timeZone);
   const horizonEnd = addDays(today, settings.horizonDays);
-  const [sites, typeRows, onHand, awaiting, needs, history] = await Promise.all([
+  const [sites, typeRows, onHand, awaiting, history] = await Promise.all([
     q<SiteRow>(`SELECT id, name, kind, latitude::float8 AS lat, longitude::float8 AS lon FROM sites WHERE active AND kind IN ('depot', 'customer') ORDER BY name`),
     q<TypeRow>(`SELECT id, name, footprint_length_mm, footprint_width_mm, height_erected_mm, height_folded_mm, tare_kg, max_gross_kg FROM bin_types WHERE active ORDER BY name`),
     q<CountRow>(`SELECT a.site_id, a.bin_type_id, count(*)::int AS n FROM assets a JOIN sites s ON s.id = a.site_id
                   WHERE s.kind = 'depot' AND a.status IN ('available', 'prepared') GROUP BY 1, 2`),
     q<CountRow>(`SELECT a.site_id, a.bin_type_id, count(*)::int AS n FROM assets a JOIN sites s ON s.id = a.site_id
                   WHERE s.kind = 'customer' AND a.status = 'awaiting_collection' GROUP BY 1, 2`),
-    // Bins still to go out on confirmed orders wanted by the horizon's end; an order already late counts today.
-    q<NeedRow>(
-      `SELECT ho.depot_site_id, ho.bin_type_id, to_char(greatest(ho.needed_by, $1::date), 'YYYY-MM-DD') AS needed_by,
-                       sum(greatest(ho.quantity - (SELECT count(*) FROM trips t WHERE t.hire_order_id = ho.id), 0))::int AS bins
-                  FROM hire_orders ho WHERE ho.status IN (${DEMAND_STATUSES_SQL}) AND ho.needed_by <= $2::date GROUP BY 1, 2, 3`,
-      [today, horizonEnd],
-    ),
     loadTripHistory(),
   ]);
 
@@ -111,6 +98,9 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
   });
   const placed = sites.filter((s) => s.lat !== null && s.lon !== null);
   const depotSites = placed.filter((s) => s.kind === 'depot');
+  // Bins still to go out on the depots' confirmed orders wanted by the horizon's end (the yard's own list of open
+  // orders, so both count the same); an order already late counts today.
+  const orders = new Map(await Promise.all(depotSites.map(async (d) => [d.id, await openOrdersAt(d.id, { neededBy: horizonEnd })] as const)));
   const count = (rows: CountRow[]) => {
     const m = new Map<string, number>();
     for (const r of rows) m.set(`${r.site_id}:${r.bin_type_id}`, r.n);
@@ -138,7 +128,9 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
   const depots: RepoDepot[] = depotSites.map((s) => {
     const balance: RepoDepot['balance'] = {};
     for (const t of types) {
-      const mine = needs.filter((n) => n.depot_site_id === s.id && String(n.bin_type_id) === t.key).map((n) => ({ date: n.needed_by, bins: n.bins }));
+      const mine = (orders.get(s.id) ?? [])
+        .filter((o) => String(o.binTypeId) === t.key)
+        .map((o) => ({ date: o.neededBy < today ? today : o.neededBy, bins: Math.max(0, o.quantity - o.loaded) }));
       const b = depotBalance({ onHand: held(s.id, t.key), needs: mine, returnsBy: returnsBy(s.id, t.key) });
       balance[t.key] = b;
       const backByHorizon = returnsBy(s.id, t.key)(horizonEnd);
