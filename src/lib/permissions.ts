@@ -28,6 +28,7 @@ export const CAPABILITIES = {
   'liners.view': ['yard', 'planner', 'admin'],
   'liners.manage': ['planner', 'admin'], // liner specs, suppliers and their terms
   'portal.view': ['customer'],
+  'counts.resolve': ['planner', 'admin'], // settling the differences of customers' monthly counts
   'users.manage': ['admin'],
   'settings.manage': ['admin'],
   'sites.manage': ['admin'],
@@ -96,6 +97,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/planning/orders/new', 'orders.edit'],
   ['/planning/orders', 'orders.view'],
   ['/planning/repositioning', 'orders.view'],
+  ['/planning/counts', 'counts.resolve'],
+  ['/api/planning/counts', 'counts.resolve'],
   ['/api/planning/orders', 'orders.view'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],

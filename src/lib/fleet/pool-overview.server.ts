@@ -11,6 +11,7 @@ import { STATUSES, type SiteKind, type Status } from '@/lib/scans/lifecycle';
 import { overdueBack, WITH_CUSTOMER_STATUSES } from './overdue-return';
 import { firstRecentDay, notScannedForSql } from './scan-age';
 import { shrinkage, shrinkageWindow, type Shrinkage, type Window } from './shrinkage';
+import { countLossFigures, type CountLossFigures } from '@/lib/portal/count-disputes.server';
 import { fillMonths, type MonthPoint } from './month-series';
 import { countBins, queryContext } from './fleet-grid.server';
 import { OVERVIEW_CARD_IDS, OVERVIEW_CARDS, type OverviewCardId } from './overview-cards';
@@ -91,7 +92,7 @@ export interface PoolOverview {
   overdueBins: OverdueBin[];
   empties: EmptiesAtSite[];
   stale: { days: number; firstRecentDay: LocalDate; count: number; bins: StaleBin[] };
-  shrinkage: { window: Window; declaredMissing: number; foundAgain: number; poolAtStart: number; poolAtEnd: number; result: Shrinkage };
+  shrinkage: { window: Window; declaredMissing: number; foundAgain: number; poolAtStart: number; poolAtEnd: number; result: Shrinkage; fromCounts: CountLossFigures };
   tripsPerMonth: MonthPoint<'dispatched' | 'returned'>[];
   testsDue: { overdue: number; months: MonthPoint<'intermediate' | 'full'>[] };
 }
@@ -315,7 +316,8 @@ async function shrinkageFigures(today: LocalDate, timeZone: string): Promise<Poo
     [timeZone, window.from],
   );
   const input = { window, declaredMissing: declared?.declared ?? 0, foundAgain: declared?.found ?? 0, poolAtStart: pool?.at_start ?? 0, poolAtEnd: pool?.at_end ?? 0 };
-  return { ...input, result: shrinkage(input) };
+  // The monthly counts' share: bins settled as lost there are among the declarations above (marked missing through the scan service).
+  return { ...input, result: shrinkage(input), fromCounts: await countLossFigures(window, timeZone) };
 }
 
 async function tripsPerMonth(today: LocalDate, timeZone: string): Promise<PoolOverview['tripsPerMonth']> {

@@ -60,6 +60,8 @@ interface Examples {
   orderId: number;
   inspectionId: number;
   depotId: number;
+  customerSiteId: number;
+  countId: number;
 }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
@@ -73,7 +75,23 @@ async function examples(): Promise<Examples> {
   const inspection = await one<{ id: number }>(`SELECT id FROM inspections WHERE kind <> 'prep_check' ORDER BY id DESC LIMIT 1`);
   for (const [what, v] of Object.entries({ mine, bin, trip, order, inspection })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
   const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id, depotId: depot.id };
+  const site = await one<{ id: number }>(`SELECT s.id FROM sites s JOIN users u ON u.organisation_id = s.organisation_id WHERE u.email = $1 ORDER BY s.id LIMIT 1`, [
+    customer.email,
+  ]);
+  // A monthly count with a difference for the planner's page: the one there is, else none (that page's own 404).
+  const count = await one<{ id: number } | undefined>(`SELECT id FROM site_counts ORDER BY (status = 'disputed') DESC, id DESC LIMIT 1`);
+  return {
+    anyGrai: bin.grai,
+    customerGrai: mine.grai,
+    tripId: trip.id,
+    loadRef: '',
+    binId: bin.id,
+    orderId: order.id,
+    inspectionId: inspection.id,
+    depotId: depot.id,
+    customerSiteId: site.id,
+    countId: count?.id ?? 1,
+  };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -93,6 +111,8 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/planning/orders/[id]': `/planning/orders/${ex.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${ex.orderId}/fill`,
     '/liners/stock/[depot]': `/liners/stock/${ex.depotId}`,
+    '/portal/counts/[site]': `/portal/counts/${ex.customerSiteId}`,
+    '/planning/counts/[id]': `/planning/counts/${ex.countId}`,
   };
   if (route.includes('[')) {
     const url = known[route];
