@@ -4,6 +4,7 @@
 import { z } from 'zod';
 import { addDays, isLocalDate, type LocalDate } from '@/lib/calendar';
 import { multilineText, text } from '@/lib/text-input';
+import { fillSchema } from '@/lib/scans/scan-schema';
 
 /** How far ahead a customer may order or announce empties (common practice: a quarter's horizon). */
 export const PORTAL_HORIZON_DAYS = 120;
@@ -141,3 +142,64 @@ export const INVITE_FORM_FIELDS = ['name', 'email', 'siteIds', 'admin'] as const
 export const SITES_FORM_FIELDS = ['userId', 'siteIds'] as const;
 /** Fields a form sends more than once (checkboxes), read as one comma-joined value. */
 export const MULTI_FIELDS = ['siteIds'] as const;
+
+/** The monthly count of one site: how it was done; the bins come as repeated `counted` fields (read from the form). */
+export const countFields = z
+  .object({
+    method: z.enum(['ticked', 'scanned'], { errorMap: () => ({ message: 'Tick the bins you see, or scan them.' }) }).default('ticked'),
+  })
+  .strict();
+export const COUNT_FORM_FIELDS = ['method'] as const;
+/** The bins of a count from the form: each ticked box or scanned label (a GRAI or a serial of the list). */
+export function countedFrom(values: readonly unknown[]): string[] {
+  return values
+    .filter((v): v is string => typeof v === 'string')
+    .map((v) => v.trim().slice(0, 120))
+    .filter(Boolean);
+}
+
+/** A decimal as a form sends it ("1 000,5" or "1000.5"); empty = none. */
+const optionalDecimal = (message: string) =>
+  text()
+    .trim()
+    .optional()
+    .transform((v) => (v ? v.replace(/\s/g, '').replace(',', '.') : null))
+    .refine((v) => v === null || /^-?\d+(\.\d+)?$/.test(v), message)
+    .transform((v) => (v === null ? null : Number(v)));
+
+/**
+ * A fill record from the portal: the bin, the product, volume or mass (at least one), the filling temperature and the
+ * seal numbers (comma or space separated). The record itself is checked once more by the scan service's fill schema.
+ */
+export const fillRecordFields = z
+  .object({
+    clientEventId: text().uuid('Open the form again.'),
+    grai: text({ required_error: 'Choose the bin.' }).trim().min(1, 'Choose the bin.').max(40, 'Choose the bin.'),
+    product: text({ required_error: 'Say what was filled.' }).trim().min(1, 'Say what was filled.').max(120, 'Keep the product under 120 characters.'),
+    volumeL: optionalDecimal('Give the volume in litres, e.g. 950.'),
+    massKg: optionalDecimal('Give the mass in kilograms, e.g. 870.5.'),
+    temperatureC: optionalDecimal('Give the temperature in °C, e.g. 20.'),
+    seals: text()
+      .trim()
+      .max(240, 'At most six seal numbers.')
+      .optional()
+      .transform((v) => (v ? v.split(/[\s,;]+/).filter(Boolean) : [])),
+  })
+  .strict()
+  .superRefine((f, ctx) => {
+    if (f.volumeL === null && f.massKg === null) ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['volumeL'], message: 'Give the volume or the mass filled.' });
+    const record = fillSchema.safeParse({ product: f.product, volumeL: f.volumeL, massKg: f.massKg, temperatureC: f.temperatureC, seals: f.seals });
+    if (!record.success) {
+      for (const issue of record.error.issues) {
+        const field = String(issue.path[0] ?? 'product');
+        const words: Record<string, string> = {
+          volumeL: 'The volume is between 0 and 3000 L.',
+          massKg: 'The mass is between 0 and 5000 kg.',
+          temperatureC: 'The temperature is between −40 and 100 °C.',
+        };
+        ctx.addIssue({ code: z.ZodIssueCode.custom, path: [field], message: words[field] ?? issue.message });
+      }
+    }
+  });
+export type FillRecordInput = z.output<typeof fillRecordFields>;
+export const FILL_FORM_FIELDS = ['clientEventId', 'grai', 'product', 'volumeL', 'massKg', 'temperatureC', 'seals'] as const;

@@ -23,6 +23,15 @@ const sealList = z
     }
   });
 
+/** A fill record (fill_seal): what went in, how much, how warm, and the tamper-evident seals fitted. */
+export const fillSchema = z.object({
+  product: text().trim().min(1).max(120),
+  volumeL: z.number().positive().max(3000).nullable().optional(),
+  massKg: z.number().positive().max(5000).nullable().optional(),
+  temperatureC: z.number().min(-40).max(100).nullable().optional(),
+  seals: sealList,
+});
+
 export const scanEventSchema = z
   .object({
     clientEventId: text().uuid('clientEventId must be a UUID made on the device'),
@@ -40,15 +49,7 @@ export const scanEventSchema = z
     purpose: z.enum(['hire', 'transfer']).optional(),
     hireOrderId: z.number().int().positive().optional(),
     loadId: z.number().int().positive().optional(),
-    fill: z
-      .object({
-        product: text().trim().min(1).max(120),
-        volumeL: z.number().positive().max(3000).nullable().optional(),
-        massKg: z.number().positive().max(5000).nullable().optional(),
-        temperatureC: z.number().min(-40).max(100).nullable().optional(),
-        seals: sealList,
-      })
-      .optional(),
+    fill: fillSchema.optional(),
     sealsVerified: sealList.optional(),
     note: multilineText().trim().max(500).optional(),
     overrideReason: multilineText().trim().min(5, 'Say why the bin may go anyway (at least a few words).').max(500).optional(),

@@ -68,6 +68,8 @@ interface Other {
   ownGrai: string;
   ownBinId: number;
   inspectionId: number;
+  countId: number;
+  countLineId: number;
 }
 
 let other: Other;
@@ -83,6 +85,16 @@ async function signedIn(email: string): Promise<APIRequestContext> {
   await page.waitForURL((u) => !u.pathname.startsWith('/login'));
   await page.close();
   return ctx.request;
+}
+
+/** This month's count of a site, sent through the portal's count page (nothing ticked: every bin a difference). */
+async function countOf(api: APIRequestContext, siteId: number): Promise<{ countId: number; countLineId: number }> {
+  const res = await api.post(`/portal/counts/${siteId}`, { multipart: { method: 'ticked' }, headers: { Origin: t.app.url }, maxRedirects: 0 });
+  // 303 when sent; 409 when the site is counted for this month already (another test counted it)
+  expect([303, 409], await res.text()).toContain(res.status());
+  const count = await one<{ id: number }>(`SELECT id FROM site_counts WHERE site_id = $1 ORDER BY id DESC LIMIT 1`, [siteId]);
+  const line = await one<{ id: number } | undefined>(`SELECT id FROM site_count_lines WHERE count_id = $1 ORDER BY id LIMIT 1`, [count.id]);
+  return { countId: count.id, countLineId: line?.id ?? 1 };
 }
 
 // The smallest valid PNG (1 × 1, grey): the photo B uploads.
@@ -145,6 +157,7 @@ beforeAll(async () => {
     photoId,
     viewId: view?.id ?? 1,
     inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
+    ...(await countOf(asB, sites[0]!.id)),
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [
       b.org_name,
@@ -204,6 +217,9 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/inspections/[id]/amend': `/api/inspections/${o.inspectionId}/amend`,
     '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
     '/inspections/[id]': `/inspections/${o.inspectionId}`,
+    '/portal/counts/[site]': `/portal/counts/${o.siteId}`,
+    '/planning/counts/[id]': `/planning/counts/${o.countId}`,
+    '/api/planning/counts/[id]/lines/[line]': `/api/planning/counts/${o.countId}/lines/${o.countLineId}`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -270,6 +286,20 @@ function targetedWrites(o: Other): Array<{ label: string; method: Method; path: 
       multipart: { siteId: String(o.siteId), quantity: '2', readyOn: 'TODAY' },
       portal: true,
     },
+    {
+      label: "count B's site",
+      method: 'POST',
+      path: `/portal/counts/${o.siteId}`,
+      multipart: { method: 'scanned', counted: o.grai },
+      portal: true,
+    },
+    {
+      label: "record a fill in B's bin",
+      method: 'POST',
+      path: '/portal/fill',
+      multipart: { clientEventId: randomUUID(), grai: o.grai, product: 'Sunflower oil', volumeL: '900', seals: 'TE900001' },
+      portal: true,
+    },
     { label: "report damage on B's bin", method: 'POST', path: '/portal/damage', multipart: { grai: o.grai, description: 'Bent corner post' }, portal: true },
     { label: "confirm B's load", method: 'POST', path: '/portal/deliveries', multipart: { reference: o.loadRef, receivedByName: 'Someone else' }, portal: true },
     { label: "limit B's user to a site", method: 'POST', path: '/portal/people?form=sites', multipart: { userId: String(o.userId), siteIds: String(o.siteId) }, portal: true },
@@ -297,6 +327,8 @@ const OPEN_TO_ALL: Record<string, string> = {
   '/portal/damage': "A's own damage reports; a bin of B's: below",
   '/portal/deliveries': "A's own deliveries; a load of B's: below",
   '/portal/people': "A's own people (for its portal admin); B's people and sites: below",
+  '/portal/counts': "A's own sites' monthly counts; a site of B's: by its id",
+  '/portal/fill': "A's own bins to fill and their fill planner (B's GRAI in the filters finds none); a fill in B's bin: below",
   '/': 'sends each role to its home',
   '/forbidden': 'the 403 page',
   '/login': 'the sign-in page',
@@ -361,7 +393,8 @@ async function walk(ask: () => APIRequestContext, o: Other): Promise<{ problems:
 const TRACE = `SELECT (SELECT count(*)::int FROM scan_events WHERE asset_id = $1) AS events, (SELECT version FROM assets WHERE id = $1) AS version,
     (SELECT count(*)::int FROM hire_orders WHERE delivery_site_id = $2) AS orders, (SELECT count(*)::int FROM collection_requests WHERE site_id = $2) AS collections,
     (SELECT count(*)::int FROM damage_reports WHERE asset_id = $1) AS damage, (SELECT count(*)::int FROM loads WHERE status = 'delivered') AS delivered,
-    (SELECT count(*)::int FROM user_sites) AS limits, (SELECT count(*)::int FROM users) AS people`;
+    (SELECT count(*)::int FROM user_sites) AS limits, (SELECT count(*)::int FROM users) AS people,
+    (SELECT count(*)::int FROM site_counts WHERE site_id = $2) AS counts, (SELECT count(*)::int FROM site_count_lines WHERE resolution IS NOT NULL) AS settled`;
 
 /** The targeted writes: each refused with 404 or 403, and nothing of the other's (nor the asker's own bin) changed. */
 async function writes(api: APIRequestContext, o: Other): Promise<void> {
@@ -494,6 +527,7 @@ describe("a user of A limited to one site asks every route about A's other site"
       photoId,
       viewId: view?.id ?? 1,
       inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
+      ...(await countOf(asA, x.id)),
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
       ownGrai: own?.grai ?? bin.grai,

@@ -133,10 +133,53 @@ describe('the customer portal at phone size', () => {
     await page.context().close();
   });
 
+  test("a fill record with seal numbers, and the fill planner of the bin's order", async () => {
+    const page = await signedIn(customer.email, 'phone');
+    await page.goto('/portal/fill');
+    await expectFits(page, '/portal/fill');
+    const grai = await page.locator('#pf-grai option:not([value=""])').first().getAttribute('value');
+    expect(grai, 'the demo customer has an empty bin on hire').toBeTruthy();
+    await page.selectOption('#pf-grai', grai!);
+    await page.fill('#pf-product', 'Rapeseed oil, cold pressed');
+    // "Plan the fill" keeps what was typed and opens the order's fill planner
+    await Promise.all([page.waitForURL('**/portal/fill?*'), page.click('button:has-text("Plan the fill")')]);
+    await expect(page.locator('#pf-product').inputValue()).resolves.toBe('Rapeseed oil, cold pressed');
+    const planned = await page.locator('[data-fill-planner]').count();
+    const order = await one<{ reference: string | null }>(
+      `SELECT ho.reference FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN hire_orders ho ON ho.id = t.hire_order_id WHERE a.grai = $1`,
+      [grai],
+    );
+    expect(planned).toBe(order.reference ? 1 : 0);
+    await screenshot(page, 'portal-fill-planner-390');
+    await page.fill('#pf-volumeL', '950');
+    await page.fill('#pf-temperatureC', '20');
+    await page.fill('#pf-seals', 'TE700001, TE700002');
+    await Promise.all([page.waitForURL('**/portal/fill?recorded=*'), page.click('button:has-text("Record the fill")')]);
+    await expect(page.locator(`[data-fill="${grai}"] [data-seals]`).innerText()).resolves.toBe('TE700001, TE700002');
+    const trip = await one<{ product: string; volume: string; seals: string[]; action: string }>(
+      `SELECT t.fill_product AS product, t.fill_volume_l::text AS volume, t.seals_applied AS seals,
+              (SELECT e.action FROM scan_events e WHERE e.asset_id = a.id ORDER BY e.id DESC LIMIT 1) AS action
+         FROM assets a JOIN trips t ON t.id = a.current_trip_id WHERE a.grai = $1`,
+      [grai],
+    );
+    expect(trip).toEqual({ product: 'Rapeseed oil, cold pressed', volume: '950.0', seals: ['TE700001', 'TE700002'], action: 'fill_seal' });
+    await page.context().close();
+  });
+
   test('every portal page fits 390, 1280 and 1920 px', async () => {
     for (const width of [390, 1280, 1920]) {
       const page = await signedIn(customer.email, width === 390 ? 'phone' : 'desktop', width === 390 ? undefined : width);
-      for (const path of ['/portal', '/portal/orders', '/portal/orders/new', '/portal/collections', '/portal/deliveries', '/portal/damage', '/portal/people']) {
+      for (const path of [
+        '/portal',
+        '/portal/orders',
+        '/portal/orders/new',
+        '/portal/collections',
+        '/portal/deliveries',
+        '/portal/damage',
+        '/portal/people',
+        '/portal/fill',
+        '/portal/counts',
+      ]) {
         const res = await page.goto(path);
         expect(res?.status(), path).toBe(200);
         await expectFits(page, `${path} at ${width}`);
