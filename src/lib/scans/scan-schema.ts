@@ -49,6 +49,7 @@ export const scanEventSchema = z
     purpose: z.enum(['hire', 'transfer']).optional(),
     hireOrderId: z.number().int().positive().optional(),
     loadId: z.number().int().positive().optional(),
+    runId: z.number().int().positive().optional(),
     fill: fillSchema.optional(),
     sealsVerified: sealList.optional(),
     note: multilineText().trim().max(500).optional(),
