@@ -70,6 +70,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/health', 'public'],
   ['/account', 'account.own', 'exact'], // a person's own account: end all their sessions
   ['/api/account/sessions', 'account.own'],
+  ['/api/account/mail', 'account.own'], // one's own choice about non-essential mail
   ['/api/account/', 'public'],
   ['/api/public/', 'public'],
   ['/8003/', 'public'], // Digital Link resolver: the page itself decides what a visitor sees

@@ -36,7 +36,7 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
   const set =
     <K extends keyof typeof form>(key: K) =>
     (e: { target: { value: string } }) =>
-      setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' ? Number(e.target.value) : e.target.value }));
+      setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' || key === 'reminderDaysOver' ? Number(e.target.value) : e.target.value }));
   const aria = (name: string) => ({ 'aria-invalid': Boolean(problems[name]), 'aria-describedby': `s-${name}-hint s-${name}-problem` });
 
   async function submit(e: FormEvent) {
@@ -185,6 +185,27 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
             value={form.undoSeconds}
             onChange={set('undoSeconds')}
             {...aria('undoSeconds')}
+          />
+        </Field>
+      </fieldset>
+
+      <fieldset className="card space-y-4 p-5">
+        <legend className="px-1 text-lg font-semibold">Customer mail</legend>
+        <Field
+          id="s-reminderDaysOver"
+          label="Overdue-return reminder after (days over the free days)"
+          hint="A bin is listed in its customer's reminder once it is this many days past the free days. Each person gets at most one reminder a week, listing all their overdue bins; anyone may turn reminders off on their account page."
+          problem={problems.reminderDaysOver}
+        >
+          <input
+            id="s-reminderDaysOver"
+            className="field num max-w-[10rem]"
+            type="number"
+            min={1}
+            max={365}
+            value={form.reminderDaysOver}
+            onChange={set('reminderDaysOver')}
+            {...aria('reminderDaysOver')}
           />
         </Field>
       </fieldset>

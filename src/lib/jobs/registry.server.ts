@@ -4,6 +4,7 @@
 import { runMissingBinRule } from './missing-bins.server';
 import { runPlannerDigest } from './planner-digest.server';
 import { deleteExpiredSessionEnds } from '@/lib/session/session-ends.server';
+import { runCountDueReminders, runOverdueReminders } from '@/lib/portal/customer-reminders.server';
 
 export interface JobContext {
   now: Date;
@@ -20,6 +21,18 @@ export interface JobDefinition {
 export const JOBS: readonly JobDefinition[] = [
   { name: 'missing-bin-rule', cron: '15 2 * * *', description: 'Marks missing the bins out of the depots that nobody scanned for 120 days.', run: runMissingBinRule },
   { name: 'planner-digest', cron: '0 7 * * 1-5', description: 'Mails planners what needs a decision today.', run: runPlannerDigest },
+  {
+    name: 'overdue-return-reminders',
+    cron: '30 8 * * 1-5',
+    description: 'Mails each customer contact, at most once a week, every bin of theirs past its free days by the set number of days.',
+    run: runOverdueReminders,
+  },
+  {
+    name: 'count-due-reminders',
+    cron: '0 8 * * *',
+    description: 'Mails each customer contact, once a month, the sites whose monthly count is still to confirm.',
+    run: runCountDueReminders,
+  },
   { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];
 

@@ -14,7 +14,16 @@ export interface MailContent {
 }
 
 /** What the mailer records as the message's kind (mail_outbox.kind). */
-export type MailKind = 'invite' | 'password_reset' | 'planner_digest' | 'collection_request' | 'damage_report' | 'seal_mismatch' | 'collection_confirmation';
+export type MailKind =
+  | 'invite'
+  | 'password_reset'
+  | 'planner_digest'
+  | 'collection_request'
+  | 'damage_report'
+  | 'seal_mismatch'
+  | 'collection_confirmation'
+  | 'overdue_reminder'
+  | 'count_due';
 
 function compose(subject: string, lines: string[]): MailContent {
   const text = `${lines
@@ -223,7 +232,67 @@ export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   collection_confirmation: 'Collection confirmation',
   damage_report: 'Damage report',
   seal_mismatch: 'Seal mismatch alert',
+  overdue_reminder: 'Overdue-return reminder',
+  count_due: 'Monthly count due',
 };
+
+const OPT_OUT_LINE = (accountLink: string) => `You get this reminder because reminders are on for your account; turn them off here: ${accountLink}`;
+
+export interface OverdueReminderInput {
+  recipientName: string;
+  operatorName: string;
+  freeDays: number;
+  bins: Array<{ serial: string; siteName: string | null; daysOver: number }>;
+  /** The portal's start page and the account page (for the opt-out). */
+  link: string;
+  accountLink: string;
+}
+
+/** To a customer contact, at most once a week: every bin of theirs past its free days, worst first. */
+export function overdueReminderMail(i: OverdueReminderInput): MailContent {
+  const n = i.bins.length;
+  return compose(`${n} bin${n === 1 ? '' : 's'} past ${n === 1 ? 'its' : 'their'} free days — please send ${n === 1 ? 'it' : 'them'} back`, [
+    `Hello ${i.recipientName},`,
+    '',
+    `These bins have been with you longer than your ${i.freeDays} free days:`,
+    '',
+    ...i.bins.map((b) => `• ${b.serial}${b.siteName ? ` at ${b.siteName}` : ''}: ${b.daysOver} day${b.daysOver === 1 ? '' : 's'} over`),
+    '',
+    'When they are empty, fold them and tell us they are ready for collection:',
+    i.link,
+    '',
+    'Fold only empty, drained bins; keep fingers clear of the hinges, and follow your site procedures and the product’s safety data sheet for any residue.',
+    '',
+    OPT_OUT_LINE(i.accountLink),
+    ...signature(i.operatorName),
+  ]);
+}
+
+export interface CountDueInput {
+  recipientName: string;
+  operatorName: string;
+  monthName: string;
+  /** The last day of the grace period, e.g. "7 Jan 2027". */
+  dueBy: string;
+  sites: Array<{ name: string; bins: number; link: string }>;
+  accountLink: string;
+}
+
+/** To a customer contact, once a month: the sites whose monthly count is still to confirm. */
+export function countDueMail(i: CountDueInput): MailContent {
+  return compose(`Monthly count for ${i.monthName}: ${i.sites.length} site${i.sites.length === 1 ? '' : 's'} to confirm`, [
+    `Hello ${i.recipientName},`,
+    '',
+    `Please confirm the bins you hold for ${i.monthName} by ${i.dueBy}: tick them on our list, or scan their labels with your phone.`,
+    '',
+    ...i.sites.map((s) => `• ${s.name} (${s.bins} bin${s.bins === 1 ? '' : 's'} on our list): ${s.link}`),
+    '',
+    'Count from the ground or a safe platform; do not climb stacks, and keep clear of moving forklifts.',
+    '',
+    OPT_OUT_LINE(i.accountLink),
+    ...signature(i.operatorName),
+  ]);
+}
 
 export interface DigestInput {
   recipientName: string;

@@ -72,6 +72,7 @@ export const settingsSchema = z
       .int('Whole seconds.')
       .min(0, 'From 0 (no undo) to 600 seconds.')
       .max(600, 'From 0 (no undo) to 600 seconds.'),
+    reminderDaysOver: z.number({ invalid_type_error: 'A number of days.' }).int('Whole days.').min(1, 'From 1 to 365 days.').max(365, 'From 1 to 365 days.'),
   })
   .superRefine((v, ctx) => {
     if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {

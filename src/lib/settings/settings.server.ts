@@ -15,6 +15,7 @@ export interface OperatorSettings {
   mailSender: string;
   returnInstructions: string;
   undoSeconds: number;
+  reminderDaysOver: number;
   version: number;
 }
 
@@ -48,6 +49,7 @@ async function loadSettings(): Promise<OperatorSettings> {
     mailSender: row.mailSender,
     returnInstructions: row.returnInstructions,
     undoSeconds: row.undoSeconds,
+    reminderDaysOver: row.reminderDaysOver,
     version: row.version,
   };
   cached = { at: Date.now(), value };
@@ -73,6 +75,7 @@ const FIELDS = [
   'mailSender',
   'returnInstructions',
   'undoSeconds',
+  'reminderDaysOver',
 ] as const;
 
 function snapshot(s: Setting) {

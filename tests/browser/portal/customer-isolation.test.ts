@@ -345,6 +345,7 @@ const OPEN_TO_ALL: Record<string, string> = {
   '/api/account/password': "one's own password, by token",
   '/api/account/reset': 'asks for a reset mail; answers the same whoever the address is',
   '/api/account/sessions': "one's own sessions",
+  '/api/account/mail': "one's own choice about reminder mail",
   '/api/health': 'health, no data',
   '/8003/[...value]': 'the public bin page: what any passer-by sees (the return instructions and two forms), nothing of its customer',
   '/api/public/bins/[grai]/[form]': "the public page's forms: anyone who finds a bin may report it",

@@ -1,5 +1,5 @@
 import { describe, test, expect } from 'vitest';
-import { inviteMail, passwordResetMail, collectionRequestMail, damageReportMail, MAIL_KIND_LABELS } from '@/lib/mail/mail-templates';
+import { inviteMail, passwordResetMail, collectionRequestMail, damageReportMail, overdueReminderMail, countDueMail, MAIL_KIND_LABELS } from '@/lib/mail/mail-templates';
 
 const invite = {
   recipientName: 'Ada Example',
@@ -105,5 +105,41 @@ describe('mail to planners about requests', () => {
   test('the sent-mail page has words for both kinds', () => {
     expect(MAIL_KIND_LABELS.collection_request).toBe('Collection request');
     expect(MAIL_KIND_LABELS.damage_report).toBe('Damage report');
+  });
+});
+
+describe('customer reminders (text and HTML)', () => {
+  const overdue = overdueReminderMail({
+    recipientName: 'Ada Example',
+    operatorName: 'Example Pool',
+    freeDays: 14,
+    bins: [
+      { serial: '100528', siteName: 'Dock 2', daysOver: 12 },
+      { serial: '100529', siteName: null, daysOver: 1 },
+    ],
+    link: 'http://localhost:4321/portal/collections',
+    accountLink: 'http://localhost:4321/account',
+  });
+  test('the overdue reminder lists every bin with its days over, and says how to stop reminders', () => {
+    expect(overdue.subject).toBe('2 bins past their free days — please send them back');
+    expect(overdue.text).toContain('• 100528 at Dock 2: 12 days over');
+    expect(overdue.text).toContain('• 100529: 1 day over');
+    expect(overdue.text).toContain('turn them off here: http://localhost:4321/account');
+    expect(overdue.html).toContain('<a href="http://localhost:4321/portal/collections">');
+    expect(overdue.html).toContain('<a href="http://localhost:4321/account">');
+  });
+  test('the count-due mail names the month, the last day and each site with its link', () => {
+    const due = countDueMail({
+      recipientName: 'Ada Example',
+      operatorName: 'Example Pool',
+      monthName: 'January 2027',
+      dueBy: '7 Jan 2027',
+      sites: [{ name: 'Dock 2', bins: 1, link: 'http://localhost:4321/portal/counts/4' }],
+      accountLink: 'http://localhost:4321/account',
+    });
+    expect(due.subject).toBe('Monthly count for January 2027: 1 site to confirm');
+    expect(due.text).toContain('• Dock 2 (1 bin on our list): http://localhost:4321/portal/counts/4');
+    expect(due.html).toContain('<a href="http://localhost:4321/portal/counts/4">');
+    expect(MAIL_KIND_LABELS.overdue_reminder).toBe('Overdue-return reminder');
   });
 });
