@@ -21,6 +21,7 @@ const NAV: NavItem[] = [
   { href: '/trips', label: 'Trips', icon: 'route', capability: 'trips.view' },
   { href: '/planning/orders', label: 'Hire orders', icon: 'truck', capability: 'orders.view' },
   { href: '/planning/test-days', label: 'Test days', icon: 'wrench', capability: 'inspections.view' },
+  { href: '/repairs', label: 'Repairs', icon: 'wrench', capability: 'repairs.manage' },
   { href: '/planning/repositioning', label: 'Repositioning', icon: 'lanes', capability: 'orders.view' },
   { href: '/liners/stock', label: 'Liner stock', icon: 'lined', capability: 'liners.view' },
   { href: '/fleet/flags', label: 'Scans to review', icon: 'alert', capability: 'scan.correct' },

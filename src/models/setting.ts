@@ -16,6 +16,8 @@ export class Setting extends Model<InferAttributes<Setting>, InferCreationAttrib
   declare returnInstructions: CreationOptional<string>;
   /** How long the person who recorded a scan may undo it themselves, in seconds (0: no undo). */
   declare undoSeconds: CreationOptional<number>;
+  /** A repair that would cost more than this (operator currency) proposes the bin for retirement; null: never. */
+  declare repairRetireThreshold: CreationOptional<string | null>;
   declare version: CreationOptional<number>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -33,6 +35,7 @@ Setting.init(
     mailSender: { type: DataTypes.STRING(254), allowNull: false },
     returnInstructions: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
     undoSeconds: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30 },
+    repairRetireThreshold: { type: DataTypes.DECIMAL(12, 2), allowNull: true },
     version: versionColumn,
     updatedAt: DataTypes.DATE,
   },

@@ -189,6 +189,25 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
         </Field>
       </fieldset>
 
+      <fieldset className="card space-y-4 p-4">
+        <legend className="px-1 text-lg font-semibold">Repairs</legend>
+        <Field
+          id="s-repairRetireThreshold"
+          label={`Propose retirement above (${form.currency})`}
+          hint="A bin whose repair would cost more than this — the estimate or the cost already spent — is proposed for retirement on its repair order. Leave it empty to never propose it."
+          problem={problems.repairRetireThreshold}
+        >
+          <input
+            id="s-repairRetireThreshold"
+            className="field num max-w-[10rem]"
+            inputMode="decimal"
+            value={form.repairRetireThreshold ?? ''}
+            onChange={set('repairRetireThreshold')}
+            {...aria('repairRetireThreshold')}
+          />
+        </Field>
+      </fieldset>
+
       <div className="flex flex-wrap items-center justify-between gap-3">
         <p className="text-sm text-ink-soft">
           Last saved {formatMomentAbsolute(saved.updatedAt, saved.timeZone)} ({saved.timeZone})

@@ -33,6 +33,7 @@ import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.ser
 import { specFitFor } from '@/lib/liners/liner-specs.server';
 import { dispatchLapseCheck } from '@/lib/inspections/dispatch-check.server';
 import { overrideAccepted } from '@/lib/inspections/dispatch-check';
+import { repairEffectsOfScan } from '@/lib/inspections/repair-hooks.server';
 
 export type { FillRecord };
 
@@ -256,6 +257,22 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const moves = movesForScan({ action: input.action, before: snapshotOf(asset), after: next, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt });
   await insertMoves(
     moves.map((m) => ({ ...m, scan_event_id: eventId })),
+    t,
+  );
+
+  // 7. The bin's repair order: a failed prep check opens one; repair shop, retirement and release follow it.
+  await repairEffectsOfScan(
+    {
+      action: input.action,
+      assetId: asset.id,
+      eventId,
+      siteId: site?.id ?? null,
+      siteKind: site?.kind ?? null,
+      actorId: actor.id,
+      prepResult: input.prepResult,
+      faults: input.faults,
+      note: input.note,
+    },
     t,
   );
 

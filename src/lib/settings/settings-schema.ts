@@ -72,6 +72,12 @@ export const settingsSchema = z
       .int('Whole seconds.')
       .min(0, 'From 0 (no undo) to 600 seconds.')
       .max(600, 'From 0 (no undo) to 600 seconds.'),
+    /** Left out: unchanged. Empty or null: never propose retirement. */
+    repairRetireThreshold: z
+      .union([text().trim(), z.null()])
+      .optional()
+      .transform((v) => (v === '' ? null : v))
+      .refine((v) => v === undefined || v === null || /^\d{1,10}(\.\d{1,2})?$/.test(v), 'An amount such as 400 or 400.00; leave it empty to never propose retirement.'),
   })
   .superRefine((v, ctx) => {
     if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {

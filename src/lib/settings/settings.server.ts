@@ -15,6 +15,8 @@ export interface OperatorSettings {
   mailSender: string;
   returnInstructions: string;
   undoSeconds: number;
+  /** A repair that would cost more than this proposes the bin for retirement ("400.00"); null: never. */
+  repairRetireThreshold: string | null;
   version: number;
 }
 
@@ -48,6 +50,7 @@ async function loadSettings(): Promise<OperatorSettings> {
     mailSender: row.mailSender,
     returnInstructions: row.returnInstructions,
     undoSeconds: row.undoSeconds,
+    repairRetireThreshold: row.repairRetireThreshold ?? null,
     version: row.version,
   };
   cached = { at: Date.now(), value };
@@ -73,6 +76,7 @@ const FIELDS = [
   'mailSender',
   'returnInstructions',
   'undoSeconds',
+  'repairRetireThreshold',
 ] as const;
 
 function snapshot(s: Setting) {
@@ -103,7 +107,10 @@ export async function updateSettings(input: SettingsInput, actor: AuditActor): P
     const before = snapshot(s);
     // NUMERIC comes back as "0.2100": an equal rate typed as "0.21" is no change.
     const next = { ...input, taxRate: Number(input.taxRate) === Number(before.taxRate) ? before.taxRate : input.taxRate };
-    for (const f of FIELDS) s.set(f, next[f]);
+    // Left out by an older form: kept as it was. NUMERIC comes back as "400.00": an equal amount is no change.
+    if (input.repairRetireThreshold === undefined || (input.repairRetireThreshold !== null && Number(input.repairRetireThreshold) === Number(before.repairRetireThreshold)))
+      next.repairRetireThreshold = before.repairRetireThreshold;
+    for (const f of FIELDS) s.set(f, next[f] ?? null);
     await s.save({ transaction });
     await s.reload({ transaction });
     await recordAudit({ actor, action: 'settings.update', entityType: 'settings', entityId: s.id, before, after: snapshot(s) }, { transaction });

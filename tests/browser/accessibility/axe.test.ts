@@ -60,6 +60,7 @@ interface Examples {
   orderId: number;
   inspectionId: number;
   depotId: number;
+  repairId: number;
 }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
@@ -73,7 +74,22 @@ async function examples(): Promise<Examples> {
   const inspection = await one<{ id: number }>(`SELECT id FROM inspections WHERE kind <> 'prep_check' ORDER BY id DESC LIMIT 1`);
   for (const [what, v] of Object.entries({ mine, bin, trip, order, inspection })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
   const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id, depotId: depot.id };
+  // An open order with work on it when the demo has one (the page shows the most then).
+  const repair = await one<{ id: number }>(
+    `SELECT r.id FROM repair_orders r ORDER BY (r.status = 'open') DESC, EXISTS (SELECT 1 FROM repair_work w WHERE w.repair_order_id = r.id) DESC, r.id LIMIT 1`,
+  );
+  expect(repair, 'the demo pool has a repair order to open').toBeDefined();
+  return {
+    anyGrai: bin.grai,
+    customerGrai: mine.grai,
+    tripId: trip.id,
+    loadRef: '',
+    binId: bin.id,
+    orderId: order.id,
+    inspectionId: inspection.id,
+    depotId: depot.id,
+    repairId: repair.id,
+  };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -85,6 +101,7 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/bins/[grai]/edit': `/bins/${ex.anyGrai}/edit`,
     '/bins/[grai]/inspect': `/bins/${ex.anyGrai}/inspect`,
     '/inspections/[id]': `/inspections/${ex.inspectionId}`,
+    '/repairs/[id]': `/repairs/${ex.repairId}`,
     '/trips/[id]': `/trips/${ex.tripId}`,
     '/loads/[ref]': `/loads/${ex.loadRef}`,
     '/loads/[ref]/note': `/loads/${ex.loadRef}/note`,
