@@ -25,7 +25,7 @@ export default function OpenRepairButton({ damageReportId, serial }: { damageRep
         className="btn-quiet"
         onClick={() => void open()}
         disabled={busy}
-        aria-label={`Open a repair order for bin ${serial}`}
+        aria-label={`Open repair order for bin ${serial}`}
         data-open-repair={damageReportId}
       >
         {busy ? 'Opening…' : 'Open repair order'}
