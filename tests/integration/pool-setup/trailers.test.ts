@@ -11,7 +11,10 @@ const actor = () => ({ userId: w.planner.id, ip: '127.0.0.1' });
 
 describe('trailers as admin data', () => {
   test('created and edited through the versioned, audited edit; a run’s capacity uses its inside size', async () => {
-    const t = await createTrailer(trailerCreateSchema.parse({ name: 'Short rigid 7.2 m', insideLengthMm: 7200, insideWidthMm: 2450, insideHeightMm: 2700, payloadKg: 24000 }), actor());
+    const t = await createTrailer(
+      trailerCreateSchema.parse({ name: 'Short rigid 7.2 m', insideLengthMm: 7200, insideWidthMm: 2450, insideHeightMm: 2700, payloadKg: 24000 }),
+      actor(),
+    );
     expect(t).toMatchObject({ name: 'Short rigid 7.2 m', active: true, runs: 0 });
     // Hand-worked: bins of 1200 × 1000 mm with 10 mm play are 1210 × 1010; across 2450 mm two fit either way, so rows of
     // 1010 mm along 7200 mm: 7 rows × 2 = 14 floor positions; folded 380 mm under 2700 − 50 mm head room: 6 levels → 84.
@@ -27,7 +30,9 @@ describe('trailers as admin data', () => {
     expect((await runCapacity(t.id, w.binType.id))?.bins).toBe(84);
     const stale = await appErrorOf(updateTrailer(t.id, trailerPatchSchema.parse({ version: t.version, name: 'Other' }), actor()));
     expect(stale.code).toBe('changed_meanwhile');
-    const twin = await appErrorOf(createTrailer(trailerCreateSchema.parse({ name: 'Short rigid 7.2 m', insideLengthMm: 7000, insideWidthMm: 2400, insideHeightMm: 2500, payloadKg: 10000 }), actor()));
+    const twin = await appErrorOf(
+      createTrailer(trailerCreateSchema.parse({ name: 'Short rigid 7.2 m', insideLengthMm: 7000, insideWidthMm: 2400, insideHeightMm: 2500, payloadKg: 10000 }), actor()),
+    );
     expect(twin.message).toMatch(/Some fields/);
     const audit = await sequelize.query<{ action: string; after: Record<string, unknown> }>(
       `SELECT action, after FROM audit_entries WHERE entity_type = 'trailer' AND entity_id = $1 ORDER BY id`,
