@@ -99,6 +99,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/planning/runs', 'orders.view'], // collection truck runs; the API's POST/PATCH check orders.edit themselves
   ['/api/planning/orders', 'orders.view'],
   ['/api/planning/runs', 'orders.view'],
+  ['/api/planning/repositioning/', 'orders.edit'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],
   ['/admin/users', 'users.manage'],

@@ -279,8 +279,9 @@ async function nextReference(depotCode: string, plannedOn: LocalDate, t: Transac
   return `${prefix}${String(n).padStart(2, '0')}`;
 }
 
-export async function createRun(input: RunCreate, actor: AuditActor): Promise<{ id: number; reference: string }> {
-  return sequelize.transaction(async (t) => {
+/** Saves a planned run; inside the caller's transaction when given one (an approved repositioning plan's collection lanes). */
+export async function createRun(input: RunCreate, actor: AuditActor, opts: { transaction?: Transaction; planId?: number } = {}): Promise<{ id: number; reference: string }> {
+  const go = async (t: Transaction) => {
     const depot = await checkDepot(input.depotId, t);
     await checkTrailer(input.trailerId, t);
     const sites = await checkStops(input.stops, t);
@@ -301,12 +302,16 @@ export async function createRun(input: RunCreate, actor: AuditActor): Promise<{ 
       { transaction: t },
     );
     await writeStops(row.id, input.stops, t);
+    if (opts.planId !== undefined) {
+      await sequelize.query('UPDATE truck_runs SET repositioning_plan_id = $2 WHERE id = $1', { bind: [row.id, opts.planId], transaction: t });
+    }
     await recordAudit(
       { actor, action: 'truck_run.create', entityType: 'truck_run', entityId: row.id, after: { reference, plannedOn: input.plannedOn, stops: input.stops } },
       { transaction: t },
     );
     return { id: row.id, reference };
-  });
+  };
+  return opts.transaction ? go(opts.transaction) : sequelize.transaction(go);
 }
 
 async function lockRun(id: number, version: number | null, t: Transaction): Promise<TruckRun> {

@@ -29,6 +29,7 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 import { afterRunReceive, checkRunReceive } from '@/lib/planning/truck-runs.server';
+import { claimRepositioning, syncRepositioningOrder } from '@/lib/planning/repositioning-execution.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 import { specFitFor } from '@/lib/liners/liner-specs.server';
@@ -217,6 +218,8 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   if (!decision.ok) throw refusal(decision);
   const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
   const runFacts = input.runId !== undefined ? await checkRunReceive(input.runId, input.action, site?.id ?? null, asset, t) : null;
+  // A transfer dispatch on a load between two depots carries out the oldest open repositioning order of its lane.
+  const repositioning = input.action === 'dispatch' && input.purpose === 'transfer' && input.loadId ? await claimRepositioning(input.loadId, asset.id, t) : null;
   const override =
     order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire'
       ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t)
@@ -229,7 +232,13 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const opened = typeof trip === 'object' ? trip : null;
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
-  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}), ...(runFacts ?? {}) };
+  const named = {
+    ...(lotNumber ? { lotNumber } : {}),
+    ...(order ? { orderRef: order.reference } : {}),
+    ...(override ? { override } : {}),
+    ...(runFacts ?? {}),
+    ...(repositioning ?? {}),
+  };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
     r.action,
     r.occurredAt,
@@ -254,6 +263,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const eventId = inserted[inserted.length - 1]!.id;
   // A run received in full is done (its requests collected).
   if (runFacts) await afterRunReceive(input.runId!, t);
+  if (repositioning) await syncRepositioningOrder(repositioning.repositioningOrderId, t);
 
   // 5. The bin's current state follows the log, guarded by its version.
   const { version, next } = await applyPatch(asset, decision, opened, occurredAt, t);

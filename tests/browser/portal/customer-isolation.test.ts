@@ -193,6 +193,7 @@ function exampleUrl(pattern: string, o: Other): string {
     '/planning/runs/[id]/sheet': '/planning/runs/1/sheet',
     '/yard/runs/[id]': '/yard/runs/1',
     '/api/yard/runs/[id]': '/api/yard/runs/1',
+    '/api/planning/repositioning/plans/[id]/withdraw': '/api/planning/repositioning/plans/1/withdraw',
     '/api/planning/orders/[id]': `/api/planning/orders/${o.orderId}`,
     '/api/planning/orders/[id]/status': `/api/planning/orders/${o.orderId}/status`,
     '/api/public/bins/[grai]/[form]': `/api/public/bins/${o.grai}/collection-request`,
