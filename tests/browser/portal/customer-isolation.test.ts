@@ -177,6 +177,8 @@ function exampleUrl(pattern: string, o: Other): string {
     // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
     '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
+    // Trailers are the operator's admin data: any id will do.
+    '/api/admin/trailers/[id]': '/api/admin/trailers/1',
     '/liners/stock/[depot]': '/liners/stock/1',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
