@@ -20,6 +20,7 @@ const NAV: NavItem[] = [
   { href: '/fleet', label: 'Pool overview', icon: 'grid', capability: 'fleet.view' },
   { href: '/trips', label: 'Trips', icon: 'route', capability: 'trips.view' },
   { href: '/planning/orders', label: 'Hire orders', icon: 'truck', capability: 'orders.view' },
+  { href: '/planning/runs', label: 'Collection runs', icon: 'route', capability: 'orders.view' },
   { href: '/planning/test-days', label: 'Test days', icon: 'wrench', capability: 'inspections.view' },
   { href: '/planning/repositioning', label: 'Repositioning', icon: 'lanes', capability: 'orders.view' },
   { href: '/liners/stock', label: 'Liner stock', icon: 'lined', capability: 'liners.view' },

@@ -47,6 +47,7 @@ function initialValues(fields: FieldSpec[], row: Row | null, owners: Owner[], pr
     if (f.type === 'checkbox') values[f.name] = v === undefined ? true : Boolean(v);
     else if (v !== undefined && v !== null) values[f.name] = String(v);
     else if (preset[f.name] !== undefined) values[f.name] = preset[f.name]!;
+    else if (f.initial !== undefined) values[f.name] = f.initial;
     else if (f.type === 'select' && Array.isArray(f.options)) values[f.name] = f.options[0]!.value;
     else if (f.options === 'owners') values[f.name] = String(owners[0]?.id ?? '');
     else if (f.type === 'currency') values[f.name] = 'EUR';

@@ -28,6 +28,8 @@ export interface FieldSpec {
   unit?: string;
   /** A fieldset title starting a group of fields. */
   group?: string;
+  /** The value a new record's form starts with. */
+  initial?: string;
 }
 
 export interface ColumnSpec<R> {
@@ -107,6 +109,7 @@ export const SITES: SetupSpec<SiteRow> = {
     { label: 'Kind', value: (r) => SITE_KIND_LABELS[r.kind as SiteKindName] },
     { label: 'Belongs to', value: (r) => r.organisationName, from: 'lg' },
     { label: 'Coordinates', value: (r) => coords(r.latitude, r.longitude), num: true, from: 'xl' },
+    { label: 'Minimum collection', value: (r) => (r.kind === 'customer' ? `${n(r.minCollectionQty)} bins` : '—'), num: true, from: '2xl' },
     { label: 'Bins there', value: (r) => n(r.bins), num: true },
   ],
   fields: [
@@ -125,6 +128,15 @@ export const SITES: SetupSpec<SiteRow> = {
     { name: 'address', label: 'Address', type: 'textarea', nullable: true },
     { name: 'latitude', label: 'Latitude', type: 'decimal', nullable: true, group: 'Position', hint: 'Decimal degrees, −90 to 90, e.g. 51.9225.' },
     { name: 'longitude', label: 'Longitude', type: 'decimal', nullable: true, pair: true, hint: 'Decimal degrees, −180 to 180, e.g. 4.4792.' },
+    {
+      name: 'minCollectionQty',
+      label: 'Minimum collection',
+      type: 'int',
+      unit: 'bins',
+      initial: '1',
+      group: 'Collections',
+      hint: 'Customer sites: a truck run goes only once this many empties are ready there (1 = any number).',
+    },
   ],
 };
 

@@ -86,6 +86,12 @@ const siteObject = z.object({
     .transform((v) => (v ? v : null)),
   latitude: coordinate(-90, 90, 'latitude'),
   longitude: coordinate(-180, 180, 'longitude'),
+  /** Bins a collection must have before a truck run goes (1 = any). */
+  minCollectionQty: z
+    .number({ invalid_type_error: 'The minimum collection is a whole number of bins.' })
+    .int('The minimum collection is a whole number of bins.')
+    .min(1, 'The minimum collection lies between 1 and 500 bins.')
+    .max(500, 'The minimum collection lies between 1 and 500 bins.'),
   active: z.boolean(),
 });
 
@@ -100,7 +106,7 @@ function bothOrNeither(v: { latitude: number | null; longitude: number | null },
   for (const p of positionProblems(v)) ctx.addIssue({ code: z.ZodIssueCode.custom, path: [p.path], message: p.message });
 }
 
-export const siteCreateSchema = siteObject.omit({ version: true }).partial({ address: true, active: true }).strict().superRefine(bothOrNeither);
+export const siteCreateSchema = siteObject.omit({ version: true }).partial({ address: true, active: true, minCollectionQty: true }).strict().superRefine(bothOrNeither);
 export type SiteCreate = z.infer<typeof siteCreateSchema>;
 
 /** An edit names the fields it changes; the owner does not change. Both-or-neither coordinates is checked on the merged row. */

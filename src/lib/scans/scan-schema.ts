@@ -41,6 +41,7 @@ export const scanEventSchema = z
     purpose: z.enum(['hire', 'transfer']).optional(),
     hireOrderId: z.number().int().positive().optional(),
     loadId: z.number().int().positive().optional(),
+    runId: z.number().int().positive().optional(),
     fill: z
       .object({
         product: text().trim().min(1).max(120),

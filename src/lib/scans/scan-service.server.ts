@@ -28,6 +28,7 @@ import { getSettings, type OperatorSettings } from '@/lib/settings/settings.serv
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { afterRunReceive, checkRunReceive } from '@/lib/planning/truck-runs.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 import { specFitFor } from '@/lib/liners/liner-specs.server';
@@ -61,6 +62,8 @@ export interface ScanInput {
   hireOrderId?: number;
   /** The load (truck) a dispatched bin goes out on. */
   loadId?: number;
+  /** receive only: the confirmed truck run that brought the bin back (planning/truck-runs.server.ts). */
+  runId?: number;
   fill?: FillRecord;
   sealsVerified?: string[];
   note?: string;
@@ -219,6 +222,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   });
   if (!decision.ok) throw refusal(decision);
   const { order, lotNumber, flags: inputFlags } = await checkActionInputs(actor, asset, input, site, today, t, { occurredAt, receivedAt: now });
+  const runFacts = input.runId !== undefined ? await checkRunReceive(input.runId, input.action, site?.id ?? null, asset, t) : null;
   const override =
     order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire'
       ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t)
@@ -231,7 +235,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const opened = typeof trip === 'object' ? trip : null;
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
-  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}) };
+  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}), ...(runFacts ?? {}) };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
     r.action,
     r.occurredAt,
@@ -254,6 +258,8 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     { bind, transaction: t, type: QueryTypes.SELECT },
   );
   const eventId = inserted[inserted.length - 1]!.id;
+  // A run received in full is done (its requests collected).
+  if (runFacts) await afterRunReceive(input.runId!, t);
 
   // 5. The bin's current state follows the log, guarded by its version.
   const { version, next } = await applyPatch(asset, decision, opened, occurredAt, t);

@@ -60,6 +60,7 @@ interface Examples {
   orderId: number;
   inspectionId: number;
   depotId: number;
+  runId: number;
   lotId: number;
   purchaseOrderId: number;
 }
@@ -93,7 +94,9 @@ async function examples(): Promise<Examples> {
     orderId: order.id,
     inspectionId: inspection.id,
     depotId: depot.id,
+    runId: 0,
     lotId: lot.id,
+    purchaseOrderId: po.id,
   };
 }
 
@@ -116,6 +119,9 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/liners/stock/[depot]': `/liners/stock/${ex.depotId}`,
     '/liners/lots/[id]/trace': `/liners/lots/${ex.lotId}/trace`,
     '/liners/purchase-orders/[id]': `/liners/purchase-orders/${ex.purchaseOrderId}`,
+    '/planning/runs/[id]': `/planning/runs/${ex.runId}`,
+    '/planning/runs/[id]/sheet': `/planning/runs/${ex.runId}/sheet`,
+    '/yard/runs/[id]': `/yard/runs/${ex.runId}`,
   };
   if (route.includes('[')) {
     const url = known[route];
@@ -179,6 +185,21 @@ describe('accessibility: WCAG 2 A/AA (axe-core) on every page, every role, 390 a
       await note.goto(`/loads/${ex.loadRef}/note`);
       const confirmPath = new URL((await note.getByTestId('confirm-link').getAttribute('href'))!).pathname;
       await yard.close();
+      // A confirmed collection run back to the yard's depot, as a planner saves and confirms one.
+      const desk = await contextFor('planner', width);
+      const stop = await one<{ depot: number; site: number }>(
+        `SELECT u.home_site_id AS depot, (SELECT id FROM sites WHERE kind = 'customer' ORDER BY id LIMIT 1) AS site FROM users u WHERE u.email = 'yard@northmere.example'`,
+      );
+      const day = await one<{ d: string }>(`SELECT to_char((now() AT TIME ZONE 'Europe/Amsterdam')::date, 'YYYY-MM-DD') AS d`);
+      const run = await desk.request.post('/api/planning/runs', {
+        data: { depotId: stop.depot, plannedOn: day.d, carrier: 'Axe Haulage', stops: [{ siteId: stop.site, expectedBins: 2 }] },
+        headers: { Origin: t.app.url },
+      });
+      expect(run.status(), await run.text()).toBe(201);
+      ex.runId = ((await run.json()) as { data: { id: number } }).data.id;
+      const confirmed = await desk.request.post(`/api/planning/runs/${ex.runId}/status`, { data: { command: 'confirm', version: 0 }, headers: { Origin: t.app.url } });
+      expect(confirmed.status(), await confirmed.text()).toBe(200);
+      await desk.close();
 
       const found: string[] = [];
       let opened = 0;

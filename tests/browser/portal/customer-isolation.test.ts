@@ -195,6 +195,13 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/fleet/views/[id]': `/api/fleet/views/${o.viewId}`,
     '/api/loads/[ref]/bins': `/api/loads/${o.loadRef}/bins`,
     '/api/loads/[ref]/dispatch': `/api/loads/${o.loadRef}/dispatch`,
+    // Truck runs belong to the operator (a customer sees only the run day on its own requests): any id will do.
+    '/api/planning/runs/[id]': '/api/planning/runs/1',
+    '/api/planning/runs/[id]/status': '/api/planning/runs/1/status',
+    '/planning/runs/[id]': '/planning/runs/1',
+    '/planning/runs/[id]/sheet': '/planning/runs/1/sheet',
+    '/yard/runs/[id]': '/yard/runs/1',
+    '/api/yard/runs/[id]': '/api/yard/runs/1',
     '/api/planning/orders/[id]': `/api/planning/orders/${o.orderId}`,
     '/api/planning/orders/[id]/status': `/api/planning/orders/${o.orderId}/status`,
     '/api/public/bins/[grai]/[form]': `/api/public/bins/${o.grai}/collection-request`,
