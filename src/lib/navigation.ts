@@ -24,6 +24,7 @@ const NAV: NavItem[] = [
   { href: '/planning/test-days', label: 'Test days', icon: 'wrench', capability: 'inspections.view' },
   { href: '/planning/repositioning', label: 'Repositioning', icon: 'lanes', capability: 'orders.view' },
   { href: '/liners/stock', label: 'Liner stock', icon: 'lined', capability: 'liners.view' },
+  { href: '/liners/purchase-orders', label: 'Liner orders', icon: 'truck', capability: 'liners.manage' },
   { href: '/fleet/flags', label: 'Scans to review', icon: 'alert', capability: 'scan.correct' },
   { href: '/requests', label: 'Requests', icon: 'inbox', capability: 'requests.view' },
   { href: '/labels', label: 'Label sheets', icon: 'label', capability: 'labels.print' },

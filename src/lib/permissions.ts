@@ -79,6 +79,10 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/loads/confirm/', 'public'], // the receiving end confirms delivery through the link on the dispatch note
   ['/loads', 'loads.manage'],
   ['/api/loads', 'loads.manage'],
+  ['/liners/lots/', 'liners.manage'], // a lot's trace: customers, fill sites, products; hold, recall, notices
+  ['/api/liners/lots/', 'liners.manage'],
+  ['/liners/purchase-orders', 'liners.manage'],
+  ['/api/liners/purchase-orders', 'liners.manage'],
   ['/liners', 'liners.view'],
   ['/api/liners/', 'liners.view'],
   ['/yard', 'home.yard'],

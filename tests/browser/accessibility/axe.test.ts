@@ -61,6 +61,8 @@ interface Examples {
   inspectionId: number;
   depotId: number;
   runId: number;
+  lotId: number;
+  purchaseOrderId: number;
 }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
@@ -74,7 +76,28 @@ async function examples(): Promise<Examples> {
   const inspection = await one<{ id: number }>(`SELECT id FROM inspections WHERE kind <> 'prep_check' ORDER BY id DESC LIMIT 1`);
   for (const [what, v] of Object.entries({ mine, bin, trip, order, inspection })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
   const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id, depotId: depot.id, runId: 0 };
+  const lot = await one<{ id: number }>(`SELECT liner_lot_id AS id FROM trips WHERE liner_lot_id IS NOT NULL ORDER BY id DESC LIMIT 1`);
+  // The demo has no purchase order: make one of the first spec with a supplier (as the stock page would).
+  const po =
+    (await one<{ id: number } | undefined>('SELECT id FROM liner_purchase_orders ORDER BY id LIMIT 1')) ??
+    (await one<{ id: number }>(
+      `INSERT INTO liner_purchase_orders (supplier_id, liner_spec_id, depot_site_id, quantity, price_per_liner, ordered_on, wanted_by)
+       SELECT sp.supplier_id, sp.id, $1, 500, 4.5, current_date, current_date + 14 FROM liner_specs sp WHERE sp.supplier_id IS NOT NULL ORDER BY sp.id LIMIT 1 RETURNING id`,
+      [depot.id],
+    ));
+  return {
+    anyGrai: bin.grai,
+    customerGrai: mine.grai,
+    tripId: trip.id,
+    loadRef: '',
+    binId: bin.id,
+    orderId: order.id,
+    inspectionId: inspection.id,
+    depotId: depot.id,
+    runId: 0,
+    lotId: lot.id,
+    purchaseOrderId: po.id,
+  };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -94,6 +117,8 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/planning/orders/[id]': `/planning/orders/${ex.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${ex.orderId}/fill`,
     '/liners/stock/[depot]': `/liners/stock/${ex.depotId}`,
+    '/liners/lots/[id]/trace': `/liners/lots/${ex.lotId}/trace`,
+    '/liners/purchase-orders/[id]': `/liners/purchase-orders/${ex.purchaseOrderId}`,
     '/planning/runs/[id]': `/planning/runs/${ex.runId}`,
     '/planning/runs/[id]/sheet': `/planning/runs/${ex.runId}/sheet`,
     '/yard/runs/[id]': `/yard/runs/${ex.runId}`,

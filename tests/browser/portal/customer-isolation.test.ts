@@ -180,6 +180,15 @@ function exampleUrl(pattern: string, o: Other): string {
     // Trailers are the operator's admin data: any id will do.
     '/api/admin/trailers/[id]': '/api/admin/trailers/1',
     '/liners/stock/[depot]': '/liners/stock/1',
+    // A lot's trace names the customers who received its liners: planners only, whoever's lot it is.
+    '/liners/lots/[id]/trace': '/liners/lots/1/trace',
+    '/api/liners/lots/[id]/trace.csv': '/api/liners/lots/1/trace.csv',
+    '/api/liners/lots/[id]/status': '/api/liners/lots/1/status',
+    '/api/liners/lots/[id]/notices': '/api/liners/lots/1/notices',
+    // Purchase orders are the operator's, between it and its liner suppliers.
+    '/liners/purchase-orders/[id]': '/liners/purchase-orders/1',
+    '/api/liners/purchase-orders/[id]/mail': '/api/liners/purchase-orders/1/mail',
+    '/api/liners/purchase-orders/[id]/close': '/api/liners/purchase-orders/1/close',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,
