@@ -60,6 +60,9 @@ interface Examples {
   orderId: number;
   inspectionId: number;
   depotId: number;
+  runId: number;
+  lotId: number;
+  purchaseOrderId: number;
 }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
@@ -73,7 +76,28 @@ async function examples(): Promise<Examples> {
   const inspection = await one<{ id: number }>(`SELECT id FROM inspections WHERE kind <> 'prep_check' ORDER BY id DESC LIMIT 1`);
   for (const [what, v] of Object.entries({ mine, bin, trip, order, inspection })) expect(v, `the demo pool has a ${what} to open`).toBeDefined();
   const depot = await one<{ id: number }>(`SELECT id FROM sites WHERE kind = 'depot' ORDER BY id LIMIT 1`);
-  return { anyGrai: bin.grai, customerGrai: mine.grai, tripId: trip.id, loadRef: '', binId: bin.id, orderId: order.id, inspectionId: inspection.id, depotId: depot.id };
+  const lot = await one<{ id: number }>(`SELECT liner_lot_id AS id FROM trips WHERE liner_lot_id IS NOT NULL ORDER BY id DESC LIMIT 1`);
+  // The demo has no purchase order: make one of the first spec with a supplier (as the stock page would).
+  const po =
+    (await one<{ id: number } | undefined>('SELECT id FROM liner_purchase_orders ORDER BY id LIMIT 1')) ??
+    (await one<{ id: number }>(
+      `INSERT INTO liner_purchase_orders (supplier_id, liner_spec_id, depot_site_id, quantity, price_per_liner, ordered_on, wanted_by)
+       SELECT sp.supplier_id, sp.id, $1, 500, 4.5, current_date, current_date + 14 FROM liner_specs sp WHERE sp.supplier_id IS NOT NULL ORDER BY sp.id LIMIT 1 RETURNING id`,
+      [depot.id],
+    ));
+  return {
+    anyGrai: bin.grai,
+    customerGrai: mine.grai,
+    tripId: trip.id,
+    loadRef: '',
+    binId: bin.id,
+    orderId: order.id,
+    inspectionId: inspection.id,
+    depotId: depot.id,
+    runId: 0,
+    lotId: lot.id,
+    purchaseOrderId: po.id,
+  };
 }
 
 /** The URL a viewer opens for a route pattern; a route whose example is not known here fails the test. */
@@ -93,6 +117,11 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/planning/orders/[id]': `/planning/orders/${ex.orderId}`,
     '/planning/orders/[id]/fill': `/planning/orders/${ex.orderId}/fill`,
     '/liners/stock/[depot]': `/liners/stock/${ex.depotId}`,
+    '/liners/lots/[id]/trace': `/liners/lots/${ex.lotId}/trace`,
+    '/liners/purchase-orders/[id]': `/liners/purchase-orders/${ex.purchaseOrderId}`,
+    '/planning/runs/[id]': `/planning/runs/${ex.runId}`,
+    '/planning/runs/[id]/sheet': `/planning/runs/${ex.runId}/sheet`,
+    '/yard/runs/[id]': `/yard/runs/${ex.runId}`,
   };
   if (route.includes('[')) {
     const url = known[route];
@@ -170,6 +199,21 @@ async function walk(width: 'phone' | 'desktop'): Promise<{ width: string; found:
   await note.goto(`/loads/${ex.loadRef}/note`);
   const confirmPath = new URL((await note.getByTestId('confirm-link').getAttribute('href'))!).pathname;
   await yard.close();
+  // A confirmed collection run back to the yard's depot, as a planner saves and confirms one.
+  const desk = await contextFor('planner', width);
+  const stop = await one<{ depot: number; site: number }>(
+    `SELECT u.home_site_id AS depot, (SELECT id FROM sites WHERE kind = 'customer' ORDER BY id LIMIT 1) AS site FROM users u WHERE u.email = 'yard@northmere.example'`,
+  );
+  const day = await one<{ d: string }>(`SELECT to_char((now() AT TIME ZONE 'Europe/Amsterdam')::date, 'YYYY-MM-DD') AS d`);
+  const run = await desk.request.post('/api/planning/runs', {
+    data: { depotId: stop.depot, plannedOn: day.d, carrier: 'Axe Haulage', stops: [{ siteId: stop.site, expectedBins: 2 }] },
+    headers: { Origin: t.app.url },
+  });
+  expect(run.status(), await run.text()).toBe(201);
+  ex.runId = ((await run.json()) as { data: { id: number } }).data.id;
+  const confirmed = await desk.request.post(`/api/planning/runs/${ex.runId}/status`, { data: { command: 'confirm', version: 0 }, headers: { Origin: t.app.url } });
+  expect(confirmed.status(), await confirmed.text()).toBe(200);
+  await desk.close();
 
   const found: string[] = [];
   let opened = 0;
