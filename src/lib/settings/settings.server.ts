@@ -3,6 +3,7 @@ import { AppError } from '@/lib/api-errors';
 import type { SettingsInput, SettingsView } from './settings-schema';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
 import { sequelize } from '@/db/sequelize';
+import type { PublicLanguage } from '@/lib/requests/public-languages';
 
 export interface OperatorSettings {
   operatorName: string;
@@ -14,6 +15,7 @@ export interface OperatorSettings {
   taxRate: number;
   mailSender: string;
   returnInstructions: string;
+  returnInstructionsByLanguage: Partial<Record<PublicLanguage, string>>;
   undoSeconds: number;
   version: number;
 }
@@ -47,6 +49,7 @@ async function loadSettings(): Promise<OperatorSettings> {
     taxRate: Number(row.taxRate),
     mailSender: row.mailSender,
     returnInstructions: row.returnInstructions,
+    returnInstructionsByLanguage: (row.returnInstructionsByLanguage ?? {}) as Partial<Record<PublicLanguage, string>>,
     undoSeconds: row.undoSeconds,
     version: row.version,
   };
@@ -72,6 +75,7 @@ const FIELDS = [
   'taxRate',
   'mailSender',
   'returnInstructions',
+  'returnInstructionsByLanguage',
   'undoSeconds',
 ] as const;
 
