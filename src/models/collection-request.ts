@@ -19,6 +19,8 @@ export class CollectionRequest extends Model<InferAttributes<CollectionRequest>,
   declare readyOn: CreationOptional<string | null>;
   /** The day the collection run is planned (set by the planner when scheduling). */
   declare plannedFor: CreationOptional<string | null>;
+  /** The truck run that collects it (planning/truck-runs.server.ts). */
+  declare truckRunId: CreationOptional<number | null>;
   declare status: CreationOptional<'open' | 'scheduled' | 'done' | 'cancelled'>;
   declare requestedBy: number | null;
   declare requesterIp: string | null;
@@ -42,6 +44,7 @@ CollectionRequest.init(
     note: { type: DataTypes.TEXT, allowNull: true },
     readyOn: { type: DataTypes.DATEONLY, allowNull: true },
     plannedFor: { type: DataTypes.DATEONLY, allowNull: true },
+    truckRunId: { type: DataTypes.INTEGER, allowNull: true },
     status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'open' },
     requestedBy: { type: DataTypes.INTEGER, allowNull: true },
     requesterIp: { type: DataTypes.STRING(64), allowNull: true },

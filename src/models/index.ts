@@ -24,6 +24,8 @@ import { DamageReport } from './damage-report';
 import { Load } from './load';
 import { GridView } from './grid-view';
 import { Tariff } from './tariff';
+import { Trailer } from './trailer';
+import { TruckRun, TruckRunStop } from './truck-run';
 
 Organisation.hasMany(Site, { foreignKey: 'organisationId', as: 'sites' });
 Site.belongsTo(Organisation, { foreignKey: 'organisationId', as: 'organisation' });
@@ -80,6 +82,11 @@ Trip.belongsTo(Load, { foreignKey: 'loadId', as: 'load' });
 GridView.belongsTo(User, { foreignKey: 'ownerId', as: 'owner' });
 Tariff.belongsTo(Organisation, { foreignKey: 'customerId', as: 'customer' });
 Organisation.hasMany(Tariff, { foreignKey: 'customerId', as: 'tariffs' });
+TruckRun.belongsTo(Site, { foreignKey: 'depotSiteId', as: 'depotSite' });
+TruckRun.belongsTo(Trailer, { foreignKey: 'trailerId', as: 'trailer' });
+TruckRun.hasMany(TruckRunStop, { foreignKey: 'runId', as: 'stops' });
+TruckRunStop.belongsTo(Site, { foreignKey: 'siteId', as: 'site' });
+CollectionRequest.belongsTo(TruckRun, { foreignKey: 'truckRunId', as: 'truckRun' });
 
 export {
   sequelize,
@@ -106,4 +113,7 @@ export {
   Tariff,
   LinerSpec,
   LinerSupplier,
+  Trailer,
+  TruckRun,
+  TruckRunStop,
 };

@@ -14,6 +14,8 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
   declare address: string | null;
   declare latitude: string | null;
   declare longitude: string | null;
+  /** Bins a collection must have before a truck goes (truck runs; 1 = any). */
+  declare minCollectionQty: CreationOptional<number>;
   declare active: CreationOptional<boolean>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
@@ -30,6 +32,7 @@ Site.init(
     address: { type: DataTypes.TEXT, allowNull: true },
     latitude: { type: DataTypes.DECIMAL(9, 6), allowNull: true },
     longitude: { type: DataTypes.DECIMAL(9, 6), allowNull: true },
+    minCollectionQty: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     version: versionColumn,
     ...timestampColumns,

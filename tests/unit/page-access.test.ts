@@ -53,3 +53,17 @@ describe('deny by default', () => {
     expect(routeOf(join(PAGES, 'fleet/index.astro'))).toBe('/fleet');
   });
 });
+
+describe('collection runs', () => {
+  test.each([
+    ['/planning/runs', 'orders.view'],
+    ['/planning/runs/7/sheet', 'orders.view'],
+    ['/api/planning/runs/7/status', 'orders.view'], // its POST checks orders.edit itself
+    ['/yard/runs/7', 'home.yard'],
+    ['/api/yard/runs/7', 'home.yard'],
+    ['/api/planning/repositioning/approve', 'orders.edit'],
+    ['/api/planning/repositioning/plans/3/withdraw', 'orders.edit'],
+  ])('%s needs %s', (path, access) => {
+    expect(accessFor(path)).toBe(access);
+  });
+});

@@ -20,14 +20,7 @@ export default function OpenRepairButton({ damageReportId, serial }: { damageRep
   }
   return (
     <span className="inline-flex flex-col items-start">
-      <button
-        type="button"
-        className="btn-quiet"
-        onClick={() => void open()}
-        disabled={busy}
-        aria-label={`Open repair order for bin ${serial}`}
-        data-open-repair={damageReportId}
-      >
+      <button type="button" className="btn-quiet" onClick={() => void open()} disabled={busy} aria-label={`Open repair order for bin ${serial}`} data-open-repair={damageReportId}>
         {busy ? 'Opening…' : 'Open repair order'}
       </button>
       {problem && (

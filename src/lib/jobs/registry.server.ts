@@ -4,6 +4,7 @@
 import { runMissingBinRule } from './missing-bins.server';
 import { runPlannerDigest } from './planner-digest.server';
 import { deleteExpiredSessionEnds } from '@/lib/session/session-ends.server';
+import { runReorderAlerts } from '@/lib/liners/reorder-alerts.server';
 
 export interface JobContext {
   now: Date;
@@ -20,6 +21,12 @@ export interface JobDefinition {
 export const JOBS: readonly JobDefinition[] = [
   { name: 'missing-bin-rule', cron: '15 2 * * *', description: 'Marks missing the bins out of the depots that nobody scanned for 120 days.', run: runMissingBinRule },
   { name: 'planner-digest', cron: '0 7 * * 1-5', description: 'Mails planners what needs a decision today.', run: runPlannerDigest },
+  {
+    name: 'liner-reorder-alerts',
+    cron: '20 6-18 * * 1-6',
+    description: 'Mails planners once when a depot’s liner stock of a spec falls below its reorder point (again only after it recovered).',
+    run: runReorderAlerts,
+  },
   { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];
 

@@ -8,6 +8,7 @@ import { SITE_KINDS, SITE_KIND_LABELS, type SiteKindName } from './setup-schemas
 import type { CustomerRow } from './customers.server';
 import type { SiteRow } from './sites.server';
 import type { BinTypeRow } from './bin-types.server';
+import type { TrailerRow } from './trailers.server';
 
 export type FieldType = 'text' | 'code' | 'email' | 'int' | 'decimal' | 'money' | 'currency' | 'textarea' | 'select' | 'checkbox';
 
@@ -28,6 +29,8 @@ export interface FieldSpec {
   unit?: string;
   /** A fieldset title starting a group of fields. */
   group?: string;
+  /** The value a new record's form starts with. */
+  initial?: string;
 }
 
 export interface ColumnSpec<R> {
@@ -107,6 +110,7 @@ export const SITES: SetupSpec<SiteRow> = {
     { label: 'Kind', value: (r) => SITE_KIND_LABELS[r.kind as SiteKindName] },
     { label: 'Belongs to', value: (r) => r.organisationName, from: 'lg' },
     { label: 'Coordinates', value: (r) => coords(r.latitude, r.longitude), num: true, from: 'xl' },
+    { label: 'Minimum collection', value: (r) => (r.kind === 'customer' ? `${n(r.minCollectionQty)} bins` : '—'), num: true, from: '2xl' },
     { label: 'Bins there', value: (r) => n(r.bins), num: true },
   ],
   fields: [
@@ -125,6 +129,15 @@ export const SITES: SetupSpec<SiteRow> = {
     { name: 'address', label: 'Address', type: 'textarea', nullable: true },
     { name: 'latitude', label: 'Latitude', type: 'decimal', nullable: true, group: 'Position', hint: 'Decimal degrees, −90 to 90, e.g. 51.9225.' },
     { name: 'longitude', label: 'Longitude', type: 'decimal', nullable: true, pair: true, hint: 'Decimal degrees, −180 to 180, e.g. 4.4792.' },
+    {
+      name: 'minCollectionQty',
+      label: 'Minimum collection',
+      type: 'int',
+      unit: 'bins',
+      initial: '1',
+      group: 'Collections',
+      hint: 'Customer sites: a truck run goes only once this many empties are ready there (1 = any number).',
+    },
   ],
 };
 
@@ -182,4 +195,28 @@ export function unCodeMeaning(code: string): string | undefined {
   return code.trim() ? describeUnCode(code.trim().toUpperCase()) : undefined;
 }
 
-export type SetupKind = 'customers' | 'sites' | 'bin-types';
+export const TRAILERS: SetupSpec<TrailerRow> = {
+  title: 'Trailers',
+  intro:
+    'The trailers loads and collection runs are planned with: inside size and payload. A run’s truck capacity is worked out from them and the bin type (floor positions, stack levels, payload); without one the standard semi-trailer of common practice is used.',
+  noun: 'trailer',
+  apiBase: '/api/admin/trailers',
+  label: (r) => r.name,
+  search: (r) => r.name,
+  activeHint: 'A closed trailer is no longer offered for new runs; runs planned with it keep it.',
+  columns: [
+    { label: 'Name', value: (r) => r.name },
+    { label: 'Inside length × width × height', value: (r) => `${n(r.insideLengthMm)} × ${n(r.insideWidthMm)} × ${n(r.insideHeightMm)} mm`, num: true },
+    { label: 'Payload', value: (r) => kg(r.payloadKg), num: true },
+    { label: 'Runs', value: (r) => n(r.runs), num: true, from: 'lg' },
+  ],
+  fields: [
+    { name: 'name', label: 'Name', type: 'text', hint: 'As planners know it, e.g. Curtainsider 13.6 m.' },
+    { name: 'insideLengthMm', label: 'Inside length', type: 'int', unit: 'mm', group: 'Inside size', hint: 'A standard semi-trailer: about 13,600 mm.' },
+    { name: 'insideWidthMm', label: 'Inside width', type: 'int', unit: 'mm', pair: true, hint: 'About 2,450 mm.' },
+    { name: 'insideHeightMm', label: 'Inside height', type: 'int', unit: 'mm', hint: 'About 2,700 mm.' },
+    { name: 'payloadKg', label: 'Payload', type: 'int', unit: 'kg', pair: true, hint: 'About 24,000 kg.' },
+  ],
+};
+
+export type SetupKind = 'customers' | 'sites' | 'bin-types' | 'trailers';

@@ -19,6 +19,8 @@ export interface SiteRow {
   address: string | null;
   latitude: number | null;
   longitude: number | null;
+  /** Bins a collection must have before a truck run goes (1 = any). */
+  minCollectionQty: number;
   active: boolean;
   version: number;
   /** Bins standing there now. */
@@ -33,7 +35,7 @@ export interface SiteOwnerChoice {
 
 const SITE_SQL = `
   SELECT s.id, s.code, s.name, s.kind, s.organisation_id AS "organisationId", o.name AS "organisationName", s.address,
-         s.latitude::float8 AS latitude, s.longitude::float8 AS longitude, s.active, s.version,
+         s.latitude::float8 AS latitude, s.longitude::float8 AS longitude, s.min_collection_qty AS "minCollectionQty", s.active, s.version,
          (SELECT count(*)::int FROM assets a WHERE a.site_id = s.id) AS bins
     FROM sites s JOIN organisations o ON o.id = s.organisation_id`;
 
@@ -86,6 +88,7 @@ function snapshot(s: Site) {
     address: s.address,
     latitude: s.latitude === null ? null : Number(s.latitude),
     longitude: s.longitude === null ? null : Number(s.longitude),
+    minCollectionQty: s.minCollectionQty,
     active: s.active,
   };
 }
@@ -103,6 +106,7 @@ export async function createSite(input: SiteCreate, actor: AuditActor): Promise<
         address: input.address ?? null,
         latitude: input.latitude === null ? null : String(input.latitude),
         longitude: input.longitude === null ? null : String(input.longitude),
+        minCollectionQty: input.minCollectionQty ?? 1,
         active: input.active ?? true,
       },
       { transaction },
@@ -143,6 +147,7 @@ export async function updateSite(id: number, patch: SitePatch, actor: AuditActor
       if (patch.address !== undefined) s.address = patch.address;
       if (patch.latitude !== undefined) s.latitude = patch.latitude === null ? null : String(patch.latitude);
       if (patch.longitude !== undefined) s.longitude = patch.longitude === null ? null : String(patch.longitude);
+      if (patch.minCollectionQty !== undefined) s.minCollectionQty = patch.minCollectionQty;
       if (patch.active !== undefined) s.active = patch.active;
       const position = positionProblems({ latitude: s.latitude === null ? null : Number(s.latitude), longitude: s.longitude === null ? null : Number(s.longitude) });
       if (position.length) throw new AppError('validation_failed', position[0]!.message, position);

@@ -26,11 +26,14 @@ export interface PortalCollectionRow {
 
 const inScope = (column: string, n: number) => `($${n}::int[] IS NULL OR ${column} = ANY($${n}::int[]))`;
 
+/** The run day is the truck run's once the run is confirmed (a planned run's day may still move); before any run, the planner's own day. */
 export async function listPortalCollections(scope: PortalScope): Promise<PortalCollectionRow[]> {
   return sequelize.query<PortalCollectionRow>(
     `SELECT r.id, r.source, r.status, r.quantity, s.name AS site, to_char(r.ready_on, 'YYYY-MM-DD') AS "readyOn",
-            to_char(r.planned_for, 'YYYY-MM-DD') AS "plannedFor", r.created_at AS "createdAt", a.serial AS "binSerial"
+            to_char(CASE WHEN tr.id IS NULL THEN r.planned_for WHEN tr.status IN ('confirmed', 'done') THEN tr.planned_on END, 'YYYY-MM-DD') AS "plannedFor",
+            r.created_at AS "createdAt", a.serial AS "binSerial"
        FROM collection_requests r LEFT JOIN sites s ON s.id = r.site_id LEFT JOIN assets a ON a.id = r.asset_id
+       LEFT JOIN truck_runs tr ON tr.id = r.truck_run_id
       WHERE r.customer_id = $1 AND ${inScope('r.site_id', 2)}
       ORDER BY r.created_at DESC, r.id DESC LIMIT 50`,
     { bind: [scope.organisationId, scope.siteIds], type: QueryTypes.SELECT },

@@ -313,6 +313,9 @@ export async function changeRequestStatus(kind: RequestKind, id: number, change:
         { status: row.status, version: row.version },
       );
     }
+    if (kind === 'collection' && (row as CollectionRequest).truckRunId) {
+      throw new AppError('unprocessable', 'A truck run collects this request; change it on the run’s page (/planning/runs).');
+    }
     if (!canMove(kind, row.status, change.status)) throw new AppError('transition_refused', refusalReason(kind, row.status, change.status));
     const before: Record<string, unknown> = { status: row.status };
     const after: Record<string, unknown> = { status: change.status };

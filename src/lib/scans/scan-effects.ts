@@ -27,6 +27,7 @@ export interface ScanFacts {
   purpose?: 'hire' | 'transfer';
   hireOrderId?: number;
   loadId?: number;
+  runId?: number;
   fill?: FillRecord;
   sealsVerified?: string[];
   note?: string;
@@ -55,7 +56,21 @@ export interface ScanSite {
   organisationId: number;
 }
 
-const PAYLOAD_KEYS = ['prepResult', 'checklist', 'faults', 'photoIds', 'linerLotId', 'purpose', 'hireOrderId', 'loadId', 'fill', 'sealsVerified', 'note', 'inspection'] as const;
+const PAYLOAD_KEYS = [
+  'prepResult',
+  'checklist',
+  'faults',
+  'photoIds',
+  'linerLotId',
+  'purpose',
+  'hireOrderId',
+  'loadId',
+  'runId',
+  'fill',
+  'sealsVerified',
+  'note',
+  'inspection',
+] as const;
 
 /** The scan's own log entry payload: the decided patch and trip effect (what replayState() folds), and the inputs. */
 function eventPayload(input: ScanFacts, d: Allowed, flags: string[]): Record<string, unknown> {

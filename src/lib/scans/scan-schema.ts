@@ -37,9 +37,11 @@ export const scanEventSchema = z
     faults: multilineText().trim().max(500).optional(),
     photoIds: z.array(z.number().int().positive()).max(10).optional(),
     linerLotId: z.number().int().positive().optional(),
+    lotsAsOf: text().datetime({ offset: true }).optional(),
     purpose: z.enum(['hire', 'transfer']).optional(),
     hireOrderId: z.number().int().positive().optional(),
     loadId: z.number().int().positive().optional(),
+    runId: z.number().int().positive().optional(),
     fill: z
       .object({
         product: text().trim().min(1).max(120),

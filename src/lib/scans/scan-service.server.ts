@@ -28,9 +28,12 @@ import { getSettings, type OperatorSettings } from '@/lib/settings/settings.serv
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { afterRunReceive, checkRunReceive } from '@/lib/planning/truck-runs.server';
+import { claimRepositioning, syncRepositioningOrder } from '@/lib/planning/repositioning-execution.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 import { specFitFor } from '@/lib/liners/liner-specs.server';
+import { FIT_FROM_STOPPED_LOT, fitBeforeStopKnown } from '@/lib/liners/liner-recall';
 import { dispatchLapseCheck } from '@/lib/inspections/dispatch-check.server';
 import { overrideAccepted } from '@/lib/inspections/dispatch-check';
 import { repairEffectsOfScan } from '@/lib/inspections/repair-hooks.server';
@@ -52,10 +55,17 @@ export interface ScanInput {
   faults?: string;
   photoIds?: number[];
   linerLotId?: number;
+  /**
+   * fit_liner from a phone's queue: when the phone last learned the lot list (its depot snapshot). A fit from a
+   * lot stopped after that, sent late, already happened: it is recorded and flagged (liner-recall.ts).
+   */
+  lotsAsOf?: Date;
   purpose?: 'hire' | 'transfer';
   hireOrderId?: number;
   /** The load (truck) a dispatched bin goes out on. */
   loadId?: number;
+  /** receive only: the confirmed truck run that brought the bin back (planning/truck-runs.server.ts). */
+  runId?: number;
   fill?: FillRecord;
   sealsVerified?: string[];
   note?: string;
@@ -107,7 +117,7 @@ export async function recordScan(actor: Actor, input: ScanInput, opts: Options =
   // Settings are read before the transaction: a read inside it would wait for a second pool
   // connection while holding one, and with every connection held that way no scan ever finishes.
   const settings = await getSettings();
-  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, settings, t);
+  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, settings, t, now);
   try {
     return await (opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run));
   } catch (err) {
@@ -162,7 +172,7 @@ async function one<T extends object>(sql: string, bind: unknown[], t: Transactio
   return rows[0];
 }
 
-async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, settings: OperatorSettings, t: Transaction): Promise<ScanOutcome> {
+async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, settings: OperatorSettings, t: Transaction, now: Date): Promise<ScanOutcome> {
   // 1. Claim the client event id first: a concurrent replay waits here and then sees the claim.
   const claimed = await one(
     `INSERT INTO scan_event_keys (client_event_id, user_id, outcome) VALUES ($1, $2, '{}'::jsonb)
@@ -213,20 +223,29 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     inspection: input.inspectionResult,
   });
   if (!decision.ok) throw refusal(decision);
-  const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
+  const { order, lotNumber, flags: inputFlags } = await checkActionInputs(actor, asset, input, site, today, t, { occurredAt, receivedAt: now });
+  const runFacts = input.runId !== undefined ? await checkRunReceive(input.runId, input.action, site?.id ?? null, asset, t) : null;
+  // A transfer dispatch on a load between two depots carries out the oldest open repositioning order of its lane.
+  const repositioning = input.action === 'dispatch' && input.purpose === 'transfer' && input.loadId ? await claimRepositioning(input.loadId, asset.id, t) : null;
   const override =
     order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire'
       ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t)
       : null;
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
-  const flags = [...decision.flags, ...(override ? ['lapse_margin_overridden'] : [])];
+  const flags = [...decision.flags, ...inputFlags, ...(override ? ['lapse_margin_overridden'] : [])];
   const trip = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
   // The order follows its bins: the first one loaded makes it loading, the last one dispatched makes it dispatched.
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const opened = typeof trip === 'object' ? trip : null;
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
-  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}) };
+  const named = {
+    ...(lotNumber ? { lotNumber } : {}),
+    ...(order ? { orderRef: order.reference } : {}),
+    ...(override ? { override } : {}),
+    ...(runFacts ?? {}),
+    ...(repositioning ?? {}),
+  };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
     r.action,
     r.occurredAt,
@@ -249,6 +268,9 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     { bind, transaction: t, type: QueryTypes.SELECT },
   );
   const eventId = inserted[inserted.length - 1]!.id;
+  // A run received in full is done (its requests collected).
+  if (runFacts) await afterRunReceive(input.runId!, t);
+  if (repositioning) await syncRepositioningOrder(repositioning.repositioningOrderId, t);
 
   // 5. The bin's current state follows the log, guarded by its version.
   const { version, next } = await applyPatch(asset, decision, opened, occurredAt, t);
@@ -357,19 +379,42 @@ async function checkActionInputs(
   site: SiteRow | null,
   today: string,
   t: Transaction,
-): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+  when: { occurredAt: Date; receivedAt: Date },
+): Promise<{ order: OrderRow | null; lotNumber: string | null; flags: string[] }> {
   let lotNumber: string | null = null;
+  const flags: string[] = [];
   if (input.action === 'fit_liner') {
     // The lot's row stays locked until the scan commits: concurrent fits from it queue here, and each
-    // reads the stock the one before it left (liner-ledger.server.ts).
+    // reads the stock the one before it left (liner-ledger.server.ts). A hold or recall takes the same
+    // lock, so no fit reads the lot as released once the stop has committed.
     const lot = await lockLot(input.linerLotId!, t);
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
-    const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
+    let ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
+    if (!ok.ok && (ok.code === 'lot_recalled' || ok.code === 'lot_on_hold') && fitBeforeStopKnown({ statusChangedAt: lot.statusChangedAt, ...when, lotsAsOf: input.lotsAsOf })) {
+      // Made on a phone that could not know yet: it happened, so it is kept — flagged, and in the lot's trace.
+      flags.push(FIT_FROM_STOPPED_LOT);
+      ok = checkLinerLot({ status: 'released', expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
+    }
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
     const fit = await specFitFor(lot.linerSpecId, asset.bin_type_id, t);
     if (!fit.ok) throw new AppError('transition_refused', fit.reason, { reason: fit.code, action: 'fit_liner' });
     await takeFromLot(lot.id, (site?.id ?? asset.site_id)!, 1, t);
     lotNumber = lot.lotNumber;
+  }
+  if (input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire' && asset.liner_lot_id) {
+    const [lined] = await sequelize.query<{ lot_number: string; status: string }>('SELECT lot_number, status FROM liner_lots WHERE id = $1', {
+      bind: [asset.liner_lot_id],
+      transaction: t,
+      type: QueryTypes.SELECT,
+    });
+    if (lined && lined.status !== 'released') {
+      const word = lined.status === 'recalled' ? 'recalled' : 'on hold';
+      throw new AppError(
+        'transition_refused',
+        `This bin is lined from lot ${lined.lot_number}, which is ${word}. Fold it to take the liner out, then prep-check it and fit a liner from another lot.`,
+        { reason: 'lined_from_stopped_lot', action: 'dispatch' },
+      );
+    }
   }
   if (input.photoIds?.length) {
     // A scan's photos are its organisation's own uploads, and belong to this
@@ -396,7 +441,7 @@ async function checkActionInputs(
     if (input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire') {
       throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: 'dispatch' });
     }
-    return { order: null, lotNumber };
+    return { order: null, lotNumber, flags };
   }
   const order = await one<OrderRow>(
     'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id, needed_by::text FROM hire_orders WHERE id = $1',
@@ -414,7 +459,7 @@ async function checkActionInputs(
       action: input.action,
     });
   }
-  return { order, lotNumber };
+  return { order, lotNumber, flags };
 }
 
 function snapshotOf(a: AssetRow): AssetSnapshot {

@@ -3,6 +3,7 @@ import { AppError } from '@/lib/api-errors';
 import type { SettingsInput, SettingsView } from './settings-schema';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
 import { sequelize } from '@/db/sequelize';
+import type { PublicLanguage } from '@/lib/requests/public-languages';
 
 export interface OperatorSettings {
   operatorName: string;
@@ -14,6 +15,7 @@ export interface OperatorSettings {
   taxRate: number;
   mailSender: string;
   returnInstructions: string;
+  returnInstructionsByLanguage: Partial<Record<PublicLanguage, string>>;
   undoSeconds: number;
   /** A repair that would cost more than this proposes the bin for retirement ("400.00"); null: never. */
   repairRetireThreshold: string | null;
@@ -49,6 +51,7 @@ async function loadSettings(): Promise<OperatorSettings> {
     taxRate: Number(row.taxRate),
     mailSender: row.mailSender,
     returnInstructions: row.returnInstructions,
+    returnInstructionsByLanguage: (row.returnInstructionsByLanguage ?? {}) as Partial<Record<PublicLanguage, string>>,
     undoSeconds: row.undoSeconds,
     repairRetireThreshold: row.repairRetireThreshold ?? null,
     version: row.version,
@@ -75,6 +78,7 @@ const FIELDS = [
   'taxRate',
   'mailSender',
   'returnInstructions',
+  'returnInstructionsByLanguage',
   'undoSeconds',
   'repairRetireThreshold',
 ] as const;

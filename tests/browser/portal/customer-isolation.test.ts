@@ -179,7 +179,18 @@ function exampleUrl(pattern: string, o: Other): string {
     // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
     '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
+    // Trailers are the operator's admin data: any id will do.
+    '/api/admin/trailers/[id]': '/api/admin/trailers/1',
     '/liners/stock/[depot]': '/liners/stock/1',
+    // A lot's trace names the customers who received its liners: planners only, whoever's lot it is.
+    '/liners/lots/[id]/trace': '/liners/lots/1/trace',
+    '/api/liners/lots/[id]/trace.csv': '/api/liners/lots/1/trace.csv',
+    '/api/liners/lots/[id]/status': '/api/liners/lots/1/status',
+    '/api/liners/lots/[id]/notices': '/api/liners/lots/1/notices',
+    // Purchase orders are the operator's, between it and its liner suppliers.
+    '/liners/purchase-orders/[id]': '/liners/purchase-orders/1',
+    '/api/liners/purchase-orders/[id]/mail': '/api/liners/purchase-orders/1/mail',
+    '/api/liners/purchase-orders/[id]/close': '/api/liners/purchase-orders/1/close',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,
@@ -188,6 +199,14 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/fleet/views/[id]': `/api/fleet/views/${o.viewId}`,
     '/api/loads/[ref]/bins': `/api/loads/${o.loadRef}/bins`,
     '/api/loads/[ref]/dispatch': `/api/loads/${o.loadRef}/dispatch`,
+    // Truck runs belong to the operator (a customer sees only the run day on its own requests): any id will do.
+    '/api/planning/runs/[id]': '/api/planning/runs/1',
+    '/api/planning/runs/[id]/status': '/api/planning/runs/1/status',
+    '/planning/runs/[id]': '/planning/runs/1',
+    '/planning/runs/[id]/sheet': '/planning/runs/1/sheet',
+    '/yard/runs/[id]': '/yard/runs/1',
+    '/api/yard/runs/[id]': '/api/yard/runs/1',
+    '/api/planning/repositioning/plans/[id]/withdraw': '/api/planning/repositioning/plans/1/withdraw',
     '/api/planning/orders/[id]': `/api/planning/orders/${o.orderId}`,
     '/api/planning/orders/[id]/status': `/api/planning/orders/${o.orderId}/status`,
     '/api/public/bins/[grai]/[form]': `/api/public/bins/${o.grai}/collection-request`,
