@@ -90,7 +90,12 @@ export async function startLoad(
     const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
     // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
     const prefix = `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`;
-    const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM loads WHERE reference LIKE $1', [`${prefix}%`], t)) as [{ n: number }];
+    // The next number after the highest of the day (not the count: a load numbered by another path leaves no gap to reuse).
+    const [{ n }] = (await q<{ n: number }>(
+      `SELECT coalesce(max(substring(reference FROM '[0-9]+$')::int), 0) + 1 AS n FROM loads WHERE reference LIKE $1`,
+      [`${prefix}%`],
+      t,
+    )) as [{ n: number }];
     return Load.create(
       {
         reference: `${prefix}${String(n).padStart(3, '0')}`,
