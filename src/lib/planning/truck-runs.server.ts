@@ -15,6 +15,7 @@ import { localDate, type LocalDate } from '@/lib/calendar';
 import { canMove } from '@/lib/requests/request-status';
 import { TruckRun } from '@/models';
 import { loadCapacity, STANDARD_TRAILER, type Trailer } from './load-plan';
+import { binTypesForLoading } from './bin-types-for-loading.server';
 import { DEFAULT_ROAD_FACTOR, roadKm, type Point } from './lane-costs';
 import { driveOrder, routeKm, suggestRuns, type SuggestedRun } from './truck-runs';
 import { decideRunCommand, editableParts, runCommands, runProgress, type RunCommand, type RunProgress, type RunStatus } from './run-status';
@@ -33,16 +34,6 @@ export interface TrailerRow {
   insideWidthMm: number;
   insideHeightMm: number;
   payloadKg: number;
-}
-interface BinTypeRow {
-  id: number;
-  name: string;
-  footprint_length_mm: number;
-  footprint_width_mm: number;
-  height_erected_mm: number;
-  height_folded_mm: number;
-  tare_kg: string;
-  max_gross_kg: string;
 }
 
 export interface RunCapacity {
@@ -70,24 +61,9 @@ export async function activeTrailers(): Promise<TrailerRow[]> {
  */
 export async function runCapacity(trailerId: number | null, binTypeId: number | null, t?: Transaction): Promise<RunCapacity | null> {
   const trailer: Trailer & { name?: string } = (trailerId !== null ? await trailerById(trailerId, t) : null) ?? STANDARD_TRAILER;
-  const [type] = await q<BinTypeRow>(
-    `SELECT id, name, footprint_length_mm, footprint_width_mm, height_erected_mm, height_folded_mm, tare_kg, max_gross_kg FROM bin_types
-      WHERE ${binTypeId !== null ? 'id = $1' : 'active'} ORDER BY name LIMIT 1`,
-    binTypeId !== null ? [binTypeId] : [],
-    t,
-  );
+  const [type] = await binTypesForLoading(binTypeId, t);
   if (!type) return null;
-  const cap = loadCapacity(
-    trailer,
-    {
-      footprint: { lengthMm: type.footprint_length_mm, widthMm: type.footprint_width_mm },
-      heightErectedMm: type.height_erected_mm,
-      heightFoldedMm: type.height_folded_mm,
-      tareKg: Number(type.tare_kg),
-      maxGrossKg: Number(type.max_gross_kg),
-    },
-    { kind: 'folded' },
-  );
+  const cap = loadCapacity(trailer, type.bin, { kind: 'folded' });
   if (!cap.ok) return null;
   return { bins: cap.bins, explanation: cap.explanation, trailer: trailer.name ?? 'Trailer', binType: type.name };
 }
