@@ -2,7 +2,8 @@
 // (a dispatch scan). Shows count against target, the bins on, and every
 // refusal with its reason; then the carrier's details send the truck off.
 import { useState, type FormEvent } from 'react';
-import ScanInput, { type Identified } from '@/components/yard/ScanInput';
+import type { Identified } from '@/components/yard/ScanInput';
+import ContinuousScan from '@/components/yard/ContinuousScan';
 import { api, type ApiError } from '@/lib/api.client';
 import { newClientEventId } from '@/lib/yard/ids.client';
 
@@ -109,15 +110,14 @@ export default function LoadScanner(props: Props) {
       </div>
 
       {!full && (
-        <div className="card p-4">
-          <ScanInput prefixLength={props.prefixLength} onIdentified={add} busy={busy} keepCameraOpen label="Scan or type each bin as it goes on" />
-          <div className="notice-attention mt-3 text-sm">
-            {props.cautions.map((c) => (
-              <p key={c}>{c}</p>
-            ))}
-            <p className="mt-1 text-xs">{props.defer}</p>
-          </div>
-        </div>
+        <ContinuousScan
+          prefixLength={props.prefixLength}
+          onIdentified={add}
+          busy={busy}
+          label="Scan or type each bin as it goes on"
+          cautions={props.cautions}
+          defer={props.defer}
+        />
       )}
 
       {attempts.length > 0 && (
