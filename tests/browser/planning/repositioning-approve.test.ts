@@ -20,8 +20,10 @@ describe('repositioning plan to work', () => {
     await hydrated(page);
     // Another file may have left an approved plan open: withdraw it first (one approved plan at a time).
     while ((await page.locator('[data-testid="withdraw-plan"]').count()) > 0) {
+      // The withdrawal reloads the page: wait for that load, not the current page's (already done).
+      const reloaded = page.waitForEvent('load');
       await page.locator('[data-testid="withdraw-plan"]').first().click();
-      await page.waitForLoadState('load');
+      await reloaded;
       await hydrated(page);
     }
     const lanes = await page.locator('[data-testid="plan-lanes"] tbody tr').count();
