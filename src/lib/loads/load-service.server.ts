@@ -8,6 +8,7 @@ import { stableEventId } from '@/lib/scans/stable-event-id.server';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Load, HireOrder, Site } from '@/models';
 import { AppError } from '@/lib/api-errors';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { localDate } from '@/lib/calendar';
 import { recordScan, type Actor, type ScanOutcome } from '@/lib/scans/scan-service.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -44,8 +45,8 @@ export interface LoadView {
   bins: LoadBin[];
 }
 
-/** The advisory-lock class for numbering loads (the second key is the depot). */
-const LOAD_NUMBERING_LOCK = 7301;
+/** The advisory-lock class for starting loads at a depot (the second key is the depot). */
+const LOAD_START_LOCK = 7301;
 const q = <T extends object>(sql: string, bind: unknown[], t?: Transaction) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
 
 async function loadedCount(loadId: number, t?: Transaction): Promise<number> {
@@ -68,9 +69,9 @@ export async function startLoad(
   if (!depot || depot.kind !== 'depot') throw new AppError('unprocessable', 'Loads leave from a depot.');
   const settings = await getSettings(); // read before the transaction: it must not wait for a second connection
   // Two people starting loads at one depot at once: one at a time per depot (a transaction-scoped advisory lock),
-  // so the second finds the first's load for the same order, and the day's numbers never repeat.
+  // so the second finds the first's load for the same order instead of opening a second one.
   return sequelize.transaction(async (t) => {
-    await sequelize.query('SELECT pg_advisory_xact_lock($1, $2)', { bind: [LOAD_NUMBERING_LOCK, depot.id], transaction: t });
+    await sequelize.query('SELECT pg_advisory_xact_lock($1, $2)', { bind: [LOAD_START_LOCK, depot.id], transaction: t });
     let target = input.targetCount;
     let destination = input.destinationSiteId ?? null;
     if (input.purpose === 'hire') {
@@ -89,16 +90,10 @@ export async function startLoad(
     }
     const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
     // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
-    const prefix = `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`;
-    // The next number after the highest of the day (not the count: a load numbered by another path leaves no gap to reuse).
-    const [{ n }] = (await q<{ n: number }>(
-      `SELECT coalesce(max(substring(reference FROM '[0-9]+$')::int), 0) + 1 AS n FROM loads WHERE reference LIKE $1`,
-      [`${prefix}%`],
-      t,
-    )) as [{ n: number }];
+    const reference = await nextReference('loads', `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`, 3, t);
     return Load.create(
       {
-        reference: `${prefix}${String(n).padStart(3, '0')}`,
+        reference,
         hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null,
         depotSiteId: depot.id,
         destinationSiteId: destination,

@@ -9,6 +9,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { AppError } from '@/lib/api-errors';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
 import { localDate } from '@/lib/calendar';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -54,10 +55,10 @@ export async function approveRepositioning(settings: PlanSettings, actor: AuditA
       if (lane.fromKind === 'depot') {
         for (const [k, bins] of lane.bins.entries()) {
           if (bins <= 0) continue;
-          const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM repositioning_orders', [], t)) as [{ n: number }];
+          const reference = await nextReference('repositioning_orders', 'RP-', 5, t);
           const [{ id }] = (await q<{ id: number }>(
             `INSERT INTO repositioning_orders (reference, plan_id, from_site_id, to_site_id, bin_type_id, quantity, trucks) VALUES ($1, $2, $3, $4, $5, $6, $7) RETURNING id`,
-            [`RP-${String(n).padStart(5, '0')}`, planId, Number(lane.fromKey), Number(lane.toKey), Number(view.types[k]!.key), bins, Math.max(1, lane.trucks)],
+            [reference, planId, Number(lane.fromKey), Number(lane.toKey), Number(view.types[k]!.key), bins, Math.max(1, lane.trucks)],
             t,
           )) as [{ id: number }];
           orders.push(id);

@@ -14,6 +14,7 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { localDate, type LocalDate } from '@/lib/calendar';
 import { canMove } from '@/lib/requests/request-status';
 import { TruckRun } from '@/models';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { loadCapacity, STANDARD_TRAILER, type Trailer } from './load-plan';
 import { binTypesForLoading } from './bin-types-for-loading.server';
 import { DEFAULT_ROAD_FACTOR, roadKm, type Point } from './lane-costs';
@@ -248,11 +249,9 @@ async function writeStops(runId: number, stops: RunCreate['stops'], t: Transacti
   );
 }
 
-async function nextReference(depotCode: string, plannedOn: LocalDate, t: Transaction): Promise<string> {
-  // Numbered per depot and day: RUN-261224-T1-02 is the T1 depot's second run planned for 24 Dec 2026.
-  const prefix = `RUN-${plannedOn.replaceAll('-', '').slice(2)}-${depotCode.replace(/^DEP-/, '')}-`;
-  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM truck_runs WHERE reference LIKE $1', [`${prefix}%`], t)) as [{ n: number }];
-  return `${prefix}${String(n).padStart(2, '0')}`;
+/** Numbered per depot and day: RUN-261224-T1-02 is the T1 depot's second run planned for 24 Dec 2026. */
+function runReference(depotCode: string, plannedOn: LocalDate, t: Transaction): Promise<string> {
+  return nextReference('truck_runs', `RUN-${plannedOn.replaceAll('-', '').slice(2)}-${depotCode.replace(/^DEP-/, '')}-`, 2, t);
 }
 
 /** Saves a planned run; inside the caller's transaction when given one (an approved repositioning plan's collection lanes). */
@@ -261,7 +260,7 @@ export async function createRun(input: RunCreate, actor: AuditActor, opts: { tra
     const depot = await checkDepot(input.depotId, t);
     await checkTrailer(input.trailerId, t);
     const sites = await checkStops(input.stops, t);
-    const reference = await nextReference(depot.code, input.plannedOn, t);
+    const reference = await runReference(depot.code, input.plannedOn, t);
     const row = await TruckRun.create(
       {
         reference,

@@ -1,9 +1,10 @@
-// Two people starting loads at one depot at the same moment: for one order they get the same load (never two, never
+// Two people starting loads (or saving collection runs) at one depot at the same moment: for one order they get the same load (never two, never
 // a refused duplicate number); for two orders they get two loads numbered one after the other.
 import { describe, expect, test } from 'vitest';
 import { usePoolWorld } from '../support/fixtures';
 import { HireOrder, Load } from '@/models';
 import { startLoad } from '@/lib/loads/load-service.server';
+import { createRun } from '@/lib/planning/truck-runs.server';
 
 const w = usePoolWorld();
 
@@ -38,5 +39,17 @@ describe('starting loads at once', () => {
     expect(new Set(references).size).toBe(3);
     const numbers = references.map((r) => Number(r.slice(-3))).sort((x, y) => x - y);
     expect(numbers[2]! - numbers[0]!).toBe(2); // consecutive
+  });
+});
+
+describe('creating runs at once', () => {
+  test('five runs for one depot and day created at the same moment get five different numbers in sequence', async () => {
+    const actor = { userId: w.planner.id, ip: '127.0.0.1' };
+    const made = await Promise.all(
+      Array.from({ length: 5 }, () =>
+        createRun({ depotId: w.depot.id, plannedOn: '2027-02-01', binTypeId: w.binType.id, stops: [{ siteId: w.customerSite.id, expectedBins: 2 }] }, actor),
+      ),
+    );
+    expect(made.map((r) => r.reference).sort()).toEqual(['01', '02', '03', '04', '05'].map((n) => `RUN-270201-T1-${n}`));
   });
 });
