@@ -22,6 +22,8 @@ interface Props {
   defer: string;
   /** Planners may send a bin past the operator's lapse margin with a reason (never past the order's wanted date). */
   canOverride?: boolean;
+  /** The trailers in use (admin data); the one chosen is checked against the bins on and named on the note. */
+  trailers: Array<{ id: number; name: string }>;
 }
 type Attempt = { key: string; label: string; ok: boolean; message: string; overridable?: boolean };
 
@@ -68,6 +70,7 @@ export default function LoadScanner(props: Props) {
         trailerSeals: val('seals')
           .split(/[\s,;]+/)
           .filter(Boolean),
+        trailerId: val('trailer') ? Number(val('trailer')) : null,
       });
       setStatus('dispatched');
       window.location.assign(`/loads/${encodeURIComponent(props.reference)}/note`);
@@ -156,6 +159,19 @@ export default function LoadScanner(props: Props) {
               Driver
             </label>
             <input id="driver" name="driver" className="field" maxLength={120} />
+          </div>
+          <div>
+            <label className="label" htmlFor="trailer">
+              Trailer
+            </label>
+            <select id="trailer" name="trailer" className="field" defaultValue="">
+              <option value="">Not recorded</option>
+              {props.trailers.map((t) => (
+                <option key={t.id} value={t.id}>
+                  {t.name}
+                </option>
+              ))}
+            </select>
           </div>
           <div>
             <label className="label" htmlFor="seals">

@@ -14,6 +14,9 @@ import { recordScan, type Actor, type ScanOutcome } from '@/lib/scans/scan-servi
 import { getSettings } from '@/lib/settings/settings.server';
 import { countsAsDemand } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { trailerById } from '@/lib/planning/truck-runs.server';
+import { binTypesForLoading } from '@/lib/planning/bin-types-for-loading.server';
+import { LOAD_KIND_BY_PURPOSE, loadCapacity } from '@/lib/planning/load-plan';
 
 export interface LoadBin {
   grai: string;
@@ -38,6 +41,7 @@ export interface LoadView {
   vehicleRegistration: string | null;
   driverName: string | null;
   trailerSeals: string[];
+  trailer: string | null;
   dispatchedAt: string | null;
   deliveredAt: string | null;
   receivedByName: string | null;
@@ -155,18 +159,45 @@ export async function addBinToLoad(
 }
 
 /** The truck leaves: carrier details go on the load, the order is marked dispatched when complete. */
-export async function dispatchLoad(loadId: number, input: { carrier: string; vehicleRegistration: string; driverName?: string | null; trailerSeals: string[] }) {
+export async function dispatchLoad(
+  loadId: number,
+  input: { carrier: string; vehicleRegistration: string; driverName?: string | null; trailerSeals: string[]; trailerId?: number | null },
+) {
   return sequelize.transaction(async (t) => {
     const load = await Load.findByPk(loadId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!load) throw new AppError('not_found', 'No such load.');
     if (load.status !== 'loading') throw new AppError('conflict', 'This load has already left.');
     const loaded = await loadedCount(load.id, t);
     if (loaded === 0) throw new AppError('unprocessable', 'Scan at least one bin onto the load first.');
-    Object.assign(load, { ...input, driverName: input.driverName || null, status: 'dispatched', dispatchedAt: new Date() });
+    if (input.trailerId != null) await checkLoadFitsTrailer(load, loaded, input.trailerId, t);
+    Object.assign(load, { ...input, trailerId: input.trailerId ?? null, driverName: input.driverName || null, status: 'dispatched', dispatchedAt: new Date() });
     await load.save({ transaction: t });
     if (load.hireOrderId) await syncOrderStatus(load.hireOrderId, t);
     return load;
   });
+}
+
+/**
+ * The chosen trailer must be in use and take the bins scanned on: its capacity by the load plan for the load's
+ * bin type (when all its bins are of one type), erected for hire and folded for transfers.
+ */
+async function checkLoadFitsTrailer(load: Load, loaded: number, trailerId: number, t: Transaction) {
+  const trailer = await trailerById(trailerId, t);
+  if (!trailer?.active) throw new AppError('validation_failed', 'There is no trailer in use by that number.', [{ path: 'trailerId', message: 'Choose a trailer.' }]);
+  const types = await q<{ id: number }>(
+    `SELECT DISTINCT a.bin_type_id AS id FROM scan_events e JOIN assets a ON a.id = e.asset_id
+      WHERE e.action = 'dispatch' AND e.payload ? 'loadId' AND (e.payload->>'loadId')::int = $1 AND e.voided_at IS NULL`,
+    [load.id],
+    t,
+  );
+  if (types.length !== 1) return;
+  const [type] = await binTypesForLoading(types[0]!.id, t);
+  const cap = type ? loadCapacity(trailer, type.bin, LOAD_KIND_BY_PURPOSE[load.purpose as 'hire' | 'transfer']) : null;
+  if (cap?.ok && loaded > cap.bins) {
+    throw new AppError('unprocessable', `${loaded} bins are on the load but the ${trailer.name} takes ${cap.bins} ${type!.name}: ${cap.explanation}`, {
+      capacity: cap.bins,
+    });
+  }
 }
 
 /** The delivery link printed on the note: the load reference and an HMAC of it (nothing stored). */
@@ -245,8 +276,9 @@ export async function confirmDelivery(load: Load, input: { receivedByName: strin
 export async function loadView(reference: string): Promise<LoadView | null> {
   const [row] = await q<Record<string, unknown>>(
     `SELECT l.*, ho.reference AS order_ref, ho.quantity, ho.needed_by, ho.product, o.name AS customer,
-            d.name AS depot_name, d.address AS depot_address, ds.name AS dest_name, ds.address AS dest_address
+            d.name AS depot_name, d.address AS depot_address, ds.name AS dest_name, ds.address AS dest_address, tr.name AS trailer_name
        FROM loads l JOIN sites d ON d.id = l.depot_site_id
+       LEFT JOIN trailers tr ON tr.id = l.trailer_id
        LEFT JOIN hire_orders ho ON ho.id = l.hire_order_id
        LEFT JOIN organisations o ON o.id = ho.customer_id
        LEFT JOIN sites ds ON ds.id = l.destination_site_id
@@ -287,6 +319,7 @@ export async function loadView(reference: string): Promise<LoadView | null> {
     vehicleRegistration: (row.vehicle_registration as string) ?? null,
     driverName: (row.driver_name as string) ?? null,
     trailerSeals: (row.trailer_seals as string[]) ?? [],
+    trailer: (row.trailer_name as string) ?? null,
     dispatchedAt: iso(row.dispatched_at),
     deliveredAt: iso(row.delivered_at),
     receivedByName: (row.received_by_name as string) ?? null,

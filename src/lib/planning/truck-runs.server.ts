@@ -19,7 +19,7 @@ import { loadCapacity, STANDARD_TRAILER, type Trailer } from './load-plan';
 import { binTypesForLoading } from './bin-types-for-loading.server';
 import { DEFAULT_ROAD_FACTOR, roadKm, type Point } from './lane-costs';
 import { driveOrder, routeKm, suggestRuns, type SuggestedRun } from './truck-runs';
-import { decideRunCommand, editableParts, runCommands, runProgress, type RunCommand, type RunProgress, type RunStatus } from './run-status';
+import { decideRunCommand, editableParts, overCapacity, runCommands, runProgress, type RunCommand, type RunProgress, type RunStatus } from './run-status';
 import type { RunCreate, RunPatch, RunSuggestQuery } from './run-forms';
 
 const q = <T extends object>(sql: string, bind: unknown[] = [], t?: Transaction) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
@@ -35,6 +35,7 @@ export interface TrailerRow {
   insideWidthMm: number;
   insideHeightMm: number;
   payloadKg: number;
+  active: boolean;
 }
 
 export interface RunCapacity {
@@ -44,7 +45,7 @@ export interface RunCapacity {
   binType: string;
 }
 
-const TRAILER_COLUMNS = `id, name, inside_length_mm AS "insideLengthMm", inside_width_mm AS "insideWidthMm", inside_height_mm AS "insideHeightMm", payload_kg AS "payloadKg"`;
+const TRAILER_COLUMNS = `id, name, inside_length_mm AS "insideLengthMm", inside_width_mm AS "insideWidthMm", inside_height_mm AS "insideHeightMm", payload_kg AS "payloadKg", active`;
 
 export async function trailerById(id: number, t?: Transaction): Promise<TrailerRow | null> {
   const [row] = await q<TrailerRow>(`SELECT ${TRAILER_COLUMNS} FROM trailers WHERE id = $1`, [id], t);
@@ -328,6 +329,12 @@ export async function updateRun(id: number, patch: RunPatch, actor: AuditActor):
     if (patch.carrier !== undefined) row.carrier = patch.carrier;
     if (patch.trailerId !== undefined) row.trailerId = patch.trailerId;
     if (patch.binTypeId !== undefined) row.binTypeId = patch.binTypeId;
+    if (row.status === 'confirmed' && patch.trailerId !== undefined) {
+      const capacity = await runCapacity(row.trailerId, row.binTypeId, t);
+      const expected = before.stops.reduce((n, s) => n + s.expected, 0);
+      const over = overCapacity({ expected, capacity: capacity?.bins ?? null });
+      if (over) throw new AppError('unprocessable', over);
+    }
     row.set('updatedAt', new Date());
     await row.save({ transaction: t });
     const after = { plannedOn: row.plannedOn, carrier: row.carrier, trailerId: row.trailerId, binTypeId: row.binTypeId, stops: await stopsOf(row.id, t) };
@@ -394,7 +401,11 @@ export async function commandRun(id: number, command: RunCommand, version: numbe
     const row = await lockRun(id, version, t);
     const stops = await stopsOf(row.id, t);
     const progress = runProgress(stops, await receivedBySite(row.id, t));
-    const decision = decideRunCommand({ status: row.status, carrier: row.carrier, stops: stops.length, received: progress.received }, command);
+    const capacity = command === 'confirm' ? await runCapacity(row.trailerId, row.binTypeId, t) : null;
+    const decision = decideRunCommand(
+      { status: row.status, carrier: row.carrier, stops: stops.length, received: progress.received, expected: progress.expected, capacity: capacity?.bins ?? null },
+      command,
+    );
     if (!decision.ok) throw new AppError('transition_refused', decision.reason);
     const before = { status: row.status };
     if (decision.to === 'confirmed') {
@@ -531,6 +542,8 @@ export interface RunView {
   stops: RunStopView[];
   progress: RunProgress;
   commands: Array<{ command: RunCommand; label: string }>;
+  /** Why a planned run cannot be confirmed yet (shown beside the commands), or null. */
+  confirmBlocked: string | null;
   editable: { stops: boolean; carrier: boolean };
 }
 
@@ -581,6 +594,8 @@ export async function runView(id: number): Promise<RunView | null> {
     [id],
   );
   const progress = await progressOf(id);
+  const capacity = await runCapacity(r.trailerId, r.binTypeId);
+  const facts = { status: r.status, carrier: r.carrier, stops: stopRows.length, received: progress.received, expected: progress.expected, capacity: capacity?.bins ?? null };
   let at: Point | null = r.depotLat !== null && r.depotLon !== null ? { lat: r.depotLat, lon: r.depotLon } : null;
   const stops = stopRows.map((s, i) => {
     const here = s.lat !== null && s.lon !== null ? { lat: s.lat, lon: s.lon } : null;
@@ -612,10 +627,14 @@ export async function runView(id: number): Promise<RunView | null> {
     trailer: r.trailerId !== null ? { id: r.trailerId, name: r.trailerName! } : null,
     binTypeId: r.binTypeId,
     roadKm: r.roadKm,
-    capacity: await runCapacity(r.trailerId, r.binTypeId),
+    capacity,
     stops,
     progress,
-    commands: runCommands({ status: r.status, carrier: r.carrier, stops: stops.length, received: progress.received }),
+    commands: runCommands(facts),
+    confirmBlocked: (() => {
+      const d = r.status === 'planned' ? decideRunCommand(facts, 'confirm') : null;
+      return d && !d.ok ? d.reason : null;
+    })(),
     editable: editableParts(r.status),
   };
 }
