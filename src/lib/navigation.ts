@@ -32,6 +32,7 @@ const NAV: NavItem[] = [
   { href: '/admin/customers', label: 'Customers', icon: 'handover', capability: 'sites.manage' },
   { href: '/admin/sites', label: 'Sites', icon: 'home', capability: 'sites.manage' },
   { href: '/admin/bin-types', label: 'Bin types', icon: 'folded', capability: 'sites.manage' },
+  { href: '/admin/trailers', label: 'Trailers', icon: 'truck', capability: 'sites.manage' },
   { href: '/admin/liner-specs', label: 'Liner specs', icon: 'lined', capability: 'liners.manage' },
   { href: '/admin/liner-suppliers', label: 'Liner suppliers', icon: 'handover', capability: 'liners.manage' },
   { href: '/admin/users', label: 'People', icon: 'users', capability: 'users.manage' },

@@ -2,13 +2,13 @@ import { useMemo, useState, type FormEvent } from 'react';
 import { Dialog, FieldProblem } from '@/components/ui/Dialog';
 import { Icon } from '@/components/ui/Icon';
 import { api, ApiError } from '@/lib/api.client';
-import { BIN_TYPES, CUSTOMERS, SITES, unCodeMeaning, type FieldSpec, type SetupKind, type SetupSpec } from '@/lib/pool-setup/setup-forms';
+import { BIN_TYPES, CUSTOMERS, SITES, TRAILERS, unCodeMeaning, type FieldSpec, type SetupKind, type SetupSpec } from '@/lib/pool-setup/setup-forms';
 
 type Row = { id: number; version: number; active: boolean } & Record<string, unknown>;
 type Owner = { id: number; name: string; kind: 'operator' | 'customer' };
 type Flash = { tone: 'good' | 'attention' | 'fault'; text: string };
 
-const SPECS = { customers: CUSTOMERS, sites: SITES, 'bin-types': BIN_TYPES } as unknown as Record<SetupKind, SetupSpec<Row>>;
+const SPECS = { customers: CUSTOMERS, sites: SITES, 'bin-types': BIN_TYPES, trailers: TRAILERS } as unknown as Record<SetupKind, SetupSpec<Row>>;
 const NUMERIC = new Set(['int', 'decimal']);
 const FROM_CLASS = { lg: 'hidden lg:table-cell', xl: 'hidden xl:table-cell', '2xl': 'hidden 2xl:table-cell' } as const;
 

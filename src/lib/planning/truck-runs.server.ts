@@ -26,7 +26,7 @@ const q = <T extends object>(sql: string, bind: unknown[] = [], t?: Transaction)
 // Capacity: the trailer's inside size and payload through the load plan
 // ---------------------------------------------------------------------------
 
-interface TrailerRow {
+export interface TrailerRow {
   id: number;
   name: string;
   insideLengthMm: number;
@@ -57,6 +57,11 @@ const TRAILER_COLUMNS = `id, name, inside_length_mm AS "insideLengthMm", inside_
 export async function trailerById(id: number, t?: Transaction): Promise<TrailerRow | null> {
   const [row] = await q<TrailerRow>(`SELECT ${TRAILER_COLUMNS} FROM trailers WHERE id = $1`, [id], t);
   return row ?? null;
+}
+
+/** The trailers in use, with their inside size and payload (the planner picks one per run or load). */
+export async function activeTrailers(): Promise<TrailerRow[]> {
+  return q<TrailerRow>(`SELECT ${TRAILER_COLUMNS} FROM trailers WHERE active ORDER BY name`);
 }
 
 /**

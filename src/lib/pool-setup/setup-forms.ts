@@ -8,6 +8,7 @@ import { SITE_KINDS, SITE_KIND_LABELS, type SiteKindName } from './setup-schemas
 import type { CustomerRow } from './customers.server';
 import type { SiteRow } from './sites.server';
 import type { BinTypeRow } from './bin-types.server';
+import type { TrailerRow } from './trailers.server';
 
 export type FieldType = 'text' | 'code' | 'email' | 'int' | 'decimal' | 'money' | 'currency' | 'textarea' | 'select' | 'checkbox';
 
@@ -194,4 +195,28 @@ export function unCodeMeaning(code: string): string | undefined {
   return code.trim() ? describeUnCode(code.trim().toUpperCase()) : undefined;
 }
 
-export type SetupKind = 'customers' | 'sites' | 'bin-types';
+export const TRAILERS: SetupSpec<TrailerRow> = {
+  title: 'Trailers',
+  intro:
+    'The trailers loads and collection runs are planned with: inside size and payload. A run’s truck capacity is worked out from them and the bin type (floor positions, stack levels, payload); without one the standard semi-trailer of common practice is used.',
+  noun: 'trailer',
+  apiBase: '/api/admin/trailers',
+  label: (r) => r.name,
+  search: (r) => r.name,
+  activeHint: 'A closed trailer is no longer offered for new runs; runs planned with it keep it.',
+  columns: [
+    { label: 'Name', value: (r) => r.name },
+    { label: 'Inside length × width × height', value: (r) => `${n(r.insideLengthMm)} × ${n(r.insideWidthMm)} × ${n(r.insideHeightMm)} mm`, num: true },
+    { label: 'Payload', value: (r) => kg(r.payloadKg), num: true },
+    { label: 'Runs', value: (r) => n(r.runs), num: true, from: 'lg' },
+  ],
+  fields: [
+    { name: 'name', label: 'Name', type: 'text', hint: 'As planners know it, e.g. Curtainsider 13.6 m.' },
+    { name: 'insideLengthMm', label: 'Inside length', type: 'int', unit: 'mm', group: 'Inside size', hint: 'A standard semi-trailer: about 13,600 mm.' },
+    { name: 'insideWidthMm', label: 'Inside width', type: 'int', unit: 'mm', pair: true, hint: 'About 2,450 mm.' },
+    { name: 'insideHeightMm', label: 'Inside height', type: 'int', unit: 'mm', hint: 'About 2,700 mm.' },
+    { name: 'payloadKg', label: 'Payload', type: 'int', unit: 'kg', pair: true, hint: 'About 24,000 kg.' },
+  ],
+};
+
+export type SetupKind = 'customers' | 'sites' | 'bin-types' | 'trailers';

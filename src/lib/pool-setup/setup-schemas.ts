@@ -192,3 +192,20 @@ export type BinTypeCreate = z.infer<typeof binTypeCreateSchema>;
 /** An edit names the fields it changes; the cross-field rules run on the merged row in the service. */
 export const binTypePatchSchema = binTypeObject.partial().required({ version: true }).strict();
 export type BinTypePatch = z.infer<typeof binTypePatchSchema>;
+
+// ---------------------------------------------------------------- trailers
+
+const trailerObject = z.object({
+  version,
+  name: text().trim().min(1, 'Enter a name, e.g. Curtainsider 13.6 m.').max(120, 'At most 120 characters.'),
+  insideLengthMm: wholeMm('inside length', 20_000).min(1000, 'At least 1,000 mm.'),
+  insideWidthMm: wholeMm('inside width', 3000).min(1000, 'At least 1,000 mm.'),
+  insideHeightMm: wholeMm('inside height', 4000).min(1000, 'At least 1,000 mm.'),
+  payloadKg: z.number({ invalid_type_error: 'The payload is a number of kilograms.' }).int('Whole kilograms.').min(100, 'At least 100 kg.').max(60_000, 'At most 60,000 kg.'),
+  active: z.boolean(),
+});
+
+export const trailerCreateSchema = trailerObject.omit({ version: true }).partial({ active: true }).strict();
+export type TrailerCreate = z.infer<typeof trailerCreateSchema>;
+export const trailerPatchSchema = trailerObject.partial().required({ version: true }).strict();
+export type TrailerPatch = z.infer<typeof trailerPatchSchema>;
