@@ -22,6 +22,7 @@ const NAV: NavItem[] = [
   { href: '/planning/orders', label: 'Hire orders', icon: 'truck', capability: 'orders.view' },
   { href: '/planning/runs', label: 'Collection runs', icon: 'route', capability: 'orders.view' },
   { href: '/planning/test-days', label: 'Test days', icon: 'wrench', capability: 'inspections.view' },
+  { href: '/repairs', label: 'Repairs', icon: 'wrench', capability: 'repairs.manage' },
   { href: '/planning/repositioning', label: 'Repositioning', icon: 'lanes', capability: 'orders.view' },
   { href: '/liners/stock', label: 'Liner stock', icon: 'lined', capability: 'liners.view' },
   { href: '/liners/purchase-orders', label: 'Liner orders', icon: 'truck', capability: 'liners.manage' },

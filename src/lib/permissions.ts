@@ -19,6 +19,8 @@ export const CAPABILITIES = {
   'scan.correct': ['planner', 'admin'],
   'inspections.record': ['yard', 'planner', 'admin'], // the test bench; never customers (records are internal)
   'inspections.view': ['yard', 'planner', 'admin'],
+  'repairs.work': ['yard', 'planner', 'admin'], // repair orders: read one, record work on it (the yard on a phone)
+  'repairs.manage': ['planner', 'admin'], // open one, estimate, place, retire the bin; the list
   'trips.view': ['planner', 'admin'],
   'loads.manage': ['yard', 'planner', 'admin'],
   'requests.view': ['planner', 'admin'],
@@ -108,6 +110,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/planning/runs', 'orders.view'], // collection truck runs; the API's POST/PATCH check orders.edit themselves
   ['/api/planning/orders', 'orders.view'],
   ['/api/planning/runs', 'orders.view'],
+  ['/api/planning/repositioning/', 'orders.edit'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],
   ['/admin/users', 'users.manage'],
@@ -140,6 +143,10 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/scan-events', 'scan.record'],
   ['/inspections', 'inspections.view'], // printable records; /bins/<grai>/inspect checks inspections.record itself
   ['/api/inspections', 'inspections.record'],
+  ['/repairs', 'repairs.manage', 'exact'], // the planners' list
+  ['/repairs/', 'repairs.work'], // one order; the yard records work on it
+  ['/api/repairs', 'repairs.manage', 'exact'], // open one
+  ['/api/repairs/', 'repairs.work'], // endpoint() checks repairs.manage on the planners' routes
   ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
   ['/api/yard/', 'home.yard'],
 ];

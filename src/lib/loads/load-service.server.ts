@@ -8,6 +8,7 @@ import { stableEventId } from '@/lib/scans/stable-event-id.server';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Load, HireOrder, Site } from '@/models';
 import { AppError } from '@/lib/api-errors';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { localDate } from '@/lib/calendar';
 import { recordScan, type Actor, type ScanOutcome } from '@/lib/scans/scan-service.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -44,6 +45,8 @@ export interface LoadView {
   bins: LoadBin[];
 }
 
+/** The advisory-lock class for starting loads at a depot (the second key is the depot). */
+const LOAD_START_LOCK = 7301;
 const q = <T extends object>(sql: string, bind: unknown[], t?: Transaction) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
 
 async function loadedCount(loadId: number, t?: Transaction): Promise<number> {
@@ -64,42 +67,49 @@ export async function startLoad(
   if (!depotId) throw new AppError('unprocessable', 'Choose the depot the load leaves from.');
   const depot = await Site.findByPk(depotId);
   if (!depot || depot.kind !== 'depot') throw new AppError('unprocessable', 'Loads leave from a depot.');
-  let target = input.targetCount;
-  let destination = input.destinationSiteId ?? null;
-  if (input.purpose === 'hire') {
-    const order = input.hireOrderId ? await HireOrder.findByPk(input.hireOrderId) : null;
-    if (!order || !countsAsDemand(order.status)) throw new AppError('unprocessable', 'Choose a confirmed hire order (drafts are not loaded).');
-    if (order.depotSiteId !== depot.id) throw new AppError('unprocessable', `Hire order ${order.reference} is served from another depot.`);
-    const existing = await Load.findOne({ where: { hireOrderId: order.id, status: 'loading', depotSiteId: depot.id } });
-    if (existing) return existing;
-    const [{ loaded }] = (await q<{ loaded: number }>('SELECT count(*)::int AS loaded FROM trips WHERE hire_order_id = $1', [order.id])) as [{ loaded: number }];
-    target ??= Math.max(1, Math.min(200, order.quantity - loaded));
-    destination = order.deliverySiteId;
-  } else {
-    const dest = destination ? await Site.findByPk(destination) : null;
-    if (!dest || dest.kind !== 'depot' || dest.id === depot.id) throw new AppError('unprocessable', 'A transfer goes to another depot.');
-    target ??= 40;
-  }
-  const settings = await getSettings();
-  const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
-  // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
-  const prefix = `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`;
-  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM loads WHERE reference LIKE $1', [`${prefix}%`])) as [{ n: number }];
-  return Load.create({
-    reference: `${prefix}${String(n).padStart(3, '0')}`,
-    hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null,
-    depotSiteId: depot.id,
-    destinationSiteId: destination,
-    purpose: input.purpose,
-    targetCount: target,
-    carrier: null,
-    vehicleRegistration: null,
-    driverName: null,
-    dispatchedAt: null,
-    deliveredAt: null,
-    receivedByName: null,
-    deliveryPhotoId: null,
-    createdBy: user.id,
+  const settings = await getSettings(); // read before the transaction: it must not wait for a second connection
+  // Two people starting loads at one depot at once: one at a time per depot (a transaction-scoped advisory lock),
+  // so the second finds the first's load for the same order instead of opening a second one.
+  return sequelize.transaction(async (t) => {
+    await sequelize.query('SELECT pg_advisory_xact_lock($1, $2)', { bind: [LOAD_START_LOCK, depot.id], transaction: t });
+    let target = input.targetCount;
+    let destination = input.destinationSiteId ?? null;
+    if (input.purpose === 'hire') {
+      const order = input.hireOrderId ? await HireOrder.findByPk(input.hireOrderId, { transaction: t }) : null;
+      if (!order || !countsAsDemand(order.status)) throw new AppError('unprocessable', 'Choose a confirmed hire order (drafts are not loaded).');
+      if (order.depotSiteId !== depot.id) throw new AppError('unprocessable', `Hire order ${order.reference} is served from another depot.`);
+      const existing = await Load.findOne({ where: { hireOrderId: order.id, status: 'loading', depotSiteId: depot.id }, transaction: t });
+      if (existing) return existing;
+      const [{ loaded }] = (await q<{ loaded: number }>('SELECT count(*)::int AS loaded FROM trips WHERE hire_order_id = $1', [order.id], t)) as [{ loaded: number }];
+      target ??= Math.max(1, Math.min(200, order.quantity - loaded));
+      destination = order.deliverySiteId;
+    } else {
+      const dest = destination ? await Site.findByPk(destination, { transaction: t }) : null;
+      if (!dest || dest.kind !== 'depot' || dest.id === depot.id) throw new AppError('unprocessable', 'A transfer goes to another depot.');
+      target ??= 40;
+    }
+    const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
+    // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
+    const reference = await nextReference('loads', `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`, 3, t);
+    return Load.create(
+      {
+        reference,
+        hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null,
+        depotSiteId: depot.id,
+        destinationSiteId: destination,
+        purpose: input.purpose,
+        targetCount: target,
+        carrier: null,
+        vehicleRegistration: null,
+        driverName: null,
+        dispatchedAt: null,
+        deliveredAt: null,
+        receivedByName: null,
+        deliveryPhotoId: null,
+        createdBy: user.id,
+      },
+      { transaction: t },
+    );
   });
 }
 

@@ -14,7 +14,9 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { localDate, type LocalDate } from '@/lib/calendar';
 import { canMove } from '@/lib/requests/request-status';
 import { TruckRun } from '@/models';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { loadCapacity, STANDARD_TRAILER, type Trailer } from './load-plan';
+import { binTypesForLoading } from './bin-types-for-loading.server';
 import { DEFAULT_ROAD_FACTOR, roadKm, type Point } from './lane-costs';
 import { driveOrder, routeKm, suggestRuns, type SuggestedRun } from './truck-runs';
 import { decideRunCommand, editableParts, runCommands, runProgress, type RunCommand, type RunProgress, type RunStatus } from './run-status';
@@ -33,16 +35,6 @@ export interface TrailerRow {
   insideWidthMm: number;
   insideHeightMm: number;
   payloadKg: number;
-}
-interface BinTypeRow {
-  id: number;
-  name: string;
-  footprint_length_mm: number;
-  footprint_width_mm: number;
-  height_erected_mm: number;
-  height_folded_mm: number;
-  tare_kg: string;
-  max_gross_kg: string;
 }
 
 export interface RunCapacity {
@@ -70,24 +62,9 @@ export async function activeTrailers(): Promise<TrailerRow[]> {
  */
 export async function runCapacity(trailerId: number | null, binTypeId: number | null, t?: Transaction): Promise<RunCapacity | null> {
   const trailer: Trailer & { name?: string } = (trailerId !== null ? await trailerById(trailerId, t) : null) ?? STANDARD_TRAILER;
-  const [type] = await q<BinTypeRow>(
-    `SELECT id, name, footprint_length_mm, footprint_width_mm, height_erected_mm, height_folded_mm, tare_kg, max_gross_kg FROM bin_types
-      WHERE ${binTypeId !== null ? 'id = $1' : 'active'} ORDER BY name LIMIT 1`,
-    binTypeId !== null ? [binTypeId] : [],
-    t,
-  );
+  const [type] = await binTypesForLoading(binTypeId, t);
   if (!type) return null;
-  const cap = loadCapacity(
-    trailer,
-    {
-      footprint: { lengthMm: type.footprint_length_mm, widthMm: type.footprint_width_mm },
-      heightErectedMm: type.height_erected_mm,
-      heightFoldedMm: type.height_folded_mm,
-      tareKg: Number(type.tare_kg),
-      maxGrossKg: Number(type.max_gross_kg),
-    },
-    { kind: 'folded' },
-  );
+  const cap = loadCapacity(trailer, type.bin, { kind: 'folded' });
   if (!cap.ok) return null;
   return { bins: cap.bins, explanation: cap.explanation, trailer: trailer.name ?? 'Trailer', binType: type.name };
 }
@@ -272,19 +249,18 @@ async function writeStops(runId: number, stops: RunCreate['stops'], t: Transacti
   );
 }
 
-async function nextReference(depotCode: string, plannedOn: LocalDate, t: Transaction): Promise<string> {
-  // Numbered per depot and day: RUN-261224-T1-02 is the T1 depot's second run planned for 24 Dec 2026.
-  const prefix = `RUN-${plannedOn.replaceAll('-', '').slice(2)}-${depotCode.replace(/^DEP-/, '')}-`;
-  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM truck_runs WHERE reference LIKE $1', [`${prefix}%`], t)) as [{ n: number }];
-  return `${prefix}${String(n).padStart(2, '0')}`;
+/** Numbered per depot and day: RUN-261224-T1-02 is the T1 depot's second run planned for 24 Dec 2026. */
+function runReference(depotCode: string, plannedOn: LocalDate, t: Transaction): Promise<string> {
+  return nextReference('truck_runs', `RUN-${plannedOn.replaceAll('-', '').slice(2)}-${depotCode.replace(/^DEP-/, '')}-`, 2, t);
 }
 
-export async function createRun(input: RunCreate, actor: AuditActor): Promise<{ id: number; reference: string }> {
-  return sequelize.transaction(async (t) => {
+/** Saves a planned run; inside the caller's transaction when given one (an approved repositioning plan's collection lanes). */
+export async function createRun(input: RunCreate, actor: AuditActor, opts: { transaction?: Transaction; planId?: number } = {}): Promise<{ id: number; reference: string }> {
+  const go = async (t: Transaction) => {
     const depot = await checkDepot(input.depotId, t);
     await checkTrailer(input.trailerId, t);
     const sites = await checkStops(input.stops, t);
-    const reference = await nextReference(depot.code, input.plannedOn, t);
+    const reference = await runReference(depot.code, input.plannedOn, t);
     const row = await TruckRun.create(
       {
         reference,
@@ -301,12 +277,16 @@ export async function createRun(input: RunCreate, actor: AuditActor): Promise<{ 
       { transaction: t },
     );
     await writeStops(row.id, input.stops, t);
+    if (opts.planId !== undefined) {
+      await sequelize.query('UPDATE truck_runs SET repositioning_plan_id = $2 WHERE id = $1', { bind: [row.id, opts.planId], transaction: t });
+    }
     await recordAudit(
       { actor, action: 'truck_run.create', entityType: 'truck_run', entityId: row.id, after: { reference, plannedOn: input.plannedOn, stops: input.stops } },
       { transaction: t },
     );
     return { id: row.id, reference };
-  });
+  };
+  return opts.transaction ? go(opts.transaction) : sequelize.transaction(go);
 }
 
 async function lockRun(id: number, version: number | null, t: Transaction): Promise<TruckRun> {

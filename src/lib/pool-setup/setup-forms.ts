@@ -163,6 +163,7 @@ export const BIN_TYPES: SetupSpec<BinTypeRow> = {
     { label: 'Tare / max gross', value: (r) => `${kg(r.tareKg)} / ${kg(r.maxGrossKg)}`, num: true, from: 'lg' },
     { label: 'UN code', value: (r) => r.unCode ?? 'none', ident: false },
     { label: 'Inspections', value: (r) => `${r.intermediateMonths} / ${r.fullMonths} months`, num: true, from: '2xl' },
+    { label: 'Period of use', value: (r) => (r.serviceLifeApplies ? `${r.serviceLifeYears} years` : 'no limit'), num: true, from: 'xl' },
     { label: 'Bins', value: (r) => n(r.bins), num: true },
   ],
   fields: [
@@ -187,6 +188,14 @@ export const BIN_TYPES: SetupSpec<BinTypeRow> = {
     { name: 'policyKind', label: 'Inspection policy', type: 'select', options: POLICY_OPTIONS },
     { name: 'intermediateMonths', label: 'Intermediate inspection every', type: 'int', unit: 'months', hint: 'At most 30 for UN-marked IBCs.' },
     { name: 'fullMonths', label: 'Full inspection every', type: 'int', unit: 'months', pair: true, hint: 'At most 60 for UN-marked IBCs.' },
+    {
+      name: 'serviceLifeApplies',
+      label: 'Limited period of use (rigid plastics inner receptacle)',
+      type: 'checkbox',
+      group: 'Period of use',
+      hint: 'ADR 4.1.1.15: rigid plastics IBCs and composites with a rigid plastics inner receptacle carry dangerous goods for 5 years from the inner receptacle’s manufacture, unless the competent authority allows otherwise. Not for bins lined with a single-use liner. Each bin then records the month its inner receptacle was made.',
+    },
+    { name: 'serviceLifeYears', label: 'Years of use', type: 'int', unit: 'years', pair: true, initial: '5', hint: 'At most 5; fewer where the substance asks for it.' },
   ],
 };
 

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { multilineText, text } from '@/lib/text-input';
 import { parseUnTypeCode } from '@/lib/bins/un-marking';
 import { DEFAULT_UN_POLICY, policyProblems } from '@/lib/inspections/inspection-due';
+import { ADR_SERVICE_LIFE_YEARS, serviceLifePolicyProblems } from '@/lib/inspections/service-life';
 import { tariffInputSchema } from '@/lib/planning/tariffs';
 
 const version = z.number().int().min(0);
@@ -158,6 +159,9 @@ const binTypeObject = z.object({
   policyKind: z.enum(['un', 'own']),
   intermediateMonths: z.number({ invalid_type_error: 'A number of months.' }).int('Whole months.').min(1, 'At least 1 month.').max(120, 'At most 120 months.'),
   fullMonths: z.number({ invalid_type_error: 'A number of months.' }).int('Whole months.').min(1, 'At least 1 month.').max(240, 'At most 240 months.'),
+  /** ADR 4.1.1.15: a rigid plastics inner receptacle's period of use (not for bins lined with a single-use liner). */
+  serviceLifeApplies: z.boolean().optional(),
+  serviceLifeYears: z.number({ invalid_type_error: 'A number of years.' }).int('Whole years.').min(1, 'At least 1 year.').max(5, 'ADR 4.1.1.15 allows at most 5 years.').optional(),
   active: z.boolean(),
 });
 
@@ -174,6 +178,9 @@ export function binTypeProblems(b: Omit<BinTypeFields, 'version' | 'active' | 'c
   if (b.policyKind === 'un' && !b.unCode)
     problems.push({ path: 'unCode', message: 'The UN inspection policy is for UN-marked bins: enter the UN code, or choose the operator’s own policy.' });
   const policy = { ...DEFAULT_UN_POLICY, kind: b.policyKind, intermediateMonths: b.intermediateMonths, fullMonths: b.fullMonths };
+  for (const p of serviceLifePolicyProblems({ applies: b.serviceLifeApplies ?? false, years: b.serviceLifeYears ?? ADR_SERVICE_LIFE_YEARS })) {
+    problems.push({ path: 'serviceLifeYears', message: `${p[0]!.toUpperCase() + p.slice(1)}.` });
+  }
   for (const p of policyProblems(policy)) {
     problems.push({ path: /full/.test(p) && !/intermediate/.test(p) ? 'fullMonths' : 'intermediateMonths', message: `${p[0]!.toUpperCase() + p.slice(1)}.` });
   }

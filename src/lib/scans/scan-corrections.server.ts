@@ -13,6 +13,7 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import { UNDO_REASON, undoSecondsLeft } from './undo-window';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { syncRepositioningOrder } from '@/lib/planning/repositioning-execution.server';
 
 // What each action wrote on its trip, cleared again when the scan is voided.
 const TRIP_FIELDS_BY_ACTION: Record<string, string> = {
@@ -94,6 +95,8 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
         : [];
     await undoTripEffect(event, t);
     if (onOrder?.hire_order_id) await syncOrderStatus(onOrder.hire_order_id, t);
+    const repositioningOrderId = (event.payload as { repositioningOrderId?: number } | null)?.repositioningOrderId;
+    if (event.action === 'dispatch' && repositioningOrderId) await syncRepositioningOrder(repositioningOrderId, t);
     const state = await rederiveAsset(event.asset_id, t);
     await recordAudit(
       {

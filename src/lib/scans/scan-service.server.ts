@@ -29,12 +29,15 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 import { afterRunReceive, checkRunReceive } from '@/lib/planning/truck-runs.server';
+import { claimRepositioning, syncRepositioningOrder } from '@/lib/planning/repositioning-execution.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 import { specFitFor } from '@/lib/liners/liner-specs.server';
 import { FIT_FROM_STOPPED_LOT, fitBeforeStopKnown } from '@/lib/liners/liner-recall';
 import { dispatchLapseCheck } from '@/lib/inspections/dispatch-check.server';
 import { overrideAccepted } from '@/lib/inspections/dispatch-check';
+import { repairEffectsOfScan } from '@/lib/inspections/repair-hooks.server';
+import { serviceLifeEnd } from '@/lib/inspections/service-life';
 
 export type { FillRecord };
 
@@ -151,6 +154,9 @@ interface AssetRow {
   next_full_due: string | null;
   intermediate_months: number;
   full_months: number;
+  service_life_applies: boolean;
+  service_life_years: number;
+  inner_made_month: string | null;
 }
 interface SiteRow {
   id: number;
@@ -184,7 +190,8 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const asset = await one<AssetRow>(
     `SELECT a.id, a.grai, a.bin_type_id, a.status, a.site_id, s.kind AS site_kind, a.customer_id, a.current_trip_id, a.leg,
             a.prep_checked, a.liner_lot_id, a.filled, a.trip_count, a.next_due, a.last_scan_at, a.version,
-            a.next_intermediate_due, a.next_full_due, bt.intermediate_months, bt.full_months
+            a.next_intermediate_due, a.next_full_due, bt.intermediate_months, bt.full_months,
+            bt.service_life_applies, bt.service_life_years, a.inner_made_month::text
        FROM assets a JOIN bin_types bt ON bt.id = a.bin_type_id LEFT JOIN sites s ON s.id = a.site_id WHERE a.id = $1`,
     [input.assetId],
     t,
@@ -221,8 +228,11 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     inspection: input.inspectionResult,
   });
   if (!decision.ok) throw refusal(decision);
+  refuseAfterServiceLife(asset, input.action, today);
   const { order, lotNumber, flags: inputFlags } = await checkActionInputs(actor, asset, input, site, today, t, { occurredAt, receivedAt: now });
   const runFacts = input.runId !== undefined ? await checkRunReceive(input.runId, input.action, site?.id ?? null, asset, t) : null;
+  // A transfer dispatch on a load between two depots carries out the oldest open repositioning order of its lane.
+  const repositioning = input.action === 'dispatch' && input.purpose === 'transfer' && input.loadId ? await claimRepositioning(input.loadId, asset.id, t) : null;
   const override =
     order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire'
       ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t)
@@ -235,7 +245,13 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const opened = typeof trip === 'object' ? trip : null;
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
-  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}), ...(runFacts ?? {}) };
+  const named = {
+    ...(lotNumber ? { lotNumber } : {}),
+    ...(order ? { orderRef: order.reference } : {}),
+    ...(override ? { override } : {}),
+    ...(runFacts ?? {}),
+    ...(repositioning ?? {}),
+  };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
     r.action,
     r.occurredAt,
@@ -260,6 +276,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const eventId = inserted[inserted.length - 1]!.id;
   // A run received in full is done (its requests collected).
   if (runFacts) await afterRunReceive(input.runId!, t);
+  if (repositioning) await syncRepositioningOrder(repositioning.repositioningOrderId, t);
 
   // 5. The bin's current state follows the log, guarded by its version.
   const { version, next } = await applyPatch(asset, decision, opened, occurredAt, t);
@@ -268,6 +285,22 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const moves = movesForScan({ action: input.action, before: snapshotOf(asset), after: next, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt });
   await insertMoves(
     moves.map((m) => ({ ...m, scan_event_id: eventId })),
+    t,
+  );
+
+  // 7. The bin's repair order: a failed prep check opens one; repair shop, retirement and release follow it.
+  await repairEffectsOfScan(
+    {
+      action: input.action,
+      assetId: asset.id,
+      eventId,
+      siteId: site?.id ?? null,
+      siteKind: site?.kind ?? null,
+      actorId: actor.id,
+      prepResult: input.prepResult,
+      faults: input.faults,
+      note: input.note,
+    },
     t,
   );
 
@@ -342,6 +375,23 @@ async function checkLapseBeforeDispatch(actor: Actor, assetId: number, order: Or
   if (!overrideAccepted(check, input.overrideReason))
     throw new AppError('validation_failed', 'Say why the bin may go anyway (at least a few words).', [{ path: 'overrideReason', message: 'Give the reason for the override.' }]);
   return { code: check.code, lastDay: check.lastDay, expectedBackOn: check.expectedBackOn, reason: input.overrideReason.trim(), by: actor.id };
+}
+
+/**
+ * ADR 4.1.1.15, enforced like the tests: once the inner receptacle's period of use has ended the bin is not lined
+ * or filled any more (a hire dispatch is refused by the lapse check, which takes the earlier of test and period).
+ */
+function refuseAfterServiceLife(asset: AssetRow, action: Action, today: string) {
+  if (action !== 'fit_liner' && action !== 'fill_seal') return;
+  if (!asset.service_life_applies || !asset.inner_made_month) return;
+  const ends = serviceLifeEnd({ applies: true, years: asset.service_life_years }, asset.inner_made_month.slice(0, 7));
+  if (ends !== null && ends < today) {
+    throw new AppError(
+      'transition_refused',
+      `Its inner receptacle's period of use ended on ${ends} (ADR 4.1.1.15): it may not be ${action === 'fit_liner' ? 'lined' : 'filled'} any more. Replace the inner receptacle or retire the bin.`,
+      { reason: 'service_life_ended', action, lastDay: ends },
+    );
+  }
 }
 
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */

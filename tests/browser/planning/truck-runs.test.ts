@@ -62,6 +62,15 @@ describe('collection runs', () => {
     await planner.click('[data-command="confirm"]');
     await planner.waitForFunction(() => document.querySelector('[data-run-status]')?.getAttribute('data-run-status') === 'confirmed');
     await screenshot(planner, 'run-confirmed-desktop');
+    for (const [width, name] of [
+      [1920, 'wide'],
+      [390, 'phone'],
+    ] as const) {
+      await planner.setViewportSize({ width, height: 900 });
+      await expectNoPageOverflow(planner, `run page at ${width} px`);
+      await screenshot(planner, `run-confirmed-${name}`);
+    }
+    await planner.setViewportSize({ width: 1280, height: 860 });
     const stored = await one<{ reference: string; scheduled: number }>(
       `SELECT r.reference, (SELECT count(*)::int FROM collection_requests c WHERE c.truck_run_id = r.id AND c.status = 'scheduled') AS scheduled FROM truck_runs r WHERE r.id = $1`,
       [runId],

@@ -68,6 +68,7 @@ interface Other {
   ownGrai: string;
   ownBinId: number;
   inspectionId: number;
+  repairId: number;
 }
 
 let other: Other;
@@ -145,6 +146,7 @@ beforeAll(async () => {
     photoId,
     viewId: view?.id ?? 1,
     inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
+    repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [
       b.org_name,
@@ -177,6 +179,8 @@ function exampleUrl(pattern: string, o: Other): string {
     // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
     '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
+    // Trailers are the operator's admin data: any id will do.
+    '/api/admin/trailers/[id]': '/api/admin/trailers/1',
     '/liners/stock/[depot]': '/liners/stock/1',
     // A lot's trace names the customers who received its liners: planners only, whoever's lot it is.
     '/liners/lots/[id]/trace': '/liners/lots/1/trace',
@@ -204,6 +208,7 @@ function exampleUrl(pattern: string, o: Other): string {
     '/planning/runs/[id]/sheet': '/planning/runs/1/sheet',
     '/yard/runs/[id]': '/yard/runs/1',
     '/api/yard/runs/[id]': '/api/yard/runs/1',
+    '/api/planning/repositioning/plans/[id]/withdraw': '/api/planning/repositioning/plans/1/withdraw',
     '/api/planning/orders/[id]': `/api/planning/orders/${o.orderId}`,
     '/api/planning/orders/[id]/status': `/api/planning/orders/${o.orderId}/status`,
     '/api/public/bins/[grai]/[form]': `/api/public/bins/${o.grai}/collection-request`,
@@ -222,6 +227,11 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/inspections/[id]/amend': `/api/inspections/${o.inspectionId}/amend`,
     '/bins/[grai]/inspect': `/bins/${o.grai}/inspect`,
     '/inspections/[id]': `/inspections/${o.inspectionId}`,
+    // Repair orders are the operator's own (customers reach none of them); any order will do.
+    '/repairs/[id]': `/repairs/${o.repairId}`,
+    '/api/repairs/[id]': `/api/repairs/${o.repairId}`,
+    '/api/repairs/[id]/work': `/api/repairs/${o.repairId}/work`,
+    '/api/repairs/[id]/retire': `/api/repairs/${o.repairId}/retire`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -512,6 +522,7 @@ describe("a user of A limited to one site asks every route about A's other site"
       photoId,
       viewId: view?.id ?? 1,
       inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
+      repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
       ownGrai: own?.grai ?? bin.grai,
