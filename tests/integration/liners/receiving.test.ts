@@ -40,7 +40,9 @@ describe('receiving liners at the home depot', () => {
 
     expect((await appErrorOf(receiveAtDepot(yardUser, base, null, { now: NOW }))).message).toMatch(/declaration of compliance/);
     expect((await appErrorOf(receiveAtDepot(yardUser, { ...base, expiryDate: '2026-11-30' }, { bytes: PDF, filename: 'd.pdf' }, { now: NOW }))).message).toMatch(/expired already/);
-    expect((await appErrorOf(receiveAtDepot(yardUser, base, { bytes: new TextEncoder().encode('plain text'), filename: 'd.pdf' }, { now: NOW }))).code).toBe('unsupported_media_type');
+    expect((await appErrorOf(receiveAtDepot(yardUser, base, { bytes: new TextEncoder().encode('plain text'), filename: 'd.pdf' }, { now: NOW }))).code).toBe(
+      'unsupported_media_type',
+    );
     expect(await LinerLot.count({ where: { lotNumber: 'YL-1' } })).toBe(0);
     expect(await Attachment.count({ where: { purpose: 'certificate' } })).toBe(0);
 
