@@ -29,6 +29,7 @@ export const CAPABILITIES = {
   'tariffs.manage': ['admin'],
   'liners.view': ['yard', 'planner', 'admin'],
   'liners.manage': ['planner', 'admin'], // liner specs, suppliers and their terms
+  'liners.move': ['yard', 'planner', 'admin'], // receive, count, transfer and kit liners at one's home depot
   'portal.view': ['customer'],
   'users.manage': ['admin'],
   'settings.manage': ['admin'],
@@ -83,6 +84,10 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/loads', 'loads.manage'],
   ['/liners/lots/', 'liners.manage'], // a lot's trace: customers, fill sites, products; hold, recall, notices
   ['/api/liners/lots/', 'liners.manage'],
+  ['/api/liners/receipts', 'liners.move'],
+  ['/api/liners/counts', 'liners.move'],
+  ['/api/liners/transfers', 'liners.move'],
+  ['/api/liners/kits', 'liners.move'],
   ['/liners/purchase-orders', 'liners.manage'],
   ['/api/liners/purchase-orders', 'liners.manage'],
   ['/liners', 'liners.view'],

@@ -61,12 +61,20 @@ export function digitalLinkElements(text: string): string | null {
   return out.join('');
 }
 
+const GROUP_SEPARATOR = String.fromCharCode(29);
+
+/** Text that is a carton's code rather than a lot number typed by hand (brackets, the separator, a URI, AI 01 first). */
+export function looksLikeCartonCode(text: string): boolean {
+  const t = text.trim();
+  return t.startsWith('(') || t.startsWith(']') || t.includes(GROUP_SEPARATOR) || /^https?:\/\//.test(t) || /^01\d{14}/.test(t);
+}
+
 export function readCartonLabel(raw: string): CartonLabel | null {
   const text = raw.trim();
   if (!text) return null;
   const dl = digitalLinkElements(text);
   if (dl) return fromElements(dl, 'digital_link');
-  if (text.startsWith('(') || text.startsWith(']') || text.includes('\u001d') || /^01\d{14}/.test(text)) {
+  if (looksLikeCartonCode(text)) {
     const parsed = fromElements(text, 'gs1');
     if (parsed) return parsed;
   }

@@ -319,3 +319,22 @@ export async function ledgerAt(f: LedgerFilter): Promise<LedgerLine[]> {
     bind,
   );
 }
+
+export interface CountDifference {
+  occurredAt: Date;
+  lotNumber: string;
+  counted: number;
+  expected: number;
+  who: string | null;
+  note: string | null;
+}
+
+/** Stock counts at the depot that found a difference (the adjustment they made), newest first. */
+export async function countDifferences(siteId: number, limit = 20): Promise<CountDifference[]> {
+  return rows<CountDifference>(
+    `SELECT m.occurred_at AS "occurredAt", l.lot_number AS "lotNumber", m.counted, m.expected, u.name AS who, m.reason AS note
+       FROM liner_moves m JOIN liner_lots l ON l.id = m.lot_id LEFT JOIN users u ON u.id = m.user_id
+      WHERE m.site_id = $1 AND m.kind = 'counted' AND m.quantity <> 0 ORDER BY m.occurred_at DESC, m.id DESC LIMIT $2`,
+    [siteId, limit],
+  );
+}

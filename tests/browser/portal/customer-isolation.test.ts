@@ -191,6 +191,8 @@ function exampleUrl(pattern: string, o: Other): string {
     '/liners/purchase-orders/[id]': '/liners/purchase-orders/1',
     '/api/liners/purchase-orders/[id]/mail': '/api/liners/purchase-orders/1/mail',
     '/api/liners/purchase-orders/[id]/close': '/api/liners/purchase-orders/1/close',
+    // A transfer between the operator's depots (the sent move's id).
+    '/api/liners/transfers/[id]/arrive': '/api/liners/transfers/1/arrive',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,
