@@ -4,7 +4,8 @@
 // field means "not given" (null). Limits match the columns of
 // collection_requests and damage_reports.
 import { z } from 'zod';
-import { CONTROL_MESSAGE, multilineText, text } from '@/lib/text-input';
+import { CONTROL_MESSAGE, DATE_RANGE_MESSAGE, inDateRange, multilineText, text } from '@/lib/text-input';
+import { isLocalDate } from '@/lib/calendar';
 import { publicWords, type PublicTranslate } from './public-words';
 
 const english = publicWords('en');
@@ -85,6 +86,29 @@ export function collectionRequestFieldsIn(t: PublicTranslate) {
       }
     });
 }
+
+/**
+ * A collection request a planner records for a customer (a phone call, a mail): the customer site, how many bins,
+ * the day they are ready and who to ask for. The customer follows from the site.
+ */
+export const plannerCollectionRequest = z
+  .object({
+    siteId: z.number({ required_error: 'Choose the customer site.', invalid_type_error: 'Choose the customer site.' }).int().positive('Choose the customer site.'),
+    quantity: z
+      .number({ required_error: 'Say how many bins are ready.', invalid_type_error: 'Give the number of bins as a whole number.' })
+      .int('Give the number of bins as a whole number.')
+      .min(1, 'At least one bin.')
+      .max(MAX_BINS_PER_REQUEST, `At most ${MAX_BINS_PER_REQUEST} bins in one request.`),
+    readyOn: text({ required_error: 'Give the day the bins are ready.' }).refine(isLocalDate, 'must be a date like 2027-01-14').refine(inDateRange, DATE_RANGE_MESSAGE),
+    contactName: text({ required_error: 'Name the person to ask for at the site.' })
+      .trim()
+      .min(2, 'Name the person to ask for at the site.')
+      .max(MAX_NAME_CHARS, `At most ${MAX_NAME_CHARS} characters.`),
+    contactPhone: phoneField(english),
+    note: optionalText(MAX_NOTE_CHARS, `At most ${MAX_NOTE_CHARS} characters.`, true),
+  })
+  .strict();
+export type PlannerCollectionRequest = z.output<typeof plannerCollectionRequest>;
 
 /** "Report damage", its notes in the sender's language. */
 export function damageReportFieldsIn(t: PublicTranslate) {
