@@ -46,10 +46,9 @@ describe('collection runs', () => {
     await record.locator('#pcr-site').selectOption(String(sites[1]!.id));
     await record.getByRole('button', { name: 'Save the request' }).click();
     await planner.waitForURL(/\/requests#collections$/);
-    const recorded = await one<{ source: string; quantity: number }>(
-      `SELECT source, quantity FROM collection_requests WHERE site_id = $1 ORDER BY id DESC LIMIT 1`,
-      [sites[1]!.id],
-    );
+    const recorded = await one<{ source: string; quantity: number }>(`SELECT source, quantity FROM collection_requests WHERE site_id = $1 ORDER BY id DESC LIMIT 1`, [
+      sites[1]!.id,
+    ]);
     expect(recorded).toEqual({ source: 'planner', quantity: 1 });
     await screenshot(planner, 'requests-recorded-desktop');
 
