@@ -155,11 +155,12 @@ function ensureRole(binDir) {
 }
 
 /** Creates the database when missing; with `fresh`, drops it first. */
-export function ensureDatabase(binDir, name, { fresh = false } = {}) {
-  if (!/^[a-z_][a-z0-9_]*$/.test(name)) throw new Error(`bad database name ${name}`);
+/** Creates the database when missing (`fresh`: drops it first); `template` copies another, e.g. a seeded one. */
+export function ensureDatabase(binDir, name, { fresh = false, template = null } = {}) {
+  for (const n of [name, template].filter(Boolean)) if (!/^[a-z_][a-z0-9_]*$/.test(n)) throw new Error(`bad database name ${n}`);
   if (fresh) psql(binDir, `DROP DATABASE IF EXISTS ${name} WITH (FORCE)`);
   const exists = psql(binDir, `SELECT 1 FROM pg_database WHERE datname = '${name}'`);
-  if (!exists) psql(binDir, `CREATE DATABASE ${name} OWNER ${APP_ROLE}`);
+  if (!exists) psql(binDir, `CREATE DATABASE ${name} OWNER ${APP_ROLE}${template ? ` TEMPLATE ${template}` : ''}`);
 }
 
 export function stopPostgres() {

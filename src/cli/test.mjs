@@ -4,8 +4,9 @@
 //   npm test -- unit integration   only the named suites
 //   npm test -- browser -- login   extra arguments after a second -- go to vitest (e.g. a file filter)
 import { say, ensureDependencies, ensureDebianPackages, authSecret, migrate, seed, buildIfStale, bin, run, startChild, shutdown } from './setup.mjs';
-import { startPostgres, ensureDatabase, databaseUrl } from './postgres.mjs';
+import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
 import { spawnSync } from 'node:child_process';
+import { browserFiles, runBrowserLanes } from './browser-lanes.mjs';
 
 const SUITES = ['lint', 'unit', 'integration', 'browser'];
 const argv = process.argv.slice(2);
@@ -13,6 +14,15 @@ const sep = argv.indexOf('--');
 const chosen = (sep >= 0 ? argv.slice(0, sep) : argv).filter((a) => SUITES.includes(a));
 const vitestExtra = sep >= 0 ? argv.slice(sep + 1) : [];
 const suites = chosen.length ? chosen : SUITES;
+
+// The browser suite runs in lanes side by side (src/cli/browser-lanes.mjs), each with its own database copy and
+// mail server; LOOPFOLD_BROWSER_LANES=1 runs it as one.
+const browserFilters = vitestExtra.filter((a) => !a.startsWith('-'));
+const laneCount =
+  suites.includes('browser') && !process.env.TEST_DATABASE_URL
+    ? Math.max(1, Math.min(Number(process.env.LOOPFOLD_BROWSER_LANES ?? 2) || 1, browserFiles(projectRoot, browserFilters).length))
+    : 1;
+const laneDb = (i) => (i === 0 ? 'loopfold_e2e' : `loopfold_e2e_${i + 1}`);
 
 const timings = [];
 function timed(name, fn) {
@@ -65,13 +75,13 @@ try {
       )
     : null;
   const env = { AUTH_SECRET: authSecret(), ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
-  let testDb, e2eDb;
+  let testDb, e2eDb, pgBin;
   timed('databases', () => {
     if (process.env.TEST_DATABASE_URL) {
       testDb = process.env.TEST_DATABASE_URL;
       e2eDb = process.env.E2E_DATABASE_URL ?? testDb;
     } else {
-      const pgBin = startPostgres();
+      pgBin = startPostgres();
       ensureDatabase(pgBin, 'loopfold_test', { fresh: true });
       ensureDatabase(pgBin, 'loopfold_e2e', { fresh: true });
       testDb = databaseUrl('loopfold_test');
@@ -89,6 +99,8 @@ try {
       // rules, fewer bins, so the browser suite's set-up stays quick.
       process.env.DEMO_BINS ??= '200';
       seed(e2eDb);
+      // Each further lane gets a copy of the seeded database (a template copy takes a second, a seed many).
+      for (let i = 1; i < laneCount; i += 1) ensureDatabase(pgBin, laneDb(i), { fresh: true, template: laneDb(0) });
     }
   });
 
@@ -107,10 +119,29 @@ try {
     const buildError = await building;
     timings.push(['build (wait)', (Date.now() - t0) / 1000]);
     if (buildError) throw buildError;
-    const smtpPort = process.env.LOOPFOLD_TEST_SMTP_PORT ?? '2526';
-    startChild('test mail server', process.execPath, ['src/cli/mail-fake.mjs'], { LOOPFOLD_SMTP_PORT: smtpPort, DATABASE_URL: e2eDb });
+    // One local mail server per lane (ports 100 apart), storing into that lane's database.
+    const smtpBase = Number(process.env.LOOPFOLD_TEST_SMTP_PORT ?? '2526');
+    const lanes = Array.from({ length: laneCount }, (_, i) => {
+      const smtpPort = String(smtpBase + i * 100);
+      const database = i === 0 ? e2eDb : databaseUrl(laneDb(i));
+      startChild(`test mail server ${i + 1}`, process.execPath, ['src/cli/mail-fake.mjs'], { LOOPFOLD_SMTP_PORT: smtpPort, DATABASE_URL: database });
+      return { env: { DATABASE_URL: database, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' } };
+    });
     await new Promise((r) => setTimeout(r, 800));
-    failed = !timed('browser', () => vitest('browser', { ...env, DATABASE_URL: e2eDb, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' })) || failed;
+    const started = Date.now();
+    const passed =
+      laneCount === 1
+        ? vitest('browser', { ...env, ...lanes[0].env })
+        : await runBrowserLanes({
+            root: projectRoot,
+            vitestBin: bin('vitest'),
+            files: browserFiles(projectRoot, browserFilters),
+            lanes,
+            flags: vitestExtra.filter((a) => a.startsWith('-')),
+            baseEnv: env,
+          });
+    timings.push([laneCount === 1 ? 'browser' : `browser (${laneCount} lanes)`, (Date.now() - started) / 1000]);
+    failed = !passed || failed;
   }
 } catch (err) {
   console.error(`\n[loopfold] test set-up failed: ${err.message}`);

@@ -19,6 +19,8 @@ export const CAPABILITIES = {
   'scan.correct': ['planner', 'admin'],
   'inspections.record': ['yard', 'planner', 'admin'], // the test bench; never customers (records are internal)
   'inspections.view': ['yard', 'planner', 'admin'],
+  'repairs.work': ['yard', 'planner', 'admin'], // repair orders: read one, record work on it (the yard on a phone)
+  'repairs.manage': ['planner', 'admin'], // open one, estimate, place, retire the bin; the list
   'trips.view': ['planner', 'admin'],
   'loads.manage': ['yard', 'planner', 'admin'],
   'requests.view': ['planner', 'admin'],
@@ -27,6 +29,7 @@ export const CAPABILITIES = {
   'tariffs.manage': ['admin'],
   'liners.view': ['yard', 'planner', 'admin'],
   'liners.manage': ['planner', 'admin'], // liner specs, suppliers and their terms
+  'liners.move': ['yard', 'planner', 'admin'], // receive, count, transfer and kit liners at one's home depot
   'portal.view': ['customer'],
   'counts.resolve': ['planner', 'admin'], // settling the differences of customers' monthly counts
   'users.manage': ['admin'],
@@ -81,6 +84,14 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/loads/confirm/', 'public'], // the receiving end confirms delivery through the link on the dispatch note
   ['/loads', 'loads.manage'],
   ['/api/loads', 'loads.manage'],
+  ['/liners/lots/', 'liners.manage'], // a lot's trace: customers, fill sites, products; hold, recall, notices
+  ['/api/liners/lots/', 'liners.manage'],
+  ['/api/liners/receipts', 'liners.move'],
+  ['/api/liners/counts', 'liners.move'],
+  ['/api/liners/transfers', 'liners.move'],
+  ['/api/liners/kits', 'liners.move'],
+  ['/liners/purchase-orders', 'liners.manage'],
+  ['/api/liners/purchase-orders', 'liners.manage'],
   ['/liners', 'liners.view'],
   ['/api/liners/', 'liners.view'],
   ['/yard', 'home.yard'],
@@ -103,6 +114,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/planning/runs', 'orders.view'], // collection truck runs; the API's POST/PATCH check orders.edit themselves
   ['/api/planning/orders', 'orders.view'],
   ['/api/planning/runs', 'orders.view'],
+  ['/api/planning/repositioning/', 'orders.edit'],
   ['/api/requests/', 'requests.view'],
   ['/admin/mail', 'mail.read'],
   ['/admin/users', 'users.manage'],
@@ -113,6 +125,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/admin/sites', 'sites.manage'],
   ['/admin/customers', 'sites.manage'],
   ['/admin/bin-types', 'sites.manage'],
+  ['/admin/trailers', 'sites.manage'],
+  ['/api/admin/trailers', 'sites.manage'],
   ['/api/admin/sites', 'sites.manage'],
   ['/api/admin/customers', 'sites.manage'],
   ['/api/admin/bin-types', 'sites.manage'],
@@ -133,6 +147,10 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/scan-events', 'scan.record'],
   ['/inspections', 'inspections.view'], // printable records; /bins/<grai>/inspect checks inspections.record itself
   ['/api/inspections', 'inspections.record'],
+  ['/repairs', 'repairs.manage', 'exact'], // the planners' list
+  ['/repairs/', 'repairs.work'], // one order; the yard records work on it
+  ['/api/repairs', 'repairs.manage', 'exact'], // open one
+  ['/api/repairs/', 'repairs.work'], // endpoint() checks repairs.manage on the planners' routes
   ['/api/attachments', 'scan.record'], // photos for scans; a customer's only their own organisation's (checked per file)
   ['/api/yard/', 'home.yard'],
 ];

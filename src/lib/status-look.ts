@@ -29,7 +29,7 @@ export const STATUS_LOOK: Record<Status, { label: string; icon: IconName; tone: 
 export const TEST_LAPSED_LOOK: { label: string; icon: IconName; tone: Tone } = { label: 'Test lapsed', icon: 'alert', tone: 'fault' };
 
 /** How a liner lot's state on the stock page is shown (the same badge: word, icon, tone). */
-export const LOT_STATES = ['in_time', 'at_risk', 'expires_soon', 'on_hold', 'recalled', 'expired'] as const;
+export const LOT_STATES = ['in_time', 'at_risk', 'expires_soon', 'on_hold', 'recalled', 'expired', 'released'] as const;
 export type LotState = (typeof LOT_STATES)[number];
 export const LOT_LOOK: Record<LotState, { label: string; icon: IconName; tone: Tone }> = {
   in_time: { label: 'Used in time', icon: 'check', tone: 'good' },
@@ -38,6 +38,7 @@ export const LOT_LOOK: Record<LotState, { label: string; icon: IconName; tone: T
   on_hold: { label: 'On hold', icon: 'hold', tone: 'attention' },
   recalled: { label: 'Recalled', icon: 'hold', tone: 'fault' },
   expired: { label: 'Expired', icon: 'retired', tone: 'fault' },
+  released: { label: 'Released', icon: 'check', tone: 'good' },
 };
 
 /** Badge classes per tone (tints behind ink text keep AA contrast). */

@@ -17,6 +17,11 @@ export class LinerLot extends Model<InferAttributes<LinerLot>, InferCreationAttr
   declare linerSpecId: CreationOptional<number | null>;
   declare supplierId: CreationOptional<number | null>;
   declare statusReason: string | null;
+  /** When the lot was last put on hold, recalled or released (null: never since it arrived). */
+  declare statusChangedAt: CreationOptional<Date | null>;
+  declare statusChangedBy: CreationOptional<number | null>;
+  declare purchaseOrderId: CreationOptional<number | null>;
+  declare manufacturedOn: CreationOptional<string | null>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -37,6 +42,10 @@ LinerLot.init(
     linerSpecId: { type: DataTypes.INTEGER, allowNull: true },
     supplierId: { type: DataTypes.INTEGER, allowNull: true },
     statusReason: { type: DataTypes.TEXT, allowNull: true },
+    statusChangedAt: { type: DataTypes.DATE, allowNull: true },
+    statusChangedBy: { type: DataTypes.INTEGER, allowNull: true },
+    purchaseOrderId: { type: DataTypes.INTEGER, allowNull: true },
+    manufacturedOn: { type: DataTypes.DATEONLY, allowNull: true },
     version: versionColumn,
     ...timestampColumns,
   },

@@ -16,6 +16,7 @@ export class Load extends Model<InferAttributes<Load>, InferCreationAttributes<L
   declare vehicleRegistration: string | null;
   declare driverName: string | null;
   declare trailerSeals: CreationOptional<string[]>;
+  declare trailerId: CreationOptional<number | null>;
   declare dispatchedAt: Date | null;
   declare deliveredAt: Date | null;
   declare receivedByName: string | null;
@@ -40,6 +41,7 @@ Load.init(
     vehicleRegistration: { type: DataTypes.STRING(20), allowNull: true },
     driverName: { type: DataTypes.STRING(120), allowNull: true },
     trailerSeals: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
+    trailerId: { type: DataTypes.INTEGER, allowNull: true },
     dispatchedAt: { type: DataTypes.DATE, allowNull: true },
     deliveredAt: { type: DataTypes.DATE, allowNull: true },
     receivedByName: { type: DataTypes.STRING(120), allowNull: true },

@@ -14,10 +14,14 @@ export class Setting extends Model<InferAttributes<Setting>, InferCreationAttrib
   declare taxRate: string;
   declare mailSender: string;
   declare returnInstructions: CreationOptional<string>;
+  /** The operator's own return instructions per public-page language (`en`, `nl`, …); missing ones fall back. */
+  declare returnInstructionsByLanguage: CreationOptional<Partial<Record<string, string>>>;
   /** How long the person who recorded a scan may undo it themselves, in seconds (0: no undo). */
   declare undoSeconds: CreationOptional<number>;
   /** Days over the free days before a bin is listed in the customer's overdue-return reminder. */
   declare reminderDaysOver: CreationOptional<number>;
+  /** A repair that would cost more than this (operator currency) proposes the bin for retirement; null: never. */
+  declare repairRetireThreshold: CreationOptional<string | null>;
   declare version: CreationOptional<number>;
   declare updatedAt: CreationOptional<Date>;
 }
@@ -34,8 +38,10 @@ Setting.init(
     taxRate: { type: DataTypes.DECIMAL(5, 4), allowNull: false },
     mailSender: { type: DataTypes.STRING(254), allowNull: false },
     returnInstructions: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
+    returnInstructionsByLanguage: { type: DataTypes.JSONB, allowNull: false, defaultValue: {}, field: 'return_instructions_by_language' },
     undoSeconds: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30 },
     reminderDaysOver: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 3 },
+    repairRetireThreshold: { type: DataTypes.DECIMAL(12, 2), allowNull: true },
     version: versionColumn,
     updatedAt: DataTypes.DATE,
   },

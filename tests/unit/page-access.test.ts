@@ -61,6 +61,8 @@ describe('collection runs', () => {
     ['/api/planning/runs/7/status', 'orders.view'], // its POST checks orders.edit itself
     ['/yard/runs/7', 'home.yard'],
     ['/api/yard/runs/7', 'home.yard'],
+    ['/api/planning/repositioning/approve', 'orders.edit'],
+    ['/api/planning/repositioning/plans/3/withdraw', 'orders.edit'],
   ])('%s needs %s', (path, access) => {
     expect(accessFor(path)).toBe(access);
   });

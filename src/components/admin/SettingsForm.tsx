@@ -4,6 +4,7 @@ import { api, ApiError } from '@/lib/api.client';
 import { fractionToPercent, percentToFraction } from '@/lib/percent';
 import { formatMomentAbsolute } from '@/lib/moment-text';
 import type { SettingsView } from '@/lib/settings/settings-schema';
+import { LANGUAGE_NAMES, PUBLIC_LANGUAGES, type PublicLanguage } from '@/lib/requests/public-languages';
 
 type Problems = Record<string, string>;
 
@@ -37,6 +38,8 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
     <K extends keyof typeof form>(key: K) =>
     (e: { target: { value: string } }) =>
       setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' || key === 'reminderDaysOver' ? Number(e.target.value) : e.target.value }));
+  const setWording = (language: PublicLanguage) => (e: { target: { value: string } }) =>
+    setForm((f) => ({ ...f, returnInstructionsByLanguage: { ...f.returnInstructionsByLanguage, [language]: e.target.value } }));
   const aria = (name: string) => ({ 'aria-invalid': Boolean(problems[name]), 'aria-describedby': `s-${name}-hint s-${name}-problem` });
 
   async function submit(e: FormEvent) {
@@ -96,6 +99,28 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
             {...aria('returnInstructions')}
           />
         </Field>
+        <details className="rounded-md border border-paper-line p-3" data-wording-by-language>
+          <summary className="cursor-pointer font-medium">Return instructions in the finder's language</summary>
+          <p className="mt-1 text-sm text-ink-soft">
+            The public bin page answers in the visitor's language. Write your own instructions for a language here; where one is left empty, the instructions above are shown.
+          </p>
+          <div className="mt-3 space-y-3">
+            {PUBLIC_LANGUAGES.map((l) => (
+              <Field key={l} id={`s-returnInstructions-${l}`} label={LANGUAGE_NAMES[l]} problem={problems[`returnInstructionsByLanguage.${l}`]}>
+                <textarea
+                  id={`s-returnInstructions-${l}`}
+                  lang={l}
+                  className="field min-h-[4rem] py-2"
+                  value={form.returnInstructionsByLanguage[l] ?? ''}
+                  onChange={setWording(l)}
+                  maxLength={2000}
+                  aria-invalid={Boolean(problems[`returnInstructionsByLanguage.${l}`])}
+                  aria-describedby={`s-returnInstructions-${l}-problem`}
+                />
+              </Field>
+            ))}
+          </div>
+        </details>
       </fieldset>
 
       <fieldset className="card space-y-4 p-5">
@@ -206,6 +231,25 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
             value={form.reminderDaysOver}
             onChange={set('reminderDaysOver')}
             {...aria('reminderDaysOver')}
+          />
+        </Field>
+      </fieldset>
+
+      <fieldset className="card space-y-4 p-4">
+        <legend className="px-1 text-lg font-semibold">Repairs</legend>
+        <Field
+          id="s-repairRetireThreshold"
+          label={`Propose retirement above (${form.currency})`}
+          hint="A bin whose repair would cost more than this — the estimate or the cost already spent — is proposed for retirement on its repair order. Leave it empty to never propose it."
+          problem={problems.repairRetireThreshold}
+        >
+          <input
+            id="s-repairRetireThreshold"
+            className="field num max-w-[10rem]"
+            inputMode="decimal"
+            value={form.repairRetireThreshold ?? ''}
+            onChange={set('repairRetireThreshold')}
+            {...aria('repairRetireThreshold')}
           />
         </Field>
       </fieldset>

@@ -2,13 +2,13 @@ import { useMemo, useState, type FormEvent } from 'react';
 import { Dialog, FieldProblem } from '@/components/ui/Dialog';
 import { Icon } from '@/components/ui/Icon';
 import { api, ApiError } from '@/lib/api.client';
-import { BIN_TYPES, CUSTOMERS, SITES, unCodeMeaning, type FieldSpec, type SetupKind, type SetupSpec } from '@/lib/pool-setup/setup-forms';
+import { BIN_TYPES, CUSTOMERS, SITES, TRAILERS, unCodeMeaning, type FieldSpec, type SetupKind, type SetupSpec } from '@/lib/pool-setup/setup-forms';
 
 type Row = { id: number; version: number; active: boolean } & Record<string, unknown>;
 type Owner = { id: number; name: string; kind: 'operator' | 'customer' };
 type Flash = { tone: 'good' | 'attention' | 'fault'; text: string };
 
-const SPECS = { customers: CUSTOMERS, sites: SITES, 'bin-types': BIN_TYPES } as unknown as Record<SetupKind, SetupSpec<Row>>;
+const SPECS = { customers: CUSTOMERS, sites: SITES, 'bin-types': BIN_TYPES, trailers: TRAILERS } as unknown as Record<SetupKind, SetupSpec<Row>>;
 const NUMERIC = new Set(['int', 'decimal']);
 const FROM_CLASS = { lg: 'hidden lg:table-cell', xl: 'hidden xl:table-cell', '2xl': 'hidden 2xl:table-cell' } as const;
 
@@ -44,7 +44,7 @@ function initialValues(fields: FieldSpec[], row: Row | null, owners: Owner[], pr
   const values: Record<string, string | boolean> = {};
   for (const f of fields) {
     const v = row ? getPath(row, f.name) : undefined;
-    if (f.type === 'checkbox') values[f.name] = v === undefined ? true : Boolean(v);
+    if (f.type === 'checkbox') values[f.name] = v === undefined ? f.name === 'active' : Boolean(v);
     else if (v !== undefined && v !== null) values[f.name] = String(v);
     else if (preset[f.name] !== undefined) values[f.name] = preset[f.name]!;
     else if (f.initial !== undefined) values[f.name] = f.initial;
@@ -143,6 +143,25 @@ function RecordDialog({
           const value = String(values[f.name] ?? '');
           const options = f.options === 'owners' ? ownerOptions() : f.options;
           const meaning = f.name === 'unCode' ? unCodeMeaning(value) : undefined;
+          if (f.type === 'checkbox') {
+            return (
+              <div key={f.name} className={wide ? 'sm:col-span-2' : ''}>
+                {f.group && <h3 className="mb-2 border-t border-paper-line pt-3 text-base font-semibold sm:col-span-2">{f.group}</h3>}
+                <label className="flex min-h-touch items-start gap-3 text-sm">
+                  <input type="checkbox" className="mt-0.5 h-5 w-5 accent-kelp" {...common} checked={Boolean(values[f.name])} onChange={(e) => set(f.name, e.target.checked)} />
+                  <span>
+                    <span className="font-medium">{f.label}</span>
+                    {f.hint && (
+                      <span className="block text-ink-soft" id={`${id}-hint`}>
+                        {f.hint}
+                      </span>
+                    )}
+                  </span>
+                </label>
+                <FieldProblem id={`${id}-problem`} message={problem} />
+              </div>
+            );
+          }
           return (
             <div key={f.name} className={wide ? 'sm:col-span-2' : ''}>
               {f.group && <h3 className="mb-2 border-t border-paper-line pt-3 text-base font-semibold sm:col-span-2">{f.group}</h3>}

@@ -23,6 +23,7 @@ interface Fields {
   unMarking: string;
   lastIntermediateTestMonth: string;
   lastFullInspectionMonth: string;
+  innerMadeMonth: string;
 }
 
 type Problems = Record<string, string>;
@@ -36,6 +37,7 @@ const FIELD_NAMES: Record<string, string> = {
   unMarking: 'UN mark',
   lastIntermediateTestMonth: 'Last intermediate test',
   lastFullInspectionMonth: 'Last full inspection',
+  innerMadeMonth: 'Inner receptacle made',
 };
 
 function initialFields(options: FormOptions, bin?: EditableBin): Fields {
@@ -49,6 +51,7 @@ function initialFields(options: FormOptions, bin?: EditableBin): Fields {
     unMarking: bin?.unMarking ?? '',
     lastIntermediateTestMonth: bin?.lastIntermediateTestMonth ?? '',
     lastFullInspectionMonth: bin?.lastFullInspectionMonth ?? '',
+    innerMadeMonth: bin?.innerMadeMonth ?? '',
   };
 }
 
@@ -138,6 +141,7 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
       unMarking: fields.unMarking,
       lastIntermediateTestMonth: fields.lastIntermediateTestMonth,
       lastFullInspectionMonth: fields.lastFullInspectionMonth,
+      innerMadeMonth: fields.innerMadeMonth,
     };
     try {
       if (bin) {
@@ -436,6 +440,24 @@ export default function BinForm({ options, bin }: { options: FormOptions; bin?: 
             />
           </FormField>
         </div>
+        {type?.serviceLifeApplies && (
+          <FormField
+            id="f-innerMadeMonth"
+            label="Inner receptacle made"
+            problem={problems.innerMadeMonth}
+            hint={`This type's rigid plastics inner receptacle may carry dangerous goods for ${type.serviceLifeYears ?? 5} years from the month it was made (ADR 4.1.1.15). Leave empty when it was made with the bin.`}
+          >
+            <input
+              id="f-innerMadeMonth"
+              className="field num sm:max-w-xs"
+              type="month"
+              placeholder="2024-05"
+              value={fields.innerMadeMonth}
+              onChange={set('innerMadeMonth')}
+              {...describedBy('f-innerMadeMonth', problems.innerMadeMonth)}
+            />
+          </FormField>
+        )}
         <p className="notice-info" id="due-preview">
           {due ? (
             <>

@@ -257,7 +257,8 @@ export default function FleetGrid({ firstPage, firstCount, firstState, views, in
         </p>
       )}
 
-      <div className="h-[70vh] min-h-[26rem] w-full" id="fleet-grid">
+      {/* Nearly a screen high: scrolled to, the grid fills the window (about 18 rows at 800 px). */}
+      <div className="h-[calc(100dvh-6rem)] min-h-[26rem] w-full" id="fleet-grid">
         <AgGridReact<GridRow>
           theme={loopfoldGridTheme}
           styleNonce={styleNonce}

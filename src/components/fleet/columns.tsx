@@ -50,7 +50,8 @@ export function buildColumnDefs(choices: FilterChoices, pinGrai: boolean): Array
     { colId: 'grai', field: 'grai', headerName: label('grai'), pinned: pinGrai ? 'left' : null, width: 250, cellRenderer: GraiCell, ...TEXT_FILTER },
     { colId: 'serial', field: 'serial', headerName: label('serial'), width: 120, cellRenderer: TextCell, cellRendererParams: { mono: true }, ...TEXT_FILTER },
     { colId: 'binType', field: 'binTypeCode', headerName: label('binType'), width: 120, cellRenderer: TextCell, ...setFilter(choices.binTypes) },
-    { colId: 'status', field: 'status', headerName: label('status'), width: 210, cellRenderer: StatusCell, ...setFilter(choices.statuses) },
+    // Wide enough for the longest status with its "Test lapsed" mark.
+    { colId: 'status', field: 'status', headerName: label('status'), width: 290, cellRenderer: StatusCell, ...setFilter(choices.statuses) },
     {
       colId: 'site',
       field: 'siteName',

@@ -32,7 +32,7 @@ export const loopfoldGridTheme = themeQuartz.withParams({
   selectedRowBackgroundColor: colors.harbour.tint,
   oddRowBackgroundColor: colors.card,
   wrapperBorderRadius: 8,
-  rowHeight: 44,
+  rowHeight: 36, // a desktop grid (mouse): compact rows show more bins; the phone pages keep 44 px targets
   headerHeight: 44,
   spacing: 6,
   browserColorScheme: 'light',

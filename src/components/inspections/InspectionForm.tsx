@@ -34,6 +34,8 @@ interface Recorded {
   nextDue: string | null;
   restarted: { intermediate: boolean; full: boolean };
   testMark: string | null;
+  repairOrderId?: number | null;
+  repairClosed?: boolean;
 }
 
 const OUTCOMES: TestOutcome[] = ['pass', 'repair', 'fail'];
@@ -121,6 +123,13 @@ export default function InspectionForm(p: InspectionFormProps) {
             </p>
           )}
           {!done.restarted.intermediate && !done.restarted.full && <p className="mt-1">No due date moved.</p>}
+          {done.repairOrderId && (
+            <p className="mt-1" data-testid="repair-link">
+              {done.repairClosed ? 'Repair order ' : 'The repair is tracked on repair order '}
+              <a href={`/repairs/${done.repairOrderId}`}>#{done.repairOrderId}</a>
+              {done.repairClosed ? ' is closed by this test.' : '.'}
+            </p>
+          )}
         </div>
         {done.testMark && (
           <div className="card p-4">

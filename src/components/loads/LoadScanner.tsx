@@ -2,7 +2,8 @@
 // (a dispatch scan). Shows count against target, the bins on, and every
 // refusal with its reason; then the carrier's details send the truck off.
 import { useState, type FormEvent } from 'react';
-import ScanInput, { type Identified } from '@/components/yard/ScanInput';
+import type { Identified } from '@/components/yard/ScanInput';
+import ContinuousScan from '@/components/yard/ContinuousScan';
 import { api, type ApiError } from '@/lib/api.client';
 import { newClientEventId } from '@/lib/yard/ids.client';
 
@@ -19,8 +20,12 @@ interface Props {
   prefixLength: number;
   cautions: string[];
   defer: string;
+  /** Planners may send a bin past the operator's lapse margin with a reason (never past the order's wanted date). */
+  canOverride?: boolean;
+  /** The trailers in use (admin data); the one chosen is checked against the bins on and named on the note. */
+  trailers: Array<{ id: number; name: string }>;
 }
-type Attempt = { key: string; label: string; ok: boolean; message: string };
+type Attempt = { key: string; label: string; ok: boolean; message: string; overridable?: boolean };
 
 export default function LoadScanner(props: Props) {
   const [bins, setBins] = useState<Bin[]>(props.bins);
@@ -30,19 +35,22 @@ export default function LoadScanner(props: Props) {
   const [error, setError] = useState<string | null>(null);
   const full = bins.length >= props.target;
 
-  async function add(id: Identified) {
+  async function add(id: Identified, overrideReason?: string) {
     const label = id.grai ?? id.serial!;
     setBusy(true);
     try {
       const out = await api.post<{ grai: string; loaded: number; replayed: boolean }>(`/api/loads/${encodeURIComponent(props.reference)}/bins`, {
         clientEventId: newClientEventId(),
         grai: label,
+        ...(overrideReason ? { overrideReason } : {}),
       });
       if (!out.replayed) setBins((b) => [{ grai: out.grai, serial: out.grai.slice(14), lotNumber: null }, ...b]);
-      setAttempts((a) => [{ key: newClientEventId(), label, ok: true, message: `On the load (${out.loaded} of ${props.target}).` }, ...a].slice(0, 12));
+      const message = `On the load (${out.loaded} of ${props.target}).${overrideReason ? ' Sent past the margin; your reason is recorded.' : ''}`;
+      setAttempts((a) => [{ key: newClientEventId(), label, ok: true, message }, ...a.filter((x) => !(overrideReason && x.label === label && x.overridable))].slice(0, 12));
     } catch (e) {
       const err = e as ApiError;
-      setAttempts((a) => [{ key: newClientEventId(), label, ok: false, message: err.message }, ...a].slice(0, 12));
+      const overridable = Boolean(props.canOverride && (err.details as { overridable?: boolean } | undefined)?.overridable);
+      setAttempts((a) => [{ key: newClientEventId(), label, ok: false, message: err.message, overridable }, ...a].slice(0, 12));
     } finally {
       setBusy(false);
     }
@@ -62,6 +70,7 @@ export default function LoadScanner(props: Props) {
         trailerSeals: val('seals')
           .split(/[\s,;]+/)
           .filter(Boolean),
+        trailerId: val('trailer') ? Number(val('trailer')) : null,
       });
       setStatus('dispatched');
       window.location.assign(`/loads/${encodeURIComponent(props.reference)}/note`);
@@ -104,15 +113,14 @@ export default function LoadScanner(props: Props) {
       </div>
 
       {!full && (
-        <div className="card p-4">
-          <ScanInput prefixLength={props.prefixLength} onIdentified={add} busy={busy} keepCameraOpen label="Scan or type each bin as it goes on" />
-          <div className="notice-attention mt-3 text-sm">
-            {props.cautions.map((c) => (
-              <p key={c}>{c}</p>
-            ))}
-            <p className="mt-1 text-xs">{props.defer}</p>
-          </div>
-        </div>
+        <ContinuousScan
+          prefixLength={props.prefixLength}
+          onIdentified={add}
+          busy={busy}
+          label="Scan or type each bin as it goes on"
+          cautions={props.cautions}
+          defer={props.defer}
+        />
       )}
 
       {attempts.length > 0 && (
@@ -120,6 +128,7 @@ export default function LoadScanner(props: Props) {
           {attempts.map((a) => (
             <li key={a.key} className={a.ok ? 'notice-good' : 'notice-fault'} data-ok={a.ok}>
               <span className="ident">{a.label}</span>: {a.message}
+              {a.overridable && <OverrideForm label={a.label} busy={busy} onSend={(reason) => void add({ grai: a.label, serial: null }, reason)} />}
             </li>
           ))}
         </ul>
@@ -152,6 +161,19 @@ export default function LoadScanner(props: Props) {
             <input id="driver" name="driver" className="field" maxLength={120} />
           </div>
           <div>
+            <label className="label" htmlFor="trailer">
+              Trailer
+            </label>
+            <select id="trailer" name="trailer" className="field" defaultValue="">
+              <option value="">Not recorded</option>
+              {props.trailers.map((t) => (
+                <option key={t.id} value={t.id}>
+                  {t.name}
+                </option>
+              ))}
+            </select>
+          </div>
+          <div>
             <label className="label" htmlFor="seals">
               Trailer seal numbers
             </label>
@@ -178,5 +200,45 @@ export default function LoadScanner(props: Props) {
         </details>
       )}
     </div>
+  );
+}
+
+/** A planner's override of the lapse margin for one refused bin: the reason is required and kept with the dispatch. */
+function OverrideForm({ label, busy, onSend }: { label: string; busy: boolean; onSend: (reason: string) => void }) {
+  const [open, setOpen] = useState(false);
+  const [reason, setReason] = useState('');
+  const [problem, setProblem] = useState<string | null>(null);
+  const id = `override-${label.replace(/[^A-Za-z0-9]/g, '')}`;
+  if (!open) {
+    return (
+      <button type="button" className="btn-quiet mt-2 block" onClick={() => setOpen(true)} data-override-open={label}>
+        Override the margin…
+      </button>
+    );
+  }
+  return (
+    <form
+      className="mt-2 space-y-2"
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault();
+        if (reason.trim().length < 5) return setProblem('Say why the bin may go anyway (at least a few words).');
+        setProblem(null);
+        onSend(reason.trim());
+      }}
+    >
+      <label className="label" htmlFor={id}>
+        Why it may go anyway (recorded with the dispatch, flagged for review)
+      </label>
+      <textarea id={id} className="field w-full" rows={2} maxLength={500} value={reason} onChange={(e) => setReason(e.target.value)} aria-describedby={`${id}-problem`} />
+      {problem && (
+        <p id={`${id}-problem`} className="text-sm font-medium text-brick">
+          {problem}
+        </p>
+      )}
+      <button type="submit" className="btn-primary" disabled={busy} data-override-send={label}>
+        Send it anyway
+      </button>
+    </form>
   );
 }

@@ -53,6 +53,8 @@ export default function OfflineBinCard({ identified, prefixLength, onClose }: Pr
       ...(target.assetId !== undefined ? { assetId: target.assetId } : { grai: target.grai }),
       action,
       siteId: snapshot?.depot.id,
+      // The lots offered came from this snapshot: a lot stopped after it was taken was not known here.
+      ...(action === 'fit_liner' && stored ? { lotsAsOf: stored.storedAt } : {}),
       ...extra,
     } as ScanEventBody;
     const r = await submitScan(body, { grai: target.grai ?? null, serial: target.serial, action });

@@ -1,7 +1,8 @@
 // Receiving a truck run: each bin identified is recorded at once as a receive scan naming the run (the scan service
 // refuses what the rule table refuses, with its reason); what is still expected per stop is read again after each.
 import { useState } from 'react';
-import ScanInput, { type Identified } from '@/components/yard/ScanInput';
+import type { Identified } from '@/components/yard/ScanInput';
+import ContinuousScan from '@/components/yard/ContinuousScan';
 import { api, type ApiError } from '@/lib/api.client';
 import { newClientEventId } from '@/lib/yard/ids.client';
 
@@ -79,15 +80,14 @@ export default function RunReceiver(props: Props) {
       </div>
 
       {!done && (
-        <div className="card p-4">
-          <ScanInput prefixLength={props.prefixLength} onIdentified={receive} busy={busy} keepCameraOpen label="Scan or type each bin as it comes off" />
-          <div className="notice-attention mt-3 text-sm">
-            {props.cautions.map((c) => (
-              <p key={c}>{c}</p>
-            ))}
-            <p className="mt-1 text-xs">{props.defer}</p>
-          </div>
-        </div>
+        <ContinuousScan
+          prefixLength={props.prefixLength}
+          onIdentified={receive}
+          busy={busy}
+          label="Scan or type each bin as it comes off"
+          cautions={props.cautions}
+          defer={props.defer}
+        />
       )}
 
       {attempts.length > 0 && (

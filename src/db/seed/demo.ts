@@ -1,9 +1,9 @@
 import bcrypt from 'bcryptjs';
-import { sequelize, Organisation, Site, User, Setting, BinType, Tariff } from '@/models';
+import { sequelize, Organisation, Site, User, Setting, BinType, Tariff, Trailer } from '@/models';
 import { generateHistory } from './history';
 import { finishSeedRun, stallPoint, startSeedRun } from './seed-run';
 import { DEMO_LOGINS, DEMO_PASSWORD, SECOND_CUSTOMER_LOGIN } from './demo-logins.mjs';
-import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES } from './scenario';
+import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES, TRAILERS } from './scenario';
 
 /**
  * Seeds the invented demo scenario into an empty database: who is who, then the
@@ -91,6 +91,8 @@ async function seedPeopleAndPlaces() {
         sitesByCode.set(s.code, site);
       }
     }
+
+    for (const t of TRAILERS) await Trailer.create({ ...t }, opts);
 
     const firstCustomer = customers.get(CUSTOMERS[0]!.name)!;
     for (const l of DEMO_LOGINS) {

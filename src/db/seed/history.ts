@@ -17,6 +17,7 @@ import { PoolSim, SimRefusal, type SimAsset, type SimLot, type SimOrder } from '
 import { nextIds, writePool, type SimInspection } from './bulk-write';
 import { CUSTOMERS, OPERATOR, PRODUCTS, LINER_SUPPLIERS } from './scenario';
 import { seedLinerRecords, type LinerRecords } from './liner-records';
+import { seedRepairOrders } from './repair-records';
 
 const DAY = 86_400_000;
 const HOUR = 3_600_000;
@@ -131,6 +132,7 @@ export async function generateHistory(opts: { bins: number; months: number; now?
   const t1 = Date.now();
   const written = await writePool(pool, world.inspections, opts.transaction);
   count(world, 'events_written', written.events);
+  count(world, 'repair_orders', await seedRepairOrders(opts.transaction));
   console.log(`[seed] history: ${written.events} log entries generated in ${((t1 - t0) / 1000).toFixed(1)} s, written in ${((Date.now() - t1) / 1000).toFixed(1)} s`);
   return world.stats;
 }

@@ -126,6 +126,13 @@ export const PRODUCTS: Record<string, string> = {
   'Ostby Fruit Concentrates': 'Apple juice concentrate',
 };
 
+/** The demo fleet's trailers (inside sizes of common practice for European trailers; invented names). */
+export const TRAILERS = [
+  { name: 'Curtainsider 13.6 m', insideLengthMm: 13600, insideWidthMm: 2480, insideHeightMm: 2700, payloadKg: 24000 },
+  { name: 'High-cube 13.6 m', insideLengthMm: 13600, insideWidthMm: 2480, insideHeightMm: 3000, payloadKg: 24000 },
+  { name: 'Rigid 7.3 m', insideLengthMm: 7300, insideWidthMm: 2450, insideHeightMm: 2500, payloadKg: 9500 },
+] as const;
+
 /** The two bin models of the demo pool (invented model names). */
 export const BIN_TYPES = [
   {

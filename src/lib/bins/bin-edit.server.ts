@@ -9,7 +9,7 @@ import { AppError } from '@/lib/api-errors';
 import { nextDue } from '@/lib/inspections/inspection-due';
 import { policyForBinType } from './bin-policy';
 import { groupGrai, parseGrai } from '@/lib/gs1';
-import { checkBinType, checkMarkAgainstType, checkRegistration, testColumns, testMonthsOf, type RegisterIssue } from './registration-check';
+import { checkBinType, checkMarkAgainstType, checkRegistration, testColumns, testMonthsOf, type RegisterIssue, innerMadeMonthFor } from './registration-check';
 import type { Status } from '@/lib/scans/lifecycle';
 import { choiceField, markField, monthField } from './bin-forms.server';
 import { recordAudit } from '@/lib/audit.server';
@@ -31,6 +31,7 @@ export const editBody = z.object({
   unMarking: markField,
   lastIntermediateTestMonth: monthField,
   lastFullInspectionMonth: monthField,
+  innerMadeMonth: monthField.optional(),
   grai: refuseKey(NOT_EDITABLE.grai),
   status: refuseKey(NOT_EDITABLE.status),
   siteId: refuseKey(NOT_EDITABLE.siteId),
@@ -51,6 +52,7 @@ export interface EditableBin {
   unMarking: string | null;
   lastIntermediateTestMonth: string | null;
   lastFullInspectionMonth: string | null;
+  innerMadeMonth: string | null;
   nextIntermediateDue: string | null;
   nextFullDue: string | null;
   nextDue: string | null;
@@ -96,6 +98,7 @@ export async function editableBin(grai: string): Promise<EditableBin | null> {
     manufactureMonth: asset.manufactureMonth.slice(0, 7),
     unMarking: asset.unMarking,
     ...testMonthsOf(asset),
+    innerMadeMonth: asset.innerMadeMonth?.slice(0, 7) ?? null,
     nextIntermediateDue: asset.nextIntermediateDue,
     nextFullDue: asset.nextFullDue,
     nextDue: asset.nextDue,
@@ -109,6 +112,7 @@ function snapshot(asset: Asset, binTypeCode: string) {
     binType: binTypeCode,
     manufactureMonth: asset.manufactureMonth.slice(0, 7),
     unMarking: asset.unMarking,
+    innerMadeMonth: asset.innerMadeMonth?.slice(0, 7) ?? null,
     lastInspectionOn: asset.lastInspectionOn,
     lastLeakTestOn: asset.lastLeakTestOn,
     lastFullInspectionOn: asset.lastFullInspectionOn,
@@ -162,6 +166,7 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
         unMarking: body.unMarking,
         lastIntermediateTestMonth: body.lastIntermediateTestMonth,
         lastFullInspectionMonth: body.lastFullInspectionMonth,
+        innerMadeMonth: body.innerMadeMonth,
       },
       settings.gs1PrefixLength,
     );
@@ -185,6 +190,10 @@ export async function updateBin(actor: Actor, grai: string, body: EditBody, ip: 
     const scheduleChanged = testsChanged || type.id !== asset.binTypeId || manufactureMonth !== before.manufactureMonth;
 
     asset.set({ binTypeId: type.id, manufactureMonth: `${manufactureMonth}-01`, unMarking: body.unMarking });
+    // Left out by the form: kept; given: that month; the rule newly applying with none stored: the bin's own month.
+    const inner = body.innerMadeMonth === undefined ? (asset.innerMadeMonth?.slice(0, 7) ?? null) : body.innerMadeMonth;
+    const innerMonth = innerMadeMonthFor(inner, manufactureMonth, type.serviceLifeApplies);
+    asset.set({ innerMadeMonth: innerMonth ? `${innerMonth}-01` : null });
     // Unchanged test months keep their stored days (an inspection record may have set an exact day).
     if (testsChanged) asset.set(testColumns(body.lastIntermediateTestMonth, body.lastFullInspectionMonth));
     if (scheduleChanged) {

@@ -19,6 +19,9 @@ export interface BinTypeOption extends BinTypeRef {
   policyKind: 'un' | 'own';
   intermediateMonths: number;
   fullMonths: number;
+  /** ADR 4.1.1.15 applies to the type: the form asks for the inner receptacle's month. */
+  serviceLifeApplies?: boolean;
+  serviceLifeYears?: number;
 }
 
 export interface DepotOption extends SiteRef {
@@ -46,6 +49,8 @@ export async function formOptions(): Promise<FormOptions> {
       policyKind: t.policyKind,
       intermediateMonths: t.intermediateMonths,
       fullMonths: t.fullMonths,
+      serviceLifeApplies: t.serviceLifeApplies,
+      serviceLifeYears: t.serviceLifeYears,
     })),
     depots: depots.map((d) => ({ id: d.id, code: d.code, name: d.name, kind: d.kind, active: true })),
     companyPrefix: settings.gs1CompanyPrefix,
@@ -79,6 +84,7 @@ export const registerBody = z.object({
   unMarking: markField,
   lastIntermediateTestMonth: monthField,
   lastFullInspectionMonth: monthField,
+  innerMadeMonth: monthField,
 });
 export type RegisterBody = z.infer<typeof registerBody>;
 
@@ -109,6 +115,7 @@ export async function registerFromForm(actor: Actor, body: RegisterBody, ip: str
     unMarking: body.unMarking,
     lastIntermediateTestMonth: body.lastIntermediateTestMonth,
     lastFullInspectionMonth: body.lastFullInspectionMonth,
+    innerMadeMonth: body.innerMadeMonth,
   };
   const checked = checkRegistration(input, settings.gs1PrefixLength);
   // In serial mode without a built GRAI the serial (or the bin type) has already said why.

@@ -5,7 +5,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Asset, BinType, Site, ScanEvent } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { nextDue } from '@/lib/inspections/inspection-due';
-import { checkRegistration, testColumns, type RegisterBinInput } from './registration-check';
+import { checkRegistration, innerMadeMonthFor, testColumns, type RegisterBinInput } from './registration-check';
 import { policyForBinType } from './bin-policy';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { Actor } from '@/lib/scans/scan-service.server';
@@ -25,6 +25,7 @@ export function newAssetRow(checked: { grai: string; serial: string; manufacture
     binTypeId: type.id,
     manufactureMonth: `${checked.manufactureMonth}-01`,
     unMarking: input.unMarking?.trim() || null,
+    innerMadeMonth: ((m) => (m ? `${m}-01` : null))(innerMadeMonthFor(input.innerMadeMonth, checked.manufactureMonth, type.serviceLifeApplies)),
     status: 'available' as const,
     siteId,
     siteSince: now,

@@ -1,6 +1,7 @@
 // Everything the bin page shows, read in a few queries and returned as plain
 // data (the page renders it; islands get the parts they need as props).
 import { reachableBins, siteLimited } from '@/lib/customer-scope.server';
+import { serviceLifeEnd } from '@/lib/inspections/service-life';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { allowedActions, type Action, type Leg, type SiteKind, type Status } from '@/lib/scans/lifecycle';
@@ -36,6 +37,9 @@ export interface BinView {
     nextDue: string | null;
     testStatus: TestStatus | null;
     daysAtSite: number | null;
+    /** ADR 4.1.1.15: the inner receptacle's month and the last day of its period of use (null: the rule does not apply). */
+    innerMadeMonth: string | null;
+    serviceLifeEndsOn: string | null;
   };
   binType: {
     code: string;
@@ -72,7 +76,7 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
   const today = localDate(new Date(), settings.timeZone);
   const [row] = await sequelize.query<Record<string, unknown>>(
     `SELECT a.*, bt.code AS bt_code, bt.name AS bt_name, bt.nominal_capacity_l, bt.tare_kg, bt.max_gross_kg, bt.un_code, bt.policy_kind,
-            bt.intermediate_months, bt.full_months,
+            bt.intermediate_months, bt.full_months, bt.service_life_applies, bt.service_life_years,
             s.code AS site_code, s.name AS site_name, s.kind AS site_kind,
             o.name AS customer_name, o.free_days,
             t.dispatched_at, t.delivered_at, t.fill_product, t.seals_applied, ho.reference AS order_ref, cs.name AS customer_site_name,
@@ -124,6 +128,11 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
       nextDue: (row.next_due as string) ?? null,
       testStatus: row.next_due ? testStatus(row.next_due as string, today) : null,
       daysAtSite: siteSince ? Math.max(0, daysBetween(localDate(siteSince, settings.timeZone), today)) : null,
+      innerMadeMonth: row.inner_made_month ? String(row.inner_made_month).slice(0, 7) : null,
+      serviceLifeEndsOn:
+        row.service_life_applies && row.inner_made_month
+          ? serviceLifeEnd({ applies: true, years: row.service_life_years as number }, String(row.inner_made_month).slice(0, 7))
+          : null,
     },
     binType: {
       code: row.bt_code as string,

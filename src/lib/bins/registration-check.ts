@@ -17,6 +17,8 @@ export interface RegisterBinInput {
   unMarking?: string | null;
   lastIntermediateTestMonth?: string | null;
   lastFullInspectionMonth?: string | null;
+  /** 'YYYY-MM' the inner receptacle was made, for a type under ADR 4.1.1.15; left out: the bin's own month. */
+  innerMadeMonth?: string | null;
 }
 
 export interface RegisterIssue {
@@ -63,6 +65,9 @@ export function checkRegistration(
   }
   if (!manufactureMonth) issues.push({ field: 'manufactureMonth', message: 'Give the month of manufacture (YYYY-MM) or a UN mark that carries it.' });
   else if (!isMonth(manufactureMonth)) issues.push({ field: 'manufactureMonth', message: 'Month of manufacture must look like 2024-03.' });
+  if (input.innerMadeMonth && !isMonth(input.innerMadeMonth)) {
+    issues.push({ field: 'innerMadeMonth', message: 'The inner receptacle’s month looks like 2024-03.' });
+  }
   for (const key of ['lastIntermediateTestMonth', 'lastFullInspectionMonth'] as const) {
     const v = input[key];
     if (v && (!isMonth(v) || (manufactureMonth && v < manufactureMonth))) {
@@ -161,4 +166,13 @@ export function testMonthsOf(bin: { lastLeakTestOn: string | null; lastFullInspe
   lastFullInspectionMonth: string | null;
 } {
   return { lastIntermediateTestMonth: bin.lastLeakTestOn?.slice(0, 7) ?? null, lastFullInspectionMonth: bin.lastFullInspectionOn?.slice(0, 7) ?? null };
+}
+
+/**
+ * The inner receptacle's month stored for a bin: what was given, else — for a type under ADR 4.1.1.15 — the bin's
+ * own manufacture month (a composite's inner receptacle is usually made with it; common practice), else none.
+ */
+export function innerMadeMonthFor(given: string | null | undefined, manufactureMonth: string, serviceLifeApplies: boolean): string | null {
+  if (given) return given;
+  return serviceLifeApplies ? manufactureMonth : null;
 }

@@ -11,6 +11,7 @@ import { recordScan, type Actor, type ScanOutcome } from '@/lib/scans/scan-servi
 import { policyForBinType } from '@/lib/bins/bin-policy';
 import type { TestOutcome } from './inspection-due';
 import { scheduleAfterTest } from './schedule-after';
+import { repairEffectsOfInspection } from './repair-hooks.server';
 import { inspectionProblems, initialsOf, testMark, type InspectionDraft, type PeriodicKind } from './inspection-form';
 
 export interface RecordInspectionInput extends InspectionDraft {
@@ -30,6 +31,9 @@ export interface RecordedInspection {
   nextDue: string | null;
   restarted: { intermediate: boolean; full: boolean };
   testMark: string | null;
+  /** The repair order a failure opened (or the one already open), or the one a passed test after repair closed. */
+  repairOrderId?: number | null;
+  repairClosed?: boolean;
 }
 
 interface BinRow {
@@ -125,10 +129,10 @@ export async function recordInspection(
     }
     const dues = schedule ?? { nextIntermediateDue: bin.next_intermediate_due, nextFullDue: bin.next_full_due, nextDue: bin.next_due };
     const markText = input.outcome === 'pass' && schedule ? testMark(input.performedOn, mark) : null;
-    const [row] = await sequelize.query<{ id: number }>(
+    const [row] = await sequelize.query<{ id: number; site_id: number | null }>(
       `INSERT INTO inspections (asset_id, kind, performed_on, inspector_id, inspection_body, site_id, checklist, leak_test_pressure_kpa, leak_test_minutes,
                                 leak_test_passed, outcome, next_intermediate_due, next_full_due, photo_ids, notes, scan_event_id, recorded_by, test_mark)
-       VALUES ($1, $2, $3, $4, $5, (SELECT site_id FROM scan_events WHERE id = $16), $6, $7, $8, $9, $10, $11, $12, $13, $14, $16, $15, $17) RETURNING id`,
+       VALUES ($1, $2, $3, $4, $5, (SELECT site_id FROM scan_events WHERE id = $16), $6, $7, $8, $9, $10, $11, $12, $13, $14, $16, $15, $17) RETURNING id, site_id`,
       {
         bind: [
           bin.id,
@@ -153,7 +157,20 @@ export async function recordInspection(
         transaction: t,
       },
     );
-    return { inspectionId: row!.id, scan, nextIntermediateDue: dues.nextIntermediateDue, nextFullDue: dues.nextFullDue, nextDue: dues.nextDue, restarted, testMark: markText };
+    const repair = await repairEffectsOfInspection(
+      { assetId: bin.id, inspectionId: row!.id, kind: input.kind, outcome: input.outcome, remarks: input.remarks?.trim() || null, siteId: row!.site_id, actorId: actor.id },
+      t,
+    );
+    return {
+      inspectionId: row!.id,
+      scan,
+      nextIntermediateDue: dues.nextIntermediateDue,
+      nextFullDue: dues.nextFullDue,
+      nextDue: dues.nextDue,
+      restarted,
+      testMark: markText,
+      ...repair,
+    };
   };
   return opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run);
 }

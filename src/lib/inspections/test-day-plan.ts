@@ -14,6 +14,7 @@
  * slot in the window.
  */
 import { addDays, dayOfWeek, isLocalDate, type LocalDate } from '@/lib/calendar';
+import { probabilityBackBy, type SurvivalCurve } from '@/lib/planning/returns-forecast';
 
 export interface TestCapacity {
   /** Tests per day by weekday, Sunday first: [0, 8, 8, 8, 8, 6, 0]. */
@@ -97,4 +98,20 @@ export function planTestDays(input: { from: LocalDate; capacity: TestCapacity; b
   }
   const days = [...byDay.entries()].sort(([a], [b]) => (a < b ? -1 : 1)).map(([date, binIds]) => ({ date, binIds }));
   return { days, flagged };
+}
+
+/**
+ * When a bin out on hire is expected back, from the returns forecast's Kaplan–Meier curve (returns-forecast.ts,
+ * not restated here): the fewest further days k with P(back within k days | out `daysOut` days) ≥ `share`
+ * (0.5: the conditional median). Null when the curve has nothing to say (out longer than any trip it saw, or
+ * the curve never reaches the share): the caller falls back to the trip history's usual days on hire.
+ */
+export function expectedBackInDays(curve: SurvivalCurve, daysOut: number, share = 0.5): number | null {
+  const last = curve.rows.at(-1)?.day ?? 0;
+  for (let k = 1; daysOut + k <= last + 1; k += 1) {
+    const p = probabilityBackBy(curve, daysOut, k);
+    if (p === null) return null;
+    if (p >= share) return k;
+  }
+  return null;
 }

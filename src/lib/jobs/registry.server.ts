@@ -5,6 +5,7 @@ import { runMissingBinRule } from './missing-bins.server';
 import { runPlannerDigest } from './planner-digest.server';
 import { deleteExpiredSessionEnds } from '@/lib/session/session-ends.server';
 import { runCountDueReminders, runOverdueReminders } from '@/lib/portal/customer-reminders.server';
+import { runReorderAlerts } from '@/lib/liners/reorder-alerts.server';
 
 export interface JobContext {
   now: Date;
@@ -32,6 +33,12 @@ export const JOBS: readonly JobDefinition[] = [
     cron: '0 8 * * *',
     description: 'Mails each customer contact, once a month, the sites whose monthly count is still to confirm.',
     run: runCountDueReminders,
+  },
+  {
+    name: 'liner-reorder-alerts',
+    cron: '20 6-18 * * 1-6',
+    description: 'Mails planners once when a depot’s liner stock of a spec falls below its reorder point (again only after it recovered).',
+    run: runReorderAlerts,
   },
   { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];

@@ -9,6 +9,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '@/models';
 import { AppError } from '@/lib/api-errors';
 import { countAdjustment, shortOfStock, reversalOf, type MoveDraft } from './liner-moves';
+import { checkReceiptAgainst } from './purchase-orders.server';
 
 const COLUMNS = [
   'lot_id',
@@ -61,12 +62,13 @@ export interface LockedLot {
   expiryDate: string;
   siteId: number;
   linerSpecId: number | null;
+  statusChangedAt: Date | null;
 }
 
 /** Locks the lot's row for the rest of the transaction (every taker of its liners queues here). */
 export async function lockLot(lotId: number, t: Transaction): Promise<LockedLot | null> {
   const [lot] = await rows<LockedLot>(
-    `SELECT id, lot_number AS "lotNumber", status, expiry_date AS "expiryDate", site_id AS "siteId", liner_spec_id AS "linerSpecId" FROM liner_lots WHERE id = $1 FOR UPDATE`,
+    `SELECT id, lot_number AS "lotNumber", status, expiry_date AS "expiryDate", site_id AS "siteId", liner_spec_id AS "linerSpecId", status_changed_at AS "statusChangedAt" FROM liner_lots WHERE id = $1 FOR UPDATE`,
     [lotId],
     t,
   );
@@ -109,17 +111,27 @@ export interface ReceiptInput {
   certificateId?: number | null;
   linerSpecId?: number | null;
   supplierId?: number | null;
+  /** The purchase order it arrives against (its deliveries may close it), or none. */
+  purchaseOrderId?: number | null;
+  manufacturedOn?: string | null;
 }
 
-/** A lot arriving at a depot: the lot row and its receipt move, together. */
-export async function receiveLot(who: Mover, input: ReceiptInput, opts: { transaction?: Transaction; now?: Date } = {}): Promise<{ lotId: number; moveId: number }> {
+/** A lot arriving at a depot: the lot row and its receipt move, together (and the order it closes, if any). */
+export async function receiveLot(
+  who: Mover,
+  input: ReceiptInput,
+  opts: { transaction?: Transaction; now?: Date } = {},
+): Promise<{ lotId: number; moveId: number; purchaseOrderClosed: boolean }> {
   return within(opts, async (t) => {
     await depot(input.siteId, t);
+    const po = input.purchaseOrderId
+      ? await checkReceiptAgainst(input.purchaseOrderId, { supplierId: input.supplierId ?? null, linerSpecId: input.linerSpecId ?? null, siteId: input.siteId }, t)
+      : null;
     const existing = await rows<{ id: number }>('SELECT id FROM liner_lots WHERE supplier = $1 AND lot_number = $2', [input.supplier, input.lotNumber], t);
     if (existing.length) throw new AppError('duplicate', `Lot ${input.lotNumber} of ${input.supplier} is already received.`);
     const [lot] = await rows<{ id: number }>(
-      `INSERT INTO liner_lots (supplier, lot_number, spec, quantity_received, received_on, expiry_date, site_id, certificate_id, liner_spec_id, supplier_id)
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10) RETURNING id`,
+      `INSERT INTO liner_lots (supplier, lot_number, spec, quantity_received, received_on, expiry_date, site_id, certificate_id, liner_spec_id, supplier_id, purchase_order_id, manufactured_on)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12) RETURNING id`,
       [
         input.supplier,
         input.lotNumber,
@@ -131,6 +143,8 @@ export async function receiveLot(who: Mover, input: ReceiptInput, opts: { transa
         input.certificateId ?? null,
         input.linerSpecId ?? null,
         input.supplierId ?? null,
+        input.purchaseOrderId ?? null,
+        input.manufacturedOn ?? null,
       ],
       t,
     );
@@ -138,7 +152,8 @@ export async function receiveLot(who: Mover, input: ReceiptInput, opts: { transa
       [{ lot_id: lot!.id, site_id: input.siteId, kind: 'receipt', quantity: input.quantity, occurred_at: opts.now ?? new Date(), user_id: who.id }],
       t,
     );
-    return { lotId: lot!.id, moveId: moveId! };
+    const purchaseOrderClosed = po ? await po.close(opts.now ?? new Date()) : false;
+    return { lotId: lot!.id, moveId: moveId!, purchaseOrderClosed };
   });
 }
 

@@ -1,8 +1,9 @@
 // What an admin may enter for liner specs and suppliers, validated once (the admin API parses with these;
 // the database's checks are the last line). Pure.
 import { z } from 'zod';
-import { text } from '@/lib/text-input';
+import { multilineText, text } from '@/lib/text-input';
 import { VALVE_TYPES, connectionSize } from './liner-specs';
+import { LOT_STATUS_ACTIONS } from './liner-recall';
 
 const size = (what: string) =>
   text()
@@ -59,3 +60,34 @@ export const supplierSchema = z.object({
   active: z.boolean().optional(),
 });
 export type SupplierInput = z.infer<typeof supplierSchema>;
+
+/** Hold, recall or release a lot (`version` as the page showed it). */
+export const lotStatusSchema = z
+  .object({
+    action: z.enum(LOT_STATUS_ACTIONS),
+    reason: multilineText().trim().max(500),
+    version: z.number().int().min(0),
+  })
+  .strict();
+
+/** The words of a notice to the customers who received liners of a lot. */
+export const lotNoticeSchema = z.object({ message: multilineText().trim().min(1, 'Write the notice.').max(4000) }).strict();
+
+const id = (what: string) =>
+  z
+    .number({ invalid_type_error: `Choose the ${what}.` })
+    .int()
+    .positive()
+    .max(2_147_483_647);
+
+/** A suggested order made a purchase order (the quantity as the planner confirmed it). */
+export const purchaseOrderSchema = z
+  .object({
+    depotSiteId: id('depot'),
+    specId: id('liner spec'),
+    quantity: z.number({ invalid_type_error: 'Enter the number of liners.' }).int('Order whole liners.').min(1, 'Order at least one liner.').max(1_000_000),
+    note: multilineText().trim().max(1000).optional(),
+  })
+  .strict();
+
+export const versionSchema = z.object({ version: z.number().int().min(0) }).strict();

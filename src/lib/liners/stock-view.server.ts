@@ -24,6 +24,7 @@ import {
   type TransferProposal,
 } from './liner-stock';
 import { specMeetsGrade } from './liner-specs';
+import { onOrderBy } from './purchase-orders.server';
 
 /** Days of the order book counted as known demand. */
 export const HORIZON_DAYS = 28;
@@ -73,6 +74,8 @@ export interface SpecStock {
   supplier: string | null;
   onHand: number;
   inTransit: number;
+  /** Liners still to come on open purchase orders. */
+  onOrder: number;
   /** Liners the open orders served from the depot take within the horizon (one per bin still to go out). */
   allocated: number;
   forecastPerDay: number;
@@ -106,7 +109,7 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
   const today = localDate(now, timeZone);
   const horizonEnd = addDays(today, HORIZON_DAYS - 1);
   const since = addDays(today, -HISTORY_DAYS);
-  const [depots, lots, specs, transit, orders, lined, used, planned, listed] = await Promise.all([
+  const [depots, lots, specs, transit, orders, lined, used, planned, listed, onOrder] = await Promise.all([
     rows<{ id: number; name: string }>(`SELECT id, name FROM sites WHERE kind = 'depot' AND active ORDER BY name`),
     rows<LotRow>(
       `SELECT m.site_id, l.id AS lot_id, l.lot_number, to_char(l.expiry_date, 'YYYY-MM-DD') AS expiry_date, l.status, l.liner_spec_id AS spec_id, l.supplier,
@@ -153,6 +156,7 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
       [since, timeZone],
     ),
     rows<{ bin_type_id: number; spec_id: number }>('SELECT bin_type_id, liner_spec_id AS spec_id FROM bin_type_liner_specs'),
+    onOrderBy(),
   ]);
 
   const key = (site: number, spec: number | null) => `${site}:${spec ?? 'none'}`;
@@ -191,7 +195,7 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
   const historyDays = Array.from({ length: HISTORY_DAYS }, (_, i) => addDays(since, i));
 
   // Which depot × spec pairs to show: any with stock, liners on the way, orders or recent use.
-  const pairs = new Set<string>([...lots.map((l) => key(l.site_id, l.spec_id)), ...transitBy.keys(), ...ordersBy.keys(), ...usedBy.keys()]);
+  const pairs = new Set<string>([...lots.map((l) => key(l.site_id, l.spec_id)), ...transitBy.keys(), ...ordersBy.keys(), ...usedBy.keys(), ...onOrder.keys()]);
   const pictures = new Map<string, { lots: StockLot[]; demand: Demand; all: LotRow[] }>();
   for (const d of depots) {
     for (const specId of [...specs.map((s) => s.id), null]) {
@@ -217,13 +221,14 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
         .map((o) => ({ siteId: o.siteId, name: o.name, ...pictures.get(key(o.siteId, specId))! }));
       const onHand = p.lots.reduce((s, l) => s + l.onHand, 0);
       const inTransit = transitBy.get(k) ?? 0;
+      const ordered = onOrder.get(k) ?? 0;
       const terms = spec && spec.lead_time_days !== null ? spec : null;
       const plan = terms
         ? planReorder({
             demand: p.demand,
             leadTimeDays: terms.lead_time_days!,
             serviceLevel: SERVICE_LEVEL,
-            inventoryPosition: onHand + inTransit,
+            inventoryPosition: onHand + inTransit + ordered,
             orderCost: Number(terms.order_cost),
             holdingCostPerUnitYear: Math.max(0.01, Number(terms.price_per_liner) * HOLDING_SHARE),
             pack: { packSize: terms.pack_size!, minimumOrder: terms.min_order_qty! },
@@ -238,6 +243,7 @@ export async function stockPicture(now = new Date()): Promise<StockPicture> {
         supplier: spec?.supplier ?? null,
         onHand,
         inTransit,
+        onOrder: ordered,
         allocated: p.demand.known.reduce((s, v) => s + v, 0),
         forecastPerDay: p.demand.forecast.mean,
         forecastSd: p.demand.forecast.sd,
@@ -311,5 +317,24 @@ export async function ledgerAt(f: LedgerFilter): Promise<LedgerLine[]> {
       WHERE ${where.join(' AND ')}
       ORDER BY m.occurred_at DESC, m.id DESC LIMIT $${bind.push(f.limit ?? 200)}`,
     bind,
+  );
+}
+
+export interface CountDifference {
+  occurredAt: Date;
+  lotNumber: string;
+  counted: number;
+  expected: number;
+  who: string | null;
+  note: string | null;
+}
+
+/** Stock counts at the depot that found a difference (the adjustment they made), newest first. */
+export async function countDifferences(siteId: number, limit = 20): Promise<CountDifference[]> {
+  return rows<CountDifference>(
+    `SELECT m.occurred_at AS "occurredAt", l.lot_number AS "lotNumber", m.counted, m.expected, u.name AS who, m.reason AS note
+       FROM liner_moves m JOIN liner_lots l ON l.id = m.lot_id LEFT JOIN users u ON u.id = m.user_id
+      WHERE m.site_id = $1 AND m.kind = 'counted' AND m.quantity <> 0 ORDER BY m.occurred_at DESC, m.id DESC LIMIT $2`,
+    [siteId, limit],
   );
 }

@@ -8,11 +8,15 @@ import { stableEventId } from '@/lib/scans/stable-event-id.server';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize, Load, HireOrder, Site } from '@/models';
 import { AppError } from '@/lib/api-errors';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { localDate } from '@/lib/calendar';
 import { recordScan, type Actor, type ScanOutcome } from '@/lib/scans/scan-service.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import { countsAsDemand } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { trailerById } from '@/lib/planning/truck-runs.server';
+import { binTypesForLoading } from '@/lib/planning/bin-types-for-loading.server';
+import { LOAD_KIND_BY_PURPOSE, loadCapacity } from '@/lib/planning/load-plan';
 
 export interface LoadBin {
   grai: string;
@@ -37,6 +41,7 @@ export interface LoadView {
   vehicleRegistration: string | null;
   driverName: string | null;
   trailerSeals: string[];
+  trailer: string | null;
   dispatchedAt: string | null;
   deliveredAt: string | null;
   receivedByName: string | null;
@@ -44,6 +49,8 @@ export interface LoadView {
   bins: LoadBin[];
 }
 
+/** The advisory-lock class for starting loads at a depot (the second key is the depot). */
+const LOAD_START_LOCK = 7301;
 const q = <T extends object>(sql: string, bind: unknown[], t?: Transaction) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
 
 async function loadedCount(loadId: number, t?: Transaction): Promise<number> {
@@ -64,42 +71,49 @@ export async function startLoad(
   if (!depotId) throw new AppError('unprocessable', 'Choose the depot the load leaves from.');
   const depot = await Site.findByPk(depotId);
   if (!depot || depot.kind !== 'depot') throw new AppError('unprocessable', 'Loads leave from a depot.');
-  let target = input.targetCount;
-  let destination = input.destinationSiteId ?? null;
-  if (input.purpose === 'hire') {
-    const order = input.hireOrderId ? await HireOrder.findByPk(input.hireOrderId) : null;
-    if (!order || !countsAsDemand(order.status)) throw new AppError('unprocessable', 'Choose a confirmed hire order (drafts are not loaded).');
-    if (order.depotSiteId !== depot.id) throw new AppError('unprocessable', `Hire order ${order.reference} is served from another depot.`);
-    const existing = await Load.findOne({ where: { hireOrderId: order.id, status: 'loading', depotSiteId: depot.id } });
-    if (existing) return existing;
-    const [{ loaded }] = (await q<{ loaded: number }>('SELECT count(*)::int AS loaded FROM trips WHERE hire_order_id = $1', [order.id])) as [{ loaded: number }];
-    target ??= Math.max(1, Math.min(200, order.quantity - loaded));
-    destination = order.deliverySiteId;
-  } else {
-    const dest = destination ? await Site.findByPk(destination) : null;
-    if (!dest || dest.kind !== 'depot' || dest.id === depot.id) throw new AppError('unprocessable', 'A transfer goes to another depot.');
-    target ??= 40;
-  }
-  const settings = await getSettings();
-  const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
-  // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
-  const prefix = `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`;
-  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM loads WHERE reference LIKE $1', [`${prefix}%`])) as [{ n: number }];
-  return Load.create({
-    reference: `${prefix}${String(n).padStart(3, '0')}`,
-    hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null,
-    depotSiteId: depot.id,
-    destinationSiteId: destination,
-    purpose: input.purpose,
-    targetCount: target,
-    carrier: null,
-    vehicleRegistration: null,
-    driverName: null,
-    dispatchedAt: null,
-    deliveredAt: null,
-    receivedByName: null,
-    deliveryPhotoId: null,
-    createdBy: user.id,
+  const settings = await getSettings(); // read before the transaction: it must not wait for a second connection
+  // Two people starting loads at one depot at once: one at a time per depot (a transaction-scoped advisory lock),
+  // so the second finds the first's load for the same order instead of opening a second one.
+  return sequelize.transaction(async (t) => {
+    await sequelize.query('SELECT pg_advisory_xact_lock($1, $2)', { bind: [LOAD_START_LOCK, depot.id], transaction: t });
+    let target = input.targetCount;
+    let destination = input.destinationSiteId ?? null;
+    if (input.purpose === 'hire') {
+      const order = input.hireOrderId ? await HireOrder.findByPk(input.hireOrderId, { transaction: t }) : null;
+      if (!order || !countsAsDemand(order.status)) throw new AppError('unprocessable', 'Choose a confirmed hire order (drafts are not loaded).');
+      if (order.depotSiteId !== depot.id) throw new AppError('unprocessable', `Hire order ${order.reference} is served from another depot.`);
+      const existing = await Load.findOne({ where: { hireOrderId: order.id, status: 'loading', depotSiteId: depot.id }, transaction: t });
+      if (existing) return existing;
+      const [{ loaded }] = (await q<{ loaded: number }>('SELECT count(*)::int AS loaded FROM trips WHERE hire_order_id = $1', [order.id], t)) as [{ loaded: number }];
+      target ??= Math.max(1, Math.min(200, order.quantity - loaded));
+      destination = order.deliverySiteId;
+    } else {
+      const dest = destination ? await Site.findByPk(destination, { transaction: t }) : null;
+      if (!dest || dest.kind !== 'depot' || dest.id === depot.id) throw new AppError('unprocessable', 'A transfer goes to another depot.');
+      target ??= 40;
+    }
+    const day = localDate(new Date(), settings.timeZone).replaceAll('-', '').slice(2);
+    // Numbered per depot and local day: LD-261201-RTM-003 is Rotterdam's third load that day.
+    const reference = await nextReference('loads', `LD-${day}-${depot.code.replace(/^DEP-/, '')}-`, 3, t);
+    return Load.create(
+      {
+        reference,
+        hireOrderId: input.purpose === 'hire' ? input.hireOrderId! : null,
+        depotSiteId: depot.id,
+        destinationSiteId: destination,
+        purpose: input.purpose,
+        targetCount: target,
+        carrier: null,
+        vehicleRegistration: null,
+        driverName: null,
+        dispatchedAt: null,
+        deliveredAt: null,
+        receivedByName: null,
+        deliveryPhotoId: null,
+        createdBy: user.id,
+      },
+      { transaction: t },
+    );
   });
 }
 
@@ -145,18 +159,45 @@ export async function addBinToLoad(
 }
 
 /** The truck leaves: carrier details go on the load, the order is marked dispatched when complete. */
-export async function dispatchLoad(loadId: number, input: { carrier: string; vehicleRegistration: string; driverName?: string | null; trailerSeals: string[] }) {
+export async function dispatchLoad(
+  loadId: number,
+  input: { carrier: string; vehicleRegistration: string; driverName?: string | null; trailerSeals: string[]; trailerId?: number | null },
+) {
   return sequelize.transaction(async (t) => {
     const load = await Load.findByPk(loadId, { transaction: t, lock: t.LOCK.UPDATE });
     if (!load) throw new AppError('not_found', 'No such load.');
     if (load.status !== 'loading') throw new AppError('conflict', 'This load has already left.');
     const loaded = await loadedCount(load.id, t);
     if (loaded === 0) throw new AppError('unprocessable', 'Scan at least one bin onto the load first.');
-    Object.assign(load, { ...input, driverName: input.driverName || null, status: 'dispatched', dispatchedAt: new Date() });
+    if (input.trailerId != null) await checkLoadFitsTrailer(load, loaded, input.trailerId, t);
+    Object.assign(load, { ...input, trailerId: input.trailerId ?? null, driverName: input.driverName || null, status: 'dispatched', dispatchedAt: new Date() });
     await load.save({ transaction: t });
     if (load.hireOrderId) await syncOrderStatus(load.hireOrderId, t);
     return load;
   });
+}
+
+/**
+ * The chosen trailer must be in use and take the bins scanned on: its capacity by the load plan for the load's
+ * bin type (when all its bins are of one type), erected for hire and folded for transfers.
+ */
+async function checkLoadFitsTrailer(load: Load, loaded: number, trailerId: number, t: Transaction) {
+  const trailer = await trailerById(trailerId, t);
+  if (!trailer?.active) throw new AppError('validation_failed', 'There is no trailer in use by that number.', [{ path: 'trailerId', message: 'Choose a trailer.' }]);
+  const types = await q<{ id: number }>(
+    `SELECT DISTINCT a.bin_type_id AS id FROM scan_events e JOIN assets a ON a.id = e.asset_id
+      WHERE e.action = 'dispatch' AND e.payload ? 'loadId' AND (e.payload->>'loadId')::int = $1 AND e.voided_at IS NULL`,
+    [load.id],
+    t,
+  );
+  if (types.length !== 1) return;
+  const [type] = await binTypesForLoading(types[0]!.id, t);
+  const cap = type ? loadCapacity(trailer, type.bin, LOAD_KIND_BY_PURPOSE[load.purpose as 'hire' | 'transfer']) : null;
+  if (cap?.ok && loaded > cap.bins) {
+    throw new AppError('unprocessable', `${loaded} bins are on the load but the ${trailer.name} takes ${cap.bins} ${type!.name}: ${cap.explanation}`, {
+      capacity: cap.bins,
+    });
+  }
 }
 
 /** The delivery link printed on the note: the load reference and an HMAC of it (nothing stored). */
@@ -235,8 +276,9 @@ export async function confirmDelivery(load: Load, input: { receivedByName: strin
 export async function loadView(reference: string): Promise<LoadView | null> {
   const [row] = await q<Record<string, unknown>>(
     `SELECT l.*, ho.reference AS order_ref, ho.quantity, ho.needed_by, ho.product, o.name AS customer,
-            d.name AS depot_name, d.address AS depot_address, ds.name AS dest_name, ds.address AS dest_address
+            d.name AS depot_name, d.address AS depot_address, ds.name AS dest_name, ds.address AS dest_address, tr.name AS trailer_name
        FROM loads l JOIN sites d ON d.id = l.depot_site_id
+       LEFT JOIN trailers tr ON tr.id = l.trailer_id
        LEFT JOIN hire_orders ho ON ho.id = l.hire_order_id
        LEFT JOIN organisations o ON o.id = ho.customer_id
        LEFT JOIN sites ds ON ds.id = l.destination_site_id
@@ -277,6 +319,7 @@ export async function loadView(reference: string): Promise<LoadView | null> {
     vehicleRegistration: (row.vehicle_registration as string) ?? null,
     driverName: (row.driver_name as string) ?? null,
     trailerSeals: (row.trailer_seals as string[]) ?? [],
+    trailer: (row.trailer_name as string) ?? null,
     dispatchedAt: iso(row.dispatched_at),
     deliveredAt: iso(row.delivered_at),
     receivedByName: (row.received_by_name as string) ?? null,

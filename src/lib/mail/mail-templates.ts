@@ -23,7 +23,10 @@ export type MailKind =
   | 'seal_mismatch'
   | 'collection_confirmation'
   | 'overdue_reminder'
-  | 'count_due';
+  | 'count_due'
+  | 'liner_lot_notice'
+  | 'liner_purchase_order'
+  | 'liner_reorder_alert';
 
 function compose(subject: string, lines: string[]): MailContent {
   const text = `${lines
@@ -234,6 +237,9 @@ export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   seal_mismatch: 'Seal mismatch alert',
   overdue_reminder: 'Overdue-return reminder',
   count_due: 'Monthly count due',
+  liner_lot_notice: 'Liner lot notice',
+  liner_purchase_order: 'Liner purchase order',
+  liner_reorder_alert: 'Liner reorder alert',
 };
 
 const OPT_OUT_LINE = (accountLink: string) => `You get this reminder because reminders are on for your account; turn them off here: ${accountLink}`;
@@ -357,5 +363,90 @@ export function sealMismatchMail(m: SealMismatchInput): MailContent {
     '',
     `The bin's page: ${m.link}`,
     ...signature(m.operatorName),
+  ]);
+}
+
+export interface LinerLotNoticeInput {
+  operatorName: string;
+  customerName: string;
+  lotNumber: string;
+  supplier: string;
+  status: 'released' | 'on_hold' | 'recalled';
+  message: string;
+  uses: Array<{ serial: string; what: string; fillDay: string | null; product: string | null; site: string | null }>;
+}
+
+/** A customer's notice about a liner lot on hold or recalled: the planner's words and that customer's bins. */
+export function linerLotNoticeMail(n: LinerLotNoticeInput): MailContent {
+  const state = n.status === 'recalled' ? 'recalled' : n.status === 'on_hold' ? 'put on hold' : 'released again';
+  return compose(`Liner lot ${n.lotNumber} ${state}: ${n.uses.length} of your bins concerned`, [
+    `Hello ${n.customerName},`,
+    '',
+    `Liner lot ${n.lotNumber} (${n.supplier}) has been ${state}. These bins of yours were lined from it:`,
+    '',
+    ...n.uses.map((u) => `• ${u.serial}: ${[u.what, u.fillDay && `filled ${u.fillDay}`, u.product, u.site].filter(Boolean).join(', ')}`),
+    '',
+    n.message.trim(),
+    '',
+    'Follow your own procedures and the product’s safety data sheet for product that may be affected, and reply to this message with any questions.',
+    ...signature(n.operatorName),
+  ]);
+}
+
+export interface PurchaseOrderMailInput {
+  operatorName: string;
+  supplierName: string;
+  reference: string;
+  orderedOn: string; // '1 Dec 2026'
+  wantedBy: string;
+  quantity: number;
+  articleNumber: string | null;
+  specName: string;
+  pricePerLiner: string;
+  deliverTo: { name: string; address: string | null };
+  note: string | null;
+  plannerName: string;
+}
+
+/** The purchase order as sent to the supplier's order address. */
+export function purchaseOrderMail(p: PurchaseOrderMailInput): MailContent {
+  const qty = p.quantity.toLocaleString('en-GB');
+  return compose(`Purchase order ${p.reference}: ${qty} liners${p.articleNumber ? ` (${p.articleNumber})` : ''}`, [
+    `Hello ${p.supplierName},`,
+    '',
+    `Please supply the following and quote ${p.reference} on the delivery note and on each carton's label:`,
+    '',
+    `  ${qty} × ${p.specName}${p.articleNumber ? `, your article ${p.articleNumber}` : ''}, at ${p.pricePerLiner} a liner`,
+    `  Wanted by ${p.wantedBy} (ordered ${p.orderedOn})`,
+    `  Deliver to: ${p.deliverTo.name}${p.deliverTo.address ? `, ${p.deliverTo.address}` : ''}`,
+    ...(p.note ? ['', p.note] : []),
+    '',
+    'With each lot, please send its lot number, manufacture and expiry dates and, for food-contact liners, the declaration of compliance.',
+    '',
+    `${p.plannerName}, ${p.operatorName}`,
+    ...signature(p.operatorName),
+  ]);
+}
+
+export interface ReorderAlertMailInput {
+  recipientName: string;
+  operatorName: string;
+  link: string;
+  below: Array<{ depot: string; spec: string; position: number; reorderPoint: number; suggested: number }>;
+}
+
+/** Planners are told once when a depot's stock of a spec falls below its reorder point. */
+export function reorderAlertMail(a: ReorderAlertMailInput): MailContent {
+  const n = (v: number) => Math.round(v).toLocaleString('en-GB');
+  return compose(`Liner stock below the reorder point: ${a.below.map((b) => `${b.spec} at ${b.depot}`).join(', ')}`, [
+    `Hello ${a.recipientName},`,
+    '',
+    'On hand, in transit and on order together are now below the reorder point for:',
+    '',
+    ...a.below.map((b) => `• ${b.spec} at ${b.depot}: ${n(b.position)} against a reorder point of ${n(b.reorderPoint)}; suggested order ${n(b.suggested)}`),
+    '',
+    `Order from the stock page: ${a.link}`,
+    'You will not be told again about these until their stock has recovered.',
+    ...signature(a.operatorName),
   ]);
 }

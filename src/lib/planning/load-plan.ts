@@ -158,6 +158,15 @@ export type LoadKind =
   /** grossKgPerBin: tare + contents of one filled bin (at most the bin's maximum gross mass). */
   | { kind: 'filled'; grossKgPerBin: number };
 
+/**
+ * How a load of empties travels (our rule): bins on hire leave lined, so erected; transfers of empties between
+ * depots go folded.
+ */
+export const LOAD_KIND_BY_PURPOSE: Readonly<Record<'hire' | 'transfer', LoadKind>> = {
+  hire: { kind: 'erected-empty' },
+  transfer: { kind: 'folded' },
+};
+
 export interface LoadPlanOptions {
   floorPlayMm?: number;
   headRoomMm?: number;

@@ -5,6 +5,7 @@
  *   draft ──confirm──▶ confirmed ──(first bin loaded)──▶ loading ──(all bins dispatched)──▶ dispatched ──close──▶ closed
  *     └──cancel──▶ cancelled ◀──cancel── confirmed, loading (nothing loaded yet)
  *   loading ──close short──▶ closed (the planner ends an order that will get no more bins)
+ *   and back, when scans are voided: dispatched ──(a bin no longer dispatched)──▶ loading ──(none loaded)──▶ confirmed
  *
  * Drafts count nowhere: not as demand at the depot, not on the yard's list,
  * not for loads. Only `DEMAND_STATUSES` do.
@@ -33,7 +34,7 @@ export interface OrderTransition {
   command?: OrderCommand;
   label: string;
   /** Extra condition, checked against the order's progress. */
-  when?: 'nothing-loaded' | 'something-loaded' | 'all-dispatched';
+  when?: 'nothing-loaded' | 'something-loaded' | 'all-dispatched' | 'not-all-dispatched';
 }
 
 /** The whole table. Anything not here is refused. */
@@ -45,6 +46,9 @@ export const ORDER_TRANSITIONS: readonly OrderTransition[] = [
   { from: 'loading', to: 'cancelled', by: 'planner', command: 'cancel', label: 'Cancel order', when: 'nothing-loaded' },
   { from: 'loading', to: 'dispatched', by: 'loads', label: 'All bins dispatched', when: 'all-dispatched' },
   { from: 'loading', to: 'closed', by: 'planner', command: 'close', label: 'Close short', when: 'something-loaded' },
+  // A voided dispatch takes its bin off the order again: the status steps back with it.
+  { from: 'dispatched', to: 'loading', by: 'loads', label: 'A dispatch voided', when: 'not-all-dispatched' },
+  { from: 'loading', to: 'confirmed', by: 'loads', label: 'Every loaded bin voided', when: 'nothing-loaded' },
   { from: 'dispatched', to: 'closed', by: 'planner', command: 'close', label: 'Close order' },
 ];
 
@@ -69,6 +73,7 @@ function holds(when: OrderTransition['when'], p: OrderProgress): boolean {
   if (when === undefined) return true;
   if (when === 'nothing-loaded') return p.loaded === 0;
   if (when === 'something-loaded') return p.loaded > 0;
+  if (when === 'not-all-dispatched') return p.dispatched < p.quantity;
   return p.dispatched >= p.quantity;
 }
 
@@ -76,6 +81,7 @@ const CONDITION_REASONS: Record<NonNullable<OrderTransition['when']>, string> = 
   'nothing-loaded': 'bins are already loaded for it; void those scans first',
   'something-loaded': 'no bin has been loaded for it yet',
   'all-dispatched': 'not every bin has been dispatched yet',
+  'not-all-dispatched': 'every bin has been dispatched',
 };
 
 export type CommandDecision = { ok: true; to: OrderStatus; label: string } | { ok: false; reason: string };
@@ -102,7 +108,8 @@ export function availableCommands(status: OrderStatus, progress: OrderProgress):
 
 /**
  * The status the order's loads give it: a confirmed order with a bin loaded is
- * loading; a loading one with every bin dispatched is dispatched. Applied
+ * loading; a loading one with every bin dispatched is dispatched; and back when
+ * voided scans take bins off it (dispatched → loading → confirmed). Applied
  * repeatedly until nothing changes; planner-owned statuses are left alone.
  */
 export function statusFromLoads(status: OrderStatus, progress: OrderProgress): OrderStatus {

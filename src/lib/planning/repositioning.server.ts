@@ -11,6 +11,7 @@ import { openOrdersAt } from '@/lib/loads/hire-orders.server';
 import { loadTripHistory } from './returns-forecast.server';
 import { binsOutAsOf, fitReturnModel, forecastReturns, type DepotForecast } from './returns-forecast';
 import { loadCapacity, STANDARD_TRAILER } from './load-plan';
+import { binTypesForLoading } from './bin-types-for-loading.server';
 import { depotBalance, planRepositioning, type RepoBinType, type RepoDepot, type RepoSite, type RepositioningPlan } from './repositioning';
 import { solveTruckPlanOffThread } from './plan-solver.server';
 import type { PlanSettings } from './repositioning-settings';
@@ -26,16 +27,6 @@ interface CountRow {
   site_id: number;
   bin_type_id: number;
   n: number;
-}
-interface TypeRow {
-  id: number;
-  name: string;
-  footprint_length_mm: number;
-  footprint_width_mm: number;
-  height_erected_mm: number;
-  height_folded_mm: number;
-  tare_kg: string;
-  max_gross_kg: string;
 }
 
 export interface DepotRow {
@@ -74,7 +65,7 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
   const horizonEnd = addDays(today, settings.horizonDays);
   const [sites, typeRows, onHand, awaiting, history] = await Promise.all([
     q<SiteRow>(`SELECT id, name, kind, latitude::float8 AS lat, longitude::float8 AS lon FROM sites WHERE active AND kind IN ('depot', 'customer') ORDER BY name`),
-    q<TypeRow>(`SELECT id, name, footprint_length_mm, footprint_width_mm, height_erected_mm, height_folded_mm, tare_kg, max_gross_kg FROM bin_types WHERE active ORDER BY name`),
+    binTypesForLoading(),
     q<CountRow>(`SELECT a.site_id, a.bin_type_id, count(*)::int AS n FROM assets a JOIN sites s ON s.id = a.site_id
                   WHERE s.kind = 'depot' AND a.status IN ('available', 'prepared') GROUP BY 1, 2`),
     q<CountRow>(`SELECT a.site_id, a.bin_type_id, count(*)::int AS n FROM assets a JOIN sites s ON s.id = a.site_id
@@ -83,17 +74,7 @@ export async function repositioningView(settings: PlanSettings, now = new Date()
   ]);
 
   const types = typeRows.flatMap((t) => {
-    const cap = loadCapacity(
-      STANDARD_TRAILER,
-      {
-        footprint: { lengthMm: t.footprint_length_mm, widthMm: t.footprint_width_mm },
-        heightErectedMm: t.height_erected_mm,
-        heightFoldedMm: t.height_folded_mm,
-        tareKg: Number(t.tare_kg),
-        maxGrossKg: Number(t.max_gross_kg),
-      },
-      { kind: 'folded' },
-    );
+    const cap = loadCapacity(STANDARD_TRAILER, t.bin, { kind: 'folded' });
     return cap.ok ? [{ key: String(t.id), name: t.name, truckCapacity: cap.bins, limitedBy: cap.explanation }] : [];
   });
   const placed = sites.filter((s) => s.lat !== null && s.lon !== null);

@@ -5,7 +5,8 @@
  *      └──cancel──▶ cancelled ◀──cancel── confirmed (nothing received yet)
  *
  * Only a planned run's stops are edited; carrier and trailer may change until the run is done. Confirming needs
- * a carrier and at least one stop, and puts the run's day on the requests it serves (the customer sees it).
+ * a carrier, at least one stop and no more bins expected than one truck carries (`capacity`, from the load plan
+ * with the run's trailer and bin type), and puts the run's day on the requests it serves (the customer sees it).
  */
 import type { IconName } from '@/lib/icons';
 import type { Tone } from '@/lib/status-look';
@@ -19,6 +20,10 @@ export interface RunFacts {
   carrier: string | null;
   stops: number;
   received: number;
+  /** Bins the stops expect in total. */
+  expected: number;
+  /** Folded bins one truck of the run's trailer takes (null: not known, e.g. no bin type to plan with). */
+  capacity: number | null;
 }
 
 interface RunTransition {
@@ -54,10 +59,23 @@ export function decideRunCommand(run: RunFacts, command: RunCommand): RunDecisio
   }
   if (command === 'confirm' && !run.carrier) return { ok: false, reason: 'Name the carrier before confirming the run.' };
   if (command === 'confirm' && run.stops === 0) return { ok: false, reason: 'The run has no stops; add one before confirming it.' };
+  if (command === 'confirm') {
+    const over = overCapacity(run);
+    if (over) return { ok: false, reason: over };
+  }
   if (command === 'cancel' && run.received > 0) {
     return { ok: false, reason: `${run.received} ${run.received === 1 ? 'bin has' : 'bins have'} been received against this run; close it instead.` };
   }
   return { ok: true, to: step.to };
+}
+
+/**
+ * Why the stops do not fit on one truck, or null when they do (or the capacity is not known). Also refuses a
+ * smaller trailer on a confirmed run.
+ */
+export function overCapacity(run: Pick<RunFacts, 'expected' | 'capacity'>): string | null {
+  if (run.capacity === null || run.expected <= run.capacity) return null;
+  return `The stops expect ${run.expected} bins but one truck takes ${run.capacity}: move ${run.expected - run.capacity} to another run or choose a larger trailer.`;
 }
 
 /** The commands a planner can give now (the run page's buttons). */

@@ -14,10 +14,12 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { localDate, type LocalDate } from '@/lib/calendar';
 import { canMove } from '@/lib/requests/request-status';
 import { TruckRun } from '@/models';
+import { nextReference } from '@/lib/reference-numbers.server';
 import { loadCapacity, STANDARD_TRAILER, type Trailer } from './load-plan';
+import { binTypesForLoading } from './bin-types-for-loading.server';
 import { DEFAULT_ROAD_FACTOR, roadKm, type Point } from './lane-costs';
 import { driveOrder, routeKm, suggestRuns, type SuggestedRun } from './truck-runs';
-import { decideRunCommand, editableParts, runCommands, runProgress, type RunCommand, type RunProgress, type RunStatus } from './run-status';
+import { decideRunCommand, editableParts, overCapacity, runCommands, runProgress, type RunCommand, type RunProgress, type RunStatus } from './run-status';
 import type { RunCreate, RunPatch, RunSuggestQuery } from './run-forms';
 
 const q = <T extends object>(sql: string, bind: unknown[] = [], t?: Transaction) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT, transaction: t });
@@ -26,23 +28,14 @@ const q = <T extends object>(sql: string, bind: unknown[] = [], t?: Transaction)
 // Capacity: the trailer's inside size and payload through the load plan
 // ---------------------------------------------------------------------------
 
-interface TrailerRow {
+export interface TrailerRow {
   id: number;
   name: string;
   insideLengthMm: number;
   insideWidthMm: number;
   insideHeightMm: number;
   payloadKg: number;
-}
-interface BinTypeRow {
-  id: number;
-  name: string;
-  footprint_length_mm: number;
-  footprint_width_mm: number;
-  height_erected_mm: number;
-  height_folded_mm: number;
-  tare_kg: string;
-  max_gross_kg: string;
+  active: boolean;
 }
 
 export interface RunCapacity {
@@ -52,11 +45,16 @@ export interface RunCapacity {
   binType: string;
 }
 
-const TRAILER_COLUMNS = `id, name, inside_length_mm AS "insideLengthMm", inside_width_mm AS "insideWidthMm", inside_height_mm AS "insideHeightMm", payload_kg AS "payloadKg"`;
+const TRAILER_COLUMNS = `id, name, inside_length_mm AS "insideLengthMm", inside_width_mm AS "insideWidthMm", inside_height_mm AS "insideHeightMm", payload_kg AS "payloadKg", active`;
 
 export async function trailerById(id: number, t?: Transaction): Promise<TrailerRow | null> {
   const [row] = await q<TrailerRow>(`SELECT ${TRAILER_COLUMNS} FROM trailers WHERE id = $1`, [id], t);
   return row ?? null;
+}
+
+/** The trailers in use, with their inside size and payload (the planner picks one per run or load). */
+export async function activeTrailers(): Promise<TrailerRow[]> {
+  return q<TrailerRow>(`SELECT ${TRAILER_COLUMNS} FROM trailers WHERE active ORDER BY name`);
 }
 
 /**
@@ -65,24 +63,9 @@ export async function trailerById(id: number, t?: Transaction): Promise<TrailerR
  */
 export async function runCapacity(trailerId: number | null, binTypeId: number | null, t?: Transaction): Promise<RunCapacity | null> {
   const trailer: Trailer & { name?: string } = (trailerId !== null ? await trailerById(trailerId, t) : null) ?? STANDARD_TRAILER;
-  const [type] = await q<BinTypeRow>(
-    `SELECT id, name, footprint_length_mm, footprint_width_mm, height_erected_mm, height_folded_mm, tare_kg, max_gross_kg FROM bin_types
-      WHERE ${binTypeId !== null ? 'id = $1' : 'active'} ORDER BY name LIMIT 1`,
-    binTypeId !== null ? [binTypeId] : [],
-    t,
-  );
+  const [type] = await binTypesForLoading(binTypeId, t);
   if (!type) return null;
-  const cap = loadCapacity(
-    trailer,
-    {
-      footprint: { lengthMm: type.footprint_length_mm, widthMm: type.footprint_width_mm },
-      heightErectedMm: type.height_erected_mm,
-      heightFoldedMm: type.height_folded_mm,
-      tareKg: Number(type.tare_kg),
-      maxGrossKg: Number(type.max_gross_kg),
-    },
-    { kind: 'folded' },
-  );
+  const cap = loadCapacity(trailer, type.bin, { kind: 'folded' });
   if (!cap.ok) return null;
   return { bins: cap.bins, explanation: cap.explanation, trailer: trailer.name ?? 'Trailer', binType: type.name };
 }
@@ -267,19 +250,18 @@ async function writeStops(runId: number, stops: RunCreate['stops'], t: Transacti
   );
 }
 
-async function nextReference(depotCode: string, plannedOn: LocalDate, t: Transaction): Promise<string> {
-  // Numbered per depot and day: RUN-261224-T1-02 is the T1 depot's second run planned for 24 Dec 2026.
-  const prefix = `RUN-${plannedOn.replaceAll('-', '').slice(2)}-${depotCode.replace(/^DEP-/, '')}-`;
-  const [{ n }] = (await q<{ n: number }>('SELECT count(*)::int + 1 AS n FROM truck_runs WHERE reference LIKE $1', [`${prefix}%`], t)) as [{ n: number }];
-  return `${prefix}${String(n).padStart(2, '0')}`;
+/** Numbered per depot and day: RUN-261224-T1-02 is the T1 depot's second run planned for 24 Dec 2026. */
+function runReference(depotCode: string, plannedOn: LocalDate, t: Transaction): Promise<string> {
+  return nextReference('truck_runs', `RUN-${plannedOn.replaceAll('-', '').slice(2)}-${depotCode.replace(/^DEP-/, '')}-`, 2, t);
 }
 
-export async function createRun(input: RunCreate, actor: AuditActor): Promise<{ id: number; reference: string }> {
-  return sequelize.transaction(async (t) => {
+/** Saves a planned run; inside the caller's transaction when given one (an approved repositioning plan's collection lanes). */
+export async function createRun(input: RunCreate, actor: AuditActor, opts: { transaction?: Transaction; planId?: number } = {}): Promise<{ id: number; reference: string }> {
+  const go = async (t: Transaction) => {
     const depot = await checkDepot(input.depotId, t);
     await checkTrailer(input.trailerId, t);
     const sites = await checkStops(input.stops, t);
-    const reference = await nextReference(depot.code, input.plannedOn, t);
+    const reference = await runReference(depot.code, input.plannedOn, t);
     const row = await TruckRun.create(
       {
         reference,
@@ -296,12 +278,16 @@ export async function createRun(input: RunCreate, actor: AuditActor): Promise<{ 
       { transaction: t },
     );
     await writeStops(row.id, input.stops, t);
+    if (opts.planId !== undefined) {
+      await sequelize.query('UPDATE truck_runs SET repositioning_plan_id = $2 WHERE id = $1', { bind: [row.id, opts.planId], transaction: t });
+    }
     await recordAudit(
       { actor, action: 'truck_run.create', entityType: 'truck_run', entityId: row.id, after: { reference, plannedOn: input.plannedOn, stops: input.stops } },
       { transaction: t },
     );
     return { id: row.id, reference };
-  });
+  };
+  return opts.transaction ? go(opts.transaction) : sequelize.transaction(go);
 }
 
 async function lockRun(id: number, version: number | null, t: Transaction): Promise<TruckRun> {
@@ -343,6 +329,12 @@ export async function updateRun(id: number, patch: RunPatch, actor: AuditActor):
     if (patch.carrier !== undefined) row.carrier = patch.carrier;
     if (patch.trailerId !== undefined) row.trailerId = patch.trailerId;
     if (patch.binTypeId !== undefined) row.binTypeId = patch.binTypeId;
+    if (row.status === 'confirmed' && patch.trailerId !== undefined) {
+      const capacity = await runCapacity(row.trailerId, row.binTypeId, t);
+      const expected = before.stops.reduce((n, s) => n + s.expected, 0);
+      const over = overCapacity({ expected, capacity: capacity?.bins ?? null });
+      if (over) throw new AppError('unprocessable', over);
+    }
     row.set('updatedAt', new Date());
     await row.save({ transaction: t });
     const after = { plannedOn: row.plannedOn, carrier: row.carrier, trailerId: row.trailerId, binTypeId: row.binTypeId, stops: await stopsOf(row.id, t) };
@@ -409,7 +401,11 @@ export async function commandRun(id: number, command: RunCommand, version: numbe
     const row = await lockRun(id, version, t);
     const stops = await stopsOf(row.id, t);
     const progress = runProgress(stops, await receivedBySite(row.id, t));
-    const decision = decideRunCommand({ status: row.status, carrier: row.carrier, stops: stops.length, received: progress.received }, command);
+    const capacity = command === 'confirm' ? await runCapacity(row.trailerId, row.binTypeId, t) : null;
+    const decision = decideRunCommand(
+      { status: row.status, carrier: row.carrier, stops: stops.length, received: progress.received, expected: progress.expected, capacity: capacity?.bins ?? null },
+      command,
+    );
     if (!decision.ok) throw new AppError('transition_refused', decision.reason);
     const before = { status: row.status };
     if (decision.to === 'confirmed') {
@@ -546,6 +542,8 @@ export interface RunView {
   stops: RunStopView[];
   progress: RunProgress;
   commands: Array<{ command: RunCommand; label: string }>;
+  /** Why a planned run cannot be confirmed yet (shown beside the commands), or null. */
+  confirmBlocked: string | null;
   editable: { stops: boolean; carrier: boolean };
 }
 
@@ -596,6 +594,8 @@ export async function runView(id: number): Promise<RunView | null> {
     [id],
   );
   const progress = await progressOf(id);
+  const capacity = await runCapacity(r.trailerId, r.binTypeId);
+  const facts = { status: r.status, carrier: r.carrier, stops: stopRows.length, received: progress.received, expected: progress.expected, capacity: capacity?.bins ?? null };
   let at: Point | null = r.depotLat !== null && r.depotLon !== null ? { lat: r.depotLat, lon: r.depotLon } : null;
   const stops = stopRows.map((s, i) => {
     const here = s.lat !== null && s.lon !== null ? { lat: s.lat, lon: s.lon } : null;
@@ -627,10 +627,14 @@ export async function runView(id: number): Promise<RunView | null> {
     trailer: r.trailerId !== null ? { id: r.trailerId, name: r.trailerName! } : null,
     binTypeId: r.binTypeId,
     roadKm: r.roadKm,
-    capacity: await runCapacity(r.trailerId, r.binTypeId),
+    capacity,
     stops,
     progress,
-    commands: runCommands({ status: r.status, carrier: r.carrier, stops: stops.length, received: progress.received }),
+    commands: runCommands(facts),
+    confirmBlocked: (() => {
+      const d = r.status === 'planned' ? decideRunCommand(facts, 'confirm') : null;
+      return d && !d.ok ? d.reason : null;
+    })(),
     editable: editableParts(r.status),
   };
 }

@@ -24,6 +24,9 @@ export interface BinTypeRow {
   policyKind: 'un' | 'own';
   intermediateMonths: number;
   fullMonths: number;
+  /** ADR 4.1.1.15 period of use of the inner receptacle: applies or not, and for how many years. */
+  serviceLifeApplies: boolean;
+  serviceLifeYears: number;
   active: boolean;
   version: number;
   /** Registered bins of this type (retired ones included). */
@@ -36,6 +39,7 @@ const BIN_TYPE_SQL = `
          b.footprint_length_mm AS "footprintLengthMm", b.footprint_width_mm AS "footprintWidthMm",
          b.height_erected_mm AS "heightErectedMm", b.height_folded_mm AS "heightFoldedMm", b.un_code AS "unCode",
          b.policy_kind AS "policyKind", b.intermediate_months AS "intermediateMonths", b.full_months AS "fullMonths",
+         b.service_life_applies AS "serviceLifeApplies", b.service_life_years AS "serviceLifeYears",
          b.active, b.version, (SELECT count(*)::int FROM assets a WHERE a.bin_type_id = b.id) AS bins
     FROM bin_types b`;
 
@@ -64,6 +68,8 @@ const FIELDS = [
   'policyKind',
   'intermediateMonths',
   'fullMonths',
+  'serviceLifeApplies',
+  'serviceLifeYears',
   'active',
 ] as const;
 

@@ -36,7 +36,8 @@ const CUSTOMER_SQL = `
     FROM organisations o
    WHERE o.kind = 'customer'`;
 
-async function today(): Promise<string> {
+/** Today in the operator's zone (the day the terms in force are read for). */
+export async function today(): Promise<string> {
   return localDate(new Date(), (await getSettings()).timeZone);
 }
 

@@ -8,6 +8,7 @@ import { SITE_KINDS, SITE_KIND_LABELS, type SiteKindName } from './setup-schemas
 import type { CustomerRow } from './customers.server';
 import type { SiteRow } from './sites.server';
 import type { BinTypeRow } from './bin-types.server';
+import type { TrailerRow } from './trailers.server';
 
 export type FieldType = 'text' | 'code' | 'email' | 'int' | 'decimal' | 'money' | 'currency' | 'textarea' | 'select' | 'checkbox';
 
@@ -162,6 +163,7 @@ export const BIN_TYPES: SetupSpec<BinTypeRow> = {
     { label: 'Tare / max gross', value: (r) => `${kg(r.tareKg)} / ${kg(r.maxGrossKg)}`, num: true, from: 'lg' },
     { label: 'UN code', value: (r) => r.unCode ?? 'none', ident: false },
     { label: 'Inspections', value: (r) => `${r.intermediateMonths} / ${r.fullMonths} months`, num: true, from: '2xl' },
+    { label: 'Period of use', value: (r) => (r.serviceLifeApplies ? `${r.serviceLifeYears} years` : 'no limit'), num: true, from: 'xl' },
     { label: 'Bins', value: (r) => n(r.bins), num: true },
   ],
   fields: [
@@ -186,6 +188,14 @@ export const BIN_TYPES: SetupSpec<BinTypeRow> = {
     { name: 'policyKind', label: 'Inspection policy', type: 'select', options: POLICY_OPTIONS },
     { name: 'intermediateMonths', label: 'Intermediate inspection every', type: 'int', unit: 'months', hint: 'At most 30 for UN-marked IBCs.' },
     { name: 'fullMonths', label: 'Full inspection every', type: 'int', unit: 'months', pair: true, hint: 'At most 60 for UN-marked IBCs.' },
+    {
+      name: 'serviceLifeApplies',
+      label: 'Limited period of use (rigid plastics inner receptacle)',
+      type: 'checkbox',
+      group: 'Period of use',
+      hint: 'ADR 4.1.1.15: rigid plastics IBCs and composites with a rigid plastics inner receptacle carry dangerous goods for 5 years from the inner receptacle’s manufacture, unless the competent authority allows otherwise. Not for bins lined with a single-use liner. Each bin then records the month its inner receptacle was made.',
+    },
+    { name: 'serviceLifeYears', label: 'Years of use', type: 'int', unit: 'years', pair: true, initial: '5', hint: 'At most 5; fewer where the substance asks for it.' },
   ],
 };
 
@@ -194,4 +204,28 @@ export function unCodeMeaning(code: string): string | undefined {
   return code.trim() ? describeUnCode(code.trim().toUpperCase()) : undefined;
 }
 
-export type SetupKind = 'customers' | 'sites' | 'bin-types';
+export const TRAILERS: SetupSpec<TrailerRow> = {
+  title: 'Trailers',
+  intro:
+    'The trailers loads and collection runs are planned with: inside size and payload. A run’s truck capacity is worked out from them and the bin type (floor positions, stack levels, payload); without one the standard semi-trailer of common practice is used.',
+  noun: 'trailer',
+  apiBase: '/api/admin/trailers',
+  label: (r) => r.name,
+  search: (r) => r.name,
+  activeHint: 'A closed trailer is no longer offered for new runs; runs planned with it keep it.',
+  columns: [
+    { label: 'Name', value: (r) => r.name },
+    { label: 'Inside length × width × height', value: (r) => `${n(r.insideLengthMm)} × ${n(r.insideWidthMm)} × ${n(r.insideHeightMm)} mm`, num: true },
+    { label: 'Payload', value: (r) => kg(r.payloadKg), num: true },
+    { label: 'Runs', value: (r) => n(r.runs), num: true, from: 'lg' },
+  ],
+  fields: [
+    { name: 'name', label: 'Name', type: 'text', hint: 'As planners know it, e.g. Curtainsider 13.6 m.' },
+    { name: 'insideLengthMm', label: 'Inside length', type: 'int', unit: 'mm', group: 'Inside size', hint: 'A standard semi-trailer: about 13,600 mm.' },
+    { name: 'insideWidthMm', label: 'Inside width', type: 'int', unit: 'mm', pair: true, hint: 'About 2,450 mm.' },
+    { name: 'insideHeightMm', label: 'Inside height', type: 'int', unit: 'mm', hint: 'About 2,700 mm.' },
+    { name: 'payloadKg', label: 'Payload', type: 'int', unit: 'kg', pair: true, hint: 'About 24,000 kg.' },
+  ],
+};
+
+export type SetupKind = 'customers' | 'sites' | 'bin-types' | 'trailers';

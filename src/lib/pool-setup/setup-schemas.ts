@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { multilineText, text } from '@/lib/text-input';
 import { parseUnTypeCode } from '@/lib/bins/un-marking';
 import { DEFAULT_UN_POLICY, policyProblems } from '@/lib/inspections/inspection-due';
+import { ADR_SERVICE_LIFE_YEARS, serviceLifePolicyProblems } from '@/lib/inspections/service-life';
 import { tariffInputSchema } from '@/lib/planning/tariffs';
 
 const version = z.number().int().min(0);
@@ -158,6 +159,9 @@ const binTypeObject = z.object({
   policyKind: z.enum(['un', 'own']),
   intermediateMonths: z.number({ invalid_type_error: 'A number of months.' }).int('Whole months.').min(1, 'At least 1 month.').max(120, 'At most 120 months.'),
   fullMonths: z.number({ invalid_type_error: 'A number of months.' }).int('Whole months.').min(1, 'At least 1 month.').max(240, 'At most 240 months.'),
+  /** ADR 4.1.1.15: a rigid plastics inner receptacle's period of use (not for bins lined with a single-use liner). */
+  serviceLifeApplies: z.boolean().optional(),
+  serviceLifeYears: z.number({ invalid_type_error: 'A number of years.' }).int('Whole years.').min(1, 'At least 1 year.').max(5, 'ADR 4.1.1.15 allows at most 5 years.').optional(),
   active: z.boolean(),
 });
 
@@ -174,6 +178,9 @@ export function binTypeProblems(b: Omit<BinTypeFields, 'version' | 'active' | 'c
   if (b.policyKind === 'un' && !b.unCode)
     problems.push({ path: 'unCode', message: 'The UN inspection policy is for UN-marked bins: enter the UN code, or choose the operator’s own policy.' });
   const policy = { ...DEFAULT_UN_POLICY, kind: b.policyKind, intermediateMonths: b.intermediateMonths, fullMonths: b.fullMonths };
+  for (const p of serviceLifePolicyProblems({ applies: b.serviceLifeApplies ?? false, years: b.serviceLifeYears ?? ADR_SERVICE_LIFE_YEARS })) {
+    problems.push({ path: 'serviceLifeYears', message: `${p[0]!.toUpperCase() + p.slice(1)}.` });
+  }
   for (const p of policyProblems(policy)) {
     problems.push({ path: /full/.test(p) && !/intermediate/.test(p) ? 'fullMonths' : 'intermediateMonths', message: `${p[0]!.toUpperCase() + p.slice(1)}.` });
   }
@@ -192,3 +199,20 @@ export type BinTypeCreate = z.infer<typeof binTypeCreateSchema>;
 /** An edit names the fields it changes; the cross-field rules run on the merged row in the service. */
 export const binTypePatchSchema = binTypeObject.partial().required({ version: true }).strict();
 export type BinTypePatch = z.infer<typeof binTypePatchSchema>;
+
+// ---------------------------------------------------------------- trailers
+
+const trailerObject = z.object({
+  version,
+  name: text().trim().min(1, 'Enter a name, e.g. Curtainsider 13.6 m.').max(120, 'At most 120 characters.'),
+  insideLengthMm: wholeMm('inside length', 20_000).min(1000, 'At least 1,000 mm.'),
+  insideWidthMm: wholeMm('inside width', 3000).min(1000, 'At least 1,000 mm.'),
+  insideHeightMm: wholeMm('inside height', 4000).min(1000, 'At least 1,000 mm.'),
+  payloadKg: z.number({ invalid_type_error: 'The payload is a number of kilograms.' }).int('Whole kilograms.').min(100, 'At least 100 kg.').max(60_000, 'At most 60,000 kg.'),
+  active: z.boolean(),
+});
+
+export const trailerCreateSchema = trailerObject.omit({ version: true }).partial({ active: true }).strict();
+export type TrailerCreate = z.infer<typeof trailerCreateSchema>;
+export const trailerPatchSchema = trailerObject.partial().required({ version: true }).strict();
+export type TrailerPatch = z.infer<typeof trailerPatchSchema>;

@@ -9,9 +9,10 @@ import type { ZodError } from 'zod';
 import { parseGrai } from '@/lib/gs1';
 import type { ErrorCode } from '@/lib/api-errors';
 import { AppError } from '@/lib/api-errors';
-import { collectionRequestFields, damageReportFields, fieldProblems, isHoneypotFilled, textFields, type ReportForm } from './report-forms';
+import { collectionRequestFieldsIn, damageReportFieldsIn, fieldProblems, isHoneypotFilled, textFields, type ReportForm } from './report-forms';
+import { FALLBACK_LANGUAGE, publicWords, type PublicLanguage, type PublicTranslate } from './public-words';
 import { Asset } from '@/models';
-import { checkUpload, formFile, readForm } from '@/lib/attachments.server';
+import { checkUpload, formFile, MAX_UPLOAD_BYTES, readForm } from '@/lib/attachments.server';
 import { hit, publicBinFormLimit, publicFormLimit, secondsBlocked } from '@/lib/rate-limits.server';
 import { createCollectionRequest, createDamageReport, type Created } from './requests.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -56,26 +57,36 @@ interface IntakeArgs {
   form?: ReportForm;
   /** A signed-in visitor (e.g. a customer user of another organisation), recorded as the sender. */
   userId: number | null;
+  /** The sender's language for every message back (the page's; English when left out). */
+  language?: PublicLanguage;
 }
 
 const isForm = (v: unknown): v is ReportForm => v === 'collection' || v === 'damage';
 
-function tooMany(form: ReportForm | null, seconds: number, perBin: boolean, values: Record<string, string> = {}): IntakeResult {
+function tooMany(t: PublicTranslate, form: ReportForm | null, seconds: number, perBin: boolean, values: Record<string, string> = {}): IntakeResult {
   const minutes = Math.max(1, Math.ceil(seconds / 60));
-  const wait = minutes >= 90 ? `in about ${Math.round(minutes / 60)} hours` : `in about ${minutes} minute${minutes === 1 ? '' : 's'}`;
-  const message = perBin
-    ? `This bin has had many reports today already, so we are not taking more through this page for now. Nothing was sent; try again ${wait}, or call us.`
-    : `Too many reports from your connection within an hour. Nothing was sent; try again ${wait}, or call us.`;
+  const wait = minutes >= 90 ? t('waitHours', { count: Math.round(minutes / 60) }) : t('waitMinutes', { count: minutes });
+  const message = t(perBin ? 'tooManyBin' : 'tooManyHere', { wait });
   return { ok: false, form, code: 'rate_limited', message, fields: {}, values, retryAfter: seconds };
 }
 
+/** A refused upload's message in the sender's language (the attachment checks speak English to scripts). */
+function uploadProblem(t: PublicTranslate, err: AppError): string {
+  const mb = MAX_UPLOAD_BYTES / 1024 / 1024;
+  if (err.code === 'payload_too_large') return t('photoTooLarge', { mb });
+  if (err.code === 'unsupported_media_type') return t('photoNotImage');
+  if (err.code === 'validation_failed') return t('photoEmpty');
+  return err.message;
+}
+
 export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResult> {
+  const t = publicWords(args.language ?? FALLBACK_LANGUAGE);
   const addressKey = `report:${args.clientAddress}`;
   const binKey = `bin:${args.bin.id}`;
   const blockedHere = await secondsBlocked(publicFormLimit(), addressKey);
-  if (blockedHere) return tooMany(args.form ?? null, blockedHere, false);
+  if (blockedHere) return tooMany(t, args.form ?? null, blockedHere, false);
   const blockedBin = await secondsBlocked(publicBinFormLimit(), binKey);
-  if (blockedBin) return tooMany(args.form ?? null, blockedBin, true);
+  if (blockedBin) return tooMany(t, args.form ?? null, blockedBin, true);
 
   let form: FormData;
   try {
@@ -83,11 +94,14 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
   } catch (err) {
     // An oversized upload costs the sender one report: a script cannot retry it for free.
     if (err instanceof AppError && err.code === 'payload_too_large') await hit(publicFormLimit(), addressKey);
-    if (err instanceof AppError) return { ok: false, form: args.form ?? null, code: err.code, message: err.message, fields: {}, values: {} };
+    if (err instanceof AppError) {
+      const message = err.code === 'payload_too_large' ? t('bodyTooLarge', { mb: MAX_UPLOAD_BYTES / 1024 / 1024 }) : err.message;
+      return { ok: false, form: args.form ?? null, code: err.code, message, fields: {}, values: {} };
+    }
     throw err;
   }
   const kind = args.form ?? form.get('form');
-  if (!isForm(kind)) return { ok: false, form: null, code: 'bad_request', message: 'Choose one of the two forms on the page.', fields: {}, values: {} };
+  if (!isForm(kind)) return { ok: false, form: null, code: 'bad_request', message: t('chooseForm'), fields: {}, values: {} };
   const entries = [...form.entries()];
   const values = textFields(kind, entries);
 
@@ -101,18 +115,18 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
     ok: false,
     form: kind,
     code: 'validation_failed',
-    message: 'Some answers need another look: see the notes beside them. Nothing was sent yet.',
-    fields: fieldProblems(error),
+    message: t('needsAnotherLook'),
+    fields: fieldProblems(error, t),
     values,
   });
   const common = { source: 'public' as const, assetId: args.bin.id, requesterIp: args.clientAddress };
   let store: () => Promise<Created>;
   if (kind === 'collection') {
-    const parsed = collectionRequestFields.safeParse(values);
+    const parsed = collectionRequestFieldsIn(t).safeParse(values);
     if (!parsed.success) return invalid(parsed.error);
     store = () => createCollectionRequest({ ...common, ...parsed.data, requestedBy: args.userId });
   } else {
-    const parsed = damageReportFields.safeParse(values);
+    const parsed = damageReportFieldsIn(t).safeParse(values);
     if (!parsed.success) return invalid(parsed.error);
     const photo = await formFile(form, 'photo');
     if (photo) {
@@ -121,16 +135,17 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
       } catch (err) {
         if (!(err instanceof AppError)) throw err;
         if (err.code === 'payload_too_large') await hit(publicFormLimit(), addressKey);
-        return { ok: false, form: kind, code: err.code, message: `${err.message} Nothing was sent yet.`, fields: { photo: err.message }, values };
+        const problem = uploadProblem(t, err);
+        return { ok: false, form: kind, code: err.code, message: `${problem} ${t('nothingSentYet')}`, fields: { photo: problem }, values };
       }
     }
     store = () => createDamageReport({ ...common, ...parsed.data, photo, reportedBy: args.userId });
   }
 
   const waitHere = await hit(publicFormLimit(), addressKey);
-  if (waitHere) return tooMany(kind, waitHere, false, values);
+  if (waitHere) return tooMany(t, kind, waitHere, false, values);
   const waitBin = await hit(publicBinFormLimit(), binKey);
-  if (waitBin) return tooMany(kind, waitBin, true, values);
+  if (waitBin) return tooMany(t, kind, waitBin, true, values);
   const created = await store();
   return { ok: true, form: kind, delivery: created.delivery };
 }

@@ -4,7 +4,11 @@
 // field means "not given" (null). Limits match the columns of
 // collection_requests and damage_reports.
 import { z } from 'zod';
-import { multilineText, text } from '@/lib/text-input';
+import { CONTROL_MESSAGE, DATE_RANGE_MESSAGE, inDateRange, multilineText, text } from '@/lib/text-input';
+import { isLocalDate } from '@/lib/calendar';
+import { publicWords, type PublicTranslate } from './public-words';
+
+const english = publicWords('en');
 
 /** A field no person fills (it is hidden); bots that fill every field give themselves away. */
 export const HONEYPOT_FIELD = 'website';
@@ -32,56 +36,96 @@ const optionalText = (max: number, tooLong: string, multiline = false) =>
  * dashes, brackets and a leading +. Six digits is the shortest number a haulier
  * could call back (common practice; short internal extensions are not enough).
  */
-export function phoneProblem(phone: string): string | null {
-  if (!/^\+?[0-9 ()./-]+$/.test(phone)) return 'Use digits, spaces and + ( ) - only for the phone number.';
+export function phoneProblem(phone: string, t: PublicTranslate = english): string | null {
+  if (!/^\+?[0-9 ()./-]+$/.test(phone)) return t('phoneCharacters');
   const digits = phone.replace(/\D/g, '').length;
-  if (digits < 6) return 'That phone number is too short.';
-  if (digits > 15) return 'That phone number has too many digits (at most 15).';
+  if (digits < 6) return t('phoneTooShort');
+  if (digits > 15) return t('phoneTooLongDigits');
   return null;
 }
 
-const phoneField = optionalText(MAX_PHONE_CHARS, `Keep the phone number under ${MAX_PHONE_CHARS} characters.`).superRefine((v, ctx) => {
-  const problem = v ? phoneProblem(v) : null;
-  if (problem) ctx.addIssue({ code: z.ZodIssueCode.custom, message: problem });
-});
-
-const emailField = optionalText(MAX_EMAIL_CHARS, 'That e-mail address is too long.').superRefine((v, ctx) => {
-  if (v && !text().email().safeParse(v).success) ctx.addIssue({ code: z.ZodIssueCode.custom, message: 'That does not look like an e-mail address.' });
-});
-
-export const collectionRequestFields = z
-  .object({
-    quantity: text({ required_error: 'Say how many folded bins are waiting.' })
-      .trim()
-      .min(1, 'Say how many folded bins are waiting.')
-      .regex(/^\d+$/, 'Give the number of bins as a whole number, e.g. 6.')
-      .transform(Number)
-      .pipe(z.number().int().min(1, 'At least one bin must be waiting.').max(MAX_BINS_PER_REQUEST, `At most ${MAX_BINS_PER_REQUEST} bins per request; send another for the rest.`)),
-    locationNote: optionalText(MAX_LOCATION_CHARS, `Keep "where exactly" under ${MAX_LOCATION_CHARS} characters.`, true),
-    contactName: text({ required_error: 'Give your name, so the haulier knows whom to ask for.' })
-      .trim()
-      .min(2, 'Give your name, so the haulier knows whom to ask for.')
-      .max(MAX_NAME_CHARS, `Keep the name under ${MAX_NAME_CHARS} characters.`),
-    contactPhone: phoneField,
-    contactEmail: emailField,
-    note: optionalText(MAX_NOTE_CHARS, `Keep the note under ${MAX_NOTE_CHARS} characters.`, true),
-  })
-  .superRefine((v, ctx) => {
-    if (!v.contactPhone && !v.contactEmail) {
-      ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['contactPhone'], message: 'Give a phone number or an e-mail address, so we can reach you about the collection.' });
-    }
+const phoneField = (t: PublicTranslate) =>
+  optionalText(MAX_PHONE_CHARS, t('phoneTooLong', { max: MAX_PHONE_CHARS })).superRefine((v, ctx) => {
+    const problem = v ? phoneProblem(v, t) : null;
+    if (problem) ctx.addIssue({ code: z.ZodIssueCode.custom, message: problem });
   });
 
-export type CollectionRequestFields = z.infer<typeof collectionRequestFields>;
+const emailField = (t: PublicTranslate) =>
+  optionalText(MAX_EMAIL_CHARS, t('emailTooLong')).superRefine((v, ctx) => {
+    if (v && !text().email().safeParse(v).success) ctx.addIssue({ code: z.ZodIssueCode.custom, message: t('emailInvalid') });
+  });
 
-export const damageReportFields = z.object({
-  description: multilineText({ required_error: 'Say what is wrong with the bin.' })
-    .trim()
-    .min(MIN_DESCRIPTION_CHARS, 'Say what is wrong with the bin, in a few words.')
-    .max(MAX_DESCRIPTION_CHARS, `Keep the description under ${MAX_DESCRIPTION_CHARS} characters.`),
-  contactName: optionalText(MAX_NAME_CHARS, `Keep the name under ${MAX_NAME_CHARS} characters.`),
-  contactEmail: emailField,
-});
+/** "Empty and ready for collection", its notes in the sender's language (`publicWords()`). */
+export function collectionRequestFieldsIn(t: PublicTranslate) {
+  return z
+    .object({
+      quantity: text({ required_error: t('quantityMissing') })
+        .trim()
+        .min(1, t('quantityMissing'))
+        .regex(/^\d+$/, t('quantityWhole'))
+        .transform(Number)
+        .pipe(
+          z
+            .number()
+            .int()
+            .min(1, t('quantityMin'))
+            .max(MAX_BINS_PER_REQUEST, t('quantityMax', { max: MAX_BINS_PER_REQUEST })),
+        ),
+      locationNote: optionalText(MAX_LOCATION_CHARS, t('whereTooLong', { max: MAX_LOCATION_CHARS }), true),
+      contactName: text({ required_error: t('nameMissing') })
+        .trim()
+        .min(2, t('nameMissing'))
+        .max(MAX_NAME_CHARS, t('nameTooLong', { max: MAX_NAME_CHARS })),
+      contactPhone: phoneField(t),
+      contactEmail: emailField(t),
+      note: optionalText(MAX_NOTE_CHARS, t('noteTooLong', { max: MAX_NOTE_CHARS }), true),
+    })
+    .superRefine((v, ctx) => {
+      if (!v.contactPhone && !v.contactEmail) {
+        ctx.addIssue({ code: z.ZodIssueCode.custom, path: ['contactPhone'], message: t('reachMissing') });
+      }
+    });
+}
+
+/**
+ * A collection request a planner records for a customer (a phone call, a mail): the customer site, how many bins,
+ * the day they are ready and who to ask for. The customer follows from the site.
+ */
+export const plannerCollectionRequest = z
+  .object({
+    siteId: z.number({ required_error: 'Choose the customer site.', invalid_type_error: 'Choose the customer site.' }).int().positive('Choose the customer site.'),
+    quantity: z
+      .number({ required_error: 'Say how many bins are ready.', invalid_type_error: 'Give the number of bins as a whole number.' })
+      .int('Give the number of bins as a whole number.')
+      .min(1, 'At least one bin.')
+      .max(MAX_BINS_PER_REQUEST, `At most ${MAX_BINS_PER_REQUEST} bins in one request.`),
+    readyOn: text({ required_error: 'Give the day the bins are ready.' }).refine(isLocalDate, 'must be a date like 2027-01-14').refine(inDateRange, DATE_RANGE_MESSAGE),
+    contactName: text({ required_error: 'Name the person to ask for at the site.' })
+      .trim()
+      .min(2, 'Name the person to ask for at the site.')
+      .max(MAX_NAME_CHARS, `At most ${MAX_NAME_CHARS} characters.`),
+    contactPhone: phoneField(english),
+    note: optionalText(MAX_NOTE_CHARS, `At most ${MAX_NOTE_CHARS} characters.`, true),
+  })
+  .strict();
+export type PlannerCollectionRequest = z.output<typeof plannerCollectionRequest>;
+
+/** "Report damage", its notes in the sender's language. */
+export function damageReportFieldsIn(t: PublicTranslate) {
+  return z.object({
+    description: multilineText({ required_error: t('descriptionMissing') })
+      .trim()
+      .min(MIN_DESCRIPTION_CHARS, t('descriptionShort'))
+      .max(MAX_DESCRIPTION_CHARS, t('descriptionTooLong', { max: MAX_DESCRIPTION_CHARS })),
+    contactName: optionalText(MAX_NAME_CHARS, t('nameTooLong', { max: MAX_NAME_CHARS })),
+    contactEmail: emailField(t),
+  });
+}
+
+/** The English forms: the API's answers and the portal. */
+export const collectionRequestFields = collectionRequestFieldsIn(english);
+export type CollectionRequestFields = z.infer<typeof collectionRequestFields>;
+export const damageReportFields = damageReportFieldsIn(english);
 
 export type DamageReportFields = z.infer<typeof damageReportFields>;
 
@@ -105,12 +149,12 @@ export function pickTextFields(fields: readonly string[], entries: Iterable<[str
   return out;
 }
 
-/** The first problem per field, for showing beside the inputs. */
-export function fieldProblems(error: z.ZodError): Record<string, string> {
+/** The first problem per field, for showing beside the inputs (the shared text type's note in the sender's language). */
+export function fieldProblems(error: z.ZodError, t: PublicTranslate = english): Record<string, string> {
   const out: Record<string, string> = {};
   for (const issue of error.issues) {
     const key = String(issue.path[0] ?? '');
-    out[key] ??= issue.message;
+    out[key] ??= issue.message === CONTROL_MESSAGE ? t('textControl') : issue.message;
   }
   return out;
 }

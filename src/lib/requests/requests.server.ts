@@ -8,7 +8,7 @@ import { AppError } from '@/lib/api-errors';
 import { groupGrai } from '@/lib/gs1';
 import { collectionRequestMail, damageReportMail, type MailContent, type MailKind, type RequestMailBin } from '@/lib/mail/mail-templates';
 import { canMove, refusalReason, statusLook, type RequestKind, type RequestStatus } from './request-status';
-import type { CollectionRequestFields, DamageReportFields } from './report-forms';
+import type { CollectionRequestFields, DamageReportFields, PlannerCollectionRequest } from './report-forms';
 import { appUrl } from '@/lib/app-url.server';
 import { storeAttachment } from '@/lib/attachments.server';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
@@ -77,6 +77,49 @@ export async function createCollectionRequest(input: CollectionRequestInput): Pr
     );
   });
   return { id: row.id, delivery: tellPlanners('collection', row.id) };
+}
+
+/** The open customer sites a planner may record a request for, by customer and name. */
+export async function customerSitesForRequests(): Promise<Array<{ id: number; name: string; customer: string }>> {
+  return sequelize.query(
+    `SELECT s.id, s.name, o.name AS customer FROM sites s JOIN organisations o ON o.id = s.organisation_id
+      WHERE s.kind = 'customer' AND s.active AND o.active ORDER BY o.name, s.name`,
+    { type: QueryTypes.SELECT },
+  );
+}
+
+/** A request a planner records for a customer site (taken on the phone); the site must be an open customer site. */
+export async function recordPlannerCollection(input: PlannerCollectionRequest, actor: AuditActor): Promise<Created> {
+  const [site] = await sequelize.query<{ id: number; organisation_id: number; kind: string; active: boolean; name: string }>(
+    'SELECT id, organisation_id, kind, active, name FROM sites WHERE id = $1',
+    { bind: [input.siteId], type: QueryTypes.SELECT },
+  );
+  if (!site || site.kind !== 'customer' || !site.active) {
+    throw new AppError('validation_failed', 'That is not an open customer site.', [{ path: 'siteId', message: 'Choose the customer site.' }]);
+  }
+  const created = await createCollectionRequest({
+    source: 'planner',
+    assetId: null,
+    siteId: site.id,
+    customerId: site.organisation_id,
+    quantity: input.quantity,
+    readyOn: input.readyOn,
+    locationNote: null,
+    contactName: input.contactName,
+    contactPhone: input.contactPhone,
+    contactEmail: null,
+    note: input.note,
+    requestedBy: actor.userId,
+    requesterIp: null,
+  });
+  await recordAudit({
+    actor,
+    action: 'collection_request.record',
+    entityType: 'collection_request',
+    entityId: created.id,
+    after: { siteId: site.id, quantity: input.quantity, readyOn: input.readyOn },
+  });
+  return created;
 }
 
 /** The report and its photo are stored together or not at all. */

@@ -12,6 +12,8 @@ import { reverseMovesOfEvents } from '@/lib/liners/liner-ledger.server';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import { UNDO_REASON, undoSecondsLeft } from './undo-window';
+import { syncOrderStatus } from '@/lib/planning/orders.server';
+import { syncRepositioningOrder } from '@/lib/planning/repositioning-execution.server';
 
 // What each action wrote on its trip, cleared again when the scan is voided.
 const TRIP_FIELDS_BY_ACTION: Record<string, string> = {
@@ -82,7 +84,19 @@ export async function voidScan(user: SessionUser, eventId: number, reason: strin
       new Date(),
       t,
     );
+    // A voided dispatch takes its bin off the order: the order's status follows (dispatched → loading → confirmed).
+    const [onOrder] =
+      event.action === 'dispatch' && event.trip_id
+        ? await sequelize.query<{ hire_order_id: number | null }>('SELECT hire_order_id FROM trips WHERE id = $1', {
+            bind: [event.trip_id],
+            type: QueryTypes.SELECT,
+            transaction: t,
+          })
+        : [];
     await undoTripEffect(event, t);
+    if (onOrder?.hire_order_id) await syncOrderStatus(onOrder.hire_order_id, t);
+    const repositioningOrderId = (event.payload as { repositioningOrderId?: number } | null)?.repositioningOrderId;
+    if (event.action === 'dispatch' && repositioningOrderId) await syncRepositioningOrder(repositioningOrderId, t);
     const state = await rederiveAsset(event.asset_id, t);
     await recordAudit(
       {

@@ -17,6 +17,7 @@ export async function recordScanFromClient(user: SessionUser, e: ScanEventBody):
     ...e,
     assetId,
     occurredAt: e.occurredAt ? new Date(e.occurredAt) : undefined,
+    lotsAsOf: e.lotsAsOf ? new Date(e.lotsAsOf) : undefined,
     fill: e.fill ? { ...e.fill, seals: e.fill.seals } : undefined,
   });
   await alertAfterScan(outcome);

@@ -46,6 +46,7 @@ export const scanEventSchema = z
     faults: multilineText().trim().max(500).optional(),
     photoIds: z.array(z.number().int().positive()).max(10).optional(),
     linerLotId: z.number().int().positive().optional(),
+    lotsAsOf: text().datetime({ offset: true }).optional(),
     purpose: z.enum(['hire', 'transfer']).optional(),
     hireOrderId: z.number().int().positive().optional(),
     loadId: z.number().int().positive().optional(),

@@ -29,11 +29,15 @@ import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { countsAsDemand, type OrderStatus } from '@/lib/planning/order-status';
 import { syncOrderStatus } from '@/lib/planning/orders.server';
 import { afterRunReceive, checkRunReceive } from '@/lib/planning/truck-runs.server';
+import { claimRepositioning, syncRepositioningOrder } from '@/lib/planning/repositioning-execution.server';
 import { movesForScan } from '@/lib/liners/liner-moves';
 import { insertMoves, takeFromLot, lockLot } from '@/lib/liners/liner-ledger.server';
 import { specFitFor } from '@/lib/liners/liner-specs.server';
+import { FIT_FROM_STOPPED_LOT, fitBeforeStopKnown } from '@/lib/liners/liner-recall';
 import { dispatchLapseCheck } from '@/lib/inspections/dispatch-check.server';
 import { overrideAccepted } from '@/lib/inspections/dispatch-check';
+import { repairEffectsOfScan } from '@/lib/inspections/repair-hooks.server';
+import { serviceLifeEnd } from '@/lib/inspections/service-life';
 
 export type { FillRecord };
 
@@ -52,6 +56,11 @@ export interface ScanInput {
   faults?: string;
   photoIds?: number[];
   linerLotId?: number;
+  /**
+   * fit_liner from a phone's queue: when the phone last learned the lot list (its depot snapshot). A fit from a
+   * lot stopped after that, sent late, already happened: it is recorded and flagged (liner-recall.ts).
+   */
+  lotsAsOf?: Date;
   purpose?: 'hire' | 'transfer';
   hireOrderId?: number;
   /** The load (truck) a dispatched bin goes out on. */
@@ -109,7 +118,7 @@ export async function recordScan(actor: Actor, input: ScanInput, opts: Options =
   // Settings are read before the transaction: a read inside it would wait for a second pool
   // connection while holding one, and with every connection held that way no scan ever finishes.
   const settings = await getSettings();
-  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, settings, t);
+  const run = (t: Transaction) => recordInTransaction(actor, input, occurredAt, settings, t, now);
   try {
     return await (opts.transaction ? sequelize.transaction({ transaction: opts.transaction }, run) : sequelize.transaction(run));
   } catch (err) {
@@ -145,6 +154,9 @@ interface AssetRow {
   next_full_due: string | null;
   intermediate_months: number;
   full_months: number;
+  service_life_applies: boolean;
+  service_life_years: number;
+  inner_made_month: string | null;
 }
 interface SiteRow {
   id: number;
@@ -164,7 +176,7 @@ async function one<T extends object>(sql: string, bind: unknown[], t: Transactio
   return rows[0];
 }
 
-async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, settings: OperatorSettings, t: Transaction): Promise<ScanOutcome> {
+async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: Date, settings: OperatorSettings, t: Transaction, now: Date): Promise<ScanOutcome> {
   // 1. Claim the client event id first: a concurrent replay waits here and then sees the claim.
   const claimed = await one(
     `INSERT INTO scan_event_keys (client_event_id, user_id, outcome) VALUES ($1, $2, '{}'::jsonb)
@@ -178,7 +190,8 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const asset = await one<AssetRow>(
     `SELECT a.id, a.grai, a.bin_type_id, a.status, a.site_id, s.kind AS site_kind, a.customer_id, a.current_trip_id, a.leg,
             a.prep_checked, a.liner_lot_id, a.filled, a.trip_count, a.next_due, a.last_scan_at, a.version,
-            a.next_intermediate_due, a.next_full_due, bt.intermediate_months, bt.full_months
+            a.next_intermediate_due, a.next_full_due, bt.intermediate_months, bt.full_months,
+            bt.service_life_applies, bt.service_life_years, a.inner_made_month::text
        FROM assets a JOIN bin_types bt ON bt.id = a.bin_type_id LEFT JOIN sites s ON s.id = a.site_id WHERE a.id = $1`,
     [input.assetId],
     t,
@@ -215,21 +228,30 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
     inspection: input.inspectionResult,
   });
   if (!decision.ok) throw refusal(decision);
-  const { order, lotNumber } = await checkActionInputs(actor, asset, input, site, today, t);
+  refuseAfterServiceLife(asset, input.action, today);
+  const { order, lotNumber, flags: inputFlags } = await checkActionInputs(actor, asset, input, site, today, t, { occurredAt, receivedAt: now });
   const runFacts = input.runId !== undefined ? await checkRunReceive(input.runId, input.action, site?.id ?? null, asset, t) : null;
+  // A transfer dispatch on a load between two depots carries out the oldest open repositioning order of its lane.
+  const repositioning = input.action === 'dispatch' && input.purpose === 'transfer' && input.loadId ? await claimRepositioning(input.loadId, asset.id, t) : null;
   const override =
     order && input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire'
       ? await checkLapseBeforeDispatch(actor, asset.id, order, input, today, settings.timeZone, t)
       : null;
 
   // 4. Trip, then the log: inferred steps first (flagged for a planner), then the scan itself.
-  const flags = [...decision.flags, ...(override ? ['lapse_margin_overridden'] : [])];
+  const flags = [...decision.flags, ...inputFlags, ...(override ? ['lapse_margin_overridden'] : [])];
   const trip = await applyTrip(asset, decision, input, site, order, occurredAt, t, flags);
   // The order follows its bins: the first one loaded makes it loading, the last one dispatched makes it dispatched.
   if (input.action === 'dispatch' && order) await syncOrderStatus(order.id, t);
   const opened = typeof trip === 'object' ? trip : null;
   const eventTripId = (opened ? opened.tripId : (trip as number | null)) ?? asset.current_trip_id;
-  const named = { ...(lotNumber ? { lotNumber } : {}), ...(order ? { orderRef: order.reference } : {}), ...(override ? { override } : {}), ...(runFacts ?? {}) };
+  const named = {
+    ...(lotNumber ? { lotNumber } : {}),
+    ...(order ? { orderRef: order.reference } : {}),
+    ...(override ? { override } : {}),
+    ...(runFacts ?? {}),
+    ...(repositioning ?? {}),
+  };
   const rows = logRows(input, occurredAt, asset.status, decision, flags, named).map((r) => [
     r.action,
     r.occurredAt,
@@ -254,6 +276,7 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const eventId = inserted[inserted.length - 1]!.id;
   // A run received in full is done (its requests collected).
   if (runFacts) await afterRunReceive(input.runId!, t);
+  if (repositioning) await syncRepositioningOrder(repositioning.repositioningOrderId, t);
 
   // 5. The bin's current state follows the log, guarded by its version.
   const { version, next } = await applyPatch(asset, decision, opened, occurredAt, t);
@@ -262,6 +285,22 @@ async function recordInTransaction(actor: Actor, input: ScanInput, occurredAt: D
   const moves = movesForScan({ action: input.action, before: snapshotOf(asset), after: next, assetId: asset.id, siteId: site?.id ?? null, userId: actor.id, occurredAt });
   await insertMoves(
     moves.map((m) => ({ ...m, scan_event_id: eventId })),
+    t,
+  );
+
+  // 7. The bin's repair order: a failed prep check opens one; repair shop, retirement and release follow it.
+  await repairEffectsOfScan(
+    {
+      action: input.action,
+      assetId: asset.id,
+      eventId,
+      siteId: site?.id ?? null,
+      siteKind: site?.kind ?? null,
+      actorId: actor.id,
+      prepResult: input.prepResult,
+      faults: input.faults,
+      note: input.note,
+    },
     t,
   );
 
@@ -338,6 +377,23 @@ async function checkLapseBeforeDispatch(actor: Actor, assetId: number, order: Or
   return { code: check.code, lastDay: check.lastDay, expectedBackOn: check.expectedBackOn, reason: input.overrideReason.trim(), by: actor.id };
 }
 
+/**
+ * ADR 4.1.1.15, enforced like the tests: once the inner receptacle's period of use has ended the bin is not lined
+ * or filled any more (a hire dispatch is refused by the lapse check, which takes the earlier of test and period).
+ */
+function refuseAfterServiceLife(asset: AssetRow, action: Action, today: string) {
+  if (action !== 'fit_liner' && action !== 'fill_seal') return;
+  if (!asset.service_life_applies || !asset.inner_made_month) return;
+  const ends = serviceLifeEnd({ applies: true, years: asset.service_life_years }, asset.inner_made_month.slice(0, 7));
+  if (ends !== null && ends < today) {
+    throw new AppError(
+      'transition_refused',
+      `Its inner receptacle's period of use ended on ${ends} (ADR 4.1.1.15): it may not be ${action === 'fit_liner' ? 'lined' : 'filled'} any more. Replace the inner receptacle or retire the bin.`,
+      { reason: 'service_life_ended', action, lastDay: ends },
+    );
+  }
+}
+
 /** Inputs some actions need beyond the rule table: a usable liner lot, a hire order, a fill record. */
 async function checkActionInputs(
   actor: Actor,
@@ -346,19 +402,42 @@ async function checkActionInputs(
   site: SiteRow | null,
   today: string,
   t: Transaction,
-): Promise<{ order: OrderRow | null; lotNumber: string | null }> {
+  when: { occurredAt: Date; receivedAt: Date },
+): Promise<{ order: OrderRow | null; lotNumber: string | null; flags: string[] }> {
   let lotNumber: string | null = null;
+  const flags: string[] = [];
   if (input.action === 'fit_liner') {
     // The lot's row stays locked until the scan commits: concurrent fits from it queue here, and each
-    // reads the stock the one before it left (liner-ledger.server.ts).
+    // reads the stock the one before it left (liner-ledger.server.ts). A hold or recall takes the same
+    // lock, so no fit reads the lot as released once the stop has committed.
     const lot = await lockLot(input.linerLotId!, t);
     if (!lot) throw new AppError('unprocessable', 'That liner lot does not exist.');
-    const ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
+    let ok = checkLinerLot({ status: lot.status, expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
+    if (!ok.ok && (ok.code === 'lot_recalled' || ok.code === 'lot_on_hold') && fitBeforeStopKnown({ statusChangedAt: lot.statusChangedAt, ...when, lotsAsOf: input.lotsAsOf })) {
+      // Made on a phone that could not know yet: it happened, so it is kept — flagged, and in the lot's trace.
+      flags.push(FIT_FROM_STOPPED_LOT);
+      ok = checkLinerLot({ status: 'released', expiryDate: lot.expiryDate, lotNumber: lot.lotNumber }, today);
+    }
     if (!ok.ok) throw new AppError('transition_refused', ok.reason, { reason: ok.code, action: 'fit_liner' });
     const fit = await specFitFor(lot.linerSpecId, asset.bin_type_id, t);
     if (!fit.ok) throw new AppError('transition_refused', fit.reason, { reason: fit.code, action: 'fit_liner' });
     await takeFromLot(lot.id, (site?.id ?? asset.site_id)!, 1, t);
     lotNumber = lot.lotNumber;
+  }
+  if (input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire' && asset.liner_lot_id) {
+    const [lined] = await sequelize.query<{ lot_number: string; status: string }>('SELECT lot_number, status FROM liner_lots WHERE id = $1', {
+      bind: [asset.liner_lot_id],
+      transaction: t,
+      type: QueryTypes.SELECT,
+    });
+    if (lined && lined.status !== 'released') {
+      const word = lined.status === 'recalled' ? 'recalled' : 'on hold';
+      throw new AppError(
+        'transition_refused',
+        `This bin is lined from lot ${lined.lot_number}, which is ${word}. Fold it to take the liner out, then prep-check it and fit a liner from another lot.`,
+        { reason: 'lined_from_stopped_lot', action: 'dispatch' },
+      );
+    }
   }
   if (input.photoIds?.length) {
     // A scan's photos are its organisation's own uploads, and belong to this
@@ -385,7 +464,7 @@ async function checkActionInputs(
     if (input.action === 'dispatch' && (input.purpose ?? 'hire') === 'hire') {
       throw new AppError('transition_refused', 'Choose the hire order this bin goes out on.', { reason: 'no_hire_order', action: 'dispatch' });
     }
-    return { order: null, lotNumber };
+    return { order: null, lotNumber, flags };
   }
   const order = await one<OrderRow>(
     'SELECT id, reference, status, customer_id, depot_site_id, delivery_site_id, bin_type_id, needed_by::text FROM hire_orders WHERE id = $1',
@@ -403,7 +482,7 @@ async function checkActionInputs(
       action: input.action,
     });
   }
-  return { order, lotNumber };
+  return { order, lotNumber, flags };
 }
 
 function snapshotOf(a: AssetRow): AssetSnapshot {

@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import { multilineText, text } from '@/lib/text-input';
 import { IANAZone } from 'luxon';
+import { PUBLIC_LANGUAGES } from '@/lib/requests/public-languages';
 
 /** "Name <address>" or a bare address; null when it is neither. */
 export function parseMailbox(value: string): { name: string | null; address: string } | null {
@@ -67,12 +68,29 @@ export const settingsSchema = z
       .max(254)
       .refine((v) => parseMailbox(v) !== null, 'An e-mail address, optionally with a name: Pool desk <pool@company.example>'),
     returnInstructions: multilineText().trim().max(2000, 'Keep it under 2,000 characters.'),
+    // Empty means "no wording of our own in that language": the main instructions are shown instead.
+    returnInstructionsByLanguage: z
+      .object(
+        Object.fromEntries(PUBLIC_LANGUAGES.map((l) => [l, multilineText().trim().max(2000, 'Keep it under 2,000 characters.').optional()])) as Record<
+          (typeof PUBLIC_LANGUAGES)[number],
+          z.ZodOptional<z.ZodString>
+        >,
+      )
+      .strict()
+      .default({})
+      .transform((v) => Object.fromEntries(Object.entries(v).filter(([, text]) => text)) as Partial<Record<(typeof PUBLIC_LANGUAGES)[number], string>>),
     undoSeconds: z
       .number({ invalid_type_error: 'A number of seconds.' })
       .int('Whole seconds.')
       .min(0, 'From 0 (no undo) to 600 seconds.')
       .max(600, 'From 0 (no undo) to 600 seconds.'),
     reminderDaysOver: z.number({ invalid_type_error: 'A number of days.' }).int('Whole days.').min(1, 'From 1 to 365 days.').max(365, 'From 1 to 365 days.'),
+    /** Left out: unchanged. Empty or null: never propose retirement. */
+    repairRetireThreshold: z
+      .union([text().trim(), z.null()])
+      .optional()
+      .transform((v) => (v === '' ? null : v))
+      .refine((v) => v === undefined || v === null || /^\d{1,10}(\.\d{1,2})?$/.test(v), 'An amount such as 400 or 400.00; leave it empty to never propose retirement.'),
   })
   .superRefine((v, ctx) => {
     if (v.gs1CompanyPrefix.length !== v.gs1PrefixLength) {

@@ -3,6 +3,7 @@ import { AppError } from '@/lib/api-errors';
 import type { SettingsInput, SettingsView } from './settings-schema';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
 import { sequelize } from '@/db/sequelize';
+import type { PublicLanguage } from '@/lib/requests/public-languages';
 
 export interface OperatorSettings {
   operatorName: string;
@@ -14,8 +15,11 @@ export interface OperatorSettings {
   taxRate: number;
   mailSender: string;
   returnInstructions: string;
+  returnInstructionsByLanguage: Partial<Record<PublicLanguage, string>>;
   undoSeconds: number;
   reminderDaysOver: number;
+  /** A repair that would cost more than this proposes the bin for retirement ("400.00"); null: never. */
+  repairRetireThreshold: string | null;
   version: number;
 }
 
@@ -48,8 +52,10 @@ async function loadSettings(): Promise<OperatorSettings> {
     taxRate: Number(row.taxRate),
     mailSender: row.mailSender,
     returnInstructions: row.returnInstructions,
+    returnInstructionsByLanguage: (row.returnInstructionsByLanguage ?? {}) as Partial<Record<PublicLanguage, string>>,
     undoSeconds: row.undoSeconds,
     reminderDaysOver: row.reminderDaysOver,
+    repairRetireThreshold: row.repairRetireThreshold ?? null,
     version: row.version,
   };
   cached = { at: Date.now(), value };
@@ -74,8 +80,10 @@ const FIELDS = [
   'taxRate',
   'mailSender',
   'returnInstructions',
+  'returnInstructionsByLanguage',
   'undoSeconds',
   'reminderDaysOver',
+  'repairRetireThreshold',
 ] as const;
 
 function snapshot(s: Setting) {
@@ -106,7 +114,10 @@ export async function updateSettings(input: SettingsInput, actor: AuditActor): P
     const before = snapshot(s);
     // NUMERIC comes back as "0.2100": an equal rate typed as "0.21" is no change.
     const next = { ...input, taxRate: Number(input.taxRate) === Number(before.taxRate) ? before.taxRate : input.taxRate };
-    for (const f of FIELDS) s.set(f, next[f]);
+    // Left out by an older form: kept as it was. NUMERIC comes back as "400.00": an equal amount is no change.
+    if (input.repairRetireThreshold === undefined || (input.repairRetireThreshold !== null && Number(input.repairRetireThreshold) === Number(before.repairRetireThreshold)))
+      next.repairRetireThreshold = before.repairRetireThreshold;
+    for (const f of FIELDS) s.set(f, next[f] ?? null);
     await s.save({ transaction });
     await s.reload({ transaction });
     await recordAudit({ actor, action: 'settings.update', entityType: 'settings', entityId: s.id, before, after: snapshot(s) }, { transaction });

@@ -102,7 +102,7 @@ describe('the liner stock page', () => {
 
     // A bad date in the filter is a message, not an error page.
     await page.goto(`/liners/stock/${depot.id}?from=2026-13-45`);
-    await expect(page.locator('[role="alert"]').textContent()).resolves.toMatch(/date/);
+    await expect(page.locator('[role="alert"]:not(.hidden)').textContent()).resolves.toMatch(/date/);
     await page.goto('/liners/stock/999999');
     await expect(page.locator('h1').textContent()).resolves.toBe('No such depot');
     await desk.close();

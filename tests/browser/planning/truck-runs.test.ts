@@ -1,5 +1,5 @@
-// Two "empties ready" requests from the public bin page at two customer sites near Rotterdam; the planner lets the
-// app group them into one run, names the carrier and confirms it; the yard receives both bins against the run on a
+// Two "empties ready" requests at two customer sites near Rotterdam, one from the public bin page and one the planner
+// takes on the phone and records on the requests page; the planner lets the app group them into one run, names the carrier and confirms it; the yard receives both bins against the run on a
 // phone, and the run is done.
 import { describe, test, expect, afterAll } from 'vitest';
 import { useApp, newContext, signIn, screenshot, expectNoPageOverflow } from '../support/app';
@@ -22,7 +22,7 @@ describe('collection runs', () => {
     // The public bin page's form, as whoever stands by the bins sends it (other files may have used up this
     // address's hourly allowance of reports).
     await db().query(`DELETE FROM rate_limits WHERE key LIKE 'public_form:report:%' OR key LIKE 'public_bin:%'`);
-    for (const b of bins) {
+    for (const b of bins.slice(0, 1)) {
       const form = new FormData();
       for (const [k, v] of Object.entries({ quantity: '1', contactName: 'Gate office', contactPhone: '+31101234567' })) form.set(k, v);
       const res = await fetch(`${t.app.url}/api/public/bins/${b!.grai}/collection-request`, { method: 'POST', headers: { origin: t.app.url }, body: form });
@@ -33,6 +33,25 @@ describe('collection runs', () => {
     const planner = await desk.newPage();
     await signIn(planner, 'planner@northmere.example', DEMO_PASSWORD);
     await planner.waitForURL('**/fleet');
+
+    // The second site rings: the planner records its request (a missing site is refused by name first).
+    await planner.goto('/requests');
+    await hydrated(planner);
+    const record = planner.locator('[data-testid="record-collection"]');
+    await record.locator('summary').click();
+    await record.locator('#pcr-quantity').fill('1');
+    await record.locator('#pcr-contact').fill('Gate office');
+    await record.getByRole('button', { name: 'Save the request' }).click();
+    await expect(record.locator('#pcr-siteId-problem').textContent()).resolves.toBe('Choose the customer site.');
+    await record.locator('#pcr-site').selectOption(String(sites[1]!.id));
+    await record.getByRole('button', { name: 'Save the request' }).click();
+    await planner.waitForURL(/\/requests#collections$/);
+    const recorded = await one<{ source: string; quantity: number }>(`SELECT source, quantity FROM collection_requests WHERE site_id = $1 ORDER BY id DESC LIMIT 1`, [
+      sites[1]!.id,
+    ]);
+    expect(recorded).toEqual({ source: 'planner', quantity: 1 });
+    await screenshot(planner, 'requests-recorded-desktop');
+
     await planner.goto('/planning/runs');
     await planner.selectOption('#s-depot', String(depot.id));
     await planner.click('[data-testid="suggest-form"] button[type="submit"]');
@@ -62,6 +81,15 @@ describe('collection runs', () => {
     await planner.click('[data-command="confirm"]');
     await planner.waitForFunction(() => document.querySelector('[data-run-status]')?.getAttribute('data-run-status') === 'confirmed');
     await screenshot(planner, 'run-confirmed-desktop');
+    for (const [width, name] of [
+      [1920, 'wide'],
+      [390, 'phone'],
+    ] as const) {
+      await planner.setViewportSize({ width, height: 900 });
+      await expectNoPageOverflow(planner, `run page at ${width} px`);
+      await screenshot(planner, `run-confirmed-${name}`);
+    }
+    await planner.setViewportSize({ width: 1280, height: 860 });
     const stored = await one<{ reference: string; scheduled: number }>(
       `SELECT r.reference, (SELECT count(*)::int FROM collection_requests c WHERE c.truck_run_id = r.id AND c.status = 'scheduled') AS scheduled FROM truck_runs r WHERE r.id = $1`,
       [runId],

@@ -70,6 +70,7 @@ interface Other {
   inspectionId: number;
   countId: number;
   countLineId: number;
+  repairId: number;
 }
 
 let other: Other;
@@ -158,6 +159,7 @@ beforeAll(async () => {
     viewId: view?.id ?? 1,
     inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
     ...(await countOf(asB, sites[0]!.id)),
+    repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [
       b.org_name,
@@ -190,7 +192,20 @@ function exampleUrl(pattern: string, o: Other): string {
     // Liner specs and suppliers belong to the operator, not to a customer: any id will do.
     '/api/admin/liner-specs/[id]': '/api/admin/liner-specs/1',
     '/api/admin/liner-suppliers/[id]': '/api/admin/liner-suppliers/1',
+    // Trailers are the operator's admin data: any id will do.
+    '/api/admin/trailers/[id]': '/api/admin/trailers/1',
     '/liners/stock/[depot]': '/liners/stock/1',
+    // A lot's trace names the customers who received its liners: planners only, whoever's lot it is.
+    '/liners/lots/[id]/trace': '/liners/lots/1/trace',
+    '/api/liners/lots/[id]/trace.csv': '/api/liners/lots/1/trace.csv',
+    '/api/liners/lots/[id]/status': '/api/liners/lots/1/status',
+    '/api/liners/lots/[id]/notices': '/api/liners/lots/1/notices',
+    // Purchase orders are the operator's, between it and its liner suppliers.
+    '/liners/purchase-orders/[id]': '/liners/purchase-orders/1',
+    '/api/liners/purchase-orders/[id]/mail': '/api/liners/purchase-orders/1/mail',
+    '/api/liners/purchase-orders/[id]/close': '/api/liners/purchase-orders/1/close',
+    // A transfer between the operator's depots (the sent move's id).
+    '/api/liners/transfers/[id]/arrive': '/api/liners/transfers/1/arrive',
     '/api/admin/users/[id]/invite': `/api/admin/users/${o.userId}/invite`,
     '/api/admin/users/[id]/sessions': `/api/admin/users/${o.userId}/sessions`,
     '/api/attachments/[id]': `/api/attachments/${o.photoId}`,
@@ -206,6 +221,7 @@ function exampleUrl(pattern: string, o: Other): string {
     '/planning/runs/[id]/sheet': '/planning/runs/1/sheet',
     '/yard/runs/[id]': '/yard/runs/1',
     '/api/yard/runs/[id]': '/api/yard/runs/1',
+    '/api/planning/repositioning/plans/[id]/withdraw': '/api/planning/repositioning/plans/1/withdraw',
     '/api/planning/orders/[id]': `/api/planning/orders/${o.orderId}`,
     '/api/planning/orders/[id]/status': `/api/planning/orders/${o.orderId}/status`,
     '/api/public/bins/[grai]/[form]': `/api/public/bins/${o.grai}/collection-request`,
@@ -227,6 +243,11 @@ function exampleUrl(pattern: string, o: Other): string {
     '/portal/counts/[site]': `/portal/counts/${o.siteId}`,
     '/planning/counts/[id]': `/planning/counts/${o.countId}`,
     '/api/planning/counts/[id]/lines/[line]': `/api/planning/counts/${o.countId}/lines/${o.countLineId}`,
+    // Repair orders are the operator's own (customers reach none of them); any order will do.
+    '/repairs/[id]': `/repairs/${o.repairId}`,
+    '/api/repairs/[id]': `/api/repairs/${o.repairId}`,
+    '/api/repairs/[id]/work': `/api/repairs/${o.repairId}/work`,
+    '/api/repairs/[id]/retire': `/api/repairs/${o.repairId}/retire`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -536,6 +557,7 @@ describe("a user of A limited to one site asks every route about A's other site"
       viewId: view?.id ?? 1,
       inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
       ...(await countOf(asA, x.id)),
+      repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
       ownGrai: own?.grai ?? bin.grai,

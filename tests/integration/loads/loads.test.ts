@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { usePoolWorld, newBin } from '../support/fixtures';
 import { recordScan } from '@/lib/scans/scan-service.server';
 import { startLoad, addBinToLoad, dispatchLoad, deliveryToken, loadFromToken, confirmDelivery, loadView } from '@/lib/loads/load-service.server';
-import { Asset, HireOrder, Load } from '@/models';
+import { Asset, HireOrder, Load, Trailer } from '@/models';
 import { AppError } from '@/lib/api-errors';
 
 process.env.AUTH_SECRET ??= 'test-secret'; // delivery links are signed with it
@@ -57,5 +57,24 @@ describe('a load against a hire order (story: a load goes out)', () => {
     expect((await Asset.findByPk(a.id))!.siteId).toBe(w.customerSite.id);
     const twice = await confirmDelivery((await Load.findByPk(load.id))!, { receivedByName: 'R. Receiver', photoId: null, userId: null });
     expect(twice.already).toBe(true);
+  });
+});
+
+describe('the trailer a load leaves on', () => {
+  test('a trailer too small for the bins on is refused with its capacity; the chosen trailer is on the note', async () => {
+    const yardUser = { ...w.yard, id: w.yard.id! };
+    // One floor position (1,300 × 1,100 mm for a 1,200 × 1,000 mm bin) and one level: it takes one bin, erected.
+    const small = await Trailer.create({ name: 'Test box van', insideLengthMm: 1300, insideWidthMm: 1100, insideHeightMm: 1500, payloadKg: 3000 });
+    const big = await Trailer.create({ name: 'Test semi-trailer', insideLengthMm: 13600, insideWidthMm: 2450, insideHeightMm: 2700, payloadKg: 24000 });
+    const load = await startLoad(yardUser, { purpose: 'hire', hireOrderId: w.order.id, targetCount: 2 });
+    for (const bin of [await preparedBin(), await preparedBin()]) await addBinToLoad(w.yard, load.id, { clientEventId: randomUUID(), assetId: bin.id });
+    const send = (trailerId: number) => dispatchLoad(load.id, { carrier: 'Test Haulage', vehicleRegistration: 'TR-1', trailerSeals: [], trailerId });
+    const refused = await send(small.id).catch((e: AppError) => e);
+    expect(refused).toBeInstanceOf(AppError);
+    expect((refused as AppError).message).toMatch(/^2 bins are on the load but the Test box van takes 1 /);
+    expect((await Load.findByPk(load.id))!.status).toBe('loading'); // nothing changed
+    await send(big.id);
+    const view = await loadView(load.reference);
+    expect(view).toMatchObject({ status: 'dispatched', trailer: 'Test semi-trailer' });
   });
 });

@@ -5,6 +5,8 @@ import { QueryTypes } from 'sequelize';
 import { sqlErrorCode, sequelize } from '../support/db';
 import { callRoute, json, sessionUser } from '../support/route';
 import { recordScan } from '@/lib/scans/scan-service.server';
+import { voidScan } from '@/lib/scans/scan-corrections.server';
+import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { startLoad, addBinToLoad, dispatchLoad } from '@/lib/loads/load-service.server';
 import { loadYardHome } from '@/lib/yard/yard-home.server';
 import { loadDepotSnapshot } from '@/lib/yard/depot-snapshot.server';
@@ -173,6 +175,37 @@ describe("an order's status follows its loads", () => {
     const bin = await preparedBin();
     await recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'dispatch', siteId: w.depot.id, purpose: 'hire', hireOrderId: order.id });
     expect((await HireOrder.findByPk(order.id))!.status).toBe('dispatched');
+  });
+
+  test('a voided dispatch rolls the status back: dispatched → loading → confirmed, and the order can be cancelled again', async () => {
+    const order = await createOrder(input({ quantity: 2, confirm: true }), actor());
+    const scans = [];
+    for (const bin of [await preparedBin(), await preparedBin()]) {
+      scans.push(await recordScan(w.yard, { clientEventId: randomUUID(), assetId: bin.id, action: 'dispatch', siteId: w.depot.id, purpose: 'hire', hireOrderId: order.id }));
+    }
+    expect((await HireOrder.findByPk(order.id))!.status).toBe('dispatched');
+    const me: SessionUser = {
+      id: w.planner.id!,
+      email: 'p@test.example',
+      name: 'Planner',
+      role: 'planner',
+      organisationId: w.operator.id,
+      organisationName: '',
+      homeSiteId: null,
+      qualifiedInspector: false,
+    };
+    await voidScan(me, scans[1]!.eventId, 'Wrong order scanned', '127.0.0.1');
+    let view = (await orderView(order.id))!;
+    expect(view.status).toBe('loading');
+    expect(view.progress).toEqual({ quantity: 2, loaded: 1, dispatched: 1 });
+    await voidScan(me, scans[0]!.eventId, 'Wrong order scanned', '127.0.0.1');
+    view = (await orderView(order.id))!;
+    expect(view.status).toBe('confirmed');
+    expect(view.progress).toEqual({ quantity: 2, loaded: 0, dispatched: 0 });
+    expect(view.commands.map((c) => c.command)).toEqual(['cancel']);
+    // Dispatched again, it moves on again: the status follows its loads both ways.
+    await recordScan(w.yard, { clientEventId: randomUUID(), assetId: scans[0]!.assetId, action: 'dispatch', siteId: w.depot.id, purpose: 'hire', hireOrderId: order.id });
+    expect((await HireOrder.findByPk(order.id))!.status).toBe('loading');
   });
 
   test('an order with bins loaded cannot be cancelled, only closed short', async () => {

@@ -186,4 +186,22 @@ describe('truck runs from collection requests', () => {
     const audit = await sel<{ action: string }>(`SELECT action FROM audit_entries WHERE entity_type = 'truck_run' AND entity_id = $1 ORDER BY id`, [String(run2)]);
     expect(audit.map((a) => a.action)).toEqual(['truck_run.create', 'truck_run.update', 'truck_run.update', 'truck_run.confirm', 'truck_run.cancel']);
   });
+  test('a run that expects more bins than one truck takes is not confirmed until it fits', async () => {
+    await request(farSite.id, 12, addDays(today(), 2));
+    const { id } = await createRun({ depotId: w.depot.id, plannedOn: addDays(today(), 2), carrier: 'Big Haulage', stops: [{ siteId: farSite.id, expectedBins: 1 }] }, actor());
+    const capacity = (await runView(id))!.capacity!.bins;
+    expect(capacity).toBeGreaterThan(0);
+    await updateRun(id, { version: (await runView(id))!.version, stops: [{ siteId: farSite.id, expectedBins: capacity + 1 }] }, actor());
+    const over = (await runView(id))!;
+    expect(over.commands.map((c) => c.command)).toEqual(['cancel']);
+    expect(over.confirmBlocked).toBe(`The stops expect ${capacity + 1} bins but one truck takes ${capacity}: move 1 to another run or choose a larger trailer.`);
+    const refused = await appErrorOf(commandRun(id, 'confirm', over.version, actor()));
+    expect(refused.code).toBe('transition_refused');
+    expect((await runView(id))!.status).toBe('planned');
+    await updateRun(id, { version: (await runView(id))!.version, stops: [{ siteId: farSite.id, expectedBins: capacity }] }, actor());
+    const fits = (await runView(id))!;
+    expect(fits.confirmBlocked).toBeNull();
+    expect((await commandRun(id, 'confirm', fits.version, actor())).status).toBe('confirmed');
+    await commandRun(id, 'cancel', (await runView(id))!.version, actor());
+  });
 });

@@ -16,6 +16,7 @@ import { POST as publicPost } from '@/pages/api/public/bins/[grai]/[form]';
 import { PATCH as statusPatch } from '@/pages/api/requests/[kind]/[id]';
 import type { SessionUser } from '@/lib/accounts/session-user.server';
 import { HONEYPOT_FIELD } from '@/lib/requests/report-forms';
+import { appUrl } from '@/lib/app-url.server';
 
 let w: Awaited<ReturnType<typeof poolWorld>>;
 let smtp: Awaited<ReturnType<typeof startSmtpCapture>>;
@@ -141,7 +142,7 @@ describe('public collection request', () => {
     const received = smtp.lastTo(secondPlannerEmail)!;
     expect(received.parsed.subject).toBe('Collection request: 6 folded bins at Customer site');
     expect(received.parsed.text).toContain('Where: Customer site (Test Customer)');
-    expect(received.parsed.text).toContain(`${process.env.APP_URL ?? 'http://localhost:4321'}/requests`);
+    expect(received.parsed.text).toContain(`${appUrl()}/requests`);
     expect(smtp.received.some((m) => m.to.includes('former-planner@test.example') || m.to.includes('admin@test.example'))).toBe(false);
   });
 

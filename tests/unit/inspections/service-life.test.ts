@@ -53,3 +53,19 @@ describe('fillLimit: the earlier of the test due date and the end of use', () =>
     expect(fillLimit(null, null)).toBeNull();
   });
 });
+
+describe('the inner receptacle month a bin keeps', () => {
+  // Hand-worked: given → kept; left out under 4.1.1.15 → the bin's own month (common practice: made with it); not under the rule → none.
+  test('given, defaulted, or none', async () => {
+    const { innerMadeMonthFor } = await import('@/lib/bins/registration-check');
+    expect(innerMadeMonthFor('2021-06', '2024-03', true)).toBe('2021-06');
+    expect(innerMadeMonthFor(null, '2024-03', true)).toBe('2024-03');
+    expect(innerMadeMonthFor('', '2024-03', true)).toBe('2024-03');
+    expect(innerMadeMonthFor(null, '2024-03', false)).toBeNull();
+  });
+  test('a month that is not one is refused on its field', async () => {
+    const { checkRegistration } = await import('@/lib/bins/registration-check');
+    const r = checkRegistration({ grai: '', manufactureMonth: '2024-03', innerMadeMonth: '2024-13' }, 7);
+    expect(r.issues.map((i) => i.field)).toContain('innerMadeMonth');
+  });
+});

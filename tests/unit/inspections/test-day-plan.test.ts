@@ -147,3 +147,18 @@ describe('planTestDays: properties on random instances', () => {
     );
   });
 });
+
+describe('when a bin out on hire is expected back (returns forecast curve)', () => {
+  // Hand-worked on four returned trips of 10, 20, 30 and 40 days (Kaplan–Meier without censoring: S steps down
+  // by a quarter at each). Out 15 days: S(15) = 0.75; back within k needs S(15 + k) ≤ 0.375 → S = 0.25 from day 30,
+  // so k = 15 (of the trips still possible, 20, 30 and 40 days, the middle one: day 30). Out 45 days: longer than any
+  // trip seen → null.
+  test('the conditional median, and nothing beyond the history', async () => {
+    const { kaplanMeier } = await import('@/lib/planning/returns-forecast');
+    const { expectedBackInDays } = await import('@/lib/inspections/test-day-plan');
+    const curve = kaplanMeier([10, 20, 30, 40].map((days) => ({ days, returned: true })));
+    expect(expectedBackInDays(curve, 0)).toBe(20);
+    expect(expectedBackInDays(curve, 15)).toBe(15);
+    expect(expectedBackInDays(curve, 45)).toBeNull();
+  });
+});

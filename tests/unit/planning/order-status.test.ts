@@ -81,6 +81,11 @@ describe('the status follows the loads', () => {
     ['dispatched', ALL, 'dispatched'],
     ['closed', ALL, 'closed'],
     ['cancelled', NONE, 'cancelled'],
+    // Voided scans take bins off the order again: the status steps back.
+    ['dispatched', { quantity: 24, loaded: 24, dispatched: 23 }, 'loading'],
+    ['dispatched', NONE, 'confirmed'], // the only dispatch scan was voided
+    ['loading', NONE, 'confirmed'],
+    ['closed', NONE, 'closed'], // planner-owned: a void after closing leaves it closed
   ];
   test.each(cases)('%s with %o → %s', (from, progress, expected) => {
     expect(statusFromLoads(from, progress)).toBe(expected);

@@ -4,13 +4,17 @@ import { runCreateSchema, runPatchSchema, runSuggestQuery } from '@/lib/planning
 
 // Every expectation is written out by hand: the run's rule table in run-status.ts is what is tested.
 
-const facts = (status: RunStatus, extra: Partial<RunFacts> = {}): RunFacts => ({ status, carrier: 'Haulier', stops: 2, received: 0, ...extra });
+const facts = (status: RunStatus, extra: Partial<RunFacts> = {}): RunFacts => ({ status, carrier: 'Haulier', stops: 2, received: 0, expected: 20, capacity: 26, ...extra });
 
 type Row = [from: RunStatus, command: RunCommand, extra: Partial<RunFacts>, expected: RunStatus | RegExp];
 const ROWS: Row[] = [
   ['planned', 'confirm', {}, 'confirmed'],
   ['planned', 'confirm', { carrier: null }, /Name the carrier/],
   ['planned', 'confirm', { stops: 0 }, /no stops/],
+  // Hand-worked: 26 folded bins on the trailer, the stops expect 27 → one too many; exactly 26 fits; unknown capacity is not refused.
+  ['planned', 'confirm', { expected: 27 }, /expect 27 bins but one truck takes 26: move 1 to another run or choose a larger trailer/],
+  ['planned', 'confirm', { expected: 26 }, 'confirmed'],
+  ['planned', 'confirm', { expected: 400, capacity: null }, 'confirmed'],
   ['planned', 'cancel', {}, 'cancelled'],
   ['planned', 'close', {}, /can only: confirm run, cancel run/],
   ['confirmed', 'confirm', {}, /can only: cancel run, close run/],
@@ -34,6 +38,7 @@ describe('the run status table', () => {
   test('the buttons are the allowed commands', () => {
     expect(runCommands(facts('planned')).map((c) => c.command)).toEqual(['confirm', 'cancel']);
     expect(runCommands(facts('planned', { carrier: null })).map((c) => c.command)).toEqual(['cancel']);
+    expect(runCommands(facts('planned', { expected: 30 })).map((c) => c.command)).toEqual(['cancel']);
     expect(runCommands(facts('confirmed', { received: 2 })).map((c) => c.command)).toEqual(['close']);
     for (const s of ['done', 'cancelled'] as const) expect(runCommands(facts(s))).toEqual([]);
     expect(RUN_STATUSES).toEqual(['planned', 'confirmed', 'done', 'cancelled']);

@@ -8,6 +8,7 @@ import {
   textFields,
   HONEYPOT_FIELD,
   MAX_EMAIL_CHARS,
+  plannerCollectionRequest,
 } from '@/lib/requests/report-forms';
 
 const good = { quantity: '6', locationNote: '', contactName: 'Mila de Boer', contactPhone: '+31 6 1234 5678', contactEmail: '', note: '' };
@@ -102,5 +103,29 @@ describe('form plumbing', () => {
     expect(isHoneypotFilled([[HONEYPOT_FIELD, '  ']])).toBe(false);
     expect(isHoneypotFilled([['contactName', 'x']])).toBe(false);
     expect(isHoneypotFilled([[HONEYPOT_FIELD, 'http://spam.example']])).toBe(true);
+  });
+});
+
+describe('a collection request the planner records', () => {
+  const ok = { siteId: 4, quantity: 12, readyOn: '2027-01-14', contactName: 'Gate office', contactPhone: '', note: '' };
+  test('the customer site, a whole number of bins, the ready day and who to ask for', () => {
+    expect(plannerCollectionRequest.parse(ok)).toEqual({ ...ok, contactPhone: null, note: null });
+  });
+  test.each([
+    [{ siteId: undefined }, 'siteId', 'Choose the customer site.'],
+    [{ quantity: 0 }, 'quantity', 'At least one bin.'],
+    [{ quantity: 2.5 }, 'quantity', 'Give the number of bins as a whole number.'],
+    [{ quantity: 501 }, 'quantity', 'At most 500 bins in one request.'],
+    [{ readyOn: '14/01/2027' }, 'readyOn', 'must be a date like 2027-01-14'],
+    [{ readyOn: '2027-02-30' }, 'readyOn', 'must be a date like 2027-01-14'],
+    [{ contactName: ' ' }, 'contactName', 'Name the person to ask for at the site.'],
+    [{ contactPhone: '12' }, 'contactPhone', phoneProblem('12')!],
+  ])('%o is refused on %s', (change, field, message) => {
+    const r = plannerCollectionRequest.safeParse({ ...ok, ...change });
+    expect(r.success).toBe(false);
+    if (!r.success) expect(fieldProblems(r.error)[field]).toBe(message);
+  });
+  test('unknown fields are refused (the customer follows from the site, it is not sent)', () => {
+    expect(plannerCollectionRequest.safeParse({ ...ok, customerId: 9 }).success).toBe(false);
   });
 });

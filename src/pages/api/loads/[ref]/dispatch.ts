@@ -13,6 +13,7 @@ const body = z
       .regex(/^[A-Za-z0-9 -]+$/, 'Registrations use letters, digits, spaces and hyphens.'),
     driverName: text().trim().max(120).optional(),
     trailerSeals: z.array(text().trim().min(1).max(32)).max(6).default([]),
+    trailerId: z.number({ message: 'Choose a trailer from the list.' }).int().positive().nullable().optional(),
   })
   .strict();
 
