@@ -84,7 +84,8 @@ export const settingsSchema = z
       .int('Whole seconds.')
       .min(0, 'From 0 (no undo) to 600 seconds.')
       .max(600, 'From 0 (no undo) to 600 seconds.'),
-    reminderDaysOver: z.number({ invalid_type_error: 'A number of days.' }).int('Whole days.').min(1, 'From 1 to 365 days.').max(365, 'From 1 to 365 days.'),
+    /** Left out: unchanged. */
+    reminderDaysOver: z.number({ invalid_type_error: 'A number of days.' }).int('Whole days.').min(1, 'From 1 to 365 days.').max(365, 'From 1 to 365 days.').optional(),
     /** Left out: unchanged. Empty or null: never propose retirement. */
     repairRetireThreshold: z
       .union([text().trim(), z.null()])

@@ -117,6 +117,7 @@ export async function updateSettings(input: SettingsInput, actor: AuditActor): P
     // Left out by an older form: kept as it was. NUMERIC comes back as "400.00": an equal amount is no change.
     if (input.repairRetireThreshold === undefined || (input.repairRetireThreshold !== null && Number(input.repairRetireThreshold) === Number(before.repairRetireThreshold)))
       next.repairRetireThreshold = before.repairRetireThreshold;
+    next.reminderDaysOver ??= before.reminderDaysOver;
     for (const f of FIELDS) s.set(f, next[f] ?? null);
     await s.save({ transaction });
     await s.reload({ transaction });

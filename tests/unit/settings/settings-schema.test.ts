@@ -20,6 +20,11 @@ describe('settings form', () => {
   test('a valid form is normalised', () => {
     expect(settingsSchema.parse(valid)).toMatchObject({ digitalLinkBase: 'https://id.pool.example', currency: 'EUR', returnInstructions: 'Fold it.' });
   });
+  test('overdue-return reminders after 1 to 365 whole days; left out, the setting stays as it was', () => {
+    expect(settingsSchema.parse({ ...valid, reminderDaysOver: 7 }).reminderDaysOver).toBe(7);
+    expect(settingsSchema.parse(valid).reminderDaysOver).toBeUndefined();
+    for (const d of [0, 366, 2.5]) expect(settingsSchema.safeParse({ ...valid, reminderDaysOver: d }).success).toBe(false);
+  });
   test('time zones are checked against the IANA database (as shipped with the runtime)', () => {
     expect(canonicalTimeZone('Europe/Amsterdam')).toBe('Europe/Amsterdam');
     expect(canonicalTimeZone('america/new_york')).toBe('America/New_York');
