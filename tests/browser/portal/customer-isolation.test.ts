@@ -8,7 +8,7 @@ import { join, relative } from 'node:path';
 import { randomUUID } from 'node:crypto';
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import type { APIRequestContext, APIResponse, BrowserContext } from 'playwright-core';
-import { useApp, ROOT, newContext, signIn } from '../support/app';
+import { useApp, ROOT, newContext, signIn, operatorToday } from '../support/app';
 import { one, rows, closeDb } from '../support/db';
 import { DEMO_LOGINS, DEMO_PASSWORD, SECOND_CUSTOMER_LOGIN } from '@/db/seed/demo-logins.mjs';
 import { accessFor, can } from '@/lib/permissions';
@@ -431,7 +431,7 @@ async function writes(api: APIRequestContext, o: Other): Promise<void> {
   const ownBefore = await one<{ events: number }>(`SELECT count(*)::int AS events FROM scan_events WHERE asset_id = $1`, [o.ownBinId]);
   const problems: string[] = [];
   for (const w of targetedWrites(o)) {
-    const multipart = w.multipart && Object.fromEntries(Object.entries(w.multipart).map(([k, v]) => [k, v === 'TODAY' ? new Date().toISOString().slice(0, 10) : v]));
+    const multipart = w.multipart && Object.fromEntries(Object.entries(w.multipart).map(([k, v]) => [k, v === 'TODAY' ? operatorToday() : v]));
     const res = multipart
       ? await api.fetch(w.path, { method: w.method, multipart, headers: { Origin: t.app.url }, maxRedirects: 0 })
       : await send(api, w.method, w.path, w.data, o);
@@ -533,7 +533,7 @@ describe("a user of A limited to one site asks every route about A's other site"
     const photoId = ((await up.json()) as { data: { id: number } }).data.id;
     await one(`UPDATE attachments SET asset_id = $1 WHERE id = $2`, [bin.id, photoId]);
     const request = await asA.post('/portal/collections', {
-      multipart: { siteId: String(x.id), quantity: '4', readyOn: new Date().toISOString().slice(0, 10), note: 'Four behind the other gate' },
+      multipart: { siteId: String(x.id), quantity: '4', readyOn: operatorToday(), note: 'Four behind the other gate' },
       headers: { Origin: t.app.url },
       maxRedirects: 0,
     });

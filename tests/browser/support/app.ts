@@ -7,6 +7,16 @@ import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, afterAll } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { DateTime } from 'luxon';
+import { OPERATOR } from '@/db/seed/scenario';
+
+/**
+ * Today where the demo operator works, as its forms read dates. The UTC date differs from it for an hour or two
+ * around midnight, and a form refuses a "ready from" that is yesterday locally (the app works it out in `calendar.ts`).
+ */
+export function operatorToday(): string {
+  return DateTime.now().setZone(OPERATOR.timeZone).toISODate()!;
+}
 
 export const ROOT = new URL('../../../', import.meta.url).pathname;
 export const ARTIFACTS = join(ROOT, '.loopfold', 'artifacts');
