@@ -19,6 +19,8 @@ export const ICONS = {
   route: 'M6 19a2 2 0 1 0 0-.01M18 5a2 2 0 1 0 0 .01M6 17V9a3 3 0 0 1 3-3h5M18 7v8a3 3 0 0 1-3 3h-5',
   label: 'M4 6h16v12H4zM7 9h4v4H7zM14 10h3M14 13h3',
   inbox: 'M4 13l2-8h12l2 8v6H4zM4 13h5l1 2h4l1-2h5',
+  // a statement sheet with a torn foot and its lines
+  sheet: 'M6 3h12v18l-2-1.5-2 1.5-2-1.5-2 1.5-2-1.5-2 1.5zM9 8h6M9 11h6M9 14h4',
   users: 'M9 11a3 3 0 1 0 0-6a3 3 0 0 0 0 6M3 20c0-3.3 2.7-6 6-6s6 2.7 6 6M16 5a3 3 0 0 1 0 6M18 14c1.8.7 3 2.5 3 4.5',
   settings: 'M12 9a3 3 0 1 0 0 6a3 3 0 0 0 0-6M12 3v2M12 19v2M3 12h2M19 12h2M5.6 5.6l1.4 1.4M17 17l1.4 1.4M5.6 18.4 7 17M17 7l1.4-1.4',
   mail: 'M4 6h16v12H4zM4 7l8 6 8-6',

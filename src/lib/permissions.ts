@@ -31,7 +31,9 @@ export const CAPABILITIES = {
   'liners.manage': ['planner', 'admin'], // liner specs, suppliers and their terms
   'liners.move': ['yard', 'planner', 'admin'], // receive, count, transfer and kit liners at one's home depot
   'portal.view': ['customer'],
-  'counts.resolve': ['planner', 'admin'], // settling the differences of customers' monthly counts
+  'counts.resolve': ['planner', 'admin'],
+  'billing.manage': ['admin'], // statements, invoices, payments: money is the admin's
+  'billing.own': ['customer'], // a customer's own statements (not a user limited to some sites: enforced in the data layer) // settling the differences of customers' monthly counts
   'users.manage': ['admin'],
   'settings.manage': ['admin'],
   'sites.manage': ['admin'],
@@ -95,6 +97,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/liners', 'liners.view'],
   ['/api/liners/', 'liners.view'],
   ['/yard', 'home.yard'],
+  ['/portal/statements', 'billing.own'],
+  ['/api/portal/statements', 'billing.own'],
   ['/portal', 'home.portal'],
   ['/api/portal/', 'portal.view'],
   ['/fleet', 'fleet.view'],
@@ -116,6 +120,8 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/planning/runs', 'orders.view'],
   ['/api/planning/repositioning/', 'orders.edit'],
   ['/api/requests/', 'requests.view'],
+  ['/billing', 'billing.manage'],
+  ['/api/billing/', 'billing.manage'],
   ['/admin/mail', 'mail.read'],
   ['/admin/users', 'users.manage'],
   ['/api/admin/users', 'users.manage'],

@@ -13,6 +13,9 @@ export class Organisation extends Model<InferAttributes<Organisation>, InferCrea
   declare tripFee: CreationOptional<string>;
   declare lostBinFee: CreationOptional<string>;
   declare currency: CreationOptional<string>;
+  /** ISO 3166 alpha-2; with the VAT number it decides reverse charge on statements. */
+  declare country: CreationOptional<string | null>;
+  declare vatId: CreationOptional<string | null>;
   declare active: CreationOptional<boolean>;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
@@ -29,6 +32,8 @@ Organisation.init(
     dailyRate: { type: DataTypes.DECIMAL(10, 2), allowNull: false, defaultValue: '0' },
     tripFee: { type: DataTypes.DECIMAL(10, 2), allowNull: false, defaultValue: '0' },
     lostBinFee: { type: DataTypes.DECIMAL(10, 2), allowNull: false, defaultValue: '0' },
+    country: { type: DataTypes.CHAR(2), allowNull: true },
+    vatId: { type: DataTypes.STRING(20), allowNull: true },
     currency: { type: DataTypes.CHAR(3), allowNull: false, defaultValue: 'EUR' },
     active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
     version: versionColumn,

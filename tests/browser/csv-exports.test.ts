@@ -28,7 +28,17 @@ function csvRoutes(dir = join(ROOT, 'src', 'pages')): string[] {
  * What each route is asked and which of its columns hold the test bin's serial
  * and numbers. A new CSV route fails the sweep until it is described here.
  */
-const ROUTES: Record<string, { path?: string; query?: string; serialColumn?: string; numberColumns?: string[] }> = {
+interface RouteSpec {
+  path?: string | (() => string);
+  query?: string | (() => string);
+  serialColumn?: string;
+  numberColumns?: string[];
+  /** Who asks (default the planner): billing is the admin's, a customer's own statement the customer's. */
+  as?: 'admin' | 'customer';
+}
+/** The demo's first issued statement of the demo customer (the seed issues the month before last). */
+let statement: { id: number; month: string };
+const ROUTES: Record<string, RouteSpec> = {
   '/api/fleet/reuse.csv': { serialColumn: 'serial', numberColumns: ['rotations_in_period', 'rotations_since_commissioning', 'years_in_service'] },
   '/api/fleet/bins/export.csv': {
     query: `?columns=grai,serial,tripCount,daysAtSite&filterModel=${encodeURIComponent(JSON.stringify({ serial: { filterType: 'text', type: 'equals', filter: FORMULA_SERIAL } }))}`,
@@ -39,18 +49,40 @@ const ROUTES: Record<string, { path?: string; query?: string; serialColumn?: str
   '/bins/import/template.csv': {},
   '/api/liners/moves.csv': { query: '?depot=1' },
   '/api/liners/lots/[id]/trace.csv': { path: '/api/liners/lots/1/trace.csv' }, // the demo's first lot: used up by the first bins
+  // Statement amounts are plain decimals, credits and corrections negative ("-7.50"): numbers, never formulas.
+  '/api/billing/accounting.csv': { query: () => `?month=${statement.month}`, as: 'admin' },
+  '/api/billing/statements/[id].csv': { path: () => `/api/billing/statements/${statement.id}.csv`, as: 'admin' },
+  '/api/portal/statements/[id].csv': { path: () => `/api/portal/statements/${statement.id}.csv`, as: 'customer' },
 };
 
 let ctx: BrowserContext;
 let api: APIRequestContext;
+const others: BrowserContext[] = [];
+const asWho: Partial<Record<'admin' | 'customer', APIRequestContext>> = {};
 const t = useApp();
 
-beforeAll(async () => {
-  ctx = await newContext(t.browser, t.app);
-  const page = await ctx.newPage();
-  await signIn(page, 'planner@northmere.example', DEMO_PASSWORD);
+async function signedIn(email: string): Promise<BrowserContext> {
+  const c = await newContext(t.browser, t.app);
+  const page = await c.newPage();
+  await signIn(page, email, DEMO_PASSWORD);
   await page.waitForURL((u) => !u.pathname.startsWith('/login'));
+  return c;
+}
+
+beforeAll(async () => {
+  ctx = await signedIn('planner@northmere.example');
   api = ctx.request;
+  for (const [who, email] of [
+    ['admin', 'admin@northmere.example'],
+    ['customer', 'buyer@haldenoils.example'],
+  ] as const) {
+    const c = await signedIn(email);
+    others.push(c);
+    asWho[who] = c.request;
+  }
+  statement = await one<{ id: number; month: string }>(
+    `SELECT s.id, to_char(s.period_from, 'YYYY-MM') AS month FROM statements s JOIN users u ON u.organisation_id = s.customer_id WHERE u.email = 'buyer@haldenoils.example' ORDER BY s.id LIMIT 1`,
+  );
   const existing = await one<{ id: number } | undefined>('SELECT id FROM assets WHERE serial = $1', [FORMULA_SERIAL]);
   if (!existing) {
     const type = await one<{ id: number }>(`SELECT id FROM bin_types ORDER BY id LIMIT 1`);
@@ -71,6 +103,7 @@ beforeAll(async () => {
   }
 });
 afterAll(async () => {
+  for (const c of others) await c.close();
   await ctx?.close();
   await closeDb();
 });
@@ -83,7 +116,8 @@ describe('CSV exports', () => {
   for (const route of csvRoutes()) {
     test(`${route}: no cell runs as a formula, the formula serial is neutralised, numbers stay numbers`, async () => {
       const spec = ROUTES[route] ?? {};
-      const res = await api.get((spec.path ?? route) + (spec.query ?? ''));
+      const value = (v: string | (() => string) | undefined) => (typeof v === 'function' ? v() : v);
+      const res = await (spec.as ? asWho[spec.as]! : api).get((value(spec.path) ?? route) + (value(spec.query) ?? ''));
       expect(res.status(), await res.text()).toBe(200);
       expect(res.headers()['content-type']).toBe('text/csv; charset=utf-8');
       expect(res.headers()['content-disposition']).toMatch(/^attachment; filename="[A-Za-z0-9._-]+\.csv"$/);

@@ -39,7 +39,7 @@ describe('every page and route has declared access', () => {
 });
 
 describe('deny by default', () => {
-  test.each(['/purchasing', '/billing', '/api/purchasing', '/api/billing/invoices', '/x', '/account/other'])('%s, named by no rule, is denied', (path) => {
+  test.each(['/purchasing', '/invoicing', '/api/purchasing', '/api/invoicing/runs', '/x', '/account/other'])('%s, named by no rule, is denied', (path) => {
     expect(accessFor(path)).toBe('denied');
   });
   test('the root is an exact rule: it opens nothing below it', () => {

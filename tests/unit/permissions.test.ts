@@ -8,6 +8,10 @@ describe('role × capability table', () => {
     expect(can('customer', 'fleet.view')).toBe(false);
     expect(can('customer', 'users.manage')).toBe(false);
     expect(can('customer', 'scan.correct')).toBe(false);
+    expect(can('customer', 'billing.own')).toBe(true);
+    expect(can('customer', 'billing.manage')).toBe(false);
+    expect(can('planner', 'billing.manage')).toBe(false); // money is the admin's
+    expect(can('admin', 'billing.manage')).toBe(true);
   });
   test('only admins manage people and settings', () => {
     for (const role of ROLES) {
@@ -51,6 +55,12 @@ describe('path rules', () => {
     ['/portal', 'home.portal'],
     ['/admin/users', 'users.manage'],
     ['/admin/mail', 'mail.read'],
+    ['/billing', 'billing.manage'],
+    ['/billing/statements/7', 'billing.manage'],
+    ['/api/billing/statements', 'billing.manage'],
+    ['/portal/statements', 'billing.own'],
+    ['/portal/statements/7', 'billing.own'],
+    ['/api/portal/statements/7.csv', 'billing.own'],
     ['/something-new', 'denied'],
     ['/api/something-new', 'denied'],
   ])('%s → %s', (path, access) => {

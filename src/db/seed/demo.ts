@@ -1,9 +1,13 @@
 import bcrypt from 'bcryptjs';
 import { sequelize, Organisation, Site, User, Setting, BinType, Tariff, Trailer } from '@/models';
+import type { Transaction } from 'sequelize';
 import { generateHistory } from './history';
+import { issueStatement } from '@/lib/billing/statements.server';
+import { lastClosedMonth } from '@/lib/billing/statement-input';
+import { localDate, type LocalDate } from '@/lib/calendar';
 import { finishSeedRun, stallPoint, startSeedRun } from './seed-run';
 import { DEMO_LOGINS, DEMO_PASSWORD, SECOND_CUSTOMER_LOGIN } from './demo-logins.mjs';
-import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, EXTRA_STAFF, BIN_TYPES, TRAILERS } from './scenario';
+import { OPERATOR, DEPOTS, REPAIR_SHOP, CUSTOMERS, CUSTOMER_BILLING, EXTRA_STAFF, BIN_TYPES, TRAILERS } from './scenario';
 
 /**
  * Seeds the invented demo scenario into an empty database: who is who, then the
@@ -17,11 +21,23 @@ export async function seedDemo(opts: { bins?: number; months?: number; now?: Dat
   return sequelize.transaction(async (transaction) => {
     for (const t of BIN_TYPES) await BinType.create(t, { transaction });
     const history = await generateHistory({ bins: opts.bins ?? Number(process.env.DEMO_BINS ?? 600), months: opts.months ?? 18, now: opts.now, transaction });
-    const summary = { ...people, ...history };
+    const statements = await issueDemoStatements(opts.now ?? new Date(), transaction);
+    const summary = { ...people, ...history, statements };
     await stallPoint('finish');
     await finishSeedRun(run, summary, transaction);
     return summary;
   });
+}
+
+/**
+ * The month before last, issued for every customer (so the portal has a statement to check and the next month's
+ * corrections have something to correct); the last month is left as drafts for the admin to issue.
+ */
+async function issueDemoStatements(now: Date, transaction: Transaction): Promise<number> {
+  const month = lastClosedMonth(`${lastClosedMonth(localDate(now, OPERATOR.timeZone))}-01` as LocalDate);
+  const customers = await Organisation.findAll({ where: { kind: 'customer' }, order: [['id', 'ASC']], transaction });
+  for (const c of customers) await issueStatement(c.id, month, { userId: null, ip: null }, { transaction, now });
+  return customers.length;
 }
 
 async function seedPeopleAndPlaces() {
@@ -65,6 +81,8 @@ async function seedPeopleAndPlaces() {
           tripFee: c.tripFee,
           lostBinFee: c.lostBinFee,
           currency: OPERATOR.currency,
+          country: CUSTOMER_BILLING[c.name]?.country ?? null,
+          vatId: CUSTOMER_BILLING[c.name]?.vatId ?? null,
         },
         opts,
       );
@@ -80,6 +98,8 @@ async function seedPeopleAndPlaces() {
           currency: OPERATOR.currency,
           validFrom: '2020-01-01',
           validTo: null,
+          linerFee: CUSTOMER_BILLING[c.name]?.linerFee ?? '0',
+          stopFee: CUSTOMER_BILLING[c.name]?.stopFee ?? '0',
         },
         opts,
       );

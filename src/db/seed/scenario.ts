@@ -110,6 +110,20 @@ export const CUSTOMERS: DemoCustomer[] = [
   },
 ];
 
+/**
+ * Billing details of the demo customers (invented VAT numbers in each country's shape): the operator is Dutch, so
+ * the Belgian and German customers get reverse charge, the Dutch ones the operator's VAT rate. Liners fitted per
+ * trip and stops of collection runs are charged at these fees.
+ */
+export const CUSTOMER_BILLING: Record<string, { country: string; vatId: string; linerFee: string; stopFee: string }> = {
+  'Halden Oils': { country: 'NL', vatId: 'NL861204337B01', linerFee: '6.50', stopFee: '45.00' },
+  'Brightwater Syrups': { country: 'BE', vatId: 'BE0712345619', linerFee: '7.20', stopFee: '55.00' },
+  'Kestrel Coatings': { country: 'DE', vatId: 'DE287654310', linerFee: '6.50', stopFee: '60.00' },
+  'Marlow Dairy Ingredients': { country: 'NL', vatId: 'NL803311920B01', linerFee: '8.40', stopFee: '50.00' },
+  'Verdane Chemicals': { country: 'DE', vatId: 'DE301122334', linerFee: '6.90', stopFee: '60.00' },
+  'Ostby Fruit Concentrates': { country: 'NL', vatId: 'NL855667788B01', linerFee: '7.20', stopFee: '45.00' },
+};
+
 /** Extra staff beside the four demo logins. */
 export const EXTRA_STAFF = [
   { role: 'yard', email: 'yard.duisburg@northmere.example', name: 'Lena Vogt', homeDepot: 'DEP-DUI', qualifiedInspector: true },

@@ -4,6 +4,7 @@
  *
  *   statementFor(input)                                → { lines, totals } for the period
  *   adjustmentLines(issuedLines, recomputedLines, opts) → lines that correct an issued period
+ *   withCorrections(statement, corrections)            → the statement with those lines added, totals again
  *   taxTreatmentFor(operatorCountry, customer, rate)   → a tax rate, or reverse charge
  *
  * The rules (hire terms are the customer's tariff; no single published source — common practice in equipment
@@ -662,4 +663,14 @@ export function adjustmentLines(issued: StatementLine[], recomputed: StatementLi
     });
   }
   return lines.sort(compareLines);
+}
+
+/**
+ * A period's statement with corrections of earlier periods added: the lines in statement order and the totals
+ * (tax included) worked out again over all of them, by the same rule as the period's own lines.
+ */
+export function withCorrections(statement: Statement, corrections: StatementLine[]): Statement {
+  if (corrections.some((l) => l.kind !== 'adjustment')) throw new BillingInputError(['only adjustment lines can be added to an issued period']);
+  const lines = [...statement.lines, ...corrections].sort(compareLines);
+  return { period: { ...statement.period }, lines, totals: totalsOf(lines, statement.totals.currency, statement.totals.tax) };
 }

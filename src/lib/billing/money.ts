@@ -8,6 +8,8 @@
  *   minorDigits(currency)            → decimals of the currency's minor unit (2 for EUR, 0 for JPY)
  *   formatMoney(minor, currency)     → "1,234.50 EUR" / "-7.50 EUR"
  *   isMinorAmount(value)             → a safe integer
+ *   decimalToMinorUnits('12.5', 2)   → 1250 (exact, string arithmetic; null for a non-amount or too many decimals)
+ *   minorUnitsToDecimal(-750, 2)     → "-7.50" (for NUMERIC columns, form fields and CSV)
  */
 
 export const ROUNDING =
@@ -53,4 +55,23 @@ export function formatMoney(minor: number, currency: string): string {
   const whole = text.slice(0, text.length - digits).replace(/\B(?=(\d{3})+(?!\d))/g, ',');
   const fraction = digits > 0 ? `.${text.slice(text.length - digits)}` : '';
   return `${sign}${whole}${fraction} ${currency}`;
+}
+
+/** "12.5" / "12.50" / "-7.5" → minor units with `digits` decimals; exact (no floating point). Null for a non-amount. */
+export function decimalToMinorUnits(value: string | number, digits: number): number | null {
+  const text = typeof value === 'number' ? (Number.isFinite(value) ? String(value) : '') : value.trim();
+  const m = /^(-?)(\d{1,15})(?:\.(\d+))?$/.exec(text);
+  if (!m) return null;
+  const frac = m[3] ?? '';
+  if (frac.length > digits && /[1-9]/.test(frac.slice(digits))) return null; // more precision than the currency has
+  const minor = Number(m[2]) * 10 ** digits + Number((frac.slice(0, digits) || '0').padEnd(digits, '0'));
+  if (!Number.isSafeInteger(minor)) return null;
+  return m[1] === '-' && minor !== 0 ? -minor : minor;
+}
+
+/** Minor units → a plain decimal with `digits` decimals: 1250 → "12.50", -5 → "-0.05", 1500 (0 digits) → "1500". */
+export function minorUnitsToDecimal(minor: number, digits: number): string {
+  const text = String(Math.abs(minor)).padStart(digits + 1, '0');
+  const sign = minor < 0 ? '-' : '';
+  return digits > 0 ? `${sign}${text.slice(0, -digits)}.${text.slice(-digits)}` : `${sign}${text}`;
 }

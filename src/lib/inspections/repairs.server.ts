@@ -430,13 +430,17 @@ export interface RepairCharge {
   status: Extract<RepairStatus, 'closed' | 'retired'>;
   amountMinor: number;
   currency: string;
+  /** The customer's trip the damage was reported on (their latest trip of the bin dispatched before the report). */
+  tripId: number | null;
+  /** The damage report's photo and those of the repair work, for the customer to see what was charged. */
+  photoIds: number[];
 }
 
 /**
  * For billing: the repairs of damage reported while a bin was on this customer's hire, that ended within the
  * period (inclusive, the operator's days) with a cost recorded. Amounts in whole minor units (billing's money).
  */
-export async function repairChargesFor(customerId: number, period: { from: LocalDate; to: LocalDate }): Promise<RepairCharge[]> {
+export async function repairChargesFor(customerId: number, period: { from: LocalDate; to: LocalDate }, transaction?: Transaction): Promise<RepairCharge[]> {
   const { settings, digits } = await money();
   const rows = await sequelize.query<{
     id: number;
@@ -448,15 +452,20 @@ export async function repairChargesFor(customerId: number, period: { from: Local
     ended_on: string;
     status: 'closed' | 'retired';
     cost: string;
+    trip_id: number | null;
+    photo_ids: number[];
   }>(
     `SELECT r.id, r.damage_report_id, r.asset_id, a.grai, a.serial, r.fault, (r.closed_at AT TIME ZONE $2)::date::text AS ended_on, r.status,
-            (SELECT sum(w.cost) FROM repair_work w WHERE w.repair_order_id = r.id)::text AS cost
-       FROM repair_orders r JOIN assets a ON a.id = r.asset_id
+            (SELECT sum(w.cost) FROM repair_work w WHERE w.repair_order_id = r.id)::text AS cost,
+            (SELECT t.id FROM trips t WHERE t.asset_id = r.asset_id AND t.customer_id = r.customer_id AND t.dispatched_at <= d.created_at
+              ORDER BY t.dispatched_at DESC LIMIT 1) AS trip_id,
+            array_remove(ARRAY[d.photo_id] || coalesce((SELECT array_agg(p ORDER BY p) FROM repair_work w, unnest(w.photo_ids) AS p WHERE w.repair_order_id = r.id), '{}'), NULL) AS photo_ids
+       FROM repair_orders r JOIN assets a ON a.id = r.asset_id JOIN damage_reports d ON d.id = r.damage_report_id
       WHERE r.customer_id = $1 AND r.status IN ('closed', 'retired')
         AND (r.closed_at AT TIME ZONE $2)::date BETWEEN $3::date AND $4::date
         AND EXISTS (SELECT 1 FROM repair_work w WHERE w.repair_order_id = r.id AND w.cost > 0)
       ORDER BY r.closed_at, r.id`,
-    { bind: [customerId, settings.timeZone, period.from, period.to], type: QueryTypes.SELECT },
+    { bind: [customerId, settings.timeZone, period.from, period.to], type: QueryTypes.SELECT, transaction },
   );
   return rows.map((r) => ({
     repairOrderId: r.id,
@@ -469,6 +478,8 @@ export async function repairChargesFor(customerId: number, period: { from: Local
     status: r.status,
     amountMinor: repairCost([{ costMinor: toMinor(r.cost, digits) ?? 0 }]),
     currency: settings.currency,
+    tripId: r.trip_id,
+    photoIds: r.photo_ids,
   }));
 }
 

@@ -19,6 +19,7 @@ import type { TestOutcome } from './inspection-due';
 import type { PeriodicKind } from './inspection-form';
 import type { IconName } from '@/lib/icons';
 import type { Tone } from '@/lib/status-look';
+import { decimalToMinorUnits, minorUnitsToDecimal } from '@/lib/billing/money';
 
 export const REPAIR_SOURCES = ['inspection', 'prep_check', 'damage_report', 'planner'] as const;
 export type RepairSource = (typeof REPAIR_SOURCES)[number];
@@ -51,21 +52,14 @@ export function closesRepair(kind: PeriodicKind | 'prep_check', outcome: TestOut
   return kind === 'after_repair' && outcome === 'pass';
 }
 
-/** "12.5" / "12.50" / "12" → 1250 with 2 digits; exact (string arithmetic, no floating point). Null for a non-amount. */
+/** "12.5" / "12.50" / "12" → 1250 with 2 digits (billing's money rule); costs are never negative, so a sign is refused. */
 export function toMinor(value: string | number, digits: number): number | null {
-  const text = typeof value === 'number' ? (Number.isFinite(value) ? String(value) : '') : value.trim();
-  const m = /^(\d{1,12})(?:\.(\d+))?$/.exec(text);
-  if (!m) return null;
-  const frac = m[2] ?? '';
-  if (frac.length > digits && /[1-9]/.test(frac.slice(digits))) return null; // more precision than the currency has
-  return Number(m[1]) * 10 ** digits + Number((frac.slice(0, digits) || '0').padEnd(digits, '0'));
+  const minor = decimalToMinorUnits(value, digits);
+  return minor === null || minor < 0 || String(value).trim().startsWith('-') ? null : minor;
 }
 
 /** 1250 with 2 digits → "12.50" (for NUMERIC columns and form fields). */
-export function fromMinor(minor: number, digits: number): string {
-  const text = String(minor).padStart(digits + 1, '0');
-  return digits > 0 ? `${text.slice(0, -digits)}.${text.slice(-digits)}` : text;
-}
+export const fromMinor = minorUnitsToDecimal;
 
 export interface RepairWorkEntry {
   performedOn: LocalDate;

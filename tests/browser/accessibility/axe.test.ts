@@ -66,6 +66,7 @@ interface Examples {
   runId: number;
   lotId: number;
   purchaseOrderId: number;
+  statementId: number;
 }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
@@ -98,7 +99,13 @@ async function examples(): Promise<Examples> {
        SELECT sp.supplier_id, sp.id, $1, 500, 4.5, current_date, current_date + 14 FROM liner_specs sp WHERE sp.supplier_id IS NOT NULL ORDER BY sp.id LIMIT 1 RETURNING id`,
       [depot.id],
     ));
+  // The demo customer's issued statement (the seed issues the month before last for every customer).
+  const statement = await one<{ id: number }>(`SELECT s.id FROM statements s JOIN users u ON u.organisation_id = s.customer_id WHERE u.email = $1 ORDER BY s.id LIMIT 1`, [
+    customer.email,
+  ]);
+  expect(statement, 'the demo customer has an issued statement').toBeDefined();
   return {
+    statementId: statement.id,
     anyGrai: bin.grai,
     customerGrai: mine.grai,
     tripId: trip.id,
@@ -138,6 +145,8 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/planning/counts/[id]': `/planning/counts/${ex.countId}`,
     '/liners/lots/[id]/trace': `/liners/lots/${ex.lotId}/trace`,
     '/liners/purchase-orders/[id]': `/liners/purchase-orders/${ex.purchaseOrderId}`,
+    '/billing/statements/[id]': `/billing/statements/${ex.statementId}`,
+    '/portal/statements/[id]': `/portal/statements/${ex.statementId}`,
     '/planning/runs/[id]': `/planning/runs/${ex.runId}`,
     '/planning/runs/[id]/sheet': `/planning/runs/${ex.runId}/sheet`,
     '/yard/runs/[id]': `/yard/runs/${ex.runId}`,

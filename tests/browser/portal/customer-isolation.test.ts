@@ -71,6 +71,7 @@ interface Other {
   countId: number;
   countLineId: number;
   repairId: number;
+  statementId: number;
 }
 
 let other: Other;
@@ -160,6 +161,7 @@ beforeAll(async () => {
     inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
     ...(await countOf(asB, sites[0]!.id)),
     repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
+    statementId: (await one<{ id: number }>(`SELECT id FROM statements WHERE customer_id = $1 ORDER BY id LIMIT 1`, [b.org_id])).id,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [
       b.org_name,
@@ -248,6 +250,10 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/repairs/[id]': `/api/repairs/${o.repairId}`,
     '/api/repairs/[id]/work': `/api/repairs/${o.repairId}/work`,
     '/api/repairs/[id]/retire': `/api/repairs/${o.repairId}/retire`,
+    '/portal/statements/[id]': `/portal/statements/${o.statementId}`,
+    '/api/portal/statements/[id].csv': `/api/portal/statements/${o.statementId}.csv`,
+    '/billing/statements/[id]': `/billing/statements/${o.statementId}`,
+    '/api/billing/statements/[id].csv': `/api/billing/statements/${o.statementId}.csv`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -356,6 +362,7 @@ const OPEN_TO_ALL: Record<string, string> = {
   '/portal/deliveries': "A's own deliveries; a load of B's: below",
   '/portal/people': "A's own people (for its portal admin); B's people and sites: below",
   '/portal/counts': "A's own sites' monthly counts; a site of B's: by its id",
+  '/portal/statements': "A's own statements (none for a user limited to some sites); B's statement: by its id",
   '/portal/fill': "A's own bins to fill and their fill planner (B's GRAI in the filters finds none); a fill in B's bin: below",
   '/': 'sends each role to its home',
   '/forbidden': 'the 403 page',
@@ -558,6 +565,8 @@ describe("a user of A limited to one site asks every route about A's other site"
       inspectionId: (await one<{ id: number } | undefined>(`SELECT id FROM inspections WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]))?.id ?? 1,
       ...(await countOf(asA, x.id)),
       repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
+      // A statement is the whole organisation's: a user limited to one site reads none, not even their own's.
+      statementId: (await one<{ id: number }>(`SELECT id FROM statements WHERE customer_id = $1 ORDER BY id LIMIT 1`, [a.org_id])).id,
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
       ownGrai: own?.grai ?? bin.grai,
