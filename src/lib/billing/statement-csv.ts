@@ -92,7 +92,8 @@ export const ACCOUNTING_FIELDS = [
   'issued_on',
 ] as const;
 
-export interface AccountingRow {
+/** What an issued statement is, in one line: the bookkeeping row and the head of every statement view. */
+export interface StatementSummary {
   id: number;
   customerId: number;
   customer: string;
@@ -103,6 +104,10 @@ export interface AccountingRow {
   grossMinor: number;
   taxNote: string;
   customerVatId: string | null;
+}
+
+export interface AccountingRow extends StatementSummary {
+  /** The local date the statement was issued on. */
   issuedOn: string;
 }
 

@@ -7,19 +7,10 @@ import { AppError } from '@/lib/api-errors';
 import type { LocalDate } from '@/lib/calendar';
 import type { BillingPeriod, LineKind, StatementLine } from './hire-billing';
 import { draftStatement } from './statements.server';
+import type { StatementSummary } from './statement-csv';
 
-export interface StatementHead {
-  id: number;
-  customerId: number;
-  customer: string;
-  period: BillingPeriod;
-  currency: string;
-  netMinor: number;
-  taxMinor: number;
-  grossMinor: number;
-  taxNote: string;
+export interface StatementHead extends StatementSummary {
   rounding: string;
-  customerVatId: string | null;
   issuedAt: Date;
   issuedBy: string | null;
   lineCount: number;
