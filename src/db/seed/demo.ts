@@ -1,8 +1,9 @@
 import bcrypt from 'bcryptjs';
 import { sequelize, Organisation, Site, User, Setting, BinType, Tariff, Trailer } from '@/models';
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { generateHistory } from './history';
 import { issueStatement } from '@/lib/billing/statements.server';
+import { issueInvoice, recordPayment } from '@/lib/billing/invoices.server';
 import { lastClosedMonth } from '@/lib/billing/statement-input';
 import { localDate, type LocalDate } from '@/lib/calendar';
 import { finishSeedRun, stallPoint, startSeedRun } from './seed-run';
@@ -30,13 +31,29 @@ export async function seedDemo(opts: { bins?: number; months?: number; now?: Dat
 }
 
 /**
- * The month before last, issued for every customer (so the portal has a statement to check and the next month's
- * corrections have something to correct); the last month is left as drafts for the admin to issue.
+ * The month before last, issued and invoiced for every customer (so the portal has a statement and an invoice to
+ * check, some paid, and the next month's corrections have something to correct); the last month is left as
+ * drafts for the admin to issue.
  */
 async function issueDemoStatements(now: Date, transaction: Transaction): Promise<number> {
   const month = lastClosedMonth(`${lastClosedMonth(localDate(now, OPERATOR.timeZone))}-01` as LocalDate);
   const customers = await Organisation.findAll({ where: { kind: 'customer' }, order: [['id', 'ASC']], transaction });
-  for (const c of customers) await issueStatement(c.id, month, { userId: null, ip: null }, { transaction, now });
+  const seed = { userId: null, ip: null };
+  for (const [i, c] of customers.entries()) {
+    const { id } = await issueStatement(c.id, month, seed, { transaction, now });
+    // Invoiced on issue (when it comes to something: a small demo pool may leave a customer nothing that month);
+    // the first two customers have paid by bank transfer, the third half of it.
+    const [row] = await sequelize.query<{ gross_minor: string }>(`SELECT gross_minor FROM statements WHERE id = $1`, { bind: [id], type: QueryTypes.SELECT, transaction });
+    const gross = Number(row!.gross_minor);
+    if (gross <= 0) continue;
+    const invoice = await issueInvoice(id, seed, { transaction, now, mail: false });
+    const paid = i < 2 ? gross : i === 2 ? Math.floor(gross / 2) : 0;
+    if (paid > 0)
+      await recordPayment(invoice.id, { amountMinor: paid, method: 'bank_transfer', paidOn: localDate(now, OPERATOR.timeZone), note: 'Demo transfer' }, seed, {
+        transaction,
+        mail: false,
+      });
+  }
   return customers.length;
 }
 

@@ -26,7 +26,10 @@ export type MailKind =
   | 'count_due'
   | 'liner_lot_notice'
   | 'liner_purchase_order'
-  | 'liner_reorder_alert';
+  | 'liner_reorder_alert'
+  | 'invoice_issued'
+  | 'payment_received'
+  | 'payment_reminder';
 
 function compose(subject: string, lines: string[]): MailContent {
   const text = `${lines
@@ -240,6 +243,9 @@ export const MAIL_KIND_LABELS: Record<MailKind, string> = {
   liner_lot_notice: 'Liner lot notice',
   liner_purchase_order: 'Liner purchase order',
   liner_reorder_alert: 'Liner reorder alert',
+  invoice_issued: 'Invoice issued',
+  payment_received: 'Payment received',
+  payment_reminder: 'Payment reminder',
 };
 
 const OPT_OUT_LINE = (accountLink: string) => `You get this reminder because reminders are on for your account; turn them off here: ${accountLink}`;
@@ -448,5 +454,68 @@ export function reorderAlertMail(a: ReorderAlertMailInput): MailContent {
     `Order from the stock page: ${a.link}`,
     'You will not be told again about these until their stock has recovered.',
     ...signature(a.operatorName),
+  ]);
+}
+
+export interface InvoiceMailInput {
+  customer: string;
+  operatorName: string;
+  number: string;
+  /** Formatted, e.g. "2,029.29 EUR". */
+  amount: string;
+  dueOn: string;
+  /** The invoice in the portal, where it can be paid online. */
+  link: string;
+}
+
+/** To the customer's contact address when a statement is invoiced. */
+export function invoiceIssuedMail(i: InvoiceMailInput): MailContent {
+  return compose(`Invoice ${i.number}: ${i.amount}, due ${i.dueOn}`, [
+    `Hello ${i.customer},`,
+    '',
+    `Invoice ${i.number} for ${i.amount} is ready, due on ${i.dueOn}. It carries your hire statement line by line.`,
+    `See it, download it and pay online: ${i.link}`,
+    ...signature(i.operatorName),
+  ]);
+}
+
+export interface PaymentReceivedInput {
+  customer: string;
+  operatorName: string;
+  number: string;
+  amount: string;
+  /** What is still open after this payment, formatted; null when settled. */
+  outstanding: string | null;
+  link: string;
+}
+
+export function paymentReceivedMail(i: PaymentReceivedInput): MailContent {
+  return compose(`Payment received for invoice ${i.number}: ${i.amount}`, [
+    `Hello ${i.customer},`,
+    '',
+    `Thank you: we received ${i.amount} for invoice ${i.number}.`,
+    i.outstanding ? `${i.outstanding} is still open on it.` : 'The invoice is now settled.',
+    i.link,
+    ...signature(i.operatorName),
+  ]);
+}
+
+export interface PaymentReminderInput {
+  customer: string;
+  operatorName: string;
+  invoices: Array<{ number: string; outstanding: string; dueOn: string; link: string }>;
+}
+
+/** Unpaid invoices past their due date by the operator's reminder days, in one mail per customer. */
+export function paymentReminderMail(i: PaymentReminderInput): MailContent {
+  return compose(`Payment reminder: ${i.invoices.length} invoice${i.invoices.length === 1 ? '' : 's'} past due`, [
+    `Hello ${i.customer},`,
+    '',
+    `Our records show ${i.invoices.length === 1 ? 'this invoice' : 'these invoices'} still open after the due date:`,
+    '',
+    ...i.invoices.map((v) => `• ${v.number}: ${v.outstanding} open, due ${v.dueOn} — ${v.link}`),
+    '',
+    'If you paid in the last few days, thank you and please ignore this reminder.',
+    ...signature(i.operatorName),
   ]);
 }

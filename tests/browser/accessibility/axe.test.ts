@@ -67,6 +67,7 @@ interface Examples {
   lotId: number;
   purchaseOrderId: number;
   statementId: number;
+  invoiceId: number;
 }
 async function examples(): Promise<Examples> {
   const customer = DEMO_LOGINS.find((l) => l.role === 'customer')!;
@@ -104,8 +105,11 @@ async function examples(): Promise<Examples> {
     customer.email,
   ]);
   expect(statement, 'the demo customer has an issued statement').toBeDefined();
+  const invoice = await one<{ id: number }>(`SELECT id FROM invoices WHERE statement_id = $1`, [statement.id]);
+  expect(invoice, 'the demo statement is invoiced').toBeDefined();
   return {
     statementId: statement.id,
+    invoiceId: invoice.id,
     anyGrai: bin.grai,
     customerGrai: mine.grai,
     tripId: trip.id,
@@ -147,6 +151,8 @@ function urlFor(route: string, viewer: Viewer, ex: Examples, confirmPath: string
     '/liners/purchase-orders/[id]': `/liners/purchase-orders/${ex.purchaseOrderId}`,
     '/billing/statements/[id]': `/billing/statements/${ex.statementId}`,
     '/portal/statements/[id]': `/portal/statements/${ex.statementId}`,
+    '/billing/invoices/[id]': `/billing/invoices/${ex.invoiceId}`,
+    '/portal/invoices/[id]': `/portal/invoices/${ex.invoiceId}`,
     '/planning/runs/[id]': `/planning/runs/${ex.runId}`,
     '/planning/runs/[id]/sheet': `/planning/runs/${ex.runId}/sheet`,
     '/yard/runs/[id]': `/yard/runs/${ex.runId}`,

@@ -1,11 +1,13 @@
 // Billing a month end to end: the admin sees every customer's draft for the last month that has ended, issues
-// one, and the statement shows the same total as the row it came from; the customer finds it in the portal (phone
-// and desktop), with the same lines, and downloads them as CSV whose amounts add up to the net. Bad input and the
-// wrong role change nothing.
+// one, and the statement shows the same total as the row it came from; it becomes an invoice and a bank transfer
+// pays part of it; the customer finds both in the portal (phone and desktop), with the same lines and the same
+// outstanding amount, and downloads the lines as CSV whose amounts add up to the net. Bad input and the wrong role
+// change nothing.
 import { describe, test, expect, afterAll } from 'vitest';
 import Papa from 'papaparse';
 import { useApp, newContext, signIn, expectNoPageOverflow, screenshot } from '../support/app';
 import { one, closeDb } from '../support/db';
+import { hydrated } from '../support/yard';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 import { formatMoney } from '@/lib/billing/money';
 
@@ -15,20 +17,21 @@ afterAll(closeDb);
 const CUSTOMER = 'buyer@haldenoils.example';
 
 describe('issuing a month and checking it as the customer', () => {
-  test('draft → issued statement → the portal, by the same figures', async () => {
+  test('draft → issued statement → invoice → the portal, by the same figures', { timeout: 120_000 }, async () => {
     const cust = await one<{ id: number; name: string }>(`SELECT o.id, o.name FROM organisations o JOIN users u ON u.organisation_id = o.id WHERE u.email = $1`, [CUSTOMER]);
     const ctx = await newContext(t.browser, t.app);
     const page = await ctx.newPage();
     await signIn(page, 'admin@northmere.example', DEMO_PASSWORD);
     await page.waitForURL((u) => !u.pathname.startsWith('/login'));
     await page.goto('/billing');
+    await hydrated(page);
     const row = page.locator(`tr[data-customer="${cust.id}"]`);
     const draftGross = (await row.locator('[data-gross]').textContent())!.trim();
     const draftLines = Number((await row.locator('td').nth(1).textContent())!.trim());
     expect(draftLines).toBeGreaterThan(0);
     await screenshot(page, 'billing-month-1280');
     page.once('dialog', (d) => void d.accept());
-    await Promise.all([page.waitForURL(/\/billing\/statements\/\d+$/), row.locator('button[data-issue]').click()]);
+    await Promise.all([page.waitForURL(/\/billing\/statements\/\d+$/), row.locator('button[data-action-button^="issue-"]').click()]);
     const id = Number(new URL(page.url()).pathname.split('/').pop());
     await expect(page.locator('[data-testid="statement-gross"]').textContent()).resolves.toBe(draftGross);
     await expect(page.locator('[data-testid="statement-lines"] tbody tr[data-line]').count()).resolves.toBe(draftLines);
@@ -40,6 +43,28 @@ describe('issuing a month and checking it as the customer', () => {
     expect(formatMoney(Number(stored.gross), 'EUR')).toBe(draftGross);
     expect([stored.lines, stored.sum]).toEqual([draftLines, stored.net]);
     await screenshot(page, 'billing-statement-1280');
+
+    // The statement becomes an invoice (the next number), for the same total; a bank transfer pays part of it.
+    await hydrated(page);
+    page.once('dialog', (d) => void d.accept());
+    await Promise.all([page.waitForURL(/\/billing\/invoices\/\d+$/), page.click('button[data-action-button="invoice"]')]);
+    const invoiceId = Number(new URL(page.url()).pathname.split('/').pop());
+    const inv = await one<{ number: string; gross: string }>(`SELECT number, gross_minor AS gross FROM invoices WHERE id = $1 AND statement_id = $2`, [invoiceId, id]);
+    await expect(page.locator('[data-testid="invoice-number"]').textContent()).resolves.toBe(inv.number);
+    await expect(page.locator('[data-testid="invoice-gross"]').textContent()).resolves.toBe(draftGross);
+    await hydrated(page);
+    await page.fill('#inv-payment-amount', '10.00');
+    await Promise.all([page.waitForEvent('load'), page.click('form[data-form="payment"] button[type="submit"]')]);
+    const outstanding = formatMoney(Number(inv.gross) - 1000, 'EUR');
+    await expect(page.locator('[data-testid="invoice-outstanding"]').textContent()).resolves.toBe(outstanding);
+    await expect(page.locator('[data-invoice-state]').getAttribute('data-invoice-state')).resolves.toBe('part_paid');
+    // More than is outstanding: refused on the form, nothing recorded.
+    await hydrated(page);
+    await page.fill('#inv-payment-amount', '999999.00');
+    await page.click('form[data-form="payment"] button[type="submit"]');
+    await expect(page.locator('form[data-form="payment"] [role="alert"]').textContent()).resolves.toMatch(/more than the .* outstanding/);
+    await expect(one<{ n: number }>(`SELECT count(*)::int AS n FROM invoice_payments WHERE invoice_id = $1`, [invoiceId])).resolves.toEqual({ n: 1 });
+    await screenshot(page, 'billing-invoice-1280');
 
     // Issued now: the row links the statement; a second issue is refused and stores nothing.
     await page.goto('/billing');
@@ -66,6 +91,11 @@ describe('issuing a month and checking it as the customer', () => {
       await expect(p.locator('[data-list="portal-statements"] li').count()).resolves.toBe(2);
       await expect(p.locator(`li[data-statement="${id}"] [data-gross]`).textContent()).resolves.toBe(draftGross);
       await expectNoPageOverflow(p, `statements list (${kind})`);
+      await p.goto('/portal/invoices');
+      await expect(p.locator(`tr[data-invoice="${invoiceId}"] [data-outstanding]`).textContent()).resolves.toBe(outstanding);
+      await expect(p.locator(`tr[data-invoice="${invoiceId}"] [data-invoice-state]`).getAttribute('data-invoice-state')).resolves.toBe('part_paid');
+      await expectNoPageOverflow(p, `invoices list (${kind})`);
+      await p.goto('/portal/statements');
       await p.click(`li[data-statement="${id}"] a[href="/portal/statements/${id}"]`);
       await p.waitForURL(`**/portal/statements/${id}`);
       await expect(p.locator('[data-testid="statement-gross"]').textContent()).resolves.toBe(draftGross);

@@ -72,6 +72,7 @@ interface Other {
   countLineId: number;
   repairId: number;
   statementId: number;
+  invoiceId: number;
 }
 
 let other: Other;
@@ -162,6 +163,7 @@ beforeAll(async () => {
     ...(await countOf(asB, sites[0]!.id)),
     repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
     statementId: (await one<{ id: number }>(`SELECT id FROM statements WHERE customer_id = $1 ORDER BY id LIMIT 1`, [b.org_id])).id,
+    invoiceId: (await one<{ id: number }>(`SELECT id FROM invoices WHERE customer_id = $1 ORDER BY id LIMIT 1`, [b.org_id])).id,
     // Words only B's data contains: if any answer to A shows one of them, something leaked.
     markers: [
       b.org_name,
@@ -254,6 +256,10 @@ function exampleUrl(pattern: string, o: Other): string {
     '/api/portal/statements/[id].csv': `/api/portal/statements/${o.statementId}.csv`,
     '/billing/statements/[id]': `/billing/statements/${o.statementId}`,
     '/api/billing/statements/[id].csv': `/api/billing/statements/${o.statementId}.csv`,
+    '/portal/invoices/[id]': `/portal/invoices/${o.invoiceId}`,
+    '/billing/invoices/[id]': `/billing/invoices/${o.invoiceId}`,
+    '/api/billing/invoices/[id]/payments': `/api/billing/invoices/${o.invoiceId}/payments`,
+    '/api/billing/invoices/[id]/credit-notes': `/api/billing/invoices/${o.invoiceId}/credit-notes`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -363,6 +369,7 @@ const OPEN_TO_ALL: Record<string, string> = {
   '/portal/people': "A's own people (for its portal admin); B's people and sites: below",
   '/portal/counts': "A's own sites' monthly counts; a site of B's: by its id",
   '/portal/statements': "A's own statements (none for a user limited to some sites); B's statement: by its id",
+  '/portal/invoices': "A's own invoices (none for a user limited to some sites); B's invoice: by its id",
   '/portal/fill': "A's own bins to fill and their fill planner (B's GRAI in the filters finds none); a fill in B's bin: below",
   '/': 'sends each role to its home',
   '/forbidden': 'the 403 page',
@@ -567,6 +574,7 @@ describe("a user of A limited to one site asks every route about A's other site"
       repairId: (await one<{ id: number } | undefined>(`SELECT id FROM repair_orders ORDER BY id LIMIT 1`))?.id ?? 1,
       // A statement is the whole organisation's: a user limited to one site reads none, not even their own's.
       statementId: (await one<{ id: number }>(`SELECT id FROM statements WHERE customer_id = $1 ORDER BY id LIMIT 1`, [a.org_id])).id,
+      invoiceId: (await one<{ id: number }>(`SELECT id FROM invoices WHERE customer_id = $1 ORDER BY id LIMIT 1`, [a.org_id])).id,
       // Words only the other site's things contain (the organisation's own name is the limited user's too).
       markers: [x.name, x.code, order.reference, 'Four behind the other gate'],
       ownGrai: own?.grai ?? bin.grai,
