@@ -6,6 +6,7 @@
 import { say, ensureDependencies, authSecret, migrate, seed, buildIfStale, startChild, waitForHttp, shutdown, timedPhase } from './setup.mjs';
 import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
 import { prepareHttps, waitForHttps } from './https.mjs';
+import { LOCAL_FAKE_KEYS } from './pay-fake-keys.mjs';
 
 const phases = [];
 const started = Date.now();
@@ -54,6 +55,22 @@ try {
   const scheme = tls ? 'https' : 'http';
   const appUrl = process.env.APP_URL ?? `${scheme}://${host === '0.0.0.0' ? 'localhost' : host}:${port}`;
   env.APP_URL = appUrl;
+  // Online payment: the provider's SDK pointed at the local fake, unless a provider key is configured.
+  if (!process.env.PAYMENTS_SECRET_KEY) {
+    const payPort = process.env.LOOPFOLD_PAY_FAKE_PORT ?? '4410';
+    Object.assign(env, {
+      PAYMENTS_SECRET_KEY: LOCAL_FAKE_KEYS.secretKey,
+      PAYMENTS_WEBHOOK_SECRET: LOCAL_FAKE_KEYS.webhookSecret,
+      PAYMENTS_API_HOST: '127.0.0.1',
+      PAYMENTS_API_PORT: payPort,
+      PAYMENTS_API_PROTOCOL: 'http',
+    });
+    startChild('payment provider (local fake)', process.execPath, ['src/cli/pay-fake.mjs'], {
+      ...env,
+      LOOPFOLD_PAY_FAKE_PORT: payPort,
+      PAY_FAKE_WEBHOOK_URL: `http://127.0.0.1:${port}/api/payments/webhook`,
+    });
+  }
   startChild('job worker', process.execPath, ['--import', 'tsx', 'src/cli/worker.ts'], env);
   startChild('app server', process.execPath, ['src/cli/serve.mjs'], { ...env, ...tls?.env, HOST: host, PORT: port });
   const waitUp = tls ? waitForHttps : waitForHttp;

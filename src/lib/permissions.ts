@@ -78,6 +78,7 @@ export const PATH_RULES: ReadonlyArray<readonly [prefix: string, access: Access,
   ['/api/account/mail', 'account.own'], // one's own choice about non-essential mail
   ['/api/account/', 'public'],
   ['/api/public/', 'public'],
+  ['/api/payments/webhook', 'public'], // the payment provider's signed events: the signature is the check
   ['/8003/', 'public'], // Digital Link resolver: the page itself decides what a visitor sees
   ['/_astro/', 'public'],
   ['/fonts/', 'public'],

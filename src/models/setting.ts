@@ -20,6 +20,8 @@ export class Setting extends Model<InferAttributes<Setting>, InferCreationAttrib
   declare undoSeconds: CreationOptional<number>;
   /** Days over the free days before a bin is listed in the customer's overdue-return reminder. */
   declare reminderDaysOver: CreationOptional<number>;
+  /** Days past an invoice's due date before the first payment reminder (then weekly). */
+  declare paymentReminderDays: CreationOptional<number>;
   /** A repair that would cost more than this (operator currency) proposes the bin for retirement; null: never. */
   declare repairRetireThreshold: CreationOptional<string | null>;
   declare version: CreationOptional<number>;
@@ -41,6 +43,7 @@ Setting.init(
     returnInstructionsByLanguage: { type: DataTypes.JSONB, allowNull: false, defaultValue: {}, field: 'return_instructions_by_language' },
     undoSeconds: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 30 },
     reminderDaysOver: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 3 },
+    paymentReminderDays: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 7 },
     repairRetireThreshold: { type: DataTypes.DECIMAL(12, 2), allowNull: true },
     version: versionColumn,
     updatedAt: DataTypes.DATE,

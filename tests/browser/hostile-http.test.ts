@@ -17,8 +17,8 @@ beforeAll(async () => {
   trusting = await startApp({ TRUST_PROXY: '1' });
 });
 afterAll(async () => {
-  await plain?.stop();
-  await trusting?.stop();
+  await plain?.dispose();
+  await trusting?.dispose();
   await closeDb();
 });
 

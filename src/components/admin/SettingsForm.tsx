@@ -37,7 +37,10 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
   const set =
     <K extends keyof typeof form>(key: K) =>
     (e: { target: { value: string } }) =>
-      setForm((f) => ({ ...f, [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' || key === 'reminderDaysOver' ? Number(e.target.value) : e.target.value }));
+      setForm((f) => ({
+        ...f,
+        [key]: key === 'gs1PrefixLength' || key === 'undoSeconds' || key === 'reminderDaysOver' || key === 'paymentReminderDays' ? Number(e.target.value) : e.target.value,
+      }));
   const setWording = (language: PublicLanguage) => (e: { target: { value: string } }) =>
     setForm((f) => ({ ...f, returnInstructionsByLanguage: { ...f.returnInstructionsByLanguage, [language]: e.target.value } }));
   const aria = (name: string) => ({ 'aria-invalid': Boolean(problems[name]), 'aria-describedby': `s-${name}-hint s-${name}-problem` });
@@ -231,6 +234,23 @@ export default function SettingsForm({ initial }: { initial: SettingsView }) {
             value={form.reminderDaysOver}
             onChange={set('reminderDaysOver')}
             {...aria('reminderDaysOver')}
+          />
+        </Field>
+        <Field
+          id="s-paymentReminderDays"
+          label="Payment reminder after (days past the due date)"
+          hint="An invoice still open this many days after its due date goes in a reminder to the customer's contact address, then once a week while it stays open."
+          problem={problems.paymentReminderDays}
+        >
+          <input
+            id="s-paymentReminderDays"
+            className="field num max-w-[10rem]"
+            type="number"
+            min={1}
+            max={90}
+            value={form.paymentReminderDays}
+            onChange={set('paymentReminderDays')}
+            {...aria('paymentReminderDays')}
           />
         </Field>
       </fieldset>

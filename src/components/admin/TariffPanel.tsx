@@ -3,15 +3,29 @@ import useSWR from 'swr';
 import { FieldProblem } from '@/components/ui/Dialog';
 import { api, ApiError, fetcher, withQuery } from '@/lib/api.client';
 import { formatLongDate } from '@/lib/calendar';
-import { inForce, type Tariff } from '@/lib/planning/tariffs';
+import { DEFAULT_TARIFF_TERMS, HIRE_START_LABELS, HIRE_STOP_LABELS, dayCountWords, inForce, type Tariff } from '@/lib/planning/tariffs';
 
 interface Customer {
   id: number;
   name: string;
 }
 
-const EMPTY = { validFrom: '', freeDays: '', dailyRate: '', perTripFee: '0.00', lostBinFee: '', currency: 'EUR' };
+const EMPTY = {
+  validFrom: '',
+  freeDays: '',
+  dailyRate: '',
+  perTripFee: '0.00',
+  lostBinFee: '',
+  currency: 'EUR',
+  linerFee: DEFAULT_TARIFF_TERMS.linerFee as string,
+  stopFee: DEFAULT_TARIFF_TERMS.stopFee as string,
+  hireStartsAt: DEFAULT_TARIFF_TERMS.hireStartsAt as Tariff['hireStartsAt'],
+  hireStopsAt: DEFAULT_TARIFF_TERMS.hireStopsAt as Tariff['hireStopsAt'],
+  firstDayCounts: DEFAULT_TARIFF_TERMS.firstDayCounts as boolean,
+  lastDayCounts: DEFAULT_TARIFF_TERMS.lastDayCounts as boolean,
+};
 type Form = typeof EMPTY;
+type TextKey = 'validFrom' | 'freeDays' | 'dailyRate' | 'perTripFee' | 'lostBinFee' | 'currency' | 'linerFee' | 'stopFee';
 
 /**
  * A customer's hire terms by period: the periods on record (newest first, the one in force marked) and new terms
@@ -38,12 +52,19 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
             perTripFee: current.perTripFee,
             lostBinFee: current.lostBinFee,
             currency: current.currency,
+            linerFee: current.linerFee,
+            stopFee: current.stopFee,
+            hireStartsAt: current.hireStartsAt,
+            hireStopsAt: current.hireStopsAt,
+            firstDayCounts: current.firstDayCounts,
+            lastDayCounts: current.lastDayCounts,
           }
         : EMPTY,
     );
   }, [periods, today]);
 
   const set = (key: keyof Form) => (e: { target: { value: string } }) => setForm((f) => ({ ...f, [key]: e.target.value }));
+  const tick = (key: 'firstDayCounts' | 'lastDayCounts') => (e: { target: { checked: boolean } }) => setForm((f) => ({ ...f, [key]: e.target.checked }));
   const aria = (name: string) => ({ 'aria-invalid': Boolean(problems[name]), 'aria-describedby': `tariff-${name}-problem` });
 
   async function submit(e: FormEvent) {
@@ -62,6 +83,12 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
         perTripFee: form.perTripFee.trim().replace(',', '.'),
         lostBinFee: form.lostBinFee.trim().replace(',', '.'),
         currency: form.currency.trim().toUpperCase(),
+        linerFee: form.linerFee.trim().replace(',', '.'),
+        stopFee: form.stopFee.trim().replace(',', '.'),
+        hireStartsAt: form.hireStartsAt,
+        hireStopsAt: form.hireStopsAt,
+        firstDayCounts: form.firstDayCounts,
+        lastDayCounts: form.lastDayCounts,
       });
       const ended = made.endedPrevious ? ` The terms before end on ${formatLongDate(made.endedPrevious.validTo)}.` : '';
       setNotice({ tone: 'good', text: `New terms from ${formatLongDate(form.validFrom)} saved.${ended}` });
@@ -101,8 +128,8 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
         <table className="w-full text-left text-sm" data-tariff-periods>
           <thead className="border-b border-paper-line bg-paper text-ink-soft">
             <tr>
-              {['From', 'To', 'Free days', 'Daily rate', 'Trip fee', 'Lost-bin fee'].map((label, i) => (
-                <th key={label} scope="col" className={`px-3 py-2 font-medium ${i >= 2 ? 'text-right' : ''} ${i === 0 ? 'sticky left-0 bg-paper' : ''}`}>
+              {['From', 'To', 'Free days', 'Daily rate', 'Trip fee', 'Lost-bin fee', 'Liner', 'Collection stop', 'Days counted'].map((label, i) => (
+                <th key={label} scope="col" className={`px-3 py-2 font-medium ${i >= 2 && i <= 7 ? 'text-right' : ''} ${i === 0 ? 'sticky left-0 bg-paper' : ''}`}>
                   {label}
                 </th>
               ))}
@@ -117,16 +144,17 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
                 </td>
                 <td className="whitespace-nowrap px-3 py-2.5">{p.validTo ? formatLongDate(p.validTo) : 'until further notice'}</td>
                 <td className="num whitespace-nowrap px-3 py-2.5 text-right">{p.freeDays}</td>
-                {[p.dailyRate, p.perTripFee, p.lostBinFee].map((amount, i) => (
+                {[p.dailyRate, p.perTripFee, p.lostBinFee, p.linerFee, p.stopFee].map((amount, i) => (
                   <td key={i} className="num whitespace-nowrap px-3 py-2.5 text-right">
                     {p.currency} {amount}
                   </td>
                 ))}
+                <td className="min-w-[16rem] px-3 py-2.5">{dayCountWords(p)}</td>
               </tr>
             ))}
             {periods && periods.length === 0 && (
               <tr>
-                <td colSpan={6} className="px-3 py-2.5 text-ink-soft">
+                <td colSpan={9} className="px-3 py-2.5 text-ink-soft">
                   No terms on record yet.
                 </td>
               </tr>
@@ -142,7 +170,7 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
             {notice.text}
           </p>
         )}
-        <div className="grid gap-3 sm:grid-cols-3 xl:grid-cols-6">
+        <div className="grid gap-3 sm:grid-cols-3 xl:grid-cols-4">
           {(
             [
               ['validFrom', 'From', 'date'],
@@ -151,6 +179,8 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
               ['perTripFee', 'Trip fee', 'text'],
               ['lostBinFee', 'Lost-bin fee', 'text'],
               ['currency', 'Currency', 'text'],
+              ['linerFee', 'Liner, per trip', 'text'],
+              ['stopFee', 'Collection stop', 'text'],
             ] as const
           ).map(([name, label, type]) => (
             <div key={name}>
@@ -162,7 +192,7 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
                 type={type}
                 inputMode={name === 'freeDays' ? 'numeric' : name === 'validFrom' || name === 'currency' ? undefined : 'decimal'}
                 className="field num"
-                value={form[name]}
+                value={form[name as TextKey]}
                 onChange={set(name)}
                 maxLength={name === 'currency' ? 3 : 12}
                 {...aria(name)}
@@ -171,6 +201,39 @@ export default function TariffPanel({ customers, today }: { customers: Customer[
             </div>
           ))}
         </div>
+        <fieldset className="grid gap-3 sm:grid-cols-2 xl:grid-cols-4">
+          <legend className="mb-1 text-sm font-medium text-ink-soft">Which days are charged (the overdue rule counts the same days)</legend>
+          <div>
+            <label className="label" htmlFor="tariff-hireStartsAt">
+              Hire starts
+            </label>
+            <select id="tariff-hireStartsAt" className="field" value={form.hireStartsAt} onChange={set('hireStartsAt')} {...aria('hireStartsAt')}>
+              {Object.entries(HIRE_START_LABELS).map(([k, label]) => (
+                <option key={k} value={k}>
+                  {label}
+                </option>
+              ))}
+            </select>
+          </div>
+          <div>
+            <label className="label" htmlFor="tariff-hireStopsAt">
+              Hire stops
+            </label>
+            <select id="tariff-hireStopsAt" className="field" value={form.hireStopsAt} onChange={set('hireStopsAt')} {...aria('hireStopsAt')}>
+              {Object.entries(HIRE_STOP_LABELS).map(([k, label]) => (
+                <option key={k} value={k}>
+                  {label}
+                </option>
+              ))}
+            </select>
+          </div>
+          <label className="flex min-h-touch items-center gap-2 self-end">
+            <input type="checkbox" checked={form.firstDayCounts} onChange={tick('firstDayCounts')} id="tariff-firstDayCounts" /> The first day counts
+          </label>
+          <label className="flex min-h-touch items-center gap-2 self-end">
+            <input type="checkbox" checked={form.lastDayCounts} onChange={tick('lastDayCounts')} id="tariff-lastDayCounts" /> The last day counts
+          </label>
+        </fieldset>
         <button type="submit" className="btn-primary" disabled={busy || !form.validFrom}>
           Save new terms
         </button>

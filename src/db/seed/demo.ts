@@ -42,12 +42,13 @@ async function issueDemoStatements(now: Date, transaction: Transaction): Promise
   for (const [i, c] of customers.entries()) {
     const { id } = await issueStatement(c.id, month, seed, { transaction, now });
     // Invoiced on issue (when it comes to something: a small demo pool may leave a customer nothing that month);
-    // the first two customers have paid by bank transfer, the third half of it.
+    // the second and third customers have paid by bank transfer, the fourth half of it; the first (the demo
+    // customer login's) has its invoice to pay online.
     const [row] = await sequelize.query<{ gross_minor: string }>(`SELECT gross_minor FROM statements WHERE id = $1`, { bind: [id], type: QueryTypes.SELECT, transaction });
     const gross = Number(row!.gross_minor);
     if (gross <= 0) continue;
     const invoice = await issueInvoice(id, seed, { transaction, now, mail: false });
-    const paid = i < 2 ? gross : i === 2 ? Math.floor(gross / 2) : 0;
+    const paid = i === 1 || i === 2 ? gross : i === 3 ? Math.floor(gross / 2) : 0;
     if (paid > 0)
       await recordPayment(invoice.id, { amountMinor: paid, method: 'bank_transfer', paidOn: localDate(now, OPERATOR.timeZone), note: 'Demo transfer' }, seed, {
         transaction,

@@ -25,3 +25,6 @@ export type PaymentBody = z.infer<typeof paymentBody>;
 
 export const creditNoteBody = z.object({ amount, reason: z.string().trim().min(3, 'Say why the invoice is corrected.').max(500) }).strict();
 export type CreditNoteBody = z.infer<typeof creditNoteBody>;
+
+/** A customer's online payment: the amount to pay now (all that is outstanding, or part of it). */
+export const checkoutBody = z.object({ amount }).strict();

@@ -76,3 +76,29 @@ export function creditProblem(netMinor: number, reason: string, b: Balance, tax:
   if (grossMinor > b.grossMinor - b.creditedMinor) return 'A credit note cannot exceed what the invoice still carries after earlier credit notes.';
   return null;
 }
+
+/** Days between two payment reminders of the same invoice. */
+export const PAYMENT_REMINDER_INTERVAL_DAYS = 7;
+
+export interface ReminderCandidate {
+  invoiceId: number;
+  customerId: number;
+  dueOn: LocalDate;
+  outstandingMinor: number;
+  /** The day the last reminder about this invoice went out, or null. */
+  lastRemindedOn: LocalDate | null;
+}
+
+/**
+ * The invoices to remind about today, per customer: still open at least `days` after their due date, and not
+ * reminded in the last week. One mail per customer lists them all.
+ */
+export function paymentRemindersDue(invoices: readonly ReminderCandidate[], today: LocalDate, days: number): Map<number, ReminderCandidate[]> {
+  const out = new Map<number, ReminderCandidate[]>();
+  for (const i of invoices) {
+    if (i.outstandingMinor <= 0 || today < addDays(i.dueOn, days)) continue;
+    if (i.lastRemindedOn !== null && today < addDays(i.lastRemindedOn, PAYMENT_REMINDER_INTERVAL_DAYS)) continue;
+    out.set(i.customerId, [...(out.get(i.customerId) ?? []), i]);
+  }
+  return out;
+}

@@ -321,7 +321,8 @@ export async function recordPayment(
   return { id: out.id, replay: out.replay };
 }
 
-async function mailPaymentReceived(invoiceId: number, amountMinor: number): Promise<void> {
+/** The customer's receipt for a payment (bank transfer or online), with what is still open. */
+export async function mailPaymentReceived(invoiceId: number, amountMinor: number): Promise<void> {
   const settings = await getSettings();
   const inv = await invoiceView(invoiceId, { kind: 'operator' });
   const to = await customerContact(inv.customerId);

@@ -6,6 +6,7 @@ import { runPlannerDigest } from './planner-digest.server';
 import { deleteExpiredSessionEnds } from '@/lib/session/session-ends.server';
 import { runCountDueReminders, runOverdueReminders } from '@/lib/portal/customer-reminders.server';
 import { runReorderAlerts } from '@/lib/liners/reorder-alerts.server';
+import { runPaymentReminders } from '@/lib/billing/payment-reminders.server';
 
 export interface JobContext {
   now: Date;
@@ -39,6 +40,12 @@ export const JOBS: readonly JobDefinition[] = [
     cron: '20 6-18 * * 1-6',
     description: 'Mails planners once when a depot’s liner stock of a spec falls below its reorder point (again only after it recovered).',
     run: runReorderAlerts,
+  },
+  {
+    name: 'payment-reminders',
+    cron: '45 8 * * 1-5',
+    description: 'Mails each customer, then weekly, its invoices still open the set number of days after their due date.',
+    run: runPaymentReminders,
   },
   { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];

@@ -50,7 +50,9 @@ export async function syncOrderStatus(orderId: number, t: Transaction): Promise<
 // ---------------------------------------------------------------------------
 
 const TARIFF_COLUMNS = `id, customer_id AS "customerId", free_days AS "freeDays", daily_rate AS "dailyRate",
-  per_trip_fee AS "perTripFee", lost_bin_fee AS "lostBinFee", currency, valid_from AS "validFrom", valid_to AS "validTo"`;
+  per_trip_fee AS "perTripFee", lost_bin_fee AS "lostBinFee", currency, valid_from AS "validFrom", valid_to AS "validTo",
+  liner_fee AS "linerFee", stop_fee AS "stopFee", first_day_counts AS "firstDayCounts", last_day_counts AS "lastDayCounts",
+  hire_starts_at AS "hireStartsAt", hire_stops_at AS "hireStopsAt"`;
 
 export async function tariffsOf(customerId: number): Promise<Tariff[]> {
   return q<Tariff>(`SELECT ${TARIFF_COLUMNS} FROM tariffs WHERE customer_id = $1 ORDER BY valid_from DESC`, [customerId]);

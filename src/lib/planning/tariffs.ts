@@ -9,6 +9,7 @@
  */
 import { z } from 'zod';
 import { formatLongDate, isLocalDate, type LocalDate } from '@/lib/calendar';
+import type { HireStartEvent, HireStopEvent } from '@/lib/billing/hire-billing';
 
 export interface TariffTerms {
   freeDays: number;
@@ -17,6 +18,38 @@ export interface TariffTerms {
   perTripFee: string;
   lostBinFee: string;
   currency: string;
+  /** Per liner fitted on a trip, and per stop of a finished collection run at one of the customer's sites. */
+  linerFee: string;
+  stopFee: string;
+  /** The billing day count (src/lib/billing/hire-days.ts): which ends of a hire count, what starts and stops it. */
+  firstDayCounts: boolean;
+  lastDayCounts: boolean;
+  hireStartsAt: HireStartEvent;
+  hireStopsAt: HireStopEvent;
+}
+
+/** The terms a tariff gets when they are not given: no liner or stop charges, the overdue rule's day count. */
+export const DEFAULT_TARIFF_TERMS = Object.freeze({
+  linerFee: '0.00',
+  stopFee: '0.00',
+  firstDayCounts: false,
+  lastDayCounts: true,
+  hireStartsAt: 'delivery',
+  hireStopsAt: 'collection',
+} as const satisfies Partial<TariffTerms>);
+
+export const HIRE_START_LABELS: Readonly<Record<HireStartEvent, string>> = Object.freeze({ delivery: 'at delivery', dispatch: 'at dispatch' });
+export const HIRE_STOP_LABELS: Readonly<Record<HireStopEvent, string>> = Object.freeze({
+  ready_notice: 'at the ready-for-collection notice',
+  collection: 'at collection',
+  depot_receipt: 'at depot receipt',
+});
+
+/** The day-count terms in words: "from delivery to collection; the last day counts". */
+export function dayCountWords(t: Pick<TariffTerms, 'firstDayCounts' | 'lastDayCounts' | 'hireStartsAt' | 'hireStopsAt'>): string {
+  const ends =
+    t.firstDayCounts && t.lastDayCounts ? 'both end days count' : t.firstDayCounts ? 'the first day counts' : t.lastDayCounts ? 'the last day counts' : 'neither end day counts';
+  return `starts ${HIRE_START_LABELS[t.hireStartsAt]}, stops ${HIRE_STOP_LABELS[t.hireStopsAt]}; ${ends}`;
 }
 
 export interface Tariff extends TariffTerms {
@@ -90,6 +123,13 @@ export const tariffInputSchema = z
     perTripFee: money,
     lostBinFee: money,
     currency: z.string().regex(/^[A-Z]{3}$/, 'must be a three-letter ISO 4217 code such as EUR'),
+    // Left out (an older form): the defaults, which are the overdue rule's count.
+    linerFee: money.default(DEFAULT_TARIFF_TERMS.linerFee),
+    stopFee: money.default(DEFAULT_TARIFF_TERMS.stopFee),
+    firstDayCounts: z.boolean().default(DEFAULT_TARIFF_TERMS.firstDayCounts),
+    lastDayCounts: z.boolean().default(DEFAULT_TARIFF_TERMS.lastDayCounts),
+    hireStartsAt: z.enum(['delivery', 'dispatch']).default(DEFAULT_TARIFF_TERMS.hireStartsAt),
+    hireStopsAt: z.enum(['ready_notice', 'collection', 'depot_receipt']).default(DEFAULT_TARIFF_TERMS.hireStopsAt),
     validFrom: day,
     validTo: day.nullish().transform((v) => v ?? null),
   })

@@ -12,11 +12,14 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { addTariff } from '@/lib/planning/tariffs.server';
 import type { CustomerCreate, CustomerPatch } from './setup-schemas';
 import { createAudited, editVersioned } from './versioned-edit.server';
+import { DEFAULT_TARIFF_TERMS } from '@/lib/planning/tariffs';
 
 export interface CustomerRow {
   id: number;
   name: string;
   contactEmail: string | null;
+  country: string | null;
+  vatId: string | null;
   active: boolean;
   version: number;
   sites: number;
@@ -26,7 +29,7 @@ export interface CustomerRow {
 }
 
 const CUSTOMER_SQL = `
-  SELECT o.id, o.name, o.contact_email AS "contactEmail", o.active, o.version,
+  SELECT o.id, o.name, o.contact_email AS "contactEmail", o.country, o.vat_id AS "vatId", o.active, o.version,
          (SELECT count(*)::int FROM sites s WHERE s.organisation_id = o.id) AS sites,
          (SELECT count(*)::int FROM assets a WHERE a.customer_id = o.id AND a.status IN ('on_hire', 'awaiting_collection')) AS "binsOnHire",
          (SELECT json_build_object('freeDays', t.free_days, 'dailyRate', t.daily_rate::text, 'perTripFee', t.per_trip_fee::text,
@@ -52,7 +55,7 @@ export async function customerById(id: number): Promise<CustomerRow> {
 }
 
 function snapshot(o: Organisation) {
-  return { name: o.name, contactEmail: o.contactEmail, active: o.active };
+  return { name: o.name, contactEmail: o.contactEmail, country: o.country ?? null, vatId: o.vatId ?? null, active: o.active };
 }
 
 /** A new customer and its first tariff, valid from today in the operator's zone. */
@@ -66,6 +69,8 @@ export async function createCustomer(input: CustomerCreate, actor: AuditActor): 
         name: input.name,
         kind: 'customer',
         contactEmail: input.contactEmail,
+        country: input.country ?? null,
+        vatId: input.vatId ?? null,
         freeDays: t.freeDays,
         dailyRate: t.dailyRate,
         tripFee: t.perTripFee,
@@ -74,7 +79,7 @@ export async function createCustomer(input: CustomerCreate, actor: AuditActor): 
       },
       { transaction },
     );
-    await addTariff({ customerId: org.id, ...t, validFrom, validTo: null }, actor, transaction);
+    await addTariff({ customerId: org.id, ...DEFAULT_TARIFF_TERMS, ...t, validFrom, validTo: null }, actor, transaction);
     return { id: org.id, snapshot: snapshot(org), result: org.id };
   });
   return customerById(id);
@@ -94,6 +99,8 @@ export async function updateCustomer(id: number, patch: CustomerPatch, actor: Au
       if (o.kind !== 'customer') throw new AppError('not_found', 'There is no such customer.');
       if (patch.name !== undefined) o.name = patch.name;
       if (patch.contactEmail !== undefined) o.contactEmail = patch.contactEmail;
+      if (patch.country !== undefined) o.country = patch.country;
+      if (patch.vatId !== undefined) o.vatId = patch.vatId;
       if (patch.active !== undefined) o.active = patch.active;
     },
   });

@@ -74,6 +74,7 @@ export const CUSTOMERS: SetupSpec<CustomerRow> = {
   columns: [
     { label: 'Customer', value: (r) => r.name },
     { label: 'Contact', value: (r) => r.contactEmail ?? '—', from: 'xl' },
+    { label: 'VAT number', value: (r) => r.vatId ?? '—', from: '2xl' },
     { label: 'Free days', value: (r) => (r.terms ? String(r.terms.freeDays) : '—'), num: true },
     { label: 'Daily rate', value: (r) => (r.terms ? `${r.terms.currency} ${r.terms.dailyRate}` : 'no tariff today'), num: true },
     { label: 'Trip fee', value: (r) => (r.terms ? `${r.terms.currency} ${r.terms.perTripFee}` : '—'), num: true, from: '2xl' },
@@ -84,7 +85,9 @@ export const CUSTOMERS: SetupSpec<CustomerRow> = {
   ],
   fields: [
     { name: 'name', label: 'Name', type: 'text' },
-    { name: 'contactEmail', label: 'Contact e-mail', type: 'email', nullable: true, hint: 'Where collection reminders and statements go. Optional.' },
+    { name: 'contactEmail', label: 'Contact e-mail', type: 'email', nullable: true, hint: 'Where collection reminders, invoices and payment reminders go. Optional.' },
+    { name: 'country', label: 'Country', type: 'text', nullable: true, hint: 'Two letters, e.g. NL. With a VAT number from another EU country, statements use reverse charge.' },
+    { name: 'vatId', label: 'VAT number', type: 'text', nullable: true, pair: true, hint: 'As on the customer’s invoices, e.g. DE287654310. Optional.' },
     { name: 'terms.freeDays', label: 'Free days', type: 'int', only: 'create', group: 'Hire terms', hint: 'Days on hire before the daily rate starts.' },
     { name: 'terms.currency', label: 'Currency', type: 'currency', only: 'create', pair: true, hint: 'ISO 4217, e.g. EUR.' },
     { name: 'terms.dailyRate', label: 'Daily rate per bin', type: 'money', only: 'create' },

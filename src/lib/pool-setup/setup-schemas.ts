@@ -39,6 +39,20 @@ const customerFields = {
     .refine((v) => v === '' || z.string().email().safeParse(v).success, 'Enter an e-mail address, like desk@customer.example, or leave it empty.')
     .nullish()
     .transform((v) => (v ? v : null)),
+  /** With the VAT number, decides reverse charge on statements (a business in another EU country than the operator's). */
+  country: text()
+    .trim()
+    .toUpperCase()
+    .refine((v) => v === '' || /^[A-Z]{2}$/.test(v), 'Two letters (ISO 3166), like NL or DE, or leave it empty.')
+    .nullish()
+    .transform((v) => (v ? v : null)),
+  vatId: text()
+    .trim()
+    .toUpperCase()
+    .transform((v) => v.replace(/[\s.-]/g, ''))
+    .refine((v) => v === '' || /^[A-Z]{2}[0-9A-Z+*]{2,18}$/.test(v), 'A VAT number starts with its country code, like DE287654310, or leave it empty.')
+    .nullish()
+    .transform((v) => (v ? v : null)),
 };
 
 export const customerCreateSchema = z.object({ ...customerFields, terms: hireTermsSchema }).strict();
@@ -46,7 +60,7 @@ export type CustomerCreate = z.infer<typeof customerCreateSchema>;
 
 export const customerPatchSchema = z
   .object({ version, ...customerFields, active: z.boolean() })
-  .partial({ name: true, contactEmail: true, active: true })
+  .partial({ name: true, contactEmail: true, country: true, vatId: true, active: true })
   .strict();
 export type CustomerPatch = z.infer<typeof customerPatchSchema>;
 

@@ -86,6 +86,8 @@ export const settingsSchema = z
       .max(600, 'From 0 (no undo) to 600 seconds.'),
     /** Left out: unchanged. */
     reminderDaysOver: z.number({ invalid_type_error: 'A number of days.' }).int('Whole days.').min(1, 'From 1 to 365 days.').max(365, 'From 1 to 365 days.').optional(),
+    /** Left out: unchanged. Days past an invoice's due date before the first payment reminder. */
+    paymentReminderDays: z.number({ invalid_type_error: 'A number of days.' }).int('Whole days.').min(1, 'From 1 to 90 days.').max(90, 'From 1 to 90 days.').optional(),
     /** Left out: unchanged. Empty or null: never propose retirement. */
     repairRetireThreshold: z
       .union([text().trim(), z.null()])

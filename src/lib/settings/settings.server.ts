@@ -18,6 +18,8 @@ export interface OperatorSettings {
   returnInstructionsByLanguage: Partial<Record<PublicLanguage, string>>;
   undoSeconds: number;
   reminderDaysOver: number;
+  /** Days past an invoice's due date before the first payment reminder (then weekly). */
+  paymentReminderDays: number;
   /** A repair that would cost more than this proposes the bin for retirement ("400.00"); null: never. */
   repairRetireThreshold: string | null;
   version: number;
@@ -55,6 +57,7 @@ async function loadSettings(): Promise<OperatorSettings> {
     returnInstructionsByLanguage: (row.returnInstructionsByLanguage ?? {}) as Partial<Record<PublicLanguage, string>>,
     undoSeconds: row.undoSeconds,
     reminderDaysOver: row.reminderDaysOver,
+    paymentReminderDays: row.paymentReminderDays,
     repairRetireThreshold: row.repairRetireThreshold ?? null,
     version: row.version,
   };
@@ -83,6 +86,7 @@ const FIELDS = [
   'returnInstructionsByLanguage',
   'undoSeconds',
   'reminderDaysOver',
+  'paymentReminderDays',
   'repairRetireThreshold',
 ] as const;
 
@@ -118,6 +122,7 @@ export async function updateSettings(input: SettingsInput, actor: AuditActor): P
     if (input.repairRetireThreshold === undefined || (input.repairRetireThreshold !== null && Number(input.repairRetireThreshold) === Number(before.repairRetireThreshold)))
       next.repairRetireThreshold = before.repairRetireThreshold;
     next.reminderDaysOver ??= before.reminderDaysOver;
+    next.paymentReminderDays ??= before.paymentReminderDays;
     for (const f of FIELDS) s.set(f, next[f] ?? null);
     await s.save({ transaction });
     await s.reload({ transaction });

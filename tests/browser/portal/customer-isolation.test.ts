@@ -260,6 +260,7 @@ function exampleUrl(pattern: string, o: Other): string {
     '/billing/invoices/[id]': `/billing/invoices/${o.invoiceId}`,
     '/api/billing/invoices/[id]/payments': `/api/billing/invoices/${o.invoiceId}/payments`,
     '/api/billing/invoices/[id]/credit-notes': `/api/billing/invoices/${o.invoiceId}/credit-notes`,
+    '/api/portal/invoices/[id]/checkout': `/api/portal/invoices/${o.invoiceId}/checkout`,
   };
   if (!pattern.includes('[')) return pattern;
   const url = known[pattern];
@@ -331,6 +332,13 @@ function targetedWrites(o: Other): Array<{ label: string; method: Method; path: 
       method: 'POST',
       path: `/portal/counts/${o.siteId}`,
       multipart: { method: 'scanned', counted: o.grai },
+      portal: true,
+    },
+    {
+      label: "pay B's invoice online",
+      method: 'POST',
+      path: `/api/portal/invoices/${o.invoiceId}/checkout`,
+      data: { amount: '1.00' },
       portal: true,
     },
     {

@@ -15,7 +15,7 @@ beforeAll(async () => {
 afterAll(async () => {
   await closeDb();
   await closeDb2();
-  await app?.stop();
+  await app?.dispose();
 });
 
 async function person(role: 'planner' | 'admin' = 'planner') {
@@ -136,10 +136,10 @@ describe('deny by default', () => {
     const page = await c.fetch('/purchasing');
     expect(page.status).toBe(403);
     expect(await page.text()).toContain('not open to your role');
-    const api = await c.fetch('/api/billing/invoices');
+    const api = await c.fetch('/api/invoicing/runs');
     expect(api.status).toBe(403);
     expect(((await api.json()) as { error: { code: string } }).error.code).toBe('forbidden');
-    expect((await fetch(`${app.url}/api/billing`)).status).toBe(403);
+    expect((await fetch(`${app.url}/api/invoicing`)).status).toBe(403);
     // the root and the account page have their rules
     expect((await c.fetch('/')).status).toBe(303);
     expect((await c.fetch('/account')).status).toBe(200);

@@ -3,6 +3,8 @@
 // Debian's chromium through playwright-core.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { freePort } from '@/cli/free-port.mjs';
+import { startPayFake, type PayFake } from '@/cli/pay-fake.mjs';
+import { LOCAL_FAKE_KEYS as LOCAL_PAY_KEYS } from '@/cli/pay-fake-keys.mjs';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, afterAll } from 'vitest';
@@ -24,10 +26,14 @@ export const ARTIFACTS = join(ROOT, '.loopfold', 'artifacts');
 export interface RunningApp {
   url: string;
   port: number;
+  /** This app's own local payment provider (the fake its SDK talks to): the events it sent. */
+  pay: { base: string; sent: PayFake['sent'] };
   /** The server process's id while it runs (to read its memory from /proc). */
   readonly pid: number | undefined;
   stop(): Promise<void>;
   start(): Promise<void>;
+  /** Stops the server and its payment provider fake for good. */
+  dispose(): Promise<void>;
 }
 
 async function waitHealthy(url: string, timeoutMs = 30_000) {
@@ -48,19 +54,33 @@ export async function startApp(extraEnv: Record<string, string> = {}): Promise<R
   const port = await freePort();
   const url = `http://localhost:${port}`;
   let child: ChildProcess | null = null;
+  // One payment provider fake per app, sending its signed events to this app.
+  const fake = await startPayFake({ ...LOCAL_PAY_KEYS, webhookUrl: () => `${url}/api/payments/webhook` });
+  const payEnv = {
+    PAYMENTS_SECRET_KEY: LOCAL_PAY_KEYS.secretKey,
+    PAYMENTS_WEBHOOK_SECRET: LOCAL_PAY_KEYS.webhookSecret,
+    PAYMENTS_API_HOST: '127.0.0.1',
+    PAYMENTS_API_PORT: String(fake.port),
+    PAYMENTS_API_PROTOCOL: 'http',
+  };
   const app: RunningApp = {
     url,
     port,
+    pay: { base: fake.base, sent: fake.sent },
     get pid() {
       return child?.pid;
     },
     async start() {
       child = spawn(process.execPath, ['src/cli/serve.mjs'], {
         cwd: ROOT,
-        env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), APP_URL: url, ...extraEnv },
+        env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), APP_URL: url, ...payEnv, ...extraEnv },
         stdio: ['ignore', 'ignore', 'inherit'],
       });
       await waitHealthy(url);
+    },
+    async dispose() {
+      await app.stop();
+      await fake.close();
     },
     async stop() {
       const c = child;
@@ -133,7 +153,7 @@ export function useApp(): { readonly app: RunningApp; readonly browser: Browser 
   });
   afterAll(async () => {
     await held.browser?.close();
-    await held.app?.stop();
+    await held.app?.dispose();
   });
   return {
     get app() {

@@ -46,4 +46,26 @@ describe('entering tariffs (admin)', () => {
     const audit = await Tariff.sequelize!.query(`SELECT action FROM audit_entries WHERE entity_type = 'tariff' ORDER BY id`, { type: 'SELECT' });
     expect(audit.map((a) => (a as { action: string }).action)).toEqual(['tariff.create', 'tariff.end', 'tariff.create']);
   });
+
+  test('the billing terms: liner and stop fees and the day count are kept; left out, the overdue rule’s defaults; bad ones refused', async () => {
+    const admin = sessionUser(await makeUser('admin', w.operator.id));
+    const terms = { linerFee: '6.50', stopFee: '45.00', firstDayCounts: true, lastDayCounts: false, hireStartsAt: 'dispatch', hireStopsAt: 'depot_receipt' };
+    const res = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ validFrom: '2028-01-01', ...terms }) });
+    expect(res.status).toBe(201);
+    const t = (await tariffOn(w.customer.id, '2028-01-01'))!;
+    expect([t.linerFee, t.stopFee, t.firstDayCounts, t.lastDayCounts, t.hireStartsAt, t.hireStopsAt]).toEqual(['6.50', '45.00', true, false, 'dispatch', 'depot_receipt']);
+    const before = (await tariffOn(w.customer.id, '2027-06-01'))!; // entered without them above
+    expect([before.linerFee, before.stopFee, before.firstDayCounts, before.lastDayCounts, before.hireStartsAt, before.hireStopsAt]).toEqual([
+      '0.00',
+      '0.00',
+      false,
+      true,
+      'delivery',
+      'collection',
+    ]);
+    for (const bad of [{ hireStopsAt: 'whenever' }, { linerFee: '-1' }, { firstDayCounts: 'yes' }]) {
+      const r = await callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ validFrom: '2029-01-01', ...bad }) });
+      expect(r.status, JSON.stringify(bad)).toBe(400);
+    }
+  });
 });

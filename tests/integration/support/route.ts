@@ -20,14 +20,25 @@ export function sessionUser(u: { id: number | null; role: Role; organisationId: 
 
 export async function callRoute(
   route: APIRoute,
-  opts: { user: SessionUser | null; path: string; query?: Record<string, string>; method?: string; body?: unknown; params?: Record<string, string> },
+  opts: {
+    user: SessionUser | null;
+    path: string;
+    query?: Record<string, string>;
+    method?: string;
+    body?: unknown;
+    /** Sent as it is (a signed webhook's exact bytes), instead of `body` as JSON. */
+    rawBody?: string;
+    headers?: Record<string, string>;
+    params?: Record<string, string>;
+  },
 ): Promise<Response> {
   const url = new URL(opts.path, 'http://loopfold.test');
   for (const [k, v] of Object.entries(opts.query ?? {})) url.searchParams.set(k, v);
+  const json = opts.body !== undefined || opts.rawBody !== undefined;
   const request = new Request(url, {
     method: opts.method ?? 'GET',
-    headers: opts.body === undefined ? {} : { 'Content-Type': 'application/json' },
-    body: opts.body === undefined ? undefined : JSON.stringify(opts.body),
+    headers: { ...(json ? { 'Content-Type': 'application/json' } : {}), ...opts.headers },
+    body: opts.rawBody ?? (opts.body === undefined ? undefined : JSON.stringify(opts.body)),
   });
   const ctx = { url, request, params: opts.params ?? {}, locals: { user: opts.user, clientAddress: '127.0.0.1' } } as unknown as APIContext;
   return route(ctx) as Promise<Response>;

@@ -4,7 +4,17 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import { addDays as fnsAddDays, format, parseISO } from 'date-fns';
-import { balanceOf, creditAmounts, creditProblem, dueOn, invoiceState, paymentProblem, PAYMENT_TERMS_DAYS, type InvoiceState } from '@/lib/billing/invoice-rules';
+import {
+  balanceOf,
+  creditAmounts,
+  creditProblem,
+  dueOn,
+  invoiceState,
+  paymentProblem,
+  paymentRemindersDue,
+  PAYMENT_TERMS_DAYS,
+  type InvoiceState,
+} from '@/lib/billing/invoice-rules';
 
 const DUE = '2026-12-31';
 const VAT21 = { kind: 'rate' as const, rateBasisPoints: 2100 };
@@ -58,5 +68,25 @@ describe('due dates', () => {
         expect(dueOn(day)).toBe(format(fnsAddDays(parseISO(day), PAYMENT_TERMS_DAYS), 'yyyy-MM-dd'));
       }),
     );
+  });
+});
+
+describe('payment reminders', () => {
+  const inv = (invoiceId: number, customerId: number, dueOn: string, outstandingMinor: number, lastRemindedOn: string | null = null) => ({
+    invoiceId,
+    customerId,
+    dueOn,
+    outstandingMinor,
+    lastRemindedOn,
+  });
+  test('7 days past due, then weekly, one list per customer (by hand)', () => {
+    const list = [inv(1, 10, '2026-11-04', 500), inv(2, 10, '2026-11-01', 100, '2026-11-08'), inv(3, 11, '2026-11-04', 0), inv(4, 11, '2026-11-05', 900)];
+    expect([...paymentRemindersDue(list, '2026-11-10', 7)]).toEqual([]); // 1: 6 days past due; 2: reminded 2 days ago; 3: paid; 4: 5 days
+    expect([...paymentRemindersDue(list, '2026-11-11', 7)].map(([c, v]) => [c, v.map((x) => x.invoiceId)])).toEqual([[10, [1]]]);
+    expect([...paymentRemindersDue(list, '2026-11-15', 7)].map(([c, v]) => [c, v.map((x) => x.invoiceId)])).toEqual([
+      [10, [1, 2]],
+      [11, [4]],
+    ]);
+    expect([...paymentRemindersDue(list, '2026-11-11', 30)]).toEqual([]);
   });
 });

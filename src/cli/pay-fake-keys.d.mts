@@ -1,0 +1,1 @@
+export const LOCAL_FAKE_KEYS: Readonly<{ secretKey: string; webhookSecret: string }>;
