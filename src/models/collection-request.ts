@@ -22,6 +22,9 @@ export class CollectionRequest extends Model<InferAttributes<CollectionRequest>,
   /** The truck run that collects it (planning/truck-runs.server.ts). */
   declare truckRunId: CreationOptional<number | null>;
   declare status: CreationOptional<'open' | 'scheduled' | 'done' | 'cancelled'>;
+  /** How many reports this request holds (same bin or site within the merge window) and when the latest came. */
+  declare reportCount: CreationOptional<number>;
+  declare lastReportedAt: CreationOptional<Date>;
   declare requestedBy: number | null;
   declare requesterIp: string | null;
   declare version: CreationOptional<number>;
@@ -46,6 +49,8 @@ CollectionRequest.init(
     plannedFor: { type: DataTypes.DATEONLY, allowNull: true },
     truckRunId: { type: DataTypes.INTEGER, allowNull: true },
     status: { type: DataTypes.STRING(10), allowNull: false, defaultValue: 'open' },
+    reportCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 1 },
+    lastReportedAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
     requestedBy: { type: DataTypes.INTEGER, allowNull: true },
     requesterIp: { type: DataTypes.STRING(64), allowNull: true },
     version: versionColumn,

@@ -32,6 +32,8 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
   const [mode, setMode] = useState<Mode>('idle');
   const [secure, setSecure] = useState(true);
   const [notice, setNotice] = useState<string | null>(null);
+  // Until React has taken over the server's HTML, a picked photo would go nowhere: the buttons stay disabled.
+  const [ready, setReady] = useState(false);
   const reader = useRef<QrReader | null>(null);
   const handled = useRef(false);
   const last = useRef<{ text: string; at: number } | null>(null);
@@ -40,6 +42,7 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
   report.current = onDecoded;
 
   useEffect(() => {
+    setReady(true);
     setSecure(window.isSecureContext && typeof navigator.mediaDevices?.getUserMedia === 'function');
     return () => {
       const r = reader.current;
@@ -115,7 +118,7 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
     }
   }
 
-  const busy = mode !== 'idle' || disabled;
+  const busy = mode !== 'idle' || disabled || !ready;
   return (
     <div className="space-y-2" data-qr-capture>
       <div className="grid grid-cols-2 gap-2">
@@ -146,6 +149,7 @@ export default function QrCapture({ onDecoded, disabled = false, keepOpen = fals
           onChange={(e) => void readPhoto(e)}
           disabled={busy}
           data-photo-input
+          data-ready={ready ? '' : undefined}
         />
       </div>
       {!secure && (

@@ -22,6 +22,8 @@ export interface PortalCollectionRow {
   plannedFor: string | null;
   createdAt: string;
   binSerial: string | null;
+  /** Reports merged into this request (the same site asked again within the window: the latest quantity stands). */
+  reportCount: number;
 }
 
 const inScope = (column: string, n: number) => `($${n}::int[] IS NULL OR ${column} = ANY($${n}::int[]))`;
@@ -31,7 +33,7 @@ export async function listPortalCollections(scope: PortalScope): Promise<PortalC
   return sequelize.query<PortalCollectionRow>(
     `SELECT r.id, r.source, r.status, r.quantity, s.name AS site, to_char(r.ready_on, 'YYYY-MM-DD') AS "readyOn",
             to_char(CASE WHEN tr.id IS NULL THEN r.planned_for WHEN tr.status IN ('confirmed', 'done') THEN tr.planned_on END, 'YYYY-MM-DD') AS "plannedFor",
-            r.created_at AS "createdAt", a.serial AS "binSerial"
+            r.created_at AS "createdAt", a.serial AS "binSerial", r.report_count AS "reportCount"
        FROM collection_requests r LEFT JOIN sites s ON s.id = r.site_id LEFT JOIN assets a ON a.id = r.asset_id
        LEFT JOIN truck_runs tr ON tr.id = r.truck_run_id
       WHERE r.customer_id = $1 AND ${inScope('r.site_id', 2)}

@@ -17,12 +17,16 @@ import { hit, publicBinFormLimit, publicFormLimit, secondsBlocked } from '@/lib/
 import { createCollectionRequest, createDamageReport, type Created } from './requests.server';
 import { getSettings } from '@/lib/settings/settings.server';
 import type { MailOutcome } from '@/lib/mail/mailer.server';
+import { offersCollection } from './public-offer';
+import type { Status } from '@/lib/scans/lifecycle';
 
 export interface PublicBin {
   id: number;
   grai: string;
   serial: string;
   customerId: number | null;
+  /** Where it stands decides what the page offers (offersCollection()). */
+  status: Status;
 }
 
 /** The bin behind a Digital Link path value (…/8003/<value>), in any written form of its GRAI. */
@@ -30,8 +34,8 @@ export async function binFromDigitalLink(value: string): Promise<{ grai: string 
   const settings = await getSettings();
   const parsed = parseGrai(`(8003)${value}`, { companyPrefixLength: settings.gs1PrefixLength });
   if (!parsed.ok) return { grai: null, problem: parsed.error.message, bin: null };
-  const bin = await Asset.findOne({ where: { grai: parsed.grai.value }, attributes: ['id', 'grai', 'serial', 'customerId'] });
-  return { grai: parsed.grai.value, problem: null, bin: bin ? { id: bin.id, grai: bin.grai, serial: bin.serial, customerId: bin.customerId } : null };
+  const bin = await Asset.findOne({ where: { grai: parsed.grai.value }, attributes: ['id', 'grai', 'serial', 'customerId', 'status'] });
+  return { grai: parsed.grai.value, problem: null, bin: bin ? { id: bin.id, grai: bin.grai, serial: bin.serial, customerId: bin.customerId, status: bin.status } : null };
 }
 
 export type IntakeResult =
@@ -122,6 +126,8 @@ export async function receivePublicReport(args: IntakeArgs): Promise<IntakeResul
   const common = { source: 'public' as const, assetId: args.bin.id, requesterIp: args.clientAddress };
   let store: () => Promise<Created>;
   if (kind === 'collection') {
+    // A bin in our own hands has nothing to collect: the page does not offer it, and a scripted post is refused.
+    if (!offersCollection(args.bin.status)) return { ok: false, form: kind, code: 'unprocessable', message: t('atOurSite'), fields: {}, values };
     const parsed = collectionRequestFieldsIn(t).safeParse(values);
     if (!parsed.success) return invalid(parsed.error);
     store = () => createCollectionRequest({ ...common, ...parsed.data, requestedBy: args.userId });

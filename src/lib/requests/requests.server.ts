@@ -10,6 +10,7 @@ import { collectionRequestMail, damageReportMail, type MailContent, type MailKin
 import { canMove, refusalReason, statusLook, type RequestKind, type RequestStatus } from './request-status';
 import type { CollectionRequestFields, DamageReportFields, PlannerCollectionRequest } from './report-forms';
 import { appUrl } from '@/lib/app-url.server';
+import { MERGE_WINDOW_HOURS, mergeTarget, type OpenRequest } from './request-merge';
 import { storeAttachment } from '@/lib/attachments.server';
 import { recordAudit, type AuditActor } from '@/lib/audit.server';
 import { sendMail, type MailOutcome } from '@/lib/mail/mailer.server';
@@ -41,6 +42,8 @@ export interface DamageReportInput extends Placement, DamageReportFields {
 
 export interface Created {
   id: number;
+  /** The report joined a request already listed (same bin or site within the window): no new request, no mail. */
+  merged?: boolean;
   /** The mail to the planners; it never rejects (outcomes are in the outbox). Routes need not await it. */
   delivery: Promise<MailOutcome[]>;
 }
@@ -57,9 +60,42 @@ async function place(p: Placement, transaction: Transaction): Promise<{ assetId:
 }
 
 export async function createCollectionRequest(input: CollectionRequestInput): Promise<Created> {
-  const row = await sequelize.transaction(async (transaction) => {
+  const now = new Date();
+  const out = await sequelize.transaction(async (transaction) => {
     const where = await place(input, transaction);
-    return CollectionRequest.create(
+    // The same bin or site asked about within the window: the report joins that request (mergeTarget()). Reports
+    // for one site (or bin) queue here, so two at once cannot both open a new request.
+    await sequelize.query(`SELECT pg_advisory_xact_lock(hashtext('collection_request'), $1)`, {
+      bind: [where.assetId !== null ? -where.assetId : (where.siteId ?? 0)],
+      transaction,
+    });
+    const open = await sequelize.query<{ id: number; asset_id: number | null; site_id: number | null; status: OpenRequest['status']; last_reported_at: Date }>(
+      `SELECT id, asset_id, site_id, status, last_reported_at FROM collection_requests
+        WHERE status IN ('open', 'scheduled') AND last_reported_at > $3::timestamptz - make_interval(hours => $4)
+          AND (CASE WHEN $1::int IS NOT NULL THEN asset_id = $1 ELSE asset_id IS NULL AND site_id = $2 END)
+        ORDER BY last_reported_at DESC FOR UPDATE`,
+      { bind: [where.assetId, where.siteId, now, MERGE_WINDOW_HOURS], type: QueryTypes.SELECT, transaction },
+    );
+    const target = mergeTarget(
+      open.map((r) => ({ id: r.id, assetId: r.asset_id, siteId: r.site_id, status: r.status, lastReportedAt: new Date(r.last_reported_at) })),
+      where,
+      now,
+    );
+    if (target) {
+      // The latest quantity stated stands (reports are not added up); the latest contact and note are kept when given.
+      await sequelize.query(
+        `UPDATE collection_requests SET report_count = report_count + 1, last_reported_at = $2, quantity = $3, ready_on = coalesce($4, ready_on),
+                contact_name = coalesce($5, contact_name), contact_phone = coalesce($6, contact_phone), contact_email = coalesce($7, contact_email),
+                note = coalesce($8, note), location_note = coalesce($9, location_note), version = version + 1, updated_at = now()
+          WHERE id = $1`,
+        {
+          bind: [target.id, now, input.quantity, input.readyOn ?? null, input.contactName, input.contactPhone, input.contactEmail, input.note, input.locationNote],
+          transaction,
+        },
+      );
+      return { id: target.id, merged: true };
+    }
+    const row = await CollectionRequest.create(
       {
         source: input.source,
         ...where,
@@ -72,11 +108,14 @@ export async function createCollectionRequest(input: CollectionRequestInput): Pr
         requestedBy: input.requestedBy,
         readyOn: input.readyOn ?? null,
         requesterIp: input.requesterIp?.slice(0, 64) ?? null,
+        lastReportedAt: now,
       },
       { transaction },
     );
+    return { id: row.id, merged: false };
   });
-  return { id: row.id, delivery: tellPlanners('collection', row.id) };
+  // The planners hear of a request once: a report that joins one already listed sends no mail.
+  return { id: out.id, merged: out.merged, delivery: out.merged ? Promise.resolve([]) : tellPlanners('collection', out.id) };
 }
 
 /** The open customer sites a planner may record a request for, by customer and name. */
@@ -241,6 +280,9 @@ export interface CollectionRequestRow extends RowCommon {
   note: string | null;
   readyOn: string | null;
   plannedFor: string | null;
+  /** Reports this request holds (merged within the window) and when the latest came. */
+  reportCount: number;
+  lastReportedAt: Date;
 }
 
 export interface DamageReportRow extends RowCommon {
@@ -263,7 +305,8 @@ const UNFINISHED: Record<RequestKind, string[]> = { collection: ['open', 'schedu
 const TABLES: Record<RequestKind, string> = { collection: 'collection_requests', damage: 'damage_reports' };
 const EXTRA_COLUMNS: Record<RequestKind, string> = {
   collection: `r.quantity, r.location_note AS "locationNote", r.contact_phone AS "contactPhone", r.note,
-    to_char(r.ready_on, 'YYYY-MM-DD') AS "readyOn", to_char(r.planned_for, 'YYYY-MM-DD') AS "plannedFor"`,
+    to_char(r.ready_on, 'YYYY-MM-DD') AS "readyOn", to_char(r.planned_for, 'YYYY-MM-DD') AS "plannedFor",
+    r.report_count AS "reportCount", r.last_reported_at AS "lastReportedAt"`,
   damage: `r.description, r.photo_id AS "photoId"`,
 };
 

@@ -6,7 +6,7 @@ import { describe, test, expect, afterAll } from 'vitest';
 import type { Page } from 'playwright-core';
 import { expectNoPageOverflow, newContext, screenshot, signIn, useApp } from '../support/app';
 import { one, rows, closeDb } from '../support/db';
-import { hydrated, labelPng } from '../support/yard';
+import { hydrated, labelPng, pickPhoto } from '../support/yard';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
 const t = useApp();
@@ -54,7 +54,7 @@ describe('the monthly count', () => {
     await hydrated(page);
     await expect(page.locator('[data-count-bin]').count()).resolves.toBe(bins.length);
     // One bin by a photo of its label (the yard's scanner), the others ticked, the last one left out.
-    await page.setInputFiles('[data-count-scanner] [data-photo-input]', {
+    await pickPhoto(page, '[data-count-scanner] [data-photo-input]', {
       name: 'label.png',
       mimeType: 'image/png',
       buffer: await labelPng(`https://id.example.org/8003/${byPhoto.grai}`),

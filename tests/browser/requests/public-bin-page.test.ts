@@ -156,7 +156,7 @@ describe('the public bin page (story 4)', () => {
       await screenshot(deskPage, 'public-bin-desktop');
       await desk.close();
 
-      // The planner signs in: both requests are on /requests with bin, site, customer, quantity and photo.
+      // The planner signs in: both requests are on /requests with bin, site, customer, quantity, reports and photo.
       for (const kind of ['desktop', 'phone'] as const) {
         const ctx = await newContext(t.browser, t.app, kind);
         ctx.setDefaultTimeout(20_000);
@@ -165,7 +165,9 @@ describe('the public bin page (story 4)', () => {
         await p.waitForURL('**/fleet');
         await p.goto('/requests');
         const row = p.locator(`li[data-request="collection"][data-id="${request.id}"]`);
-        await expect(row.locator('[data-quantity]').textContent()).resolves.toBe('6');
+        // The three later reports from the phone joined the first (merged): the latest quantity stated stands.
+        await expect(row.locator('[data-quantity]').textContent()).resolves.toBe('4');
+        await expect(row.locator('[data-reports]').getAttribute('data-reports')).resolves.toBe('4');
         await expect(row.locator('[data-bin-link]').getAttribute('href')).resolves.toBe(`/bins/${bin.grai}`);
         const rowText = await row.textContent();
         expect(rowText).toContain(bin.site_name);
@@ -183,10 +185,12 @@ describe('the public bin page (story 4)', () => {
           // The planner schedules the collection; the step is saved with its version and audited.
           const control = row.locator(`[data-status-control="collection-${request.id}"]`);
           await p.waitForSelector(`astro-island:not([ssr]) [data-status-control="collection-${request.id}"]`);
+          // Each merged report moved the version on: the step saves on top of the version the page showed.
+          const shown = await one<{ version: number }>('SELECT version FROM collection_requests WHERE id = $1', [request.id]);
           await control.locator('button[data-step="scheduled"]').click();
           await control.locator('[data-request-status="scheduled"]').waitFor();
           const saved = await one<{ status: string; version: number }>('SELECT status, version FROM collection_requests WHERE id = $1', [request.id]);
-          expect(saved).toEqual({ status: 'scheduled', version: 1 });
+          expect(saved).toEqual({ status: 'scheduled', version: shown.version + 1 });
           const audit = await one<{ action: string; after: { status: string; plannedFor?: string } }>(
             `SELECT action, after FROM audit_entries WHERE entity_type = 'collection_request' AND entity_id = $1`,
             [String(request.id)],

@@ -84,7 +84,8 @@ describe("the public bin page in the finder's language", () => {
   );
 
   test('every language renders its own words and links to the others on the same path; an unknown one gets English', async () => {
-    const bin = await one<{ grai: string }>(`SELECT grai FROM assets ORDER BY id LIMIT 1`);
+    // A bin out with a customer, so the page offers the collection form (a bin in a depot offers only the damage form).
+    const bin = await one<{ grai: string }>(`SELECT grai FROM assets WHERE status = 'on_hire' ORDER BY id LIMIT 1`);
     for (const language of PUBLIC_LANGUAGES) {
       const res = await fetch(`${t.app.url}/8003/${bin.grai}`, { headers: { 'accept-language': `${language};q=0.9` } });
       expect(res.status).toBe(200);
@@ -98,6 +99,12 @@ describe("the public bin page in the finder's language", () => {
     const html = await unknown.text();
     expect(html).toContain('<html lang="en"');
     expect(html).toContain(PUBLIC_WORDS.en.collectTitle);
+    // A bin in our own depot: the page says there is nothing to collect, in the finder's language, and no form for it.
+    const home = await one<{ grai: string }>(`SELECT grai FROM assets WHERE status = 'available' ORDER BY id LIMIT 1`);
+    const depot = await (await fetch(`${t.app.url}/8003/${home.grai}`, { headers: { 'accept-language': 'nl' } })).text();
+    expect(depot).toContain(PUBLIC_WORDS.nl.atOurSite);
+    expect(depot).not.toContain(PUBLIC_WORDS.nl.collectTitle);
+    expect(depot).toContain(PUBLIC_WORDS.nl.damageTitle);
   });
 
   test('at 1280 and 1920 px the Dutch page fits its screen', async () => {

@@ -46,6 +46,15 @@ export async function availableBinsAtHome(email: string, n: number, exclude: num
 }
 
 /** The QR a label carries: a GS1 Digital Link URI (…/8003/<GRAI>), as a PNG. */
+/**
+ * Picks a photo in a QR reader once it is live: the input is disabled until React has hydrated it, so a photo picked
+ * earlier is not silently lost (on a slow phone as under a loaded test machine).
+ */
+export async function pickPhoto(page: Page, input: string, file: { name: string; mimeType: string; buffer: Buffer }): Promise<void> {
+  await page.locator(`${input}[data-ready]:not([disabled])`).waitFor({ state: 'attached' });
+  await page.setInputFiles(input, file);
+}
+
 export function labelPng(text: string): Promise<Buffer> {
   return QRCode.toBuffer(text, { type: 'png', errorCorrectionLevel: 'M', margin: 4, width: 480 });
 }

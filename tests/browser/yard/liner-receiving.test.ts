@@ -3,7 +3,7 @@
 // its type sniffed from the bytes — a text file named .pdf is refused).
 import { describe, test, expect, afterAll } from 'vitest';
 import { PHONE, signIn, useApp, screenshot, expectNoPageOverflow } from '../support/app';
-import { hydrated, labelPng } from '../support/yard';
+import { hydrated, labelPng, pickPhoto } from '../support/yard';
 import { one, closeDb } from '../support/db';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 
@@ -38,12 +38,16 @@ describe('receiving liners on the phone', () => {
     await page.waitForURL((u) => u.pathname === '/yard');
     await page.goto('/yard/liners/receive');
     await hydrated(page);
-    await page.setInputFiles('[data-photo-input]', {
+    await pickPhoto(page, '[data-photo-input]', {
       name: 'carton.png',
       mimeType: 'image/png',
       buffer: await labelPng(`(01)09501234567890(17)${yymmdd(expiry)}(11)${yymmdd(made)}(10)${lot}(30)200`),
     });
-    await page.getByTestId('carton-read').waitFor();
+    // Either the carton's read or the reader's notice: say which, so a failure names its cause.
+    await page.locator('[data-testid="carton-read"], [data-qr-capture] [role="alert"], [data-qr-capture] [role="status"]').first().waitFor();
+    const notice = await page.locator('[data-qr-capture]').textContent();
+    await screenshot(page, 'liner-receive-after-photo-390');
+    expect(await page.getByTestId('carton-read').count(), `no carton read; the reader says: ${notice}`).toBe(1);
     await expect(page.inputValue('#rcv-lot')).resolves.toBe(lot);
     await expect(page.inputValue('#rcv-expiry')).resolves.toBe(ymd(expiry));
     await expect(page.inputValue('#rcv-made')).resolves.toBe(ymd(made));

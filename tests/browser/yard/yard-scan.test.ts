@@ -8,7 +8,7 @@ import { mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { ARTIFACTS, PHONE, newContext, screenshot, signIn, useApp, expectNoPageOverflow } from '../support/app';
-import { availableBinsAtHome, gzipSizeOf, hydrated, labelPng, qrClip, type PickedBin } from '../support/yard';
+import { availableBinsAtHome, gzipSizeOf, hydrated, labelPng, qrClip, type PickedBin, pickPhoto } from '../support/yard';
 import { DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 import { groupGrai } from '@/lib/gs1';
 
@@ -127,7 +127,7 @@ describe('identifying a bin on the yard', () => {
     page.on('request', (r) => loaded.push(new URL(r.url()).pathname));
     await page.waitForLoadState('networkidle');
     expect(loaded.some((u) => u.includes('/qr-reader.'))).toBe(false);
-    await page.setInputFiles('[data-photo-input]', { name: 'label.png', mimeType: 'image/png', buffer: await labelPng(`https://id.example.org/8003/${bin.grai}`) });
+    await pickPhoto(page, '[data-photo-input]', { name: 'label.png', mimeType: 'image/png', buffer: await labelPng(`https://id.example.org/8003/${bin.grai}`) });
     await page.waitForURL((u) => u.pathname === `/bins/${bin.grai}`);
     const chunk = loaded.find((u) => u.includes('/qr-reader.'));
     expect(chunk).toBeDefined();
@@ -139,7 +139,7 @@ describe('identifying a bin on the yard', () => {
 
   test('a QR code that is not a bin label is refused with what it says', async () => {
     const page = await yardPage(t.browser);
-    await page.setInputFiles('[data-photo-input]', { name: 'other.png', mimeType: 'image/png', buffer: await labelPng('https://example.org/menu') });
+    await pickPhoto(page, '[data-photo-input]', { name: 'other.png', mimeType: 'image/png', buffer: await labelPng('https://example.org/menu') });
     await page.locator('#scan-error').waitFor();
     await expect(page.locator('#scan-error').textContent()).resolves.toMatch(/not a bin label/);
     expect(new URL(page.url()).pathname).toBe('/yard');
@@ -190,7 +190,7 @@ describe('the live camera', () => {
     await expect(page.locator('[data-capture-notice]').textContent()).resolves.toMatch(/secure connection/);
     await page.evaluate(() => window.scrollTo(0, 0));
     await screenshot(page, 'yard-camera-insecure-phone');
-    await page.setInputFiles('[data-photo-input]', {
+    await pickPhoto(page, '[data-photo-input]', {
       name: 'label.png',
       mimeType: 'image/png',
       buffer: await labelPng(`http://yard-lan.test:${t.app.port}/8003/${bins[1]!.grai}`),

@@ -326,7 +326,7 @@ describe('flood protection', () => {
     const bin = await binAwaitingCollection();
     const request = new Request('http://pool.test/8003/x', { method: 'POST', body: multipart({ form: 'damage', description: 'Lid missing' }) });
     const result = await receivePublicReport({
-      bin: { id: bin.id, grai: bin.grai, serial: bin.serial, customerId: w.customer.id },
+      bin: { id: bin.id, grai: bin.grai, serial: bin.serial, customerId: w.customer.id, status: 'awaiting_collection' },
       request,
       clientAddress: '198.51.100.77',
       userId: null,
