@@ -72,7 +72,7 @@ export async function createCollectionRequest(input: CollectionRequestInput): Pr
     const open = await sequelize.query<{ id: number; asset_id: number | null; site_id: number | null; status: OpenRequest['status']; last_reported_at: Date }>(
       `SELECT id, asset_id, site_id, status, last_reported_at FROM collection_requests
         WHERE status IN ('open', 'scheduled') AND last_reported_at > $3::timestamptz - make_interval(hours => $4)
-          AND (CASE WHEN $1::int IS NOT NULL THEN asset_id = $1 ELSE asset_id IS NULL AND site_id = $2 END)
+          AND ((asset_id IS NOT NULL AND asset_id = $1) OR (site_id IS NOT NULL AND site_id = $2))
         ORDER BY last_reported_at DESC FOR UPDATE`,
       { bind: [where.assetId, where.siteId, now, MERGE_WINDOW_HOURS], type: QueryTypes.SELECT, transaction },
     );

@@ -137,7 +137,12 @@ beforeAll(async () => {
     const res = await asB.post(`/api/public/bins/${bin.grai}/${form}`, { multipart, headers: { Origin: t.app.url } });
     expect(res.status(), `${form}: ${await res.text()}`).toBe(201);
   }
-  const collection = await one<{ id: number }>(`SELECT id FROM collection_requests WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
+  // The request the report made, or the one at the bin's site it joined (merged requests).
+  const collection = await one<{ id: number }>(
+    `SELECT id FROM collection_requests WHERE (asset_id = $1 OR site_id = (SELECT site_id FROM assets WHERE id = $1)) AND status IN ('open', 'scheduled')
+      ORDER BY last_reported_at DESC, id DESC LIMIT 1`,
+    [bin.id],
+  );
   const damage = await one<{ id: number }>(`SELECT id FROM damage_reports WHERE asset_id = $1 ORDER BY id DESC LIMIT 1`, [bin.id]);
   const load = await one<{ reference: string } | undefined>(
     `SELECT l.reference FROM loads l JOIN hire_orders ho ON ho.id = l.hire_order_id WHERE ho.customer_id = $1 ORDER BY l.id DESC LIMIT 1`,

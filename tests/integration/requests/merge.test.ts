@@ -40,20 +40,27 @@ describe('merged collection requests', () => {
     expect((await planners()) - mailsBefore).toBe(plannerCount);
   });
 
-  test('a site without a bin joins the site’s request; another bin, a done request or an old one do not', async () => {
+  test('reports about one site join its request, whatever bin they came from; a done request or an old one do not', async () => {
     const a = await createCollectionRequest(report({ source: 'portal', siteId: w.customerSite.id, customerId: w.customer.id, quantity: 6 }));
     const b = await createCollectionRequest(report({ source: 'planner', siteId: w.customerSite.id, customerId: w.customer.id, quantity: 8 }));
     expect([b.id, b.merged]).toEqual([a.id, true]);
-    const otherBin = await newBin(w);
-    const c = await createCollectionRequest(report({ assetId: otherBin.id }));
+    const atSite = await newBin(w);
+    await sequelize.query(`UPDATE assets SET site_id = $2, customer_id = $3 WHERE id = $1`, { bind: [atSite.id, w.customerSite.id, w.customer.id] });
+    const fromLabel = await createCollectionRequest(report({ assetId: atSite.id, quantity: 9 }));
+    expect([fromLabel.id, fromLabel.merged]).toEqual([a.id, true]);
+    expect((await sqlRows<{ report_count: number; quantity: number }>(`SELECT report_count, quantity FROM collection_requests WHERE id = $1`, [a.id]))[0]).toEqual({
+      report_count: 3,
+      quantity: 9,
+    });
+    await sequelize.query(`UPDATE collection_requests SET status = 'done' WHERE id = $1`, { bind: [a.id] });
+    const c = await createCollectionRequest(report({ source: 'portal', siteId: w.customerSite.id, customerId: w.customer.id }));
     expect(c.merged).toBe(false);
-    await sequelize.query(`UPDATE collection_requests SET status = 'done' WHERE id = $1`, { bind: [c.id] });
-    expect((await createCollectionRequest(report({ assetId: otherBin.id }))).id).not.toBe(c.id);
-    await sequelize.query(`UPDATE collection_requests SET last_reported_at = now() - interval '73 hours' WHERE id = $1`, { bind: [a.id] });
-    expect((await createCollectionRequest(report({ source: 'portal', siteId: w.customerSite.id, customerId: w.customer.id }))).id).not.toBe(a.id);
+    await sequelize.query(`UPDATE collection_requests SET last_reported_at = now() - interval '73 hours' WHERE id = $1`, { bind: [c.id] });
+    expect((await createCollectionRequest(report({ source: 'portal', siteId: w.customerSite.id, customerId: w.customer.id }))).id).not.toBe(c.id);
   });
 
   test('twenty reports for one bin at once still make one request', async () => {
+    await sequelize.query(`UPDATE collection_requests SET status = 'cancelled' WHERE status IN ('open', 'scheduled')`); // nothing to join at its depot
     const bin = await newBin(w);
     const out = await Promise.all(Array.from({ length: 20 }, () => createCollectionRequest(report({ assetId: bin.id }))));
     await Promise.all(out.map((o) => o.delivery));

@@ -1,5 +1,5 @@
 // Which request a new collection report joins, as a literal table (the rule is common practice for request
-// queues, no published source): the same bin, or the same site without a bin, within 72 hours of the latest report.
+// queues, no published source): the same bin, or the same site, within 72 hours of the latest report.
 import { describe, test, expect } from 'vitest';
 import { MERGE_WINDOW_HOURS, mergeTarget, type OpenRequest } from '@/lib/requests/request-merge';
 
@@ -16,10 +16,10 @@ const OPEN: OpenRequest[] = [
 describe('merging collection reports', () => {
   test.each([
     [{ assetId: 10, siteId: 5 }, 1], // same bin, 2 h ago
-    [{ assetId: 13, siteId: 5 }, null], // another bin at the same site: its own count
-    [{ assetId: 11, siteId: 5 }, null], // that bin's request is done
+    [{ assetId: 13, siteId: 5 }, 1], // another bin at the same site: the site's newest open request (1, 2 h ago)
+    [{ assetId: 11, siteId: 8 }, null], // that bin's request is done, and nothing open at site 8
     [{ assetId: 12, siteId: 6 }, null], // 73 h since its latest report
-    [{ assetId: null, siteId: 5 }, 5], // the site without a bin: the newest of 2 and 5
+    [{ assetId: null, siteId: 5 }, 1], // the site: its newest open request
     [{ assetId: null, siteId: 7 }, null],
     [{ assetId: null, siteId: null }, null],
   ])('%j joins %s', (incoming, expected) => {
