@@ -59,15 +59,19 @@ function multipart(fields: Record<string, string>): { body: Buffer; type: string
 
 /** A bin no other test reports on (the per-bin limit is 10 a day). */
 async function quietBin(offset: number): Promise<{ id: number; grai: string }> {
-  // Out with a customer (a bin in our depot has nothing to collect), no report about it in the last day, so reruns against the same database start from a fresh per-bin count.
-  return one(
-    `SELECT a.id, a.grai FROM assets a
+  // Out with a customer (a bin in our depot has nothing to collect), no report about it in the last day, so reruns
+  // against the same database start from a fresh per-bin count.
+  const bin = await one<{ id: number; grai: string; site_id: number | null }>(
+    `SELECT a.id, a.grai, a.site_id FROM assets a
       WHERE a.status IN ('on_hire', 'awaiting_collection')
         AND NOT EXISTS (SELECT 1 FROM collection_requests c WHERE c.asset_id = a.id AND c.created_at > now() - interval '1 day')
         AND NOT EXISTS (SELECT 1 FROM damage_reports d WHERE d.asset_id = a.id AND d.created_at > now() - interval '1 day')
       ORDER BY a.id DESC LIMIT 1 OFFSET $1`,
     [offset],
   );
+  // Nothing open at its site that its reports would join (merged requests): they make their own request.
+  await db().query(`UPDATE collection_requests SET status = 'cancelled' WHERE site_id = $1 AND status IN ('open', 'scheduled')`, [bin.site_id]);
+  return bin;
 }
 
 describe('the client address is the socket, not X-Forwarded-For (TRUST_PROXY unset)', () => {

@@ -7,6 +7,7 @@ import { deleteExpiredSessionEnds } from '@/lib/session/session-ends.server';
 import { runCountDueReminders, runOverdueReminders } from '@/lib/portal/customer-reminders.server';
 import { runReorderAlerts } from '@/lib/liners/reorder-alerts.server';
 import { runPaymentReminders } from '@/lib/billing/payment-reminders.server';
+import { runTariffTermsSync } from '@/lib/planning/tariffs.server';
 
 export interface JobContext {
   now: Date;
@@ -46,6 +47,12 @@ export const JOBS: readonly JobDefinition[] = [
     cron: '45 8 * * 1-5',
     description: 'Mails each customer, then weekly, its invoices still open the set number of days after their due date.',
     run: runPaymentReminders,
+  },
+  {
+    name: 'tariff-terms',
+    cron: '5 0 * * *',
+    description: 'Copies the hire terms of tariffs that take effect today onto their customers (free days for the overdue rule).',
+    run: runTariffTermsSync,
   },
   { name: 'ended-sessions-cleanup', cron: '40 3 * * *', description: 'Forgets signed-out sessions whose cookies have all expired.', run: deleteExpiredSessionEnds },
 ];

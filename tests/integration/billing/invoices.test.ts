@@ -3,10 +3,9 @@
 // refused, a payment with a provider reference already recorded is a replay that records nothing, and a customer
 // reads only their own. Amounts worked by hand in the comments.
 import { describe, test, expect, beforeAll } from 'vitest';
-import { usePoolWorld, appErrorOf, addSecondCustomer, newBin } from '../support/fixtures';
-import { handTrip, sqlRows } from '../support/hand-made';
-import { sequelize } from '../support/db';
-import { issueStatement } from '@/lib/billing/statements.server';
+import { usePoolWorld, appErrorOf, addSecondCustomer } from '../support/fixtures';
+import { oneBinMonth } from '../support/billing';
+import { sqlRows } from '../support/hand-made';
 import { issueInvoice, issueCreditNote, recordPayment, recordBankTransfer, invoiceView, listInvoices } from '@/lib/billing/invoices.server';
 
 const w = usePoolWorld();
@@ -15,22 +14,8 @@ let statementId = 0;
 let invoiceId = 0;
 
 beforeAll(async () => {
-  await sequelize.query(`DELETE FROM tariffs WHERE customer_id = $1`, { bind: [w.customer.id] });
-  await sequelize.query(
-    `INSERT INTO tariffs (customer_id, free_days, daily_rate, per_trip_fee, lost_bin_fee, currency, valid_from) VALUES ($1, 0, 2.00, 0, 0, 'EUR', '2000-01-01')`,
-    { bind: [w.customer.id] },
-  );
-  const bin = await newBin(w);
-  // Delivered 1 Oct, collected 31 Oct: 2–31 Oct = 30 days × 2.00 = 60.00 net; VAT 21 % = 12.60; total 72.60.
-  await handTrip({
-    assetId: bin.id,
-    customerId: w.customer.id,
-    depotSiteId: w.depot.id,
-    dispatchedAt: '2026-10-01T06:00:00Z',
-    deliveredAt: '2026-10-01T09:00:00Z',
-    collectedAt: '2026-10-31T10:00:00Z',
-  });
-  statementId = (await issueStatement(w.customer.id, '2026-10', admin())).id;
+  // October 2026 (oneBinMonth): 30 days × 2.00 = 60.00 net; VAT 21 % = 12.60; total 72.60.
+  statementId = (await oneBinMonth(w, '2026-10')).statementId;
 });
 
 describe('an invoice from a statement', () => {

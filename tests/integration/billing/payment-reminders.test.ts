@@ -2,10 +2,9 @@
 // the default), not again within the week, again on 18 Nov, and never once paid; the mail goes to the customer's
 // contact address and lists what is open.
 import { describe, test, expect, beforeAll } from 'vitest';
-import { usePoolWorld, newBin } from '../support/fixtures';
-import { handTrip, sqlRows } from '../support/hand-made';
-import { sequelize } from '../support/db';
-import { issueStatement } from '@/lib/billing/statements.server';
+import { usePoolWorld } from '../support/fixtures';
+import { oneBinMonth } from '../support/billing';
+import { sqlRows } from '../support/hand-made';
 import { issueInvoice, recordPayment } from '@/lib/billing/invoices.server';
 import { runJobNow } from '@/lib/jobs/registry.server';
 
@@ -16,23 +15,7 @@ const reminders = async () =>
   (await sqlRows<{ subject: string; to_address: string }>(`SELECT subject, to_address FROM mail_outbox WHERE kind = 'payment_reminder' ORDER BY id`)).map((m) => m.subject);
 
 beforeAll(async () => {
-  await sequelize.query(`DELETE FROM tariffs WHERE customer_id = $1`, { bind: [w.customer.id] });
-  await sequelize.query(
-    `INSERT INTO tariffs (customer_id, free_days, daily_rate, per_trip_fee, lost_bin_fee, currency, valid_from) VALUES ($1, 0, 2.00, 0, 0, 'EUR', '2000-01-01')`,
-    {
-      bind: [w.customer.id],
-    },
-  );
-  const bin = await newBin(w);
-  await handTrip({
-    assetId: bin.id,
-    customerId: w.customer.id,
-    depotSiteId: w.depot.id,
-    dispatchedAt: '2026-09-01T06:00:00Z',
-    deliveredAt: '2026-09-01T09:00:00Z',
-    collectedAt: '2026-09-30T10:00:00Z',
-  });
-  const { id } = await issueStatement(w.customer.id, '2026-09', { userId: null, ip: null });
+  const { statementId: id } = await oneBinMonth(w, '2026-09'); // 70.18 (oneBinMonth)
   // Issued 5 Oct → due 4 Nov.
   invoiceId = (await issueInvoice(id, { userId: null, ip: null }, { now: new Date('2026-10-05T10:00:00Z'), mail: false })).id;
 });

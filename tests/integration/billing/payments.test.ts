@@ -5,13 +5,12 @@
 // payments that together settle the invoice.
 import { describe, test, expect, beforeAll, afterAll } from 'vitest';
 import Stripe from 'stripe';
-import { usePoolWorld, appErrorOf, addSecondCustomer, newBin } from '../support/fixtures';
-import { handTrip, sqlRows } from '../support/hand-made';
-import { sequelize } from '../support/db';
+import { usePoolWorld, appErrorOf, addSecondCustomer } from '../support/fixtures';
+import { oneBinMonth } from '../support/billing';
+import { sqlRows } from '../support/hand-made';
 import { callRoute, json } from '../support/route';
 import { startPayFake, type PayFake } from '@/cli/pay-fake.mjs';
 import { LOCAL_FAKE_KEYS } from '@/cli/pay-fake-keys.mjs';
-import { issueStatement } from '@/lib/billing/statements.server';
 import { issueInvoice, invoiceView } from '@/lib/billing/invoices.server';
 import { startCheckout, latestCheckout } from '@/lib/billing/payments.server';
 import { POST as webhook } from '@/pages/api/payments/webhook';
@@ -30,25 +29,9 @@ beforeAll(async () => {
     PAYMENTS_API_PORT: String(fake.port),
     PAYMENTS_API_PROTOCOL: 'http',
   });
-  await sequelize.query(`DELETE FROM tariffs WHERE customer_id = $1`, { bind: [w.customer.id] });
-  await sequelize.query(
-    `INSERT INTO tariffs (customer_id, free_days, daily_rate, per_trip_fee, lost_bin_fee, currency, valid_from) VALUES ($1, 0, 2.00, 0, 0, 'EUR', '2000-01-01')`,
-    {
-      bind: [w.customer.id],
-    },
-  );
-  const bin = await newBin(w);
-  // 2–31 Oct = 30 days × 2.00 = 60.00 net, VAT 21 % 12.60, total 72.60.
-  await handTrip({
-    assetId: bin.id,
-    customerId: w.customer.id,
-    depotSiteId: w.depot.id,
-    dispatchedAt: '2026-10-01T06:00:00Z',
-    deliveredAt: '2026-10-01T09:00:00Z',
-    collectedAt: '2026-10-31T10:00:00Z',
-  });
-  const { id } = await issueStatement(w.customer.id, '2026-10', { userId: null, ip: null });
-  invoiceId = (await issueInvoice(id, { userId: null, ip: null })).id;
+  // October 2026 (oneBinMonth): 72.60 to pay.
+  const { statementId } = await oneBinMonth(w, '2026-10');
+  invoiceId = (await issueInvoice(statementId, { userId: null, ip: null })).id;
 });
 afterAll(async () => {
   await fake?.close();

@@ -68,4 +68,23 @@ describe('entering tariffs (admin)', () => {
       expect(r.status, JSON.stringify(bad)).toBe(400);
     }
   });
+
+  test('the customer’s own term columns follow the tariff in force: at once for one in force today, by the daily job for a later one', async () => {
+    const { Organisation } = await import('@/models');
+    const { runJobNow } = await import('@/lib/jobs/registry.server');
+    const other = await Organisation.create({ name: 'Terms Customer', kind: 'customer', contactEmail: null, freeDays: 14 });
+    const admin = sessionUser(await makeUser('admin', w.operator.id));
+    const post = (extra: Record<string, unknown>) =>
+      callRoute(route.POST, { user: admin, path: '/api/admin/tariffs', method: 'POST', body: body({ customerId: other.id, ...extra }) });
+    expect((await post({ validFrom: '2020-01-01', freeDays: 21, dailyRate: '1.90' })).status).toBe(201);
+    await other.reload();
+    expect([other.freeDays, other.dailyRate]).toEqual([21, '1.90']);
+    expect((await post({ validFrom: '2031-01-01', freeDays: 30, dailyRate: '2.10' })).status).toBe(201);
+    await other.reload();
+    expect(other.freeDays).toBe(21); // not in force yet
+    expect(await runJobNow('tariff-terms', { now: new Date('2031-01-01T00:05:00Z') })).toMatchObject({ changed: 1 });
+    await other.reload();
+    expect([other.freeDays, other.dailyRate]).toEqual([30, '2.10']);
+    expect(await runJobNow('tariff-terms', { now: new Date('2031-01-02T00:05:00Z') })).toMatchObject({ changed: 0 });
+  });
 });
