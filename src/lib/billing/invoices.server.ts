@@ -18,6 +18,7 @@ import { balanceOf, creditAmounts, creditProblem, dueOn, invoiceState, paymentPr
 import { decimalToMinorUnits, formatMoney, minorDigits } from './money';
 import type { CreditNoteBody, PaymentBody } from './billing-forms';
 import type { StatementScope } from './statement-views.server';
+import { customerScopeSql } from './statement-scope.server';
 
 export interface InvoiceHead {
   id: number;
@@ -70,12 +71,6 @@ function inTransaction<T>(transaction: Transaction | undefined, fn: (t: Transact
   return transaction ? fn(transaction) : sequelize.transaction(fn);
 }
 
-function scopeSql(scope: StatementScope, at: number): { sql: string; bind: unknown[] } {
-  if (scope.kind === 'operator') return { sql: 'TRUE', bind: [] };
-  if (scope.siteIds !== null) return { sql: 'FALSE', bind: [] };
-  return { sql: `i.customer_id = $${at}`, bind: [scope.organisationId] };
-}
-
 async function taxOfStatement(statementId: number, transaction?: Transaction): Promise<TaxTreatment> {
   const [s] = await sequelize.query<{ tax_kind: 'rate' | 'reverse_charge'; tax_rate_bp: number | null; customer_vat_id: string | null }>(
     `SELECT tax_kind, tax_rate_bp, customer_vat_id FROM statements WHERE id = $1`,
@@ -93,9 +88,14 @@ async function balanceIn(invoiceId: number, grossMinor: number, transaction?: Tr
   return balanceOf({ grossMinor, credits: credits.map((c) => Number(c.gross_minor)), payments: payments.map((p) => Number(p.amount_minor)) });
 }
 
+/** An invoice's state by the balance rule; a credit note has none of its own (it settles what it corrects). */
+function stateOf(h: InvoiceHead, balance: Balance, today: LocalDate): InvoiceState {
+  return h.series === 'invoice' && h.dueOn ? invoiceState(balance, h.dueOn, today) : 'paid';
+}
+
 export async function invoiceView(id: number, scope: StatementScope): Promise<InvoiceView> {
   const { timeZone } = await getSettings();
-  const where = scopeSql(scope, 3);
+  const where = customerScopeSql(scope, 'i.customer_id', 3);
   const [row] = await sequelize.query<HeadRow>(`${HEAD_SQL} WHERE i.id = $2 AND ${where.sql}`, { bind: [timeZone, id, ...where.bind], type: QueryTypes.SELECT });
   if (!row) throw new AppError('not_found', 'There is no such invoice.');
   const h = head(row);
@@ -120,7 +120,7 @@ export async function invoiceView(id: number, scope: StatementScope): Promise<In
   return {
     ...h,
     balance,
-    state: h.series === 'invoice' && h.dueOn ? invoiceState(balance, h.dueOn, today) : 'paid',
+    state: stateOf(h, balance, today),
     payments: payments.map((p) => ({ ...p, amountMinor: Number(p.amountMinor) })),
     creditNotes: creditNotes.map((c) => ({ ...c, grossMinor: Number(c.grossMinor) })),
     summary: summary.map((k) => ({ ...k, amountMinor: Number(k.amountMinor) })),
@@ -135,7 +135,7 @@ export interface InvoiceListRow extends InvoiceHead {
 /** Invoices and credit notes, newest first, with what is outstanding on each invoice (one query). */
 export async function listInvoices(scope: StatementScope, filter: { customerId?: number; statementId?: number } = {}): Promise<InvoiceListRow[]> {
   const { timeZone } = await getSettings();
-  const where = scopeSql(scope, 2);
+  const where = customerScopeSql(scope, 'i.customer_id', 2);
   const bind: unknown[] = [timeZone, ...where.bind];
   const extra: string[] = [];
   if (filter.customerId !== undefined) extra.push(`i.customer_id = $${bind.push(filter.customerId)}`);
@@ -150,12 +150,12 @@ export async function listInvoices(scope: StatementScope, filter: { customerId?:
   return rows.map((r) => {
     const h = head(r);
     const balance = balanceOf({ grossMinor: h.grossMinor, credits: [Number(r.credited)], payments: [Number(r.paid)] });
-    return { ...h, balance, state: h.series === 'invoice' && h.dueOn ? invoiceState(balance, h.dueOn, today) : 'paid' };
+    return { ...h, balance, state: stateOf(h, balance, today) };
   });
 }
 
-/** The addresses an invoice mail goes to: the customer's contact address. */
-async function customerContact(customerId: number): Promise<{ name: string; email: string | null }> {
+/** The address billing mail goes to: the customer's contact address (and its name for the greeting). */
+export async function customerContact(customerId: number): Promise<{ name: string; email: string | null }> {
   const [row] = await sequelize.query<{ name: string; email: string | null }>(`SELECT name, contact_email AS email FROM organisations WHERE id = $1`, {
     bind: [customerId],
     type: QueryTypes.SELECT,
@@ -338,12 +338,17 @@ export async function mailPaymentReceived(invoiceId: number, amountMinor: number
   await sendMail({ to: to.email, kind: 'payment_received', ...content });
 }
 
+/** An amount as the admin or the customer typed it ("250.00"), in the invoice's currency's minor units. */
+export function typedAmount(amount: string, currency: string): number {
+  const minor = decimalToMinorUnits(amount, minorDigits(currency));
+  if (minor === null) throw new AppError('validation_failed', `Give the amount in ${currency} with at most ${minorDigits(currency)} decimals.`);
+  return minor;
+}
+
 async function minorOf(invoiceId: number, amount: string): Promise<number> {
   const [row] = await sequelize.query<{ currency: string }>(`SELECT currency FROM invoices WHERE id = $1`, { bind: [invoiceId], type: QueryTypes.SELECT });
   if (!row) throw new AppError('not_found', 'There is no such invoice.');
-  const minor = decimalToMinorUnits(amount, minorDigits(row.currency));
-  if (minor === null) throw new AppError('validation_failed', `Give the amount in ${row.currency} with at most ${minorDigits(row.currency)} decimals.`);
-  return minor;
+  return typedAmount(amount, row.currency);
 }
 
 /** The admin's form: a bank transfer as typed ("250.00" on a day). */

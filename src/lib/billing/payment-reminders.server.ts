@@ -7,7 +7,7 @@ import { getSettings } from '@/lib/settings/settings.server';
 import { appUrl } from '@/lib/app-url.server';
 import { sendMail } from '@/lib/mail/mailer.server';
 import { paymentReminderMail } from '@/lib/mail/mail-templates';
-import { listInvoices } from './invoices.server';
+import { customerContact, listInvoices } from './invoices.server';
 import { paymentRemindersDue } from './invoice-rules';
 import { formatMoney } from './money';
 
@@ -33,11 +33,8 @@ export async function runPaymentReminders({ now }: { now: Date }) {
   );
   let sent = 0;
   for (const [customerId, invoices] of due) {
-    const [to] = await sequelize.query<{ name: string; email: string | null }>(`SELECT name, contact_email AS email FROM organisations WHERE id = $1`, {
-      bind: [customerId],
-      type: QueryTypes.SELECT,
-    });
-    if (!to?.email) continue;
+    const to = await customerContact(customerId);
+    if (!to.email) continue;
     // Claim first (one row per invoice and day): a second worker running the same job sends nothing twice.
     const claimed: number[] = [];
     for (const i of invoices) {

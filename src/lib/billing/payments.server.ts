@@ -15,9 +15,8 @@ import type { AuditActor } from '@/lib/audit.server';
 import { appUrl } from '@/lib/app-url.server';
 import { localDate } from '@/lib/calendar';
 import { getSettings } from '@/lib/settings/settings.server';
-import { invoiceView, mailPaymentReceived, recordPayment } from './invoices.server';
+import { invoiceView, mailPaymentReceived, recordPayment, typedAmount } from './invoices.server';
 import { paymentProblem } from './invoice-rules';
-import { decimalToMinorUnits, minorDigits } from './money';
 import { actionFor, type ProviderAction } from './payment-events';
 import type { StatementScope } from './statement-views.server';
 
@@ -47,8 +46,7 @@ export type CheckoutStatus = 'open' | 'processing' | 'paid' | 'failed' | 'needs_
 export async function startCheckout(invoiceId: number, scope: StatementScope, amount: string, userId: number | null): Promise<{ url: string }> {
   const invoice = await invoiceView(invoiceId, scope);
   if (invoice.series !== 'invoice') throw new AppError('not_found', 'There is no such invoice.');
-  const amountMinor = decimalToMinorUnits(amount, minorDigits(invoice.currency));
-  if (amountMinor === null) throw new AppError('validation_failed', `Give the amount in ${invoice.currency} with at most ${minorDigits(invoice.currency)} decimals.`);
+  const amountMinor = typedAmount(amount, invoice.currency);
   const problem = paymentProblem(amountMinor, invoice.balance, invoice.currency);
   if (problem) throw new AppError('unprocessable', problem);
   const back = `${appUrl()}/portal/invoices/${invoice.id}`;

@@ -8,3 +8,14 @@ export function customerStatementScope(user: Pick<SessionUser, 'role' | 'organis
   if (user.role !== 'customer') throw new AppError('forbidden', 'Statements here are for customers.');
   return { kind: 'customer', organisationId: user.organisationId, siteIds: user.siteIds ?? null };
 }
+
+/**
+ * The WHERE condition a scope puts on a table's customer column: everything for the operator, the organisation's
+ * rows for a customer, and nothing at all for a user limited to some sites (the same "none" as another
+ * organisation's). `at` is the number of the bind parameter it uses.
+ */
+export function customerScopeSql(scope: StatementScope, column: string, at: number): { sql: string; bind: unknown[] } {
+  if (scope.kind === 'operator') return { sql: 'TRUE', bind: [] };
+  if (scope.siteIds !== null) return { sql: 'FALSE', bind: [] };
+  return { sql: `${column} = $${at}`, bind: [scope.organisationId] };
+}

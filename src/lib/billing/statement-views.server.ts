@@ -8,6 +8,7 @@ import type { LocalDate } from '@/lib/calendar';
 import type { BillingPeriod, LineKind, StatementLine } from './hire-billing';
 import { draftStatement } from './statements.server';
 import type { StatementSummary } from './statement-csv';
+import { customerScopeSql } from './statement-scope.server';
 
 export interface StatementHead extends StatementSummary {
   rounding: string;
@@ -36,15 +37,8 @@ function head(r: HeadRow): StatementHead {
   return { ...rest, period: { from, to }, netMinor: Number(r.netMinor), taxMinor: Number(r.taxMinor), grossMinor: Number(r.grossMinor) };
 }
 
-function scopeWhere(scope: StatementScope, first: number): { sql: string; bind: unknown[] } {
-  if (scope.kind === 'operator') return { sql: 'TRUE', bind: [] };
-  // A user limited to some sites sees no statements at all (the same "none" as another organisation's).
-  if (scope.siteIds !== null) return { sql: 'FALSE', bind: [] };
-  return { sql: `s.customer_id = $${first}`, bind: [scope.organisationId] };
-}
-
 export async function listStatements(scope: StatementScope, filter: { customerId?: number } = {}): Promise<StatementHead[]> {
-  const where = scopeWhere(scope, 1);
+  const where = customerScopeSql(scope, 's.customer_id', 1);
   const bind = [...where.bind];
   let extra = '';
   if (filter.customerId !== undefined) {
@@ -76,7 +70,7 @@ interface LineRow {
 
 /** One statement with its lines; "no such statement" alike for another organisation's and a missing one. */
 export async function statementView(id: number, scope: StatementScope): Promise<StatementView> {
-  const where = scopeWhere(scope, 2);
+  const where = customerScopeSql(scope, 's.customer_id', 2);
   const [row] = await sequelize.query<HeadRow>(`${HEAD_SQL} WHERE s.id = $1 AND ${where.sql}`, { bind: [id, ...where.bind], type: QueryTypes.SELECT });
   if (!row) throw new AppError('not_found', 'There is no such statement.');
   const lines = await sequelize.query<LineRow>(

@@ -20,7 +20,7 @@ import {
   type StatementInput,
   type StatementLine,
 } from './hire-billing';
-import { billingMonth, decimalToMinor, issuableFrom, tariffVersions, versionInForce, type TariffRow } from './statement-input';
+import { billingMonth, issuableFrom, tariffVersions, versionInForce, type TariffRow } from './statement-input';
 
 /** How many earlier issued months a new statement re-checks for late changes (older ones are closed for good). */
 export const ADJUSTMENT_LOOKBACK = 12;
@@ -100,7 +100,6 @@ export async function statementInput(customerId: number, period: BillingPeriod, 
     ),
   ]);
   const versions = tariffVersions(tariffRows);
-  const currency = versions[0]?.currency ?? settings.currency;
   const priced = (at: Date, pick: (v: (typeof versions)[number]) => number) => {
     const v = versionInForce(versions, localDate(at, settings.timeZone));
     return v ? pick(v) : 0;
