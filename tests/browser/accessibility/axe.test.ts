@@ -6,7 +6,7 @@ import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { createRequire } from 'node:module';
 import { describe, test, expect, afterAll } from 'vitest';
-import type { BrowserContext, Page } from 'playwright-core';
+import type { BrowserContext, Page, Request } from 'playwright-core';
 import { useApp, ROOT, PHONE, DESKTOP, signIn } from '../support/app';
 import { one, closeDb } from '../support/db';
 import { DEMO_PASSWORD, DEMO_LOGINS } from '@/db/seed/demo-logins.mjs';
@@ -197,21 +197,34 @@ async function contextFor(viewer: Viewer, width: 'phone' | 'desktop'): Promise<B
 
 /**
  * Until the page has had no request in flight for a short while (the islands' first data fetched), at most 5 s.
- * Playwright's "networkidle" waits a fixed 500 ms of quiet on every page, most of the walk's time.
+ * Playwright's "networkidle" waits a fixed 500 ms of quiet on every page, most of the walk's time. The requests in
+ * flight are those of the current visit: call `visit()` before each navigation. A request whose end is never
+ * reported (one answered by the service worker, now and then) then holds up only its own visit, not every later
+ * page of the context.
  */
-function quietAfterLoad(page: Page): () => Promise<void> {
-  let inflight = 0;
+function quietAfterLoad(page: Page): { visit(): void; quiet(): Promise<void> } {
+  let open = new Set<Request>();
   let lastChange = Date.now();
-  const change = (d: number) => () => {
-    inflight += d;
+  const started = (r: Request) => {
+    open.add(r);
     lastChange = Date.now();
   };
-  page.on('request', change(1));
-  page.on('requestfinished', change(-1));
-  page.on('requestfailed', change(-1));
-  return async () => {
-    const t0 = Date.now();
-    while (Date.now() - t0 < 5_000 && (inflight > 0 || Date.now() - lastChange < 120)) await page.waitForTimeout(20);
+  const ended = (r: Request) => {
+    if (open.delete(r)) lastChange = Date.now();
+  };
+  page.on('request', started);
+  page.on('requestfinished', ended);
+  page.on('requestfailed', ended);
+  return {
+    visit() {
+      open = new Set();
+      lastChange = Date.now();
+    },
+    async quiet() {
+      const t0 = Date.now();
+      while (Date.now() - t0 < 5_000 && (open.size > 0 || Date.now() - lastChange < 120)) await page.waitForTimeout(20);
+      if (open.size) console.info(`[axe] still in flight after 5 s on ${page.url()}: ${[...open].map((r) => r.url()).join(' ')}`);
+    },
   };
 }
 
@@ -254,13 +267,14 @@ async function walk(width: 'phone' | 'desktop'): Promise<{ width: string; found:
   for (const viewer of VIEWERS) {
     const ctx = await contextFor(viewer, width);
     const page = await ctx.newPage();
-    const quiet = quietAfterLoad(page);
+    const requests = quietAfterLoad(page);
     for (const route of pageRoutes()) {
       const url = urlFor(route, viewer, ex, confirmPath);
       if (!mayOpen(viewer, url)) continue;
+      requests.visit();
       const res = await page.goto(url);
       expect(res?.status(), `${viewer} ${url}`).toBeLessThan(500);
-      await quiet();
+      await requests.quiet();
       opened += 1;
       for (const v of await axe(page)) found.push(`${width} ${viewer} ${url} [${v.id}, ${v.impact}] ${v.help}: ${v.nodes.join(' | ')}`);
     }
