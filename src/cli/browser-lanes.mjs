@@ -59,20 +59,22 @@ export function dealFiles(files, lanes, timings) {
   return out;
 }
 
-/** Runs one lane's vitest with its lines prefixed; resolves to its exit code. */
-function runLane(index, cmd, args, env, root) {
+/**
+ * Runs a command with every line of its output prefixed (`[lane 1] `, `[integration] `), so runs side by side stay
+ * readable; resolves to its exit code.
+ */
+export function runPrefixed(prefix, cmd, args, env, root) {
   return new Promise((resolve) => {
     const child = spawn(cmd, args, { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] });
-    const prefix = `[lane ${index + 1}] `;
     for (const stream of [child.stdout, child.stderr]) {
       let rest = '';
       stream.on('data', (chunk) => {
         const text = rest + chunk.toString();
         const lines = text.split('\n');
         rest = lines.pop() ?? '';
-        for (const line of lines) process.stdout.write(prefix + line + '\n');
+        for (const line of lines) process.stdout.write(`${prefix} ${line}\n`);
       });
-      stream.on('end', () => rest && process.stdout.write(prefix + rest + '\n'));
+      stream.on('end', () => rest && process.stdout.write(`${prefix} ${rest}\n`));
     }
     child.on('exit', (code) => resolve(code ?? 1));
   });
@@ -101,8 +103,8 @@ export async function runBrowserLanes({ root, vitestBin, files, lanes, flags, ba
   plan.forEach((lane, i) => process.stdout.write(`[lane ${i + 1}] ${lane.files.length} files, about ${Math.round(lane.seconds)} s by the last timings\n`));
   const codes = await Promise.all(
     plan.map((lane, i) =>
-      runLane(
-        i,
+      runPrefixed(
+        `[lane ${i + 1}]`,
         vitestBin,
         ['run', '--project', 'browser', '--no-file-parallelism', '--reporter=default', '--reporter=json', `--outputFile.json=${reports[i]}`, ...flags, ...lane.files],
         { ...process.env, ...baseEnv, ...lanes[i].env },

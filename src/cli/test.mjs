@@ -1,12 +1,13 @@
 // `npm test`: sets up everything the tests need on this machine, then runs the
-// suites in order and prints how long each took.
+// suites (lint, unit, then integration beside the browser lanes) and prints how long each took.
 //   npm test                       all suites (lint, unit, integration, browser)
 //   npm test -- unit integration   only the named suites
 //   npm test -- browser -- login   extra arguments after a second -- go to vitest (e.g. a file filter)
 import { say, ensureDependencies, ensureDebianPackages, authSecret, migrate, seed, buildIfStale, bin, run, startChild, shutdown } from './setup.mjs';
 import { startPostgres, ensureDatabase, databaseUrl, projectRoot } from './postgres.mjs';
 import { spawnSync } from 'node:child_process';
-import { browserFiles, runBrowserLanes } from './browser-lanes.mjs';
+import { browserFiles, runBrowserLanes, runPrefixed } from './browser-lanes.mjs';
+import { workerDatabaseName } from './worker-database.mjs';
 
 const SUITES = ['lint', 'unit', 'integration', 'browser'];
 const argv = process.argv.slice(2);
@@ -23,6 +24,9 @@ const laneCount =
     ? Math.max(1, Math.min(Number(process.env.LOOPFOLD_BROWSER_LANES ?? 2) || 1, browserFiles(projectRoot, browserFilters).length))
     : 1;
 const laneDb = (i) => (i === 0 ? 'loopfold_e2e' : `loopfold_e2e_${i + 1}`);
+// Integration files run this many at a time, each worker on its own copy of the migrated test database
+// (tests/integration/support/worker-database.ts); LOOPFOLD_INTEGRATION_WORKERS=1 runs them one by one.
+const integrationWorkers = process.env.TEST_DATABASE_URL ? 1 : Math.max(1, Number(process.env.LOOPFOLD_INTEGRATION_WORKERS ?? 2) || 1);
 
 const timings = [];
 function timed(name, fn) {
@@ -34,17 +38,19 @@ function timed(name, fn) {
   }
 }
 
-function vitest(folder, env) {
+/** The vitest arguments for one folder: the project, how many files at a time, the filters and flags after `--`. */
+function vitestArgs(folder) {
   // Words after `--` narrow the run to matching files of the folder; flags pass through.
   const filters = vitestExtra.filter((a) => !a.startsWith('-')); // matched anywhere in the path, inside the project
   const flags = vitestExtra.filter((a) => a.startsWith('-'));
-  // Integration and browser files share one database each: one file at a time (vitest ignores fileParallelism set
-  // inside a project, so it is said here).
-  const serial = folder === 'unit' ? [] : ['--no-file-parallelism'];
-  const r = spawnSync(bin('vitest'), ['run', '--project', folder, ...serial, ...filters, ...flags], {
-    stdio: 'inherit',
-    env: { ...process.env, ...env },
-  });
+  // A browser lane's files share one database: one file at a time (vitest ignores fileParallelism set inside a
+  // project, so it is said here). Integration workers each have their own database.
+  const serial = folder === 'unit' ? [] : folder === 'integration' && integrationWorkers > 1 ? [`--maxWorkers=${integrationWorkers}`, '--minWorkers=1'] : ['--no-file-parallelism'];
+  return ['run', '--project', folder, ...serial, ...filters, ...flags];
+}
+
+function vitest(folder, env) {
+  const r = spawnSync(bin('vitest'), vitestArgs(folder), { stdio: 'inherit', env: { ...process.env, ...env } });
   return r.status === 0;
 }
 
@@ -92,6 +98,7 @@ try {
       migrate(testDb);
       run(bin('sequelize-cli'), ['db:migrate:undo:all'], { DATABASE_URL: testDb });
       migrate(testDb);
+      for (let w = 2; w <= integrationWorkers; w += 1) ensureDatabase(pgBin, workerDatabaseName('loopfold_test', w), { fresh: true, template: 'loopfold_test' });
     }
     if (suites.includes('browser')) {
       migrate(e2eDb);
@@ -111,14 +118,26 @@ try {
   if (suites.includes('unit')) {
     failed = !timed('unit', () => vitest('unit', env)) || failed;
   }
-  if (suites.includes('integration')) {
-    failed = !timed('integration', () => vitest('integration', { ...env, DATABASE_URL: testDb })) || failed;
+  // Integration and browser run side by side when both are asked for: the integration files mostly wait for the
+  // database (half the CPU idle when they run alone), the browser lanes keep both cores busy; alone, each runs in
+  // the foreground as before.
+  const integrationEnv = { ...env, DATABASE_URL: testDb };
+  const both = suites.includes('integration') && suites.includes('browser');
+  if (suites.includes('integration') && !both) {
+    failed = !timed('integration', () => vitest('integration', integrationEnv)) || failed;
   }
   if (suites.includes('browser')) {
     const t0 = Date.now();
     const buildError = await building;
     timings.push(['build (wait)', (Date.now() - t0) / 1000]);
     if (buildError) throw buildError;
+    const started = Date.now();
+    const integration = both
+      ? runPrefixed('[integration]', bin('vitest'), vitestArgs('integration'), { ...process.env, ...integrationEnv }, projectRoot).then((code) => {
+          timings.push(['integration (beside browser)', (Date.now() - started) / 1000]);
+          return code === 0;
+        })
+      : Promise.resolve(true);
     // One local mail server per lane (ports 100 apart), storing into that lane's database.
     const smtpBase = Number(process.env.LOOPFOLD_TEST_SMTP_PORT ?? '2526');
     const lanes = Array.from({ length: laneCount }, (_, i) => {
@@ -128,9 +147,9 @@ try {
       return { env: { DATABASE_URL: database, SMTP_HOST: '127.0.0.1', SMTP_PORT: smtpPort, MAIL_DEV_INBOX: '1' } };
     });
     await new Promise((r) => setTimeout(r, 800));
-    const started = Date.now();
+    const browserStarted = Date.now();
     const passed =
-      laneCount === 1
+      laneCount === 1 && !both
         ? vitest('browser', { ...env, ...lanes[0].env })
         : await runBrowserLanes({
             root: projectRoot,
@@ -140,8 +159,10 @@ try {
             flags: vitestExtra.filter((a) => a.startsWith('-')),
             baseEnv: env,
           });
-    timings.push([laneCount === 1 ? 'browser' : `browser (${laneCount} lanes)`, (Date.now() - started) / 1000]);
+    timings.push([laneCount === 1 ? 'browser' : `browser (${laneCount} lanes)`, (Date.now() - browserStarted) / 1000]);
     failed = !passed || failed;
+    failed = !(await integration) || failed;
+    if (both) timings.push(['integration ∥ browser', (Date.now() - started) / 1000]);
   }
 } catch (err) {
   console.error(`\n[loopfold] test set-up failed: ${err.message}`);
@@ -149,7 +170,7 @@ try {
 }
 
 say('time per suite:');
-for (const [name, s] of timings) say(`  ${name.padEnd(12)} ${s.toFixed(1)} s`);
+for (const [name, s] of timings) say(`  ${name.padEnd(28)} ${s.toFixed(1)} s`);
 say(failed ? 'FAILED' : 'all suites passed');
 // Stops the mail server child, then leaves with the suites' verdict.
 shutdown(failed ? 1 : 0);

@@ -1,5 +1,6 @@
 // Integration tests run against the real test database (never a mock):
-// `npm test` migrates a fresh `loopfold_test`; each file starts from empty tables.
+// `npm test` migrates a fresh `loopfold_test` (and a copy per further worker, support/worker-database.ts); each
+// file starts from empty tables.
 import { sequelize } from '@/db/sequelize';
 
 export async function resetDatabase() {
