@@ -65,6 +65,8 @@ describe('preparing and loading bins on a phone', () => {
     await page.goto(`/loads/new?order=${order.id}`);
     await page.click(`[data-start-order="${order.id}"]`);
     await page.waitForURL(/\/loads\/LD-/);
+    // This load by its reference: the page may resume one another file opened for the same order.
+    const loadRef = new URL(page.url()).pathname.split('/')[2]!;
     const notReady = await one<{ grai: string }>(`SELECT grai FROM assets WHERE site_id = $1 AND status = 'available' ORDER BY id DESC LIMIT 1`, [depot.id]);
     for (const g of [bins[0]!.grai, notReady.grai, bins[1]!.grai]) {
       await page.fill('#scan-text', g);
@@ -103,7 +105,8 @@ describe('preparing and loading bins on a phone', () => {
     const after = await rows<{ status: string }>(`SELECT status FROM assets WHERE grai = ANY($1)`, [bins.map((b) => b.grai)]);
     expect(after.map((a) => a.status)).toEqual(['on_hire', 'on_hire']);
     const load = await one<{ status: string; received_by_name: string; delivery_photo_id: number | null }>(
-      `SELECT status, received_by_name, delivery_photo_id FROM loads ORDER BY id DESC LIMIT 1`,
+      `SELECT status, received_by_name, delivery_photo_id FROM loads WHERE reference = $1`,
+      [loadRef],
     );
     expect(load).toMatchObject({ status: 'delivered', received_by_name: 'Mila de Boer' });
     expect(load.delivery_photo_id).not.toBeNull();
