@@ -44,12 +44,12 @@ export async function stopCamera(reader: QrReader): Promise<void> {
 
 const MAX_PHOTO_SIDE = 2000;
 
-/** Phone photos are 12 megapixels and more; a label's QR reads as well, and much faster, from a smaller copy. */
-async function smaller(file: File): Promise<File> {
+/** A copy of the photo at most `maxSide` px on its longer side (the photo itself when it is that small already). */
+async function scaledTo(file: File, maxSide: number): Promise<File> {
   if (typeof createImageBitmap !== 'function') return file;
   try {
     const bitmap = await createImageBitmap(file);
-    const scale = MAX_PHOTO_SIDE / Math.max(bitmap.width, bitmap.height);
+    const scale = maxSide / Math.max(bitmap.width, bitmap.height);
     if (scale >= 1) return file;
     const canvas = document.createElement('canvas');
     canvas.width = Math.round(bitmap.width * scale);
@@ -62,12 +62,37 @@ async function smaller(file: File): Promise<File> {
   }
 }
 
-/** The text of the QR code in a photo; throws when there is none to read. */
-export async function decodePhoto(elementId: string, file: File): Promise<string> {
-  const reader = new Html5Qrcode(elementId, CONFIG);
+async function sideOf(file: File): Promise<number> {
+  if (typeof createImageBitmap !== 'function') return 0;
   try {
-    return await reader.scanFile(await smaller(file), false);
-  } finally {
-    reader.clear();
+    const bitmap = await createImageBitmap(file);
+    return Math.max(bitmap.width, bitmap.height);
+  } catch {
+    return 0;
   }
+}
+
+/**
+ * The text of the QR code in a photo; throws when there is none to read. Phone photos are 12 megapixels and more;
+ * a label's QR reads as well, and much faster, from a smaller copy. The bundled decoder's finder-pattern search
+ * depends on the module size in pixels, so a photo it cannot read is tried once more at half its size before
+ * the reader gives up.
+ */
+export async function decodePhoto(elementId: string, file: File): Promise<string> {
+  const first = await scaledTo(file, MAX_PHOTO_SIDE);
+  const tries = [first];
+  const side = await sideOf(first);
+  if (side >= 400) tries.push(await scaledTo(first, Math.round(side / 2)));
+  let failure: unknown = null;
+  for (const photo of tries) {
+    const reader = new Html5Qrcode(elementId, CONFIG);
+    try {
+      return await reader.scanFile(photo, false);
+    } catch (e) {
+      failure = e;
+    } finally {
+      reader.clear();
+    }
+  }
+  throw failure;
 }

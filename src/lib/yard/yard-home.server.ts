@@ -2,11 +2,11 @@
 // hire orders, what is on its way in, what waits for a test, recent scans.
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
-import { addDays, localDate } from '@/lib/calendar';
+import { localDate } from '@/lib/calendar';
 import type { Action, Status } from '@/lib/scans/lifecycle';
-import { DUE_SOON_DAYS } from '@/lib/inspections/inspection-due';
 import { getSettings } from '@/lib/settings/settings.server';
 import { openOrdersAt } from '@/lib/loads/hire-orders.server';
+import { countYardLists, hereByStatus, yardList } from './yard-lists.server';
 
 export interface YardHome {
   depot: { id: number; name: string } | null;
@@ -42,38 +42,16 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
   };
   if (!depotId) return empty;
   const [depot] = await q<{ id: number; name: string }>('SELECT id, name FROM sites WHERE id = $1', [depotId]);
-  const [counts, orders, expected, transfers, testsDue, recent] = await Promise.all([
-    // Retired bins have left the pool even when their scrap still stands in the yard.
-    q<{ status: Status; count: number }>(`SELECT status, count(*)::int AS count FROM assets WHERE site_id = $1 AND status <> 'retired' GROUP BY status ORDER BY count DESC`, [
-      depotId,
-    ]),
+  const [counts, orders, figures, testsDue, recent] = await Promise.all([
+    hereByStatus(depotId, today),
     // The same list "Start a load" offers (src/pages/loads/new.astro): the card counts what it opens.
     openOrdersAt(depotId).then((list) =>
       list.map(({ id, reference, customer, neededBy, quantity, loaded, binType }) => ({ id, reference, customer, neededBy, quantity, loaded, binType })),
     ),
-    // Bins that left from this depot come back to it, as a rule.
-    q<{ returning: number; awaiting: number }>(
-      `SELECT count(*) FILTER (WHERE a.status = 'in_transit' AND a.leg = 'return')::int AS returning,
-              count(*) FILTER (WHERE a.status = 'awaiting_collection')::int AS awaiting
-         FROM assets a JOIN trips t ON t.id = a.current_trip_id
-        WHERE t.depot_site_id = $1`,
-      [depotId],
-    ),
-    // Empties on a transfer load addressed to this depot, still on the road.
-    q<{ n: number }>(
-      `SELECT count(*)::int AS n FROM assets a
-        WHERE a.status = 'in_transit' AND a.leg = 'transfer'
-          AND (SELECT l.destination_site_id FROM scan_events e JOIN loads l ON l.id = (e.payload->>'loadId')::int
-                WHERE e.asset_id = a.id AND e.action = 'dispatch' AND e.payload ? 'loadId' AND e.voided_at IS NULL
-                ORDER BY e.occurred_at DESC LIMIT 1) = $1`,
-      [depotId],
-    ),
-    q<YardHome['testsDue'][number] & { total: number }>(
-      `SELECT grai, serial, next_due AS "nextDue", status, count(*) OVER ()::int AS total FROM assets
-        WHERE site_id = $1 AND status IN ('available', 'quarantine', 'in_repair') AND next_due <= $2
-        ORDER BY next_due LIMIT 8`,
-      [depotId, addDays(today, DUE_SOON_DAYS)],
-    ),
+    // Every other figure is the length of its list on /yard/bins (yard-lists.server.ts).
+    countYardLists(depotId, today),
+    // A preview of the tests list: its first few.
+    yardList(depotId, today, { list: 'tests-due', status: null }).then((rows) => rows.slice(0, 8)),
     q<YardHome['recent'][number]>(
       `SELECT a.grai, a.serial, e.action, e.occurred_at AS "occurredAt", e.status_to AS "statusTo", e.inferred
          FROM scan_events e JOIN assets a ON a.id = e.asset_id
@@ -90,10 +68,10 @@ export async function loadYardHome(depotId: number | null, userId: number): Prom
     orders,
     toPrepare,
     preparedHere: byStatus.get('prepared') ?? 0,
-    expected: { returning: expected[0]?.returning ?? 0, awaitingCollection: expected[0]?.awaiting ?? 0, transfersIn: transfers[0]?.n ?? 0 },
-    testsDue: testsDue.map(({ total: _total, ...t }) => t),
-    testsDueCount: testsDue[0]?.total ?? 0,
-    quarantined: (byStatus.get('quarantine') ?? 0) + (byStatus.get('in_repair') ?? 0),
+    expected: { returning: figures.returning, awaitingCollection: figures.awaiting, transfersIn: figures['transfers-in'] },
+    testsDue: testsDue.map(({ grai, serial, nextDue, status }) => ({ grai, serial, nextDue, status })),
+    testsDueCount: figures['tests-due'],
+    quarantined: figures.held,
     recent: recent.map((r) => ({ ...r, occurredAt: new Date(r.occurredAt).toISOString() })),
   };
 }

@@ -1,8 +1,8 @@
 // Every figure card on the pool overview and the yard start page opens a list, and its number is that
 // list's length: the overview's cards against the fleet grid's own count, the yard's open orders
-// against the orders "Start a load" offers.
+// against the orders "Start a load" offers, and each other yard figure against its list on /yard/bins.
 import { describe, test, expect, afterAll } from 'vitest';
-import { useApp, newContext, signIn } from '../support/app';
+import { useApp, newContext, signIn, expectNoPageOverflow, screenshot } from '../support/app';
 import { closeDb } from '../support/db';
 import { DEMO_LOGINS, DEMO_PASSWORD } from '@/db/seed/demo-logins.mjs';
 import { hydrated } from '../support/yard';
@@ -48,6 +48,22 @@ describe('a card’s number is the length of the list it opens', () => {
     expect(listed.length).toBe(orders);
     const open = listed.map((s) => s.match(/(\d+)\/(\d+)/)!).reduce((sum, m) => sum + Math.max(0, Number(m[2]) - Number(m[1])), 0);
     expect(open).toBe(toPrepare);
+
+    // Every other figure on the page opens its list on /yard/bins, and the number is that list's length.
+    await page.goto('/yard');
+    const figures = await page.$$eval('a[data-yard-figure]', (as) =>
+      as.map((a) => ({ id: a.getAttribute('data-yard-figure')!, href: a.getAttribute('href')!, text: a.textContent })),
+    );
+    for (const id of ['here', 'returning', 'awaiting', 'tests-due', 'held']) expect(figures.map((f) => f.id)).toContain(id);
+    expect(figures.filter((f) => f.id.startsWith('here-')).length, 'each status at the depot opens its list').toBeGreaterThan(1);
+    for (const f of figures) {
+      const n = number((f.text ?? '').match(/\d[\d,]*/)?.[0] ?? '');
+      await page.goto(f.href);
+      await expect(page.getByTestId('list-count').textContent(), f.id).resolves.toBe(n.toLocaleString('en-GB'));
+      await expect(page.locator('[data-testid="yard-list"] > li').count(), f.id).resolves.toBe(n);
+    }
+    await expectNoPageOverflow(page, 'a yard list');
+    await screenshot(page, 'yard-list-phone');
     await ctx.close();
   });
 });
