@@ -13,6 +13,7 @@ import { timelineEvents, type BinEvent } from '@/lib/scans/event-timeline.server
 
 export type { BinEvent };
 import type { SessionUser } from '@/lib/accounts/session-user.server';
+import { tripTermSql } from '@/lib/fleet/overdue-return';
 
 export interface BinView {
   asset: {
@@ -78,7 +79,7 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
     `SELECT a.*, bt.code AS bt_code, bt.name AS bt_name, bt.nominal_capacity_l, bt.tare_kg, bt.max_gross_kg, bt.un_code, bt.policy_kind,
             bt.intermediate_months, bt.full_months, bt.service_life_applies, bt.service_life_years,
             s.code AS site_code, s.name AS site_name, s.kind AS site_kind,
-            o.name AS customer_name, o.free_days,
+            o.name AS customer_name, ${tripTermSql('free_days', '$2::text')} AS free_days,
             t.dispatched_at, t.delivered_at, t.fill_product, t.seals_applied, ho.reference AS order_ref, cs.name AS customer_site_name,
             l.lot_number, l.supplier, l.expiry_date, l.status AS lot_status
        FROM assets a
@@ -90,7 +91,7 @@ export async function loadBinView(grai: string, user: SessionUser): Promise<BinV
        LEFT JOIN sites cs ON cs.id = t.customer_site_id
        LEFT JOIN liner_lots l ON l.id = a.liner_lot_id
       WHERE a.grai = $1`,
-    { bind: [grai], type: QueryTypes.SELECT },
+    { bind: [grai, settings.timeZone], type: QueryTypes.SELECT },
   );
   if (!row) return null;
   const isCustomer = user.role === 'customer';

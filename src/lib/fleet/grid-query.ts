@@ -21,7 +21,7 @@
 import { STATUSES } from '@/lib/scans/lifecycle';
 import { addDays, endOfMonth, isLocalDate, monthOf, type LocalDate } from '@/lib/calendar';
 import { CONTROL_MESSAGE, DATE_RANGE_MESSAGE, hasControlCharacter, inDateRange } from '@/lib/text-input';
-import { overdueBackSql } from './overdue-return';
+import { overdueBackSql, tripTermSql } from './overdue-return';
 import { DUE_SOON_DAYS, testDueSoonSql } from '@/lib/inspections/inspection-due';
 
 export const MAX_PAGE_ROWS = 500;
@@ -107,8 +107,8 @@ export type ColumnSpec =
 const STATUS_ORDER = `array_position(ARRAY[${STATUSES.map((s) => `'${s}'`).join(',')}]::text[], a.status)`;
 
 /**
- * Bins on hire (or folded at the customer, waiting) for longer than that customer's free days, counted from
- * the delivery (or the dispatch when the delivery was never scanned): the rule of overdue-return.ts.
+ * Bins on hire (or folded at the customer, waiting) for longer than their trip's free days, counted as billing
+ * counts them (the tariff in force on the dispatch day): the rule of overdue-return.ts.
  */
 function overFreeDays(b: Binds): string {
   return overdueBackSql(b.today(), b.tz());
@@ -559,7 +559,7 @@ function selectList(b: Binds): string {
   return `a.id, a.grai, a.serial, a.status,
   a.bin_type_id AS "binTypeId", bt.code AS "binTypeCode",
   a.site_id AS "siteId", s.name AS "siteName",
-  a.customer_id AS "customerId", o.name AS "customerName", o.free_days AS "freeDays",
+  a.customer_id AS "customerId", o.name AS "customerName", ${tripTermSql('free_days', b.tz())} AS "freeDays",
   ${daysExpr('a.site_since', b)} AS "daysAtSite",
   to_char(a.site_since AT TIME ZONE ${b.tz()}, 'YYYY-MM-DD') AS "siteSinceOn",
   ${daysExpr('a.last_scan_at', b)} AS "daysSilent",

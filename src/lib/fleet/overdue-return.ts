@@ -14,12 +14,16 @@
  * rule does not apply to them.
  *
  * The day count itself — which dates count, and that the free days are the first counted ones — is the one of
- * hire billing (src/lib/billing/hire-days.ts), so "overdue" and "charged" agree on every day. A customer's tariff
- * may say which ends count (`dayCount`); without it the default terms give the counts above.
+ * hire billing (src/lib/billing/hire-days.ts), so "overdue" and "charged" agree on every day. The terms are those
+ * billing charges the trip by: the customer's tariff version in force on the day the bin was dispatched (its free
+ * days, whether the first day counts, whether hire starts at the delivery or the dispatch). A customer with no
+ * tariff in force that day falls back to its own free-days column and the default terms, which give the counts
+ * above. `tripTermSql()` reads those terms in SQL, `overdueBackSql()` uses them.
  */
 import type { LocalDate } from '@/lib/calendar';
 import { DEFAULT_DAY_COUNT, hireDaysThrough, lastFreeDay as lastFreeHireDay, type DayCountTerms } from '@/lib/billing/hire-days';
 import type { Status } from '@/lib/scans/lifecycle';
+import type { HireStartEvent } from '@/lib/billing/hire-billing';
 
 /** The statuses in which a bin is with the customer and the free-day clock runs. */
 export const WITH_CUSTOMER_STATUSES = ['on_hire', 'awaiting_collection'] as const satisfies readonly Status[];
@@ -32,6 +36,8 @@ export interface OverdueInput {
   today: LocalDate;
   /** Which ends of the hire count (the customer's tariff); the billing default when left out. */
   dayCount?: DayCountTerms;
+  /** The event the hire starts at (the customer's tariff): the delivery (the dispatch when it was never scanned) by default. */
+  hireStartsAt?: HireStartEvent;
 }
 
 export interface OverdueCheck {
@@ -58,25 +64,72 @@ export function lastFreeDay(deliveredOn: LocalDate, freeDays: number, dayCount: 
   return lastFreeHireDay(deliveredOn, freeDays, dayCount);
 }
 
-export function overdueBack({ status, deliveredOn, dispatchedOn, freeDays, today, dayCount = DEFAULT_DAY_COUNT }: OverdueInput): OverdueCheck {
-  const start = deliveredOn ?? dispatchedOn;
+export function overdueBack({ status, deliveredOn, dispatchedOn, freeDays, today, dayCount = DEFAULT_DAY_COUNT, hireStartsAt = 'delivery' }: OverdueInput): OverdueCheck {
+  const start = hireStartsAt === 'dispatch' ? dispatchedOn : (deliveredOn ?? dispatchedOn);
   if (!isWithCustomer(status) || start === null) return NOT_APPLICABLE;
   const freeUntil = lastFreeDay(start, freeDays, dayCount);
   // Records from the future (a clock off on a phone) count as zero days, never as negative ones.
   const daysWithCustomer = hireDaysThrough(start, today, dayCount);
   const daysOver = Math.max(0, daysWithCustomer - freeDays);
-  return { applies: true, daysWithCustomer, daysOver, overdue: daysOver > 0, estimated: deliveredOn === null, freeUntil };
+  return { applies: true, daysWithCustomer, daysOver, overdue: daysOver > 0, estimated: hireStartsAt === 'delivery' && deliveredOn === null, freeUntil };
+}
+
+/** A trip's hire terms as the overdue rule takes them (from the columns `tripTermsSelectSql()` names). */
+export interface TripTerms {
+  freeDays: number;
+  dayCount: DayCountTerms;
+  hireStartsAt: HireStartEvent;
+}
+
+export function tripTermsOf(row: {
+  terms_free_days: number | null;
+  terms_first_day_counts: boolean | null;
+  terms_last_day_counts: boolean | null;
+  terms_hire_starts_at: string | null;
+}): TripTerms {
+  return {
+    freeDays: row.terms_free_days ?? 0,
+    dayCount: {
+      firstDayCounts: row.terms_first_day_counts ?? DEFAULT_DAY_COUNT.firstDayCounts,
+      lastDayCounts: row.terms_last_day_counts ?? DEFAULT_DAY_COUNT.lastDayCounts,
+    },
+    hireStartsAt: row.terms_hire_starts_at === 'dispatch' ? 'dispatch' : 'delivery',
+  };
+}
+
+/**
+ * One term of the trip `t` as SQL: the tariff version of the trip's customer in force on the local day of its
+ * dispatch, else the customer's own column (`o`, free days) or the default. `timeZone` is an SQL expression.
+ */
+export function tripTermSql(term: 'free_days' | 'first_day_counts' | 'last_day_counts' | 'hire_starts_at', timeZone: string): string {
+  const day = `(t.dispatched_at AT TIME ZONE ${timeZone})::date`;
+  const version = `(SELECT v.${term} FROM tariffs v WHERE v.customer_id = t.customer_id AND v.valid_from <= ${day} AND (v.valid_to IS NULL OR v.valid_to >= ${day}))`;
+  const fallback = {
+    free_days: 'o.free_days',
+    first_day_counts: String(DEFAULT_DAY_COUNT.firstDayCounts),
+    last_day_counts: String(DEFAULT_DAY_COUNT.lastDayCounts),
+    hire_starts_at: "'delivery'",
+  }[term];
+  return `COALESCE(${version}, ${fallback})`;
+}
+
+/** The columns tripTermsOf() reads, for a SELECT list (needs `t` and `o` as overdueBackSql does). */
+export function tripTermsSelectSql(timeZone: string): string {
+  return (['free_days', 'first_day_counts', 'last_day_counts', 'hire_starts_at'] as const).map((c) => `${tripTermSql(c, timeZone)} AS terms_${c}`).join(', ');
 }
 
 /**
  * overdueBack(...).overdue as SQL, for queries that filter or count in the database (the fleet grid's
  * "Over free days", the planners' digest). `today` and `timeZone` are SQL expressions (bind parameters);
  * the query must alias the bin `a`, its current trip `t` (trips.id = a.current_trip_id, LEFT JOIN is fine)
- * and the bin's customer `o`. "More days since the start than free days" is written as "the start instant
- * is before the first moment of local day (today − free days)", so an index on the instant can serve it.
+ * and the bin's customer `o`. "More counted days since the start than free days" — today − start + k > free,
+ * k = 1 when the first day counts — is written as "the start instant is before the first moment of local day
+ * (today − free days + k)", so an index on the instant can serve it.
  * Checked against overdueBack() row by row in tests/integration/fleet/overdue-back-drift.test.ts.
  */
 export function overdueBackSql(today: string, timeZone: string): string {
   const statuses = WITH_CUSTOMER_STATUSES.map((s) => `'${s}'`).join(', ');
-  return `(a.status IN (${statuses}) AND COALESCE(t.delivered_at, t.dispatched_at) < ((${today} - o.free_days)::timestamp AT TIME ZONE ${timeZone}))`;
+  const start = `CASE WHEN ${tripTermSql('hire_starts_at', timeZone)} = 'dispatch' THEN t.dispatched_at ELSE COALESCE(t.delivered_at, t.dispatched_at) END`;
+  const k = `CASE WHEN ${tripTermSql('first_day_counts', timeZone)} THEN 1 ELSE 0 END`;
+  return `(a.status IN (${statuses}) AND ${start} < ((${today} - ${tripTermSql('free_days', timeZone)} + ${k})::timestamp AT TIME ZONE ${timeZone}))`;
 }

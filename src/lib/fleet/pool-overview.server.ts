@@ -8,7 +8,9 @@ import { BIN_LIFE_SQL, startOfLocalDay } from '@/lib/trips/bin-life.server';
 import { addDays, addMonthsToMonth, daysBetween, endOfMonth, localDate, monthOf } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
 import { STATUSES, type SiteKind, type Status } from '@/lib/scans/lifecycle';
-import { overdueBack, WITH_CUSTOMER_STATUSES } from './overdue-return';
+import { overdueBack, overdueBackSql, tripTermsOf, tripTermsSelectSql, WITH_CUSTOMER_STATUSES } from './overdue-return';
+
+type TermsRow = Parameters<typeof tripTermsOf>[0];
 import { firstRecentDay, notScannedForSql } from './scan-age';
 import { shrinkage, shrinkageWindow, type Shrinkage, type Window } from './shrinkage';
 import { countLossFigures, type CountLossFigures } from '@/lib/portal/count-disputes.server';
@@ -163,16 +165,20 @@ async function siteCounts(): Promise<{ byStatus: StatusCounts; sites: SiteCounts
 }
 
 async function withCustomers(today: LocalDate, timeZone: string): Promise<{ customers: CustomerHire[]; overdueTotal: number; overdueBins: OverdueBin[] }> {
-  const groups = await select<{ customer_id: number; name: string; free_days: number; status: Status; delivered_on: string | null; dispatched_on: string | null; n: number }>(
+  // Each trip by the terms billing charges it by (the tariff in force on its dispatch day): overdue-return.ts.
+  const groups = await select<
+    { customer_id: number; name: string; free_days: number; status: Status; delivered_on: string | null; dispatched_on: string | null; n: number } & TermsRow
+  >(
     `SELECT a.customer_id, o.name, o.free_days, a.status,
             (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
             (t.dispatched_at AT TIME ZONE $1)::date AS dispatched_on,
+            ${tripTermsSelectSql('$1')},
             count(*)::int AS n
        FROM assets a
        JOIN organisations o ON o.id = a.customer_id
        LEFT JOIN trips t ON t.id = a.current_trip_id
       WHERE a.status = ANY($2::text[])
-      GROUP BY 1, 2, 3, 4, 5, 6`,
+      GROUP BY 1, 2, 3, 4, 5, 6, 7, 8, 9, 10`,
     [timeZone, WITH_CUSTOMER_STATUSES],
   );
   const byCustomer = new Map<number, CustomerHire>();
@@ -191,7 +197,7 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
     byCustomer.set(g.customer_id, c);
     if (g.status === 'on_hire') c.onHire += g.n;
     else c.awaitingCollection += g.n;
-    const check = overdueBack({ status: g.status, deliveredOn: g.delivered_on, dispatchedOn: g.dispatched_on, freeDays: g.free_days, today });
+    const check = overdueBack({ status: g.status, deliveredOn: g.delivered_on, dispatchedOn: g.dispatched_on, today, ...tripTermsOf(g) });
     if (check.overdue) {
       c.overdue += g.n;
       if (check.estimated) c.overdueEstimated += g.n;
@@ -202,32 +208,37 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
   const customers = [...byCustomer.values()].sort((a, b) => b.onHire + b.awaitingCollection - (a.onHire + a.awaitingCollection) || a.name.localeCompare(b.name));
 
   // The longest-overdue bins: ordered by the end of their free days, so the overdue ones come first.
-  const rows = await select<{
-    id: number;
-    grai: string;
-    serial: string;
-    status: Status;
-    customer: string;
-    site: string | null;
-    free_days: number;
-    delivered_on: string | null;
-    dispatched_on: string | null;
-  }>(
-    `SELECT a.id, a.grai, a.serial, a.status, o.name AS customer, s.name AS site, o.free_days,
-            (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
-            (t.dispatched_at AT TIME ZONE $1)::date AS dispatched_on
-       FROM assets a
-       JOIN organisations o ON o.id = a.customer_id
-       JOIN trips t ON t.id = a.current_trip_id
-       LEFT JOIN sites s ON s.id = a.site_id
-      WHERE a.status = ANY($2::text[])
-      ORDER BY (coalesce(t.delivered_at, t.dispatched_at) AT TIME ZONE $1)::date + o.free_days, a.id
-      LIMIT $3`,
-    [timeZone, WITH_CUSTOMER_STATUSES, LIST_LENGTH],
+  const rows = await select<
+    {
+      id: number;
+      grai: string;
+      serial: string;
+      status: Status;
+      customer: string;
+      site: string | null;
+      delivered_on: string | null;
+      dispatched_on: string | null;
+    } & TermsRow
+  >(
+    `SELECT * FROM (
+       SELECT a.id, a.grai, a.serial, a.status, o.name AS customer, s.name AS site,
+              (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
+              (t.dispatched_at AT TIME ZONE $1)::date AS dispatched_on,
+              ${tripTermsSelectSql('$1')}
+         FROM assets a
+         JOIN organisations o ON o.id = a.customer_id
+         JOIN trips t ON t.id = a.current_trip_id
+         LEFT JOIN sites s ON s.id = a.site_id
+        WHERE ${overdueBackSql('$3::date', '$1')}) b
+      -- the end of the free days: the start + free days − (1 when the first day counts)
+      ORDER BY CASE WHEN b.terms_hire_starts_at = 'dispatch' THEN b.dispatched_on ELSE coalesce(b.delivered_on, b.dispatched_on) END
+               + b.terms_free_days - b.terms_first_day_counts::int, b.id
+      LIMIT $2`,
+    [timeZone, LIST_LENGTH, today],
   );
   const overdueBins: OverdueBin[] = [];
   for (const r of rows) {
-    const check = overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, freeDays: r.free_days, today });
+    const check = overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, today, ...tripTermsOf(r) });
     if (!check.overdue) continue;
     overdueBins.push({
       assetId: r.id,

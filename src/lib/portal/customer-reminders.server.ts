@@ -9,7 +9,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { appUrl } from '@/lib/app-url.server';
 import { addDays, formatLongDate, localDate } from '@/lib/calendar';
-import { overdueBack, overdueBackSql } from '@/lib/fleet/overdue-return';
+import { overdueBack, overdueBackSql, tripTermsOf, tripTermsSelectSql } from '@/lib/fleet/overdue-return';
 import { countDueMail, overdueReminderMail } from '@/lib/mail/mail-templates';
 import { sendMail } from '@/lib/mail/mailer.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -58,20 +58,22 @@ async function logMail(reminderId: number, mailId: number) {
 export async function overdueBins(now: Date): Promise<ReminderBin[]> {
   const settings = await getSettings();
   const today = localDate(now, settings.timeZone);
-  const rows = await q<{
-    grai: string;
-    serial: string;
-    status: 'on_hire' | 'awaiting_collection';
-    customer_id: number;
-    site_id: number | null;
-    site_name: string | null;
-    free_days: number;
-    delivered_on: string | null;
-    dispatched_on: string | null;
-  }>(
-    `SELECT a.grai, a.serial, a.status, a.customer_id, cs.id AS site_id, cs.name AS site_name, o.free_days,
+  const rows = await q<
+    {
+      grai: string;
+      serial: string;
+      status: 'on_hire' | 'awaiting_collection';
+      customer_id: number;
+      site_id: number | null;
+      site_name: string | null;
+      delivered_on: string | null;
+      dispatched_on: string | null;
+    } & Parameters<typeof tripTermsOf>[0]
+  >(
+    `SELECT a.grai, a.serial, a.status, a.customer_id, cs.id AS site_id, cs.name AS site_name,
             to_char((t.delivered_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS delivered_on,
-            to_char((t.dispatched_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS dispatched_on
+            to_char((t.dispatched_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS dispatched_on,
+            ${tripTermsSelectSql('$2::text')}
        FROM assets a JOIN trips t ON t.id = a.current_trip_id JOIN organisations o ON o.id = a.customer_id
        LEFT JOIN sites s ON s.id = a.site_id LEFT JOIN sites cs ON cs.id = CASE WHEN s.kind = 'customer' THEN a.site_id ELSE t.customer_site_id END
       WHERE ${overdueBackSql('$1::date', '$2::text')}`,
@@ -83,7 +85,7 @@ export async function overdueBins(now: Date): Promise<ReminderBin[]> {
     organisationId: r.customer_id,
     siteId: r.site_id,
     siteName: r.site_name,
-    daysOver: overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, freeDays: r.free_days, today }).daysOver,
+    daysOver: overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, today, ...tripTermsOf(r) }).daysOver,
   }));
 }
 

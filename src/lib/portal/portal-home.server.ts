@@ -5,7 +5,7 @@ import { isInspectionLapsed } from '@/lib/scans/lifecycle';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { daysBetween, localDate } from '@/lib/calendar';
-import { overdueBack } from '@/lib/fleet/overdue-return';
+import { overdueBack, tripTermsOf, tripTermsSelectSql } from '@/lib/fleet/overdue-return';
 import type { Status } from '@/lib/scans/lifecycle';
 import { getSettings } from '@/lib/settings/settings.server';
 import { SCOPE_SITE_SQL, scopeSites, type PortalScope } from './portal-scope.server';
@@ -45,21 +45,29 @@ export async function loadPortalHome(scope: PortalScope) {
   });
   const sites = await scopeSites(scope);
   // A bin counts at the site it stands at; one on the road, at the site its trip serves.
-  const bins = await sequelize.query<{
-    site_id: number | null;
-    grai: string;
-    serial: string;
-    status: Status;
-    filled: boolean;
-    product: string | null;
-    start_day: string;
-    leg: RoadBin['leg'];
-    to_site: string | null;
-    next_due: string | null;
-  }>(
+  const bins = await sequelize.query<
+    {
+      site_id: number | null;
+      grai: string;
+      serial: string;
+      status: Status;
+      filled: boolean;
+      product: string | null;
+      start_day: string;
+      delivered_on: string | null;
+      dispatched_on: string;
+      leg: RoadBin['leg'];
+      to_site: string | null;
+      next_due: string | null;
+    } & Parameters<typeof tripTermsOf>[0]
+  >(
     `SELECT a.site_id, a.grai, a.serial, a.status, a.filled, t.fill_product AS product, a.leg, cs.name AS to_site, a.next_due::text,
-            to_char((COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS start_day
-       FROM assets a JOIN trips t ON t.id = a.current_trip_id LEFT JOIN sites cs ON cs.id = t.customer_site_id LEFT JOIN sites s ON s.id = a.site_id
+            to_char((COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS start_day,
+            to_char((t.delivered_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS delivered_on,
+            to_char((t.dispatched_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS dispatched_on,
+            ${tripTermsSelectSql('$2::text')}
+       FROM assets a JOIN trips t ON t.id = a.current_trip_id JOIN organisations o ON o.id = a.customer_id
+       LEFT JOIN sites cs ON cs.id = t.customer_site_id LEFT JOIN sites s ON s.id = a.site_id
       WHERE a.customer_id = $1 AND a.status IN ('on_hire', 'awaiting_collection', 'in_transit')
         AND ($3::int[] IS NULL OR ${SCOPE_SITE_SQL} = ANY($3::int[]))
       ORDER BY start_day, a.serial`,
@@ -69,10 +77,12 @@ export async function loadPortalHome(scope: PortalScope) {
   const bySite = new Map<number | null, PortalBin[]>();
   const road: RoadBin[] = [];
   for (const b of bins) {
-    // One rule for "overdue back" everywhere (src/lib/fleet/overdue-return.ts).
-    const check = overdueBack({ status: b.status, deliveredOn: b.start_day, dispatchedOn: null, freeDays, today });
+    // One rule for "overdue back" everywhere (src/lib/fleet/overdue-return.ts), by the terms billing charges this
+    // trip by (the tariff in force on its dispatch day).
+    const terms = tripTermsOf(b);
+    const check = overdueBack({ status: b.status, deliveredOn: b.delivered_on, dispatchedOn: b.dispatched_on, today, ...terms });
     const daysOnHire = check.daysWithCustomer ?? Math.max(0, daysBetween(b.start_day, today));
-    const days = { daysOnHire, freeDaysLeft: freeDays - daysOnHire, overdue: check.overdue };
+    const days = { daysOnHire, freeDaysLeft: terms.freeDays - daysOnHire, overdue: check.overdue };
     const list = bySite.get(b.site_id) ?? [];
     const bin = {
       grai: b.grai,

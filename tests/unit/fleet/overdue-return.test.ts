@@ -5,7 +5,7 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import { addDays as fnsAddDays, differenceInCalendarDays, format, parseISO } from 'date-fns';
-import { lastFreeDay, overdueBack, isWithCustomer, WITH_CUSTOMER_STATUSES } from '@/lib/fleet/overdue-return.ts';
+import { lastFreeDay, overdueBack, isWithCustomer, tripTermsOf, WITH_CUSTOMER_STATUSES } from '@/lib/fleet/overdue-return.ts';
 import { STATUSES } from '@/lib/scans/lifecycle.ts';
 
 describe('overdue back: more days since delivery than the free days', () => {
@@ -82,5 +82,31 @@ describe('overdue back: more days since delivery than the free days', () => {
       ),
       { numRuns: 300 },
     );
+  });
+
+  test('a tariff that starts hire at the dispatch and counts the first day (worked by hand)', () => {
+    // dispatched 19 Nov, delivered 20 Nov, 12 free days; today 1 Dec.
+    const trip = { status: 'on_hire' as const, deliveredOn: '2026-11-20', dispatchedOn: '2026-11-19', freeDays: 12, today: '2026-12-01' };
+    // default terms: from the delivery, the first day free → 21 Nov … 1 Dec = 11 days, 1 under
+    expect(overdueBack(trip)).toMatchObject({ daysWithCustomer: 11, daysOver: 0, overdue: false, freeUntil: '2026-12-02' });
+    // from the dispatch, the first day counted → 19 Nov … 1 Dec = 13 days, 1 over; the 12th counted day is 30 Nov
+    const strict = overdueBack({ ...trip, hireStartsAt: 'dispatch', dayCount: { firstDayCounts: true, lastDayCounts: true } });
+    expect(strict).toMatchObject({ daysWithCustomer: 13, daysOver: 1, overdue: true, estimated: false, freeUntil: '2026-11-30' });
+    // from the dispatch, a delivery never scanned is no estimate: the dispatch is the start the tariff names
+    expect(overdueBack({ ...trip, deliveredOn: null, hireStartsAt: 'dispatch' }).estimated).toBe(false);
+    expect(overdueBack({ ...trip, deliveredOn: null }).estimated).toBe(true);
+  });
+
+  test('the terms read from a row: the tariff version where there is one, the defaults for what is missing', () => {
+    expect(tripTermsOf({ terms_free_days: 12, terms_first_day_counts: true, terms_last_day_counts: false, terms_hire_starts_at: 'dispatch' })).toEqual({
+      freeDays: 12,
+      dayCount: { firstDayCounts: true, lastDayCounts: false },
+      hireStartsAt: 'dispatch',
+    });
+    expect(tripTermsOf({ terms_free_days: null, terms_first_day_counts: null, terms_last_day_counts: null, terms_hire_starts_at: null })).toEqual({
+      freeDays: 0,
+      dayCount: { firstDayCounts: false, lastDayCounts: true },
+      hireStartsAt: 'delivery',
+    });
   });
 });
