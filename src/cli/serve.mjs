@@ -27,8 +27,12 @@ const clientDir = join(root, 'dist', 'client');
 
 /** No route reads more than this (the largest upload is 10 MB plus its multipart wrapping). */
 export const HARD_BODY_LIMIT = 12 * 1024 * 1024;
-const LINGER_MS = 1_000;
-const LINGER_BYTES = 4 * 1024 * 1024;
+// After answering a body it did not read, the server keeps reading and discarding for a while before it closes:
+// closing with unread bytes makes the kernel send a reset, and a reset that reaches the sender before it has read
+// the answer throws the answer away (the 413 becomes "connection reset"). On loopback a sender still writing puts
+// megabytes through in milliseconds, so the allowance is mostly time: 2 s, or 64 MB discarded, whichever first.
+const LINGER_MS = 2_000;
+const LINGER_BYTES = 64 * 1024 * 1024;
 const BODY_LIMIT_CODE = 'LOOPFOLD_BODY_LIMIT';
 
 /** The locally made CA of src/cli/https.mjs signs certificates with this issuer name. */
