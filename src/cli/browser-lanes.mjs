@@ -3,7 +3,7 @@
 // lane sees another's writes. Most of a browser test is waiting (page loads, the server's answers, a reload the
 // page announces), so two lanes keep both cores of this machine busy where one left one idle.
 // Files are dealt out longest first to the lane with the least work so far (LPT scheduling); the weights are
-// the seconds each file took in the last run here (.loopfold/browser-timings.json, written after every run), else
+// the seconds each file added to its lane in the last run here (laneWallTimes) (.loopfold/browser-timings.json, written after every run), else
 // in the run recorded in tests/browser/timings.json, else the median of those.
 // Node built-ins only: it runs before dependencies may exist.
 import { spawn } from 'node:child_process';
@@ -80,15 +80,27 @@ export function runPrefixed(prefix, cmd, args, env, root) {
   });
 }
 
+/**
+ * The wall time each file added to its lane, in seconds, from one lane's vitest JSON results. A lane runs its files
+ * one after another, and a file's own start and end leave out what came before its start: the fork, importing
+ * and collecting its modules (over 90 s for the bad-input sweep on a fresh clone, which imports every route). So a
+ * file is weighed from the end of the one before it (the first from its own start). Pure, for the unit test.
+ */
+export function laneWallTimes(root, testResults) {
+  const out = {};
+  const runs = testResults.filter((r) => typeof r.startTime === 'number' && typeof r.endTime === 'number').sort((a, b) => a.startTime - b.startTime);
+  let previousEnd = runs[0]?.startTime ?? 0;
+  for (const r of runs) {
+    out[relative(root, r.name)] = Math.round((r.endTime - Math.min(previousEnd, r.startTime)) / 100) / 10;
+    previousEnd = r.endTime;
+  }
+  return out;
+}
+
 /** Seconds per file from vitest's JSON reports of the lanes. */
 function timingsFromReports(root, paths) {
   const out = {};
-  for (const p of paths) {
-    const report = readTimings(p);
-    for (const r of report.testResults ?? []) {
-      if (typeof r.startTime === 'number' && typeof r.endTime === 'number') out[relative(root, r.name)] = Math.round((r.endTime - r.startTime) / 100) / 10;
-    }
-  }
+  for (const p of paths) Object.assign(out, laneWallTimes(root, readTimings(p).testResults ?? []));
   return out;
 }
 

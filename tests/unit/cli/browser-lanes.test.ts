@@ -1,6 +1,6 @@
 // Dealing the browser files to lanes: longest first to the least-loaded lane (LPT, Graham 1969), hand-worked.
 import { describe, expect, test } from 'vitest';
-import { dealFiles } from '@/cli/browser-lanes.mjs';
+import { dealFiles, laneWallTimes } from '@/cli/browser-lanes.mjs';
 
 describe('dealFiles', () => {
   test('LPT on a hand-worked case: 7, 5, 4, 3, 3 s over two lanes → 7 + 3 and 5 + 4 + 3', () => {
@@ -26,5 +26,18 @@ describe('dealFiles', () => {
     expect(lanes[0]!.files).toEqual(['only']);
     const many = dealFiles(['a', 'b', 'c', 'd'], 2, {});
     expect(many.flatMap((l) => l.files).sort()).toEqual(['a', 'b', 'c', 'd']);
+  });
+});
+
+describe('laneWallTimes', () => {
+  test('each file weighs from the end of the one before it, so its module collection counts (hand-worked)', () => {
+    // a runs 0–10 s; b is collected 10–40 s and runs 40–45 s; c starts at once, 45–47 s
+    const results = [
+      { name: '/p/tests/browser/b.test.ts', startTime: 40_000, endTime: 45_000 },
+      { name: '/p/tests/browser/a.test.ts', startTime: 0, endTime: 10_000 },
+      { name: '/p/tests/browser/c.test.ts', startTime: 45_000, endTime: 47_000 },
+      { name: '/p/tests/browser/never-ran.test.ts' },
+    ];
+    expect(laneWallTimes('/p', results)).toEqual({ 'tests/browser/a.test.ts': 10, 'tests/browser/b.test.ts': 35, 'tests/browser/c.test.ts': 2 });
   });
 });
