@@ -28,6 +28,8 @@ declare module 'autocannon' {
       non2xx: number;
       errors: number;
       timeouts: number;
+      /** Answers by status code ("201", "409", …). */
+      statusCodeStats?: Record<string, { count: number }>;
     }
   }
   function autocannon(opts: autocannon.Options): Promise<autocannon.Result>;

@@ -84,8 +84,13 @@ async function main() {
     const record = (name: string, connections: number, r: autocannon.Result) => {
       const row = { name, connections, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, ok: r['2xx'], bad: r.non2xx + r.errors + r.timeouts };
       results.push(row);
+      // What the failures were: answers by status (other than 2xx), connection errors, timeouts.
+      const statuses = Object.entries(r.statusCodeStats ?? {})
+        .filter(([code]) => !code.startsWith('2'))
+        .map(([code, v]) => `${code}×${v.count}`);
+      const why = [...statuses, r.errors ? `errors×${r.errors}` : '', r.timeouts ? `timeouts×${r.timeouts}` : ''].filter(Boolean).join(' ');
       say(
-        `  ${name.padEnd(26)} ${String(connections).padStart(2)} conn  ${row.rps.toFixed(0).padStart(5)} req/s  p50 ${row.p50} ms  p99 ${row.p99} ms  ${row.bad ? `${row.bad} failed` : ''}`,
+        `  ${name.padEnd(26)} ${String(connections).padStart(2)} conn  ${row.rps.toFixed(0).padStart(5)} req/s  p50 ${row.p50} ms  p99 ${row.p99} ms  ${row.bad ? `${row.bad} failed (${why})` : ''}`,
       );
     };
     const run = (opts: autocannon.Options) => autocannon({ duration: DURATION, ...opts });
