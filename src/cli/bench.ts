@@ -104,7 +104,12 @@ async function main() {
       record('GET /api/health', connections, await run({ url: `${base}/api/health`, connections }));
       record('GET /api/fleet/views', connections, await run({ url: `${base}/api/fleet/views`, connections, headers: { cookie } }));
 
-      // Each connection takes bins of its own (no two connections scan the same bin).
+      // Each connection takes bins of its own (no two connections scan the same bin). Each bin's step is read
+      // back from the database first: a scan still in flight when the last run stopped changed its bin without
+      // its answer reaching onResponse, and a stale step would be refused (422) on every later try.
+      const { rows: now } = await db.query<{ id: number; status: string }>('SELECT id, status FROM assets WHERE id = ANY($1)', [bins.map((b) => b.id)]);
+      const statusOf = new Map(now.map((r) => [r.id, r.status]));
+      for (const b of bins) b.step = statusOf.get(b.id) === 'prepared' ? 1 : statusOf.get(b.id) === 'quarantine' ? 2 : 0;
       let next = 0;
       const stop = connections === 32 ? sampleWaits(db) : null;
       const scans = await run({
