@@ -97,13 +97,18 @@ export function tripTermsOf(row: {
   };
 }
 
+/** The trip `t`'s customer's tariff version `v` in force on the local day of the dispatch (versions never overlap). */
+function versionInForceSql(timeZone: string): string {
+  const day = `(t.dispatched_at AT TIME ZONE ${timeZone})::date`;
+  return `v.customer_id = t.customer_id AND v.valid_from <= ${day} AND (v.valid_to IS NULL OR v.valid_to >= ${day})`;
+}
+
 /**
  * One term of the trip `t` as SQL: the tariff version of the trip's customer in force on the local day of its
  * dispatch, else the customer's own column (`o`, free days) or the default. `timeZone` is an SQL expression.
  */
 export function tripTermSql(term: 'free_days' | 'first_day_counts' | 'last_day_counts' | 'hire_starts_at', timeZone: string): string {
-  const day = `(t.dispatched_at AT TIME ZONE ${timeZone})::date`;
-  const version = `(SELECT v.${term} FROM tariffs v WHERE v.customer_id = t.customer_id AND v.valid_from <= ${day} AND (v.valid_to IS NULL OR v.valid_to >= ${day}))`;
+  const version = `(SELECT v.${term} FROM tariffs v WHERE ${versionInForceSql(timeZone)})`;
   const fallback = {
     free_days: 'o.free_days',
     first_day_counts: String(DEFAULT_DAY_COUNT.firstDayCounts),
@@ -129,7 +134,11 @@ export function tripTermsSelectSql(timeZone: string): string {
  */
 export function overdueBackSql(today: string, timeZone: string): string {
   const statuses = WITH_CUSTOMER_STATUSES.map((s) => `'${s}'`).join(', ');
-  const start = `CASE WHEN ${tripTermSql('hire_starts_at', timeZone)} = 'dispatch' THEN t.dispatched_at ELSE COALESCE(t.delivered_at, t.dispatched_at) END`;
-  const k = `CASE WHEN ${tripTermSql('first_day_counts', timeZone)} THEN 1 ELSE 0 END`;
-  return `(a.status IN (${statuses}) AND ${start} < ((${today} - ${tripTermSql('free_days', timeZone)} + ${k})::timestamp AT TIME ZONE ${timeZone}))`;
+  const by = (starts: string, freeDays: string, firstCounts: string) =>
+    `CASE WHEN ${starts} = 'dispatch' THEN t.dispatched_at ELSE COALESCE(t.delivered_at, t.dispatched_at) END` +
+    ` < ((${today} - ${freeDays} + CASE WHEN ${firstCounts} THEN 1 ELSE 0 END)::timestamp AT TIME ZONE ${timeZone})`;
+  // One look-up of the version per bin (not one per term); without a version, the customer's column and the defaults.
+  const version = `(SELECT ${by('v.hire_starts_at', 'v.free_days', 'v.first_day_counts')} FROM tariffs v WHERE ${versionInForceSql(timeZone)})`;
+  const fallback = by("'delivery'", 'o.free_days', String(DEFAULT_DAY_COUNT.firstDayCounts));
+  return `(a.status IN (${statuses}) AND COALESCE(${version}, ${fallback}))`;
 }

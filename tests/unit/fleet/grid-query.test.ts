@@ -105,13 +105,15 @@ describe('filter model → WHERE fragment with bind values', () => {
     expect(where({ dueThisMonth: { filterType: 'boolean', value: true } })).toEqual({ sql: '(a.next_due <= $1::date) IS TRUE', bind: ['2026-12-31'] });
     // Counted from the delivery (or the dispatch) of the current trip, as overdue-return.ts does; not from site_since.
     // Each term is the trip's tariff version in force on its local dispatch day, else the customer's column or the default.
-    const inForce = (term: string) =>
-      `(SELECT v.${term} FROM tariffs v WHERE v.customer_id = t.customer_id AND v.valid_from <= (t.dispatched_at AT TIME ZONE $2::text)::date AND (v.valid_to IS NULL OR v.valid_to >= (t.dispatched_at AT TIME ZONE $2::text)::date))`;
+    // One look-up of that version per bin; without one, the customer's column and the default terms.
+    const start = (starts: string) => `CASE WHEN ${starts} = 'dispatch' THEN t.dispatched_at ELSE COALESCE(t.delivered_at, t.dispatched_at) END`;
+    const version =
+      `(SELECT ${start('v.hire_starts_at')} < (($1::date - v.free_days + CASE WHEN v.first_day_counts THEN 1 ELSE 0 END)::timestamp AT TIME ZONE $2::text)` +
+      ' FROM tariffs v WHERE v.customer_id = t.customer_id AND v.valid_from <= (t.dispatched_at AT TIME ZONE $2::text)::date' +
+      ' AND (v.valid_to IS NULL OR v.valid_to >= (t.dispatched_at AT TIME ZONE $2::text)::date))';
+    const fallback = `${start("'delivery'")} < (($1::date - o.free_days + CASE WHEN false THEN 1 ELSE 0 END)::timestamp AT TIME ZONE $2::text)`;
     expect(where({ overFreeDays: { filterType: 'boolean', value: true } })).toEqual({
-      sql:
-        "((a.status IN ('on_hire', 'awaiting_collection') AND " +
-        `CASE WHEN COALESCE(${inForce('hire_starts_at')}, 'delivery') = 'dispatch' THEN t.dispatched_at ELSE COALESCE(t.delivered_at, t.dispatched_at) END` +
-        ` < (($1::date - COALESCE(${inForce('free_days')}, o.free_days) + CASE WHEN COALESCE(${inForce('first_day_counts')}, false) THEN 1 ELSE 0 END)::timestamp AT TIME ZONE $2::text))) IS TRUE`,
+      sql: `((a.status IN ('on_hire', 'awaiting_collection') AND COALESCE(${version}, ${fallback}))) IS TRUE`,
       bind: ['2026-12-01', 'Europe/Amsterdam'],
     });
     expect(where({ dueSoon: { filterType: 'boolean', value: true } })).toEqual({ sql: '(a.next_due BETWEEN $1::date AND $1::date + 30) IS TRUE', bind: ['2026-12-01'] });
