@@ -3,8 +3,8 @@
 // lane sees another's writes. Most of a browser test is waiting (page loads, the server's answers, a reload the
 // page announces), so two lanes keep both cores of this machine busy where one left one idle.
 // Files are dealt out longest first to the lane with the least work so far (LPT scheduling); the weights are
-// the seconds each file added to its lane in the last run here (laneWallTimes) (.loopfold/browser-timings.json, written after every run), else
-// in the run recorded in tests/browser/timings.json, else the median of those.
+// the seconds each file added to its lane (laneWallTimes) in the last run here (.loopfold/browser-timings.json,
+// written after every run), else in the run recorded in tests/browser/timings.json, else the median of those.
 // Node built-ins only: it runs before dependencies may exist.
 import { spawn } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync, statSync, writeFileSync, mkdirSync } from 'node:fs';
@@ -59,11 +59,8 @@ export function dealFiles(files, lanes, timings) {
   return out;
 }
 
-/**
- * Runs a command with every line of its output prefixed (`[lane 1] `, `[integration] `), so runs side by side stay
- * readable; resolves to its exit code.
- */
-export function runPrefixed(prefix, cmd, args, env, root) {
+/** Runs a command with every line of its output prefixed (`[lane 1] `), so lanes side by side stay readable. */
+function runPrefixed(prefix, cmd, args, env, root) {
   return new Promise((resolve) => {
     const child = spawn(cmd, args, { cwd: root, env, stdio: ['ignore', 'pipe', 'pipe'] });
     for (const stream of [child.stdout, child.stderr]) {

@@ -81,12 +81,15 @@ export interface TripTerms {
   hireStartsAt: HireStartEvent;
 }
 
-export function tripTermsOf(row: {
+/** The columns `tripTermsSelectSql()` adds to a row. */
+export interface TripTermsRow {
   terms_free_days: number | null;
   terms_first_day_counts: boolean | null;
   terms_last_day_counts: boolean | null;
   terms_hire_starts_at: string | null;
-}): TripTerms {
+}
+
+export function tripTermsOf(row: TripTermsRow): TripTerms {
   return {
     freeDays: row.terms_free_days ?? 0,
     dayCount: {

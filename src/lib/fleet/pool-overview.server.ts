@@ -8,9 +8,7 @@ import { BIN_LIFE_SQL, startOfLocalDay } from '@/lib/trips/bin-life.server';
 import { addDays, addMonthsToMonth, daysBetween, endOfMonth, localDate, monthOf } from '@/lib/calendar';
 import type { LocalDate } from '@/lib/calendar';
 import { STATUSES, type SiteKind, type Status } from '@/lib/scans/lifecycle';
-import { overdueBack, overdueBackSql, tripTermsOf, tripTermsSelectSql, WITH_CUSTOMER_STATUSES } from './overdue-return';
-
-type TermsRow = Parameters<typeof tripTermsOf>[0];
+import { overdueBack, overdueBackSql, tripTermsOf, tripTermsSelectSql, WITH_CUSTOMER_STATUSES, type TripTermsRow } from './overdue-return';
 import { firstRecentDay, notScannedForSql } from './scan-age';
 import { shrinkage, shrinkageWindow, type Shrinkage, type Window } from './shrinkage';
 import { countLossFigures, type CountLossFigures } from '@/lib/portal/count-disputes.server';
@@ -167,7 +165,7 @@ async function siteCounts(): Promise<{ byStatus: StatusCounts; sites: SiteCounts
 async function withCustomers(today: LocalDate, timeZone: string): Promise<{ customers: CustomerHire[]; overdueTotal: number; overdueBins: OverdueBin[] }> {
   // Each trip by the terms billing charges it by (the tariff in force on its dispatch day): overdue-return.ts.
   const groups = await select<
-    { customer_id: number; name: string; free_days: number; status: Status; delivered_on: string | null; dispatched_on: string | null; n: number } & TermsRow
+    { customer_id: number; name: string; free_days: number; status: Status; delivered_on: string | null; dispatched_on: string | null; n: number } & TripTermsRow
   >(
     `SELECT a.customer_id, o.name, o.free_days, a.status,
             (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
@@ -207,7 +205,8 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
   }
   const customers = [...byCustomer.values()].sort((a, b) => b.onHire + b.awaitingCollection - (a.onHire + a.awaitingCollection) || a.name.localeCompare(b.name));
 
-  // The longest-overdue bins: ordered by the end of their free days, so the overdue ones come first.
+  // The overdue bins, longest over first: those the rule's SQL form picks, ordered by the end of their free days
+  // as the rule itself works it out.
   const rows = await select<
     {
       id: number;
@@ -218,29 +217,25 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
       site: string | null;
       delivered_on: string | null;
       dispatched_on: string | null;
-    } & TermsRow
+    } & TripTermsRow
   >(
-    `SELECT * FROM (
-       SELECT a.id, a.grai, a.serial, a.status, o.name AS customer, s.name AS site,
-              (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
-              (t.dispatched_at AT TIME ZONE $1)::date AS dispatched_on,
-              ${tripTermsSelectSql('$1')}
-         FROM assets a
-         JOIN organisations o ON o.id = a.customer_id
-         JOIN trips t ON t.id = a.current_trip_id
-         LEFT JOIN sites s ON s.id = a.site_id
-        WHERE ${overdueBackSql('$3::date', '$1')}) b
-      -- the end of the free days: the start + free days − (1 when the first day counts)
-      ORDER BY CASE WHEN b.terms_hire_starts_at = 'dispatch' THEN b.dispatched_on ELSE coalesce(b.delivered_on, b.dispatched_on) END
-               + b.terms_free_days - b.terms_first_day_counts::int, b.id
-      LIMIT $2`,
-    [timeZone, LIST_LENGTH, today],
+    `SELECT a.id, a.grai, a.serial, a.status, o.name AS customer, s.name AS site,
+            (t.delivered_at AT TIME ZONE $1)::date AS delivered_on,
+            (t.dispatched_at AT TIME ZONE $1)::date AS dispatched_on,
+            ${tripTermsSelectSql('$1')}
+       FROM assets a
+       JOIN organisations o ON o.id = a.customer_id
+       JOIN trips t ON t.id = a.current_trip_id
+       LEFT JOIN sites s ON s.id = a.site_id
+      WHERE ${overdueBackSql('$2::date', '$1')}`,
+    [timeZone, today],
   );
-  const overdueBins: OverdueBin[] = [];
-  for (const r of rows) {
-    const check = overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, today, ...tripTermsOf(r) });
-    if (!check.overdue) continue;
-    overdueBins.push({
+  const overdueBins: OverdueBin[] = rows
+    .map((r) => ({ r, check: overdueBack({ status: r.status, deliveredOn: r.delivered_on, dispatchedOn: r.dispatched_on, today, ...tripTermsOf(r) }) }))
+    .filter(({ check }) => check.overdue)
+    .sort((x, y) => x.check.freeUntil!.localeCompare(y.check.freeUntil!) || x.r.id - y.r.id)
+    .slice(0, LIST_LENGTH)
+    .map(({ r, check }) => ({
       assetId: r.id,
       grai: r.grai,
       serial: r.serial,
@@ -250,8 +245,7 @@ async function withCustomers(today: LocalDate, timeZone: string): Promise<{ cust
       freeUntil: check.freeUntil!,
       daysOver: check.daysOver,
       estimated: check.estimated,
-    });
-  }
+    }));
   return { customers, overdueTotal, overdueBins };
 }
 

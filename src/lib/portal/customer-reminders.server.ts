@@ -9,7 +9,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/db/sequelize';
 import { appUrl } from '@/lib/app-url.server';
 import { addDays, formatLongDate, localDate } from '@/lib/calendar';
-import { overdueBack, overdueBackSql, tripTermsOf, tripTermsSelectSql } from '@/lib/fleet/overdue-return';
+import { overdueBack, overdueBackSql, tripTermsOf, tripTermsSelectSql, type TripTermsRow } from '@/lib/fleet/overdue-return';
 import { countDueMail, overdueReminderMail } from '@/lib/mail/mail-templates';
 import { sendMail } from '@/lib/mail/mailer.server';
 import { getSettings } from '@/lib/settings/settings.server';
@@ -68,7 +68,7 @@ export async function overdueBins(now: Date): Promise<ReminderBin[]> {
       site_name: string | null;
       delivered_on: string | null;
       dispatched_on: string | null;
-    } & Parameters<typeof tripTermsOf>[0]
+    } & TripTermsRow
   >(
     `SELECT a.grai, a.serial, a.status, a.customer_id, cs.id AS site_id, cs.name AS site_name,
             to_char((t.delivered_at AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS delivered_on,

@@ -5,7 +5,7 @@ import { isInspectionLapsed } from '@/lib/scans/lifecycle';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '@/models';
 import { daysBetween, localDate } from '@/lib/calendar';
-import { overdueBack, tripTermsOf, tripTermsSelectSql } from '@/lib/fleet/overdue-return';
+import { overdueBack, tripTermsOf, tripTermsSelectSql, type TripTermsRow } from '@/lib/fleet/overdue-return';
 import type { Status } from '@/lib/scans/lifecycle';
 import { getSettings } from '@/lib/settings/settings.server';
 import { SCOPE_SITE_SQL, scopeSites, type PortalScope } from './portal-scope.server';
@@ -59,7 +59,7 @@ export async function loadPortalHome(scope: PortalScope) {
       leg: RoadBin['leg'];
       to_site: string | null;
       next_due: string | null;
-    } & Parameters<typeof tripTermsOf>[0]
+    } & TripTermsRow
   >(
     `SELECT a.site_id, a.grai, a.serial, a.status, a.filled, t.fill_product AS product, a.leg, cs.name AS to_site, a.next_due::text,
             to_char((COALESCE(t.delivered_at, t.dispatched_at) AT TIME ZONE $2)::date, 'YYYY-MM-DD') AS start_day,
