@@ -2,6 +2,7 @@
 import { describe, test, expect, afterAll } from 'vitest';
 import { useApp, newContext, signIn, screenshot } from '../support/app';
 import { createStaff, freshEmail, closeDb } from '../support/accounts';
+import { hydrated } from '../support/yard';
 
 const t = useApp();
 const PASSWORD = 'end-sessions-ui-password';
@@ -50,6 +51,8 @@ describe('sign out everywhere', () => {
     await signIn(page, adminEmail, PASSWORD);
     await page.waitForURL('**/fleet');
     await page.goto('/admin/users');
+    // Typed or clicked before the island hydrates, the search and the row's button do nothing (seen under load).
+    await hydrated(page);
     await page.fill('#people-search', email);
     await page.locator(`tr[data-person="${email}"] button`).first().click();
     await page.click('#end-sessions');
